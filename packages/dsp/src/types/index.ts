@@ -1,1 +1,2 @@
 export type * from './filter.ts';
+export type * from './spec.ts';

@@ -1,0 +1,251 @@
+/**
+ * The loop design spec (DESIGN.md, "specVersion": 1): one zod schema shared by dsp, api and app.
+ *
+ * Field names are DESIGN.md's; developers may add fields, never rename them. Objects are strict, so a
+ * misspelt optional field (say `ripleFilter`) is an error naming it rather than silently ignored:
+ * these numbers drive hardware.
+ *
+ * `parseLoopSpec` is the public entry: it never throws, returns issues as `{ field, message }` with a
+ * dot path (`filter.tau1S`), and adds non-fatal `warnings` that say why a spec is unusual.
+ */
+import { z } from 'zod';
+import { loopGain } from '../analysis/loopGain.ts';
+import { lagLeadFromTargets } from '../filters/timeConstants.ts';
+
+/** Finite number > 0 (zod 4's z.number() already rejects NaN and ±Infinity). */
+const positive = () => z.number().positive();
+const intIn = (min: number, max: number) => z.number().int().min(min).max(max);
+
+export const FILTER_KINDS = ['single-pole', 'lag-lead', 'pi', 'butterworth'] as const;
+export const BUTTERWORTH_MAX_ORDER = 4;
+
+/** Single-pole low-pass F = 1/(1+sτ), τ = 1/(2π·cutoffHz); a type-1 loop. */
+export const singlePoleFilterSchema = z.strictObject({
+  kind: z.literal('single-pole'),
+  cutoffHz: positive(),
+});
+
+/**
+ * Second-order loop filters: either both time constants or both targets (naturalHz, damping),
+ * from which the time constants are designed (src/filters/timeConstants.ts).
+ */
+const secondOrderFields = {
+  tau1S: positive().optional(),
+  tau2S: positive().optional(),
+  naturalHz: positive().optional(),
+  damping: positive().max(100).optional(),
+};
+
+/** Passive lag-lead F = (1+sτ2)/(1+s(τ1+τ2)); a type-1 loop. */
+export const lagLeadFilterSchema = z.strictObject({ kind: z.literal('lag-lead'), ...secondOrderFields });
+
+/** Active PI F = (1+sτ2)/(sτ1); a type-2 loop. */
+export const piFilterSchema = z.strictObject({ kind: z.literal('pi'), ...secondOrderFields });
+
+/** Butterworth low-pass, unit DC gain, order 1–4, −3.01 dB at cutoffHz. */
+export const butterworthFilterSchema = z.strictObject({
+  kind: z.literal('butterworth'),
+  order: intIn(1, BUTTERWORTH_MAX_ORDER),
+  cutoffHz: positive(),
+});
+
+export const loopFilterSchema = z.discriminatedUnion('kind', [
+  singlePoleFilterSchema,
+  lagLeadFilterSchema,
+  piFilterSchema,
+  butterworthFilterSchema,
+]);
+
+/** Optional Butterworth low-pass in series with the loop filter, against the 2·f detector ripple. */
+export const rippleFilterSchema = z.strictObject({
+  order: intIn(1, BUTTERWORTH_MAX_ORDER),
+  cutoffHz: positive(),
+});
+
+const baseLoopSpecSchema = z.strictObject({
+  specVersion: z.literal(1),
+  name: z
+    .string()
+    .regex(/^[a-z][a-z0-9_]{0,39}$/, 'must match [a-z][a-z0-9_]{0,39} (it becomes an HDL and C identifier)'),
+  clockHz: positive(),
+  sampleRateHz: positive(),
+  centerHz: positive(),
+  input: z.strictObject({
+    /** Peak amplitude, 1.0 = full scale. */
+    amplitude: positive().max(1),
+  }),
+  detector: z.strictObject({ kind: z.literal('multiplier') }),
+  nco: z.strictObject({
+    accumulatorBits: intIn(4, 64),
+    /** Address bits of the sine table (2^phaseBits entries). */
+    phaseBits: intIn(2, 24),
+    amplitudeBits: intIn(2, 32),
+    gainHzPerUnit: positive(),
+    waveform: z.enum(['sine', 'square']),
+  }),
+  filter: loopFilterSchema,
+  rippleFilter: rippleFilterSchema.nullable().optional(),
+  discretization: z.strictObject({
+    method: z.literal('bilinear'),
+    prewarpHz: positive().nullable().default(null),
+  }),
+  fixedPoint: z.strictObject({
+    coefficientBits: intIn(2, 32),
+    /** "auto": the most fraction bits that still hold every coefficient. */
+    coefficientFractionBits: z.union([intIn(0, 64), z.literal('auto')]),
+    dataBits: intIn(2, 32),
+    accumulatorBits: intIn(2, 64),
+    /** nearest: half away from zero; half-even: convergent; truncate: toward −∞ (IEEE754 cl. 4.3). */
+    rounding: z.enum(['nearest', 'half-even', 'truncate']),
+    overflow: z.enum(['saturate', 'wrap']),
+  }),
+});
+
+type BaseSpec = z.output<typeof baseLoopSpecSchema>;
+
+/** Cross-field constraints; each issue names the field a designer should change. */
+function checkCrossFields(spec: BaseSpec, ctx: z.RefinementCtx): void {
+  const add = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+  const nyquistHz = spec.sampleRateHz / 2;
+  if (spec.sampleRateHz > spec.clockHz) {
+    add(['sampleRateHz'], `sampleRateHz ${spec.sampleRateHz} exceeds clockHz ${spec.clockHz}: the loop cannot update faster than the fabric clock`);
+  }
+  if (spec.centerHz >= nyquistHz) {
+    add(['centerHz'], `centerHz ${spec.centerHz} must be below the Nyquist frequency of the loop rate (sampleRateHz/2 = ${nyquistHz})`);
+  }
+  const belowNyquist = (path: (string | number)[], valueHz: number | undefined | null) => {
+    if (valueHz != null && valueHz >= nyquistHz) {
+      add(path, `${path.join('.')} ${valueHz} must be below sampleRateHz/2 = ${nyquistHz}`);
+    }
+  };
+  const f = spec.filter;
+  if (f.kind === 'single-pole' || f.kind === 'butterworth') belowNyquist(['filter', 'cutoffHz'], f.cutoffHz);
+  if (spec.rippleFilter) belowNyquist(['rippleFilter', 'cutoffHz'], spec.rippleFilter.cutoffHz);
+  belowNyquist(['discretization', 'prewarpHz'], spec.discretization.prewarpHz);
+  if (f.kind === 'lag-lead' || f.kind === 'pi') checkSecondOrder(spec, f, add);
+  if (spec.nco.phaseBits > spec.nco.accumulatorBits) {
+    add(['nco', 'phaseBits'], `nco.phaseBits ${spec.nco.phaseBits} cannot exceed nco.accumulatorBits ${spec.nco.accumulatorBits}`);
+  }
+  const fp = spec.fixedPoint;
+  if (fp.coefficientFractionBits !== 'auto' && fp.coefficientFractionBits > fp.coefficientBits) {
+    add(['fixedPoint', 'coefficientFractionBits'], `fixedPoint.coefficientFractionBits ${fp.coefficientFractionBits} cannot exceed fixedPoint.coefficientBits ${fp.coefficientBits}`);
+  }
+  if (fp.accumulatorBits < Math.max(fp.dataBits, fp.coefficientBits)) {
+    add(['fixedPoint', 'accumulatorBits'], `fixedPoint.accumulatorBits ${fp.accumulatorBits} must be at least max(dataBits, coefficientBits) = ${Math.max(fp.dataBits, fp.coefficientBits)}`);
+  }
+}
+
+type SecondOrderFilter = Extract<BaseSpec['filter'], { kind: 'lag-lead' | 'pi' }>;
+
+function checkSecondOrder(
+  spec: BaseSpec,
+  f: SecondOrderFilter,
+  add: (path: (string | number)[], message: string) => void,
+): void {
+  const hasTau = f.tau1S !== undefined || f.tau2S !== undefined;
+  const hasTargets = f.naturalHz !== undefined || f.damping !== undefined;
+  if (hasTau && hasTargets) {
+    add(['filter'], `filter of kind ${f.kind}: give either tau1S and tau2S or naturalHz and damping, not both`);
+    return;
+  }
+  if (!hasTau && !hasTargets) {
+    add(['filter', 'tau1S'], `filter of kind ${f.kind} needs tau1S and tau2S (seconds), or naturalHz and damping`);
+    return;
+  }
+  const missing = hasTau
+    ? (['tau1S', 'tau2S'] as const).filter((k) => f[k] === undefined)
+    : (['naturalHz', 'damping'] as const).filter((k) => f[k] === undefined);
+  for (const k of missing) add(['filter', k], `filter of kind ${f.kind} needs ${k} together with ${hasTau ? 'tau1S/tau2S' : 'naturalHz/damping'}`);
+  if (missing.length > 0 || f.naturalHz === undefined || f.damping === undefined) return;
+  if (f.naturalHz >= spec.sampleRateHz / 2) {
+    add(['filter', 'naturalHz'], `filter.naturalHz ${f.naturalHz} must be below sampleRateHz/2 = ${spec.sampleRateHz / 2}`);
+    return;
+  }
+  if (f.kind === 'lag-lead') {
+    const r = lagLeadFromTargets(loopGain(spec).kRadPerS, f.naturalHz, f.damping);
+    if (!r.ok) add(['filter', r.field], r.message);
+  }
+}
+
+/** The raw zod schema of a loop design spec (DESIGN.md), with cross-field checks. */
+export const loopSpecSchema = baseLoopSpecSchema.superRefine(checkCrossFields);
+
+/** A validated loop design spec (defaults applied). */
+export type LoopSpec = z.output<typeof loopSpecSchema>;
+/** What a client may send (optional fields with defaults may be left out). */
+export type LoopSpecInput = z.input<typeof loopSpecSchema>;
+export type LoopFilterSpec = LoopSpec['filter'];
+export type FilterKind = LoopFilterSpec['kind'];
+export type RippleFilterSpec = z.output<typeof rippleFilterSchema>;
+export type FixedPointSpec = LoopSpec['fixedPoint'];
+export type NcoSpec = LoopSpec['nco'];
+
+export interface SpecIssue {
+  /** Dot path of the offending field, e.g. "filter.tau1S"; "" for the document itself. */
+  readonly field: string;
+  readonly message: string;
+}
+
+export interface SpecWarning {
+  readonly field: string;
+  readonly message: string;
+}
+
+export type ParseLoopSpecResult =
+  | { readonly ok: true; readonly spec: LoopSpec; readonly warnings: readonly SpecWarning[] }
+  | { readonly ok: false; readonly issues: readonly SpecIssue[] };
+
+/**
+ * Validate any input as a loop spec. Never throws; every issue names its field path.
+ */
+export function parseLoopSpec(input: unknown): ParseLoopSpecResult {
+  let result: ReturnType<typeof loopSpecSchema.safeParse>;
+  try {
+    result = loopSpecSchema.safeParse(input);
+  } catch (err) {
+    // safeParse does not throw on bad data; this guards exotic inputs such as throwing getters.
+    return { ok: false, issues: [{ field: '', message: `spec could not be read: ${String(err)}` }] };
+  }
+  if (!result.success) {
+    return { ok: false, issues: result.error.issues.map(toSpecIssue) };
+  }
+  return { ok: true, spec: result.data, warnings: specWarnings(result.data) };
+}
+
+function toSpecIssue(issue: z.core.$ZodIssue): SpecIssue {
+  const field = issue.path.map(String).join('.');
+  if (issue.code === 'unrecognized_keys') {
+    const keys = issue.keys.map((k) => (field ? `${field}.${k}` : k));
+    return { field: keys[0] ?? field, message: `unknown field(s): ${keys.join(', ')}` };
+  }
+  return { field, message: field ? `${field}: ${issue.message}` : issue.message };
+}
+
+/** Non-fatal observations about a valid spec, each saying why it matters. */
+export function specWarnings(spec: LoopSpec): SpecWarning[] {
+  const warnings: SpecWarning[] = [];
+  const ratio = spec.clockHz / spec.sampleRateHz;
+  if (Math.abs(ratio - Math.round(ratio)) > 1e-9 * ratio) {
+    warnings.push({
+      field: 'sampleRateHz',
+      message: `clockHz/sampleRateHz = ${ratio.toPrecision(8)} is not an integer: the loop strobe cannot come from a plain clock divider, so update instants jitter by up to one clock period (use a fractional strobe generator or pick a divisor of the clock)`,
+    });
+  }
+  const rippleHz = 2 * spec.centerHz;
+  const fs = spec.sampleRateHz;
+  if (rippleHz >= fs / 2) {
+    const aliasHz = Math.abs(rippleHz - fs * Math.round(rippleHz / fs));
+    warnings.push({
+      field: 'centerHz',
+      message: `the 2·centerHz detector ripple (${rippleHz} Hz) is above sampleRateHz/2 and aliases to ${Number(aliasHz.toPrecision(6))} Hz in the loop; the loop filter sees it there`,
+    });
+  }
+  const fp = spec.fixedPoint;
+  if (fp.accumulatorBits < fp.dataBits + fp.coefficientBits) {
+    warnings.push({
+      field: 'fixedPoint.accumulatorBits',
+      message: `fixedPoint.accumulatorBits ${fp.accumulatorBits} is below dataBits + coefficientBits = ${fp.dataBits + fp.coefficientBits}: full products do not fit, so each product is rounded or may overflow`,
+    });
+  }
+  return warnings;
+}
