@@ -1,0 +1,15 @@
+import { api } from './client.ts';
+import type { AuditEntry, AuditQuery, CreateUserRequest, UpdateUserRequest, UserAccount } from './types.ts';
+
+export const usersApi = {
+  list: () => api.request<{ users: UserAccount[] }>('/users').then((b) => b.users),
+  create: (request: CreateUserRequest) =>
+    api.request<{ user: UserAccount }>('/users', { method: 'POST', body: request }).then((b) => b.user),
+  update: (id: number, request: UpdateUserRequest) =>
+    api.request<{ user: UserAccount }>(`/users/${id}`, { method: 'PATCH', body: request }).then((b) => b.user),
+};
+
+export const auditApi = {
+  list: (query: AuditQuery = {}) =>
+    api.request<{ entries: AuditEntry[] }>('/audit', { query: { ...query } }).then((b) => b.entries),
+};

@@ -1,0 +1,127 @@
+/**
+ * The one HTTP client of the app: owns the base URL, JSON encoding and the error shape.
+ * It never shows UI messages; it throws ApiError and the views decide how to show it.
+ * Server errors are `{ "error": { "code", "message", "field"? } }` (DESIGN.md "API shape").
+ */
+
+export class ApiError extends Error {
+  readonly status: number;
+  readonly code: string;
+  readonly field: string | undefined;
+  /** The parsed error body (a 409 carries the current record beside the error). */
+  readonly body: unknown;
+
+  constructor(status: number, code: string, message: string, field?: string, body?: unknown) {
+    super(message);
+    this.name = 'ApiError';
+    this.status = status;
+    this.code = code;
+    this.field = field;
+    this.body = body;
+  }
+}
+
+export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+export interface RequestOptions {
+  readonly method?: HttpMethod;
+  /** A plain value is sent as JSON; FormData is sent as multipart. */
+  readonly body?: unknown;
+  readonly query?: Readonly<Record<string, string | number | boolean | undefined>>;
+  readonly signal?: AbortSignal;
+}
+
+export interface ApiClient {
+  readonly baseUrl: string;
+  request<T>(path: string, options?: RequestOptions): Promise<T>;
+  url(path: string, query?: RequestOptions['query']): string;
+}
+
+type FetchFn = (input: string, init: RequestInit) => Promise<Response>;
+
+export function createApiClient(baseUrl = '/api', fetchFn: FetchFn = (i, o) => fetch(i, o)): ApiClient {
+  const url = (path: string, query?: RequestOptions['query']): string => buildUrl(baseUrl, path, query);
+  return {
+    baseUrl,
+    url,
+    async request<T>(path: string, options: RequestOptions = {}): Promise<T> {
+      let response: Response;
+      try {
+        response = await fetchFn(url(path, options.query), buildInit(options));
+      } catch (cause) {
+        if (isAbort(cause)) throw cause;
+        throw new ApiError(0, 'network', 'The server could not be reached. Check the connection and try again.');
+      }
+      return readResponse<T>(response);
+    },
+  };
+}
+
+function buildUrl(baseUrl: string, path: string, query?: RequestOptions['query']): string {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query ?? {})) {
+    if (value !== undefined) params.set(key, String(value));
+  }
+  const qs = params.toString();
+  return `${baseUrl}${path}${qs ? `?${qs}` : ''}`;
+}
+
+function buildInit(options: RequestOptions): RequestInit {
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  const init: RequestInit = { method: options.method ?? 'GET', headers, credentials: 'same-origin' };
+  if (options.signal) init.signal = options.signal;
+  if (options.body instanceof FormData) {
+    init.body = options.body;
+  } else if (options.body !== undefined) {
+    headers['Content-Type'] = 'application/json';
+    init.body = JSON.stringify(options.body);
+  }
+  return init;
+}
+
+async function readResponse<T>(response: Response): Promise<T> {
+  if (response.status === 204) return undefined as T;
+  const text = await response.text();
+  const body = parseJson(text);
+  if (response.ok) return body as T;
+  throw toApiError(response.status, body, text);
+}
+
+function parseJson(text: string): unknown {
+  if (text === '') return undefined;
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    return undefined;
+  }
+}
+
+export function toApiError(status: number, body: unknown, text = ''): ApiError {
+  const error = isRecord(body) && isRecord(body['error']) ? body['error'] : undefined;
+  if (!error) {
+    const fallback = text.trim().slice(0, 200) || `The server answered ${status}.`;
+    return new ApiError(status, `http_${status}`, fallback, undefined, body);
+  }
+  const code = typeof error['code'] === 'string' ? error['code'] : `http_${status}`;
+  const message = typeof error['message'] === 'string' ? error['message'] : `The server answered ${status}.`;
+  const field = typeof error['field'] === 'string' ? error['field'] : undefined;
+  return new ApiError(status, code, message, field, body);
+}
+
+function isRecord(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function isAbort(cause: unknown): boolean {
+  return cause instanceof DOMException && cause.name === 'AbortError';
+}
+
+/** The client every xxxApi module uses; tests build their own with createApiClient. */
+export const api = createApiClient();
+
+/** One sentence for a failed call, for views that show errors inline. */
+export function describeError(cause: unknown): string {
+  if (cause instanceof ApiError) return cause.field ? `${cause.field}: ${cause.message}` : cause.message;
+  if (cause instanceof Error) return cause.message;
+  return 'Something went wrong.';
+}
