@@ -3,3 +3,13 @@ export { loopSpecSchema, parseLoopSpec, specWarnings, loopFilterSchema, rippleFi
 export { exampleSpecs, exampleSpecByKind, mainsSyncSpec, ultrasonicSinglePoleSpec, ultrasonicLagLeadSpec, ifFmDemodSpec } from './spec/examples.ts';
 export { loopGain } from './analysis/loopGain.ts';
 export { piFromTargets, lagLeadFromTargets } from './filters/timeConstants.ts';
+export { FieldError } from './fixed/fieldError.ts';
+export { roundShift, roundReal, applyOverflow, wordRange } from './fixed/rounding.ts';
+export { qFormat, quantizeValue, autoFractionBits } from './fixed/qformat.ts';
+export { sectionPoleRadius, sectionStabilityFromCodes } from './fixed/sectionPoles.ts';
+export { sosMagnitudeSquared, maxResponseDeviationDb } from './fixed/sosResponse.ts';
+export { quantizeSections, resolveFractionBits } from './fixed/quantizeSections.ts';
+export { ncoTuning } from './nco/tuningWord.ts';
+export { sineTable, sineFullScale } from './nco/sineTable.ts';
+export { ncoSpectralEstimates } from './nco/spectralEstimates.ts';
+export { ncoControlScaling } from './nco/controlScaling.ts';

@@ -1,0 +1,35 @@
+/**
+ * NCO sine table: 2^P entries of B-bit signed codes, entry k = round((2^(B−1) − 1)·sin(2πk/2^P)).
+ * Full scale is 2^(B−1) − 1 so the table is symmetric (−FS is representable; −2^(B−1) would have no
+ * positive twin). Only the first quarter is computed with sin; the rest is mirrored, which makes the
+ * odd and half-wave symmetries exact (common practice, no source).
+ */
+import { requireIntIn } from '../fixed/fieldError.ts';
+import { roundReal } from '../fixed/rounding.ts';
+
+export const MAX_PHASE_BITS = 24;
+
+/** Largest code of the table, 2^(B−1) − 1. */
+export function sineFullScale(amplitudeBits: number): number {
+  return 2 ** (amplitudeBits - 1) - 1;
+}
+
+/** The sine table as Int32Array (phaseBits ≥ 2 so the quarter-wave offset of cos is a whole address). */
+export function sineTable(phaseBits: number, amplitudeBits: number): Int32Array {
+  requireIntIn('nco.phaseBits', phaseBits, 2, MAX_PHASE_BITS);
+  requireIntIn('nco.amplitudeBits', amplitudeBits, 2, 32);
+  const size = 2 ** phaseBits;
+  const quarter = size / 4;
+  const fullScale = sineFullScale(amplitudeBits);
+  const table = new Int32Array(size);
+  for (let k = 0; k <= quarter; k++) {
+    const code = roundReal(fullScale * Math.sin((2 * Math.PI * k) / size), 'nearest');
+    table[k] = code;
+    table[2 * quarter - k] = code;
+    if (k > 0) table[size - k] = -code;
+    table[2 * quarter + k] = -code;
+  }
+  table[0] = 0;
+  table[2 * quarter] = 0;
+  return table;
+}
