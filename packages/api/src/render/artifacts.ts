@@ -1,0 +1,158 @@
+/**
+ * Renders every artifact of a release from the server's computed results. One function serves the
+ * release service and the CLI's `render`, so a release and `loopwright render` hold the same bytes.
+ * Deterministic: no dates or release numbers inside the files (those live on the release record).
+ */
+import type { LoopSpec } from '@loopwright/dsp';
+import { CAUTION, CAUTION_SHORT } from './caution.ts';
+import { canonicalJson, sha256Hex } from './digest.ts';
+import { handoffModel, type HandoffInput } from './fromDsp.ts';
+import type { HandoffModel } from './handoff.ts';
+import { codeNames } from './identifiers.ts';
+import { renderTemplate } from './templates.ts';
+import { toolVersions, type ToolVersions } from './versions.ts';
+import { cHeaderView } from './views/cHeader.ts';
+import type { ArtifactHeader } from './views/header.ts';
+import { readmeView } from './views/readme.ts';
+import { verilogView } from './views/verilog.ts';
+import { vhdlView } from './views/vhdl.ts';
+
+export const MANIFEST_FILE = 'manifest.json';
+
+export interface ReleaseComputation extends HandoffInput {
+  /** Everything the server computed, stored verbatim in the manifest's `results`. */
+  readonly results: Readonly<Record<string, unknown>>;
+  readonly vectorsCsv: string;
+  readonly vectorColumns: readonly { name: string; meaning: string }[];
+}
+
+export interface ArtifactFile {
+  readonly name: string;
+  readonly mediaType: string;
+  readonly bytes: Buffer;
+  readonly sha256: string;
+}
+
+export interface ManifestConstant {
+  readonly name: string;
+  readonly signedness: 'signed' | 'unsigned';
+  readonly widthBits: number;
+  /** Decimal integer code (a string: 64-bit codes do not survive a JSON number). */
+  readonly code: string;
+}
+
+export interface Manifest {
+  readonly manifestVersion: 1;
+  readonly design: string;
+  readonly versions: ToolVersions;
+  readonly specSha256: string;
+  readonly spec: LoopSpec;
+  readonly results: Readonly<Record<string, unknown>>;
+  readonly constants: readonly ManifestConstant[];
+  readonly counts: readonly { name: string; value: number }[];
+  readonly files: readonly { name: string; bytes: number; sha256: string }[];
+  readonly caution: string;
+}
+
+export interface RenderedRelease {
+  /** manifest.json first, then the files it lists. */
+  readonly files: readonly ArtifactFile[];
+  readonly manifest: Manifest;
+  readonly manifestSha256: string;
+  readonly specSha256: string;
+}
+
+export function artifactNames(name: string) {
+  codeNames(name);
+  return {
+    vhdl: `${name}_pkg.vhd`,
+    verilog: `${name}.vh`,
+    cHeader: `${name}.h`,
+    vectors: `${name}_vectors.csv`,
+    readme: 'README.txt',
+  } as const;
+}
+
+export function specDigest(spec: LoopSpec): string {
+  return sha256Hex(canonicalJson(spec));
+}
+
+export function renderArtifacts(computation: ReleaseComputation): RenderedRelease {
+  const { spec } = computation;
+  const versions = toolVersions();
+  const specSha256 = specDigest(spec);
+  const model = handoffModel(computation);
+  const names = artifactNames(spec.name);
+  const header = (fileName: string): ArtifactHeader => ({
+    fileName,
+    designName: spec.name,
+    toolVersion: versions.loopwright,
+    specSha256,
+    caution: CAUTION_SHORT,
+  });
+  const purposes = [
+    { name: names.vhdl, purpose: `VHDL-2008 package ${codeNames(spec.name).vhdlPackage} (ieee.numeric_std)` },
+    { name: names.verilog, purpose: 'Verilog localparams, to `include inside a module body' },
+    { name: names.cHeader, purpose: 'C11 header of macros typed by <stdint.h>' },
+    { name: names.vectors, purpose: 'golden vectors, bit-true, CSV' },
+  ];
+  const files: ArtifactFile[] = [
+    file(names.vhdl, 'text/x-vhdl', renderTemplate('vhdl', vhdlView(model, header(names.vhdl)))),
+    file(names.verilog, 'text/x-verilog', renderTemplate('verilog', verilogView(model, header(names.verilog)))),
+    file(names.cHeader, 'text/x-c', renderTemplate('cHeader', cHeaderView(model, header(names.cHeader)))),
+    file(names.vectors, 'text/csv', computation.vectorsCsv),
+    file(
+      names.readme,
+      'text/plain',
+      renderTemplate(
+        'readme',
+        readmeView({
+          spec,
+          quantized: computation.quantized,
+          model,
+          toolVersion: versions.loopwright,
+          specSha256,
+          files: [...purposes, { name: names.readme, purpose: 'this file' }],
+          vectorsFile: names.vectors,
+          vectorColumns: computation.vectorColumns,
+        }),
+      ),
+    ),
+  ];
+  const manifest = buildManifest(computation, model, versions, specSha256, files);
+  const manifestFile = file(MANIFEST_FILE, 'application/json', `${canonicalJson(manifest, 2)}\n`);
+  return { files: [manifestFile, ...files], manifest, manifestSha256: manifestFile.sha256, specSha256 };
+}
+
+function buildManifest(
+  computation: ReleaseComputation,
+  model: HandoffModel,
+  versions: ToolVersions,
+  specSha256: string,
+  files: readonly ArtifactFile[],
+): Manifest {
+  const names = codeNames(model.name);
+  return {
+    manifestVersion: 1,
+    design: model.name,
+    versions,
+    specSha256,
+    spec: computation.spec,
+    results: computation.results,
+    constants: model.codes.map((c) => ({
+      name: names.constant(c.suffix),
+      signedness: c.signedness,
+      widthBits: c.widthBits,
+      code: c.code.toString(),
+    })),
+    counts: model.counts.map((c) => ({ name: names.constant(c.suffix), value: c.value })),
+    files: files.map((f) => ({ name: f.name, bytes: f.bytes.length, sha256: f.sha256 })),
+    caution: CAUTION,
+  };
+}
+
+function file(name: string, mediaType: string, text: string): ArtifactFile {
+  const bytes = Buffer.from(text, 'utf8');
+  return { name, mediaType, bytes, sha256: sha256Hex(bytes) };
+}
+

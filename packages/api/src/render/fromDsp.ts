@@ -1,0 +1,89 @@
+/**
+ * Builds the language-neutral constants (./handoff.ts) from the server's dsp results.
+ * Only numbers and fixed wording enter; the design name is the sole identifier source.
+ */
+import type { LoopSpec, NcoControlScaling, NcoTuning, QuantizedFilter } from '@loopwright/dsp';
+import type { CodeConstant, CountConstant, HandoffModel, WordType } from './handoff.ts';
+import { codeRange, toCode } from './literals.ts';
+
+export interface HandoffInput {
+  readonly spec: LoopSpec;
+  readonly quantized: QuantizedFilter;
+  /** NCO tuning word M = round(centerHz·2^N/fs) (TRG71), from dsp. */
+  readonly tuning: NcoTuning;
+  /** Filter output to tuning increment: Δ = roundShift(y·gainCode, gainShift), from dsp. */
+  readonly control: NcoControlScaling;
+}
+
+const COEFFICIENT_NAMES = ['b0', 'b1', 'b2', 'a1', 'a2'] as const;
+
+export function handoffModel({ spec, quantized, tuning, control }: HandoffInput): HandoffModel {
+  const fp = spec.fixedPoint;
+  const q = quantized.format;
+  const qText = `Q${q.wordBits - q.fractionBits}.${q.fractionBits} (${q.wordBits} bits, ${q.fractionBits} fraction bits)`;
+  const counts: CountConstant[] = [
+    { suffix: 'DATA_BITS', value: fp.dataBits, meaning: 'width of detector and filter data words, signed' },
+    { suffix: 'COEF_BITS', value: q.wordBits, meaning: 'width of filter coefficient words, signed' },
+    { suffix: 'COEF_FRACTION_BITS', value: q.fractionBits, meaning: `fraction bits of every coefficient: ${qText}` },
+    { suffix: 'ACC_BITS', value: fp.accumulatorBits, meaning: 'width of the filter accumulator, signed' },
+    { suffix: 'SECTION_COUNT', value: quantized.sections.length, meaning: 'second-order sections of the loop filter, in cascade order' },
+    { suffix: 'NCO_ACC_BITS', value: spec.nco.accumulatorBits, meaning: 'width of the NCO phase accumulator, unsigned' },
+    { suffix: 'NCO_PHASE_BITS', value: spec.nco.phaseBits, meaning: 'sine table address bits: the top bits of the phase accumulator' },
+    { suffix: 'NCO_AMPLITUDE_BITS', value: spec.nco.amplitudeBits, meaning: 'width of NCO output samples, signed' },
+    {
+      suffix: 'NCO_GAIN_SHIFT',
+      value: control.gainShift,
+      meaning: 'tuning increment = round(filter output * NCO_GAIN_CODE / 2^NCO_GAIN_SHIFT); negative means a left shift',
+    },
+  ];
+  const clocksPerSample = spec.clockHz / spec.sampleRateHz;
+  if (Number.isSafeInteger(clocksPerSample)) {
+    counts.push({ suffix: 'CLOCKS_PER_SAMPLE', value: clocksPerSample, meaning: `fabric clock cycles per loop update (${spec.clockHz} Hz / ${spec.sampleRateHz} Hz)` });
+  }
+
+  const codes: CodeConstant[] = [
+    {
+      suffix: 'NCO_TUNING_WORD',
+      signedness: 'unsigned',
+      widthBits: spec.nco.accumulatorBits,
+      code: BigInt(tuning.tuningWordDecimal),
+      meaning: `phase increment per loop update for centerHz ${spec.centerHz} Hz at ${spec.sampleRateHz} Hz (actual ${tuning.actualHz} Hz)`,
+    },
+    {
+      suffix: 'NCO_GAIN_CODE',
+      signedness: 'signed',
+      widthBits: q.wordBits,
+      code: toCode(control.gainCode),
+      meaning: `accumulator LSBs per filter-output LSB, times 2^NCO_GAIN_SHIFT (scale ${control.quantizedScale}, ideal ${control.idealScale})`,
+    },
+  ];
+  for (const section of quantized.sections) {
+    for (const name of COEFFICIENT_NAMES) {
+      const c = section.coefficients.find((x) => x.name === name);
+      codes.push({
+        suffix: `S${section.index}_${name.toUpperCase()}`,
+        signedness: 'signed',
+        widthBits: q.wordBits,
+        code: toCode(section.codes[name]),
+        meaning: `section ${section.index} ${name}, ${qText}, value ${c ? String(Number(c.quantizedValue.toPrecision(12))) : "n/a"}`,
+      });
+    }
+  }
+  codes.push(...limits('DATA', fp.dataBits, 'data word'), ...limits('ACC', fp.accumulatorBits, 'filter accumulator'));
+
+  const types: WordType[] = [
+    { suffix: 'coef', signedness: 'signed', widthBits: q.wordBits, meaning: `filter coefficient, ${qText}` },
+    { suffix: 'data', signedness: 'signed', widthBits: fp.dataBits, meaning: 'detector and filter data word' },
+    { suffix: 'acc', signedness: 'signed', widthBits: fp.accumulatorBits, meaning: 'filter accumulator' },
+    { suffix: 'phase', signedness: 'unsigned', widthBits: spec.nco.accumulatorBits, meaning: 'NCO phase accumulator' },
+  ];
+  return { name: spec.name, counts, codes, types };
+}
+
+function limits(prefix: string, widthBits: number, what: string): CodeConstant[] {
+  const { min, max } = codeRange('signed', widthBits);
+  return [
+    { suffix: `${prefix}_MAX`, signedness: 'signed', widthBits, code: max, meaning: `largest ${what} code, saturation limit` },
+    { suffix: `${prefix}_MIN`, signedness: 'signed', widthBits, code: min, meaning: `smallest ${what} code, saturation limit` },
+  ];
+}

@@ -1,0 +1,41 @@
+/**
+ * The language-neutral content of the generated constants: what every artifact states, before any
+ * language formats it. Built from the server's dsp results (./fromDsp.ts); each view-model
+ * (./views/*.ts) turns it into the literals of one language.
+ */
+import type { Signedness } from './literals.ts';
+
+/** A small count, width or shift (|value| < 2^31), safe as a VHDL `integer` and a Verilog `integer`. */
+export interface CountConstant {
+  /** Upper snake case; the full name is the design prefix + "_" + suffix. */
+  readonly suffix: string;
+  readonly value: number;
+  /** Our own wording (never user text); passed through commentText before it reaches a comment. */
+  readonly meaning: string;
+}
+
+/** An integer code of a fixed-width word (coefficient, tuning word, limit). */
+export interface CodeConstant {
+  readonly suffix: string;
+  readonly signedness: Signedness;
+  readonly widthBits: number;
+  readonly code: bigint;
+  readonly meaning: string;
+}
+
+/** A word format the firmware declares (C typedef, VHDL subtype). */
+export interface WordType {
+  /** Lower-case in type names: coef -> <name>_coef_t. */
+  readonly suffix: string;
+  readonly signedness: Signedness;
+  readonly widthBits: number;
+  readonly meaning: string;
+}
+
+export interface HandoffModel {
+  /** The validated design name. */
+  readonly name: string;
+  readonly counts: readonly CountConstant[];
+  readonly codes: readonly CodeConstant[];
+  readonly types: readonly WordType[];
+}

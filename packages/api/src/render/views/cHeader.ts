@@ -1,0 +1,36 @@
+/** View-model of templates/c-header.h.hbs: macros typed by <stdint.h> constant macros. */
+import type { HandoffModel } from '../handoff.ts';
+import { codeNames, commentText } from '../identifiers.ts';
+import { cLiteral, cType } from '../literals.ts';
+import type { ArtifactHeader } from './header.ts';
+
+export interface CHeaderView {
+  readonly header: ArtifactHeader;
+  readonly guard: string;
+  readonly counts: readonly { name: string; value: string; comment: string }[];
+  readonly codes: readonly { name: string; literal: string; comment: string }[];
+  readonly types: readonly { name: string; type: string; comment: string }[];
+}
+
+export function cHeaderView(model: HandoffModel, header: ArtifactHeader): CHeaderView {
+  const names = codeNames(model.name);
+  return {
+    header,
+    guard: names.constant('H_INCLUDED'),
+    counts: model.counts.map((c) => ({
+      name: names.constant(c.suffix),
+      value: c.value < 0 ? `(${c.value})` : String(c.value),
+      comment: commentText(c.meaning),
+    })),
+    codes: model.codes.map((c) => ({
+      name: names.constant(c.suffix),
+      literal: cLiteral(c.code, c.signedness, c.widthBits),
+      comment: commentText(`${cType(c.signedness, c.widthBits)}, ${c.widthBits} bits: ${c.meaning}`),
+    })),
+    types: model.types.map((t) => ({
+      name: `${model.name}_${t.suffix.toLowerCase()}_t`,
+      type: cType(t.signedness, t.widthBits),
+      comment: commentText(t.meaning),
+    })),
+  };
+}
