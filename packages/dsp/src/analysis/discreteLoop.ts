@@ -1,0 +1,74 @@
+/**
+ * The discrete loop for ANY digital loop filter (the designed one, or quantised sections from the
+ * fixed-point module): L(z) = Kd·F(z)·Ko·T·z⁻¹/(1 − z⁻¹) at the loop rate sampleRateHz (DESIGN.md).
+ * Used by analyzeDesign, by the word-length search and by the sim module.
+ */
+import type { DigitalTf, Sos } from '../types/filter.ts';
+import type { LoopSpec } from '../spec/schema.ts';
+import { sosToTf } from '../filters/sections.ts';
+import { loopGain } from './loopGain.ts';
+import { type DigitalFilter, closedLoop, discreteLoopResponse, isSections, type ResponseFn } from './response.ts';
+import { logGrid } from './grid.ts';
+import { type SampledResponse, sampleResponse } from './bode.ts';
+import { type LoopMargins, loopMargins } from './margins.ts';
+import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
+import { discreteClosedLoop } from './loopPolynomials.ts';
+import { schurCohnStable } from './stability.ts';
+
+export interface DiscreteLoopOptions {
+  /** Lowest grid frequency (Hz); default 1e-7·fs/2. The grid always ends exactly at fs/2. */
+  readonly fMinHz?: number;
+  /** Grid points (default 600). */
+  readonly points?: number;
+  /** Also compute closed-loop bandwidth and peaking (default true). */
+  readonly closedLoop?: boolean;
+}
+
+export interface DiscreteLoopAnalysis {
+  readonly margins: LoopMargins;
+  /** All closed-loop poles strictly inside the unit circle (Schur–Cohn on the characteristic polynomial). */
+  readonly stable: boolean;
+  readonly closedLoop: ClosedLoopFigures | null;
+  /** Open-loop samples on the grid (frequency, dB, unwrapped phase). */
+  readonly open: SampledResponse;
+  /** Loop type: 1 + integrators (poles at z = 1) of F. */
+  readonly loopType: number;
+  readonly response: ResponseFn;
+}
+
+export const DEFAULT_POINTS = 600;
+
+/** Poles of F at z = 1 (integrators), counted by deflating A(z⁻¹) by (1 − z⁻¹) while A(1) ≈ 0. */
+export function integratorCount(a: readonly number[]): number {
+  let p = [...a];
+  let count = 0;
+  const scale = p.reduce((s, x) => s + Math.abs(x), 0);
+  while (p.length > 1 && Math.abs(p.reduce((s, x) => s + x, 0)) <= 1e-12 * scale) {
+    // synthetic division by (1 − w): q_i = p_i + q_{i−1}
+    const q: number[] = [];
+    let acc = 0;
+    for (let i = 0; i < p.length - 1; i++) {
+      acc += p[i]!;
+      q.push(acc);
+    }
+    p = q;
+    count++;
+  }
+  return count;
+}
+
+export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, options: DiscreteLoopOptions = {}): DiscreteLoopAnalysis {
+  const fs = spec.sampleRateHz;
+  const nyquistHz = fs / 2;
+  const k = loopGain(spec).kRadPerS;
+  const tf: DigitalTf = isSections(filter) ? sosToTf(filter as readonly Sos[]) : filter;
+  const loopType = 1 + integratorCount(tf.a);
+  const fn = discreteLoopResponse(filter, k, fs);
+  const fMin = Math.min(options.fMinHz ?? nyquistHz * 1e-7, nyquistHz / 10);
+  const grid = logGrid(fMin, nyquistHz, options.points ?? DEFAULT_POINTS);
+  const open = sampleResponse(fn, grid, loopType);
+  const margins = loopMargins(fn, open);
+  const stable = schurCohnStable(discreteClosedLoop(tf, k, fs).h.a);
+  const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid);
+  return { margins, stable, closedLoop: cl, open, loopType, response: fn };
+}

@@ -1,0 +1,49 @@
+/**
+ * Acquisition estimates by their textbook formulas (G3 Ch. 2 and Ch. 5 (memory); B6 key parameters).
+ * They are rough: Ku23 shows the lock-in range depends on its definition, and simulation of the
+ * nonlinear loop can differ by up to 2x — the sim module's measureAcquisition measures them.
+ * - lock-in   ΔωL ≈ 2ζωn
+ * - hold-in   ΔωH = K·F(0) (sinusoidal detector saturates at |sin| = 1); infinite for an ideal PI
+ * - pull-out  ΔωPO ≈ 1.8·ωn·(ζ + 1)
+ * - pull-in time TP ≈ Δω²/(2ζωn³) for an initial offset Δω beyond the lock-in range
+ */
+import type { AcquisitionEstimates } from '../types/analysis.ts';
+
+export function acquisitionEstimates(
+  second: { readonly wnRadPerS: number; readonly damping: number } | null,
+  kRadPerS: number,
+  dcGain: number | null,
+): AcquisitionEstimates {
+  const hz = (w: number) => w / (2 * Math.PI);
+  const notes: string[] = [];
+  const holdIn = dcGain === null ? null : kRadPerS * dcGain;
+  if (holdIn === null) {
+    notes.push('hold-in: K·F(0) is infinite for an ideal PI filter; in practice the NCO control range or integrator saturation limits it');
+  }
+  if (!second) {
+    notes.push('lock-in, pull-out and pull-in time: ωn and ζ do not apply to a loop of order above 2');
+    return {
+      lockInHz: null,
+      holdInHz: holdIn === null ? null : hz(holdIn),
+      pullOutHz: null,
+      pullInTimeSPerHz2: null,
+      label: 'estimate',
+      notes,
+    };
+  }
+  const { wnRadPerS: wn, damping: z } = second;
+  return {
+    lockInHz: hz(2 * z * wn),
+    holdInHz: holdIn === null ? null : hz(holdIn),
+    pullOutHz: hz(1.8 * wn * (z + 1)),
+    // TP = Δω²/(2ζωn³) with Δω = 2π·Δf, so TP = c·Δf² with c = (2π)²/(2ζωn³).
+    pullInTimeSPerHz2: (4 * Math.PI * Math.PI) / (2 * z * wn ** 3),
+    label: 'estimate',
+    notes,
+  };
+}
+
+/** Pull-in time estimate (s) for an initial frequency offset (Hz), G3 (memory): TP ≈ Δω²/(2ζωn³). */
+export function pullInTimeS(estimates: AcquisitionEstimates, offsetHz: number): number | null {
+  return estimates.pullInTimeSPerHz2 === null ? null : estimates.pullInTimeSPerHz2 * offsetHz * offsetHz;
+}

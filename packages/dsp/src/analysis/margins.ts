@@ -1,0 +1,105 @@
+/**
+ * Gain crossover, phase margin and gain margin of an open loop sampled on a log grid, each crossing
+ * refined by Brent's method in log-frequency (roots.ts). Definitions (Og5 Sec. 7-6 (memory)):
+ * - phase margin PM = 180° + ∠L(fc) at each gain crossover |L(fc)| = 1 (unwrapped phase); the
+ *   reported PM is the smallest over all crossovers, crossoverHz the frequency where it occurs;
+ * - gain margin GM = −20·log10|L(fp)| at each phase crossover ∠L(fp) = −180° (mod 360°); the reported
+ *   GM is the one nearest 0 dB (negative for a loop that is unstable at this gain).
+ * The search interval is closed: a crossing exactly at the last grid point (fs/2 for the discrete loop,
+ * where z⁻¹/(1 − z⁻¹) alone contributes exactly −180°) counts. A phase crossover where |L| is zero
+ * (a transmission zero at Nyquist) has no finite gain margin and is ignored.
+ */
+import { brentRoot } from './roots.ts';
+import { type ResponseFn, toDb } from './response.ts';
+import { type SampledResponse, phaseNear } from './bode.ts';
+
+export interface PhaseCrossing {
+  readonly freqHz: number;
+  readonly gainMarginDb: number;
+}
+
+export interface LoopMargins {
+  /** Gain crossover with the smallest phase margin (Hz), null if |L| never crosses 1. */
+  readonly crossoverHz: number | null;
+  readonly phaseMarginDeg: number | null;
+  /** Phase crossover with the gain margin nearest 0 dB (Hz), null if none. */
+  readonly phaseCrossoverHz: number | null;
+  readonly gainMarginDb: number | null;
+  readonly gainCrossingsHz: readonly number[];
+  readonly phaseCrossings: readonly PhaseCrossing[];
+  /** Why a figure is null. */
+  readonly notes: readonly string[];
+}
+
+/** Tolerance for the phase touching −180° exactly at the end of the interval (degrees). */
+const END_TOUCH_DEG = 1e-7;
+/** |L| below this (≈ −240 dB) is a transmission zero, not a finite gain margin. */
+const ZERO_MAGNITUDE_DB = -240;
+
+export function loopMargins(fn: ResponseFn, s: SampledResponse): LoopMargins {
+  const notes: string[] = [];
+  const gains = gainCrossings(fn, s);
+  const phases = phaseCrossings(fn, s);
+  let best: { f: number; pm: number } | null = null;
+  for (const g of gains) if (!best || g.pm < best.pm) best = g;
+  let bestGm: PhaseCrossing | null = null;
+  for (const p of phases) if (!bestGm || Math.abs(p.gainMarginDb) < Math.abs(bestGm.gainMarginDb)) bestGm = p;
+  const f0 = s.freqHz[0]!;
+  const f1 = s.freqHz[s.freqHz.length - 1]!;
+  if (!best) notes.push(`|L| does not cross 0 dB between ${f0.toPrecision(4)} Hz and ${f1.toPrecision(4)} Hz`);
+  if (!bestGm) notes.push(`the phase does not reach −180° with finite gain up to ${f1.toPrecision(6)} Hz: gain margin unbounded`);
+  return {
+    crossoverHz: best ? best.f : null,
+    phaseMarginDeg: best ? best.pm : null,
+    phaseCrossoverHz: bestGm ? bestGm.freqHz : null,
+    gainMarginDb: bestGm ? bestGm.gainMarginDb : null,
+    gainCrossingsHz: gains.map((g) => g.f),
+    phaseCrossings: phases,
+    notes,
+  };
+}
+
+function gainCrossings(fn: ResponseFn, s: SampledResponse): { f: number; pm: number }[] {
+  const out: { f: number; pm: number }[] = [];
+  const m = s.magnitudeDb;
+  for (let i = 0; i + 1 < m.length; i++) {
+    const a = m[i]!;
+    const b = m[i + 1]!;
+    const crosses = (a > 0 && b <= 0) || (a < 0 && b >= 0) || (i === 0 && a === 0);
+    if (!crosses) continue;
+    const x = brentRoot((lx) => toDb(fn(Math.exp(lx))), Math.log(s.freqHz[i]!), Math.log(s.freqHz[i + 1]!), 1e-13);
+    const f = Math.exp(x);
+    const phase = phaseNear(fn, f, s.values[i]!, s.phaseDeg[i]!);
+    out.push({ f, pm: 180 + phase });
+  }
+  return out;
+}
+
+function phaseCrossings(fn: ResponseFn, s: SampledResponse): PhaseCrossing[] {
+  const out: PhaseCrossing[] = [];
+  const p = s.phaseDeg;
+  const last = p.length - 1;
+  for (let i = 0; i < last; i++) {
+    const pa = p[i]!;
+    let pb = p[i + 1]!;
+    const lo = Math.min(pa, pb);
+    const hi = Math.max(pa, pb);
+    for (let n = Math.ceil((lo - END_TOUCH_DEG + 180) / 360); n <= Math.floor((hi + END_TOUCH_DEG + 180) / 360); n++) {
+      const level = -180 + 360 * n;
+      if (i + 1 === last && Math.abs(pb - level) < END_TOUCH_DEG) pb = level;
+      const da = pa - level;
+      const db = pb - level;
+      if (!((da > 0 && db <= 0) || (da < 0 && db >= 0) || (i === 0 && da === 0))) continue;
+      const fa = s.freqHz[i]!;
+      const fb = s.freqHz[i + 1]!;
+      const f =
+        db === 0
+          ? fb
+          : Math.exp(brentRoot((lx) => phaseNear(fn, Math.exp(lx), s.values[i]!, pa) - level, Math.log(fa), Math.log(fb), 1e-13));
+      const db0 = toDb(fn(f));
+      if (db0 <= ZERO_MAGNITUDE_DB) continue;
+      out.push({ freqHz: f, gainMarginDb: -db0 });
+    }
+  }
+  return out;
+}

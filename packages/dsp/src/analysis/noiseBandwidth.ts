@@ -1,0 +1,53 @@
+/**
+ * One-sided loop noise bandwidth B_L = ∫₀^∞ |H(j2πf)|² df in Hz (G3 Ch. 2; the digital loop integrates
+ * to fs/2). For H = (b1·s + b0)/(s² + a1·s + a0) the closed form is (b1²·a0 + b0²)/(4·a0·a1)
+ * (standard integral table, e.g. G3 Ch. 2 (memory)). The high-gain expression (ωn/2)(ζ + 1/(4ζ)) holds
+ * for the PI loop only: for a single-pole loop the exact value is K/4 (REFERENCES.md).
+ */
+import type { ResponseFn } from './response.ts';
+
+/** Closed form for a second-order H = (b1 s + b0)/(s² + a1 s + a0), Hz. */
+export function secondOrderNoiseBandwidthHz(b1: number, b0: number, a1: number, a0: number): number {
+  return (b1 * b1 * a0 + b0 * b0) / (4 * a0 * a1);
+}
+
+/** High-gain approximation (ωn/2)(ζ + 1/(4ζ)) in Hz (G3 Ch. 2; exact for the PI loop only). */
+export function highGainNoiseBandwidthHz(wnRadPerS: number, damping: number): number {
+  return (wnRadPerS / 2) * (damping + 1 / (4 * damping));
+}
+
+/**
+ * ∫ |H|² df from 0 to fMaxHz by composite Simpson in u = ln f over [fMinHz, fMaxHz] (|H|² f du = |H|² df),
+ * plus the part below fMinHz taken as fMinHz·|H(fMinHz)|² (|H| is flat there) and, for an analog loop,
+ * the tail above fMaxHz assuming |H|² ∝ f^−p with p from the last decade.
+ */
+export function numericNoiseBandwidthHz(
+  h: ResponseFn,
+  fMinHz: number,
+  fMaxHz: number,
+  options: { readonly intervals?: number; readonly tail?: boolean } = {},
+): number {
+  const n = 2 * Math.ceil((options.intervals ?? 4000) / 2);
+  const u0 = Math.log(fMinHz);
+  const du = (Math.log(fMaxHz) - u0) / n;
+  const g = (u: number) => {
+    const f = Math.exp(u);
+    const v = h(f);
+    return (v.re * v.re + v.im * v.im) * f;
+  };
+  let sum = g(u0) + g(u0 + n * du);
+  for (let i = 1; i < n; i++) sum += (i % 2 === 1 ? 4 : 2) * g(u0 + i * du);
+  let total = (sum * du) / 3;
+  const h0 = h(fMinHz);
+  total += fMinHz * (h0.re * h0.re + h0.im * h0.im);
+  if (options.tail) {
+    const m2 = (f: number) => {
+      const v = h(f);
+      return v.re * v.re + v.im * v.im;
+    };
+    const end = m2(fMaxHz);
+    const p = Math.log10(m2(fMaxHz / 10) / end);
+    if (p > 1.01 && Number.isFinite(p)) total += (end * fMaxHz) / (p - 1);
+  }
+  return total;
+}

@@ -1,0 +1,77 @@
+/**
+ * Frequency responses of filters and of the open loop (DESIGN.md conventions):
+ *   analog   L(jω) = Kd·Ko·F(jω)/(jω)
+ *   discrete L(z)  = Kd·F(z)·Ko·T·z⁻¹/(1 − z⁻¹),  z = exp(j2πf/fs), the NCO being an accumulator with
+ *   one sample of delay at the loop rate. Note z⁻¹/(1 − z⁻¹) = 1/(z − 1).
+ */
+import type { AnalogTf, DigitalTf, Sos } from '../types/filter.ts';
+import { type Complex, cdiv, cexpj, cmul, cscale } from '../filters/complex.ts';
+import { polyvalAscending, polyvalDescending } from '../filters/polynomial.ts';
+
+/** A digital filter in either representation. */
+export type DigitalFilter = DigitalTf | readonly Sos[];
+
+/** Complex response as a function of frequency in Hz. */
+export type ResponseFn = (freqHz: number) => Complex;
+
+/** F(jω) of analog sections (or one transfer function) at freqHz. */
+export function analogResponse(sections: readonly AnalogTf[], freqHz: number): Complex {
+  const s = { re: 0, im: 2 * Math.PI * freqHz };
+  let h: Complex = { re: 1, im: 0 };
+  for (const tf of sections) h = cmul(h, cdiv(polyvalDescending(tf.num, s), polyvalDescending(tf.den, s)));
+  return h;
+}
+
+/** H(e^{jωT}) of a digital filter at freqHz for the sample rate fs. */
+export function digitalResponse(filter: DigitalFilter, freqHz: number, sampleRateHz: number): Complex {
+  const w = cexpj((-2 * Math.PI * freqHz) / sampleRateHz); // z⁻¹ on the unit circle
+  const parts: readonly DigitalTf[] = isSections(filter) ? filter : [filter];
+  let h: Complex = { re: 1, im: 0 };
+  for (const p of parts) h = cmul(h, cdiv(polyvalAscending(p.b, w), polyvalAscending(p.a, w)));
+  return h;
+}
+
+export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
+  return Array.isArray(filter);
+}
+
+/** Analog open loop K·F(jω)/(jω) with K = Kd·Ko. */
+export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): ResponseFn {
+  return (f) => {
+    const w = 2 * Math.PI * f;
+    const h = cscale(analogResponse(sections, f), kRadPerS / w);
+    return { re: h.im, im: -h.re }; // divide by j
+  };
+}
+
+/** Discrete open loop K·T·F(z)/(z − 1), K = Kd·Ko, T = 1/fs. */
+export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sampleRateHz: number): ResponseFn {
+  const kt = kRadPerS / sampleRateHz;
+  return (f) => {
+    const z = cexpj((2 * Math.PI * f) / sampleRateHz);
+    const nco = cdiv({ re: kt, im: 0 }, { re: z.re - 1, im: z.im });
+    return cmul(nco, digitalResponse(filter, f, sampleRateHz));
+  };
+}
+
+/** Closed-loop phase transfer H = L/(1 + L) from an open-loop response. */
+export function closedLoop(open: ResponseFn): ResponseFn {
+  return (f) => {
+    const l = open(f);
+    return cdiv(l, { re: 1 + l.re, im: l.im });
+  };
+}
+
+/** Error transfer E = 1/(1 + L). */
+export function errorTransfer(open: ResponseFn): ResponseFn {
+  return (f) => {
+    const l = open(f);
+    return cdiv({ re: 1, im: 0 }, { re: 1 + l.re, im: l.im });
+  };
+}
+
+/** 20·log10|h|, floored at −400 dB so that an exact zero never yields −Infinity in a result. */
+export function toDb(h: Complex): number {
+  const m2 = h.re * h.re + h.im * h.im;
+  return m2 > 1e-40 ? 10 * Math.log10(m2) : -400;
+}
