@@ -1,0 +1,118 @@
+import { z } from 'zod';
+
+/**
+ * Settings come only from the environment. Every key names its unit. Development defaults are safe
+ * (loopback only, a throwaway session secret) and are reported so start-up can print which ones applied.
+ */
+const DEV_SESSION_SECRET = 'loopwright-development-session-secret-not-for-production';
+
+const int = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
+const flag = z.enum(['true', 'false', '1', '0']).transform((value) => value === 'true' || value === '1');
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  PORT: int(0, 65_535).default(8080),
+  LW_HOST: z.string().min(1).default('127.0.0.1'),
+  LW_APP_DIST: z.string().min(1).default('../app/dist'),
+  LW_DB_HOST: z.string().min(1).default('127.0.0.1'),
+  LW_DB_PORT: int(1, 65_535).default(3307),
+  LW_DB_USER: z.string().min(1).default('loopwright'),
+  LW_DB_PASSWORD: z.string().default('loopwright-dev'),
+  LW_DB_NAME: z.string().regex(/^[A-Za-z0-9_]{1,64}$/).default('loopwright'),
+  LW_DB_POOL_SIZE: int(1, 200).default(20),
+  LW_DB_CONNECT_TIMEOUT_MS: int(100, 60_000).default(2_000),
+  LW_SESSION_SECRET: z.string().min(32).default(DEV_SESSION_SECRET),
+  LW_SESSION_MAX_AGE_S: int(60, 30 * 24 * 3600).default(12 * 3600),
+  LW_COOKIE_SECURE: flag.default(false),
+  LW_BODY_LIMIT_BYTES: int(1_024, 50_000_000).default(256 * 1024),
+  LW_UPLOAD_LIMIT_BYTES: int(1_024, 50_000_000).default(256 * 1024),
+  LW_SIGNIN_LIMIT_PER_WINDOW: int(1, 10_000).default(10),
+  LW_SIGNIN_WINDOW_S: int(1, 24 * 3600).default(15 * 60),
+  LW_SIM_THREADS: int(1, 64).default(2),
+  /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
+  LW_BCRYPT_ROUNDS: int(4, 15).default(12),
+  LW_TRUST_PROXY: flag.default(false),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+export interface Config {
+  readonly env: Env['NODE_ENV'];
+  readonly port: number;
+  readonly host: string;
+  readonly appDistDir: string;
+  readonly db: {
+    readonly host: string;
+    readonly port: number;
+    readonly user: string;
+    readonly password: string;
+    readonly database: string;
+    readonly poolSize: number;
+    readonly connectTimeoutMs: number;
+  };
+  readonly session: {
+    readonly secret: string;
+    readonly maxAgeS: number;
+    readonly cookieSecure: boolean;
+  };
+  readonly bodyLimitBytes: number;
+  readonly uploadLimitBytes: number;
+  readonly signIn: { readonly limitPerWindow: number; readonly windowS: number };
+  readonly simulationThreads: number;
+  readonly bcryptRounds: number;
+  readonly trustProxy: boolean;
+  /** Keys that fell back to their development default, with the value used (printed at start-up). */
+  readonly defaultsUsed: readonly (readonly [key: string, value: string])[];
+}
+
+export class ConfigError extends Error {}
+
+export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
+    throw new ConfigError(`Invalid environment:\n  ${lines.join('\n  ')}`);
+  }
+  const env = parsed.data;
+  if (env.NODE_ENV === 'production' && env.LW_SESSION_SECRET === DEV_SESSION_SECRET) {
+    throw new ConfigError('LW_SESSION_SECRET must be set in production (at least 32 characters)');
+  }
+  const defaultsUsed = Object.keys(envSchema.shape)
+    .filter((key) => source[key] === undefined)
+    .map((key) => [key, String(env[key as keyof Env])] as const);
+  return {
+    env: env.NODE_ENV,
+    port: env.PORT,
+    host: env.LW_HOST,
+    appDistDir: env.LW_APP_DIST,
+    db: {
+      host: env.LW_DB_HOST,
+      port: env.LW_DB_PORT,
+      user: env.LW_DB_USER,
+      password: env.LW_DB_PASSWORD,
+      database: env.LW_DB_NAME,
+      poolSize: env.LW_DB_POOL_SIZE,
+      connectTimeoutMs: env.LW_DB_CONNECT_TIMEOUT_MS,
+    },
+    session: {
+      secret: env.LW_SESSION_SECRET,
+      maxAgeS: env.LW_SESSION_MAX_AGE_S,
+      cookieSecure: env.LW_COOKIE_SECURE,
+    },
+    bodyLimitBytes: env.LW_BODY_LIMIT_BYTES,
+    uploadLimitBytes: env.LW_UPLOAD_LIMIT_BYTES,
+    signIn: { limitPerWindow: env.LW_SIGNIN_LIMIT_PER_WINDOW, windowS: env.LW_SIGNIN_WINDOW_S },
+    simulationThreads: env.LW_SIM_THREADS,
+    bcryptRounds: env.LW_BCRYPT_ROUNDS,
+    trustProxy: env.LW_TRUST_PROXY,
+    defaultsUsed,
+  };
+}
+
+/** A start-up line per defaulted key; the password and secret are named, never printed. */
+export function describeDefaults(config: Config): string[] {
+  const secretKeys = new Set(['LW_DB_PASSWORD', 'LW_SESSION_SECRET']);
+  return config.defaultsUsed.map(([key, value]) =>
+    secretKeys.has(key) ? `${key}: development default in use (set it for any shared deployment)` : `${key}=${value} (development default)`,
+  );
+}

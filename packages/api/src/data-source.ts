@@ -1,0 +1,47 @@
+import 'reflect-metadata';
+import { DataSource } from 'typeorm';
+import { loadConfig, type Config } from './config.ts';
+import { coreEntities } from './entities/index.ts';
+import { coreMigrations } from './migration/index.ts';
+
+export const entities = [...coreEntities];
+export const migrations = [...coreMigrations];
+
+/**
+ * MariaDB through TypeORM. The schema comes only from the migrations (never synchronize); type
+ * 'mariadb' rather than 'mysql' or the schema diff reports false changes (STACK.md).
+ */
+export function createDataSource(db: Config['db']): DataSource {
+  return new DataSource({
+    type: 'mariadb',
+    host: db.host,
+    port: db.port,
+    username: db.user,
+    password: db.password,
+    database: db.database,
+    charset: 'utf8mb4_unicode_ci',
+    timezone: 'Z',
+    entities,
+    migrations,
+    migrationsTableName: 'migrations',
+    synchronize: false,
+    migrationsRun: false,
+    logging: ['error'],
+    poolSize: db.poolSize,
+    connectTimeout: db.connectTimeoutMs,
+    extra: {
+      // A killed server must fail requests quickly, not queue them forever: the API answers 503.
+      waitForConnections: true,
+      queueLimit: 500,
+      enableKeepAlive: true,
+    },
+  });
+}
+
+/** Run pending migrations inside one transaction per migration. */
+export async function runMigrations(dataSource: DataSource): Promise<void> {
+  await dataSource.runMigrations({ transaction: 'each' });
+}
+
+/** The instance the TypeORM CLI loads (migration:generate / migration:run), configured from the env. */
+export const cliDataSource = createDataSource(loadConfig().db);

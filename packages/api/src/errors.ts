@@ -1,0 +1,33 @@
+import type { ErrorCode } from './contract.ts';
+
+/**
+ * A domain error with a machine-readable code. Services throw these; one middleware
+ * (middleware/errors.ts) turns them into HTTP. Messages are for people and never carry SQL or stacks.
+ */
+export class AppError extends Error {
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+    readonly status: number,
+    readonly field?: string,
+    /** Extra members of the error body, e.g. the current design on a stale revision. */
+    readonly extra?: Readonly<Record<string, unknown>>,
+  ) {
+    super(message);
+    this.name = 'AppError';
+  }
+}
+
+export const invalidInput = (field: string, message: string) => new AppError('invalid_input', message, 400, field);
+export const notFound = (what: string) => new AppError('not_found', `${what} not found`, 404);
+export const conflict = (message: string, field?: string) => new AppError('conflict', message, 409, field);
+export const forbidden = (message = 'your roles do not allow this') => new AppError('forbidden', message, 403);
+export const unauthenticated = (message = 'sign in first') => new AppError('unauthenticated', message, 401);
+export const staleRevision = (current: unknown, baseRevision: number, currentRevision: number) =>
+  new AppError(
+    'stale_revision',
+    `the design changed since revision ${baseRevision}; it is now at revision ${currentRevision}`,
+    409,
+    'baseRevision',
+    { current },
+  );

@@ -1,0 +1,13 @@
+import { auditQuerySchema, type AuditListResponse } from '../contract.ts';
+import { route } from './table.ts';
+
+export const auditRoutes = [
+  route({
+    method: 'get',
+    path: '/audit',
+    access: ['admin'],
+    summary: 'the audit trail, newest first (?objectType, objectId, actorId, beforeId, limit ≤ 500)',
+    query: auditQuerySchema,
+    handler: async ({ services, query }): Promise<AuditListResponse> => ({ entries: await services.audit.list(query) }),
+  }),
+];

@@ -1,0 +1,14 @@
+import type { RequestHandler } from 'express';
+import type { Authenticator } from '../middleware/auth.ts';
+import { auditRoutes } from './audit.ts';
+import { designRoutes } from './designs.ts';
+import { healthRoutes } from './health.ts';
+import { projectRoutes } from './projects.ts';
+import { sessionRoutes } from './session.ts';
+import type { RouteSpec } from './table.ts';
+import { userRoutes } from './users.ts';
+
+/** Every API route, in one table (path relative to /api). Other modules add theirs here. */
+export function apiRoutes(auth: Authenticator, signInLimiter: RequestHandler, extra: readonly RouteSpec[] = []): RouteSpec[] {
+  return [...healthRoutes, ...sessionRoutes(auth, signInLimiter), ...userRoutes, ...projectRoutes, ...designRoutes, ...auditRoutes, ...extra];
+}

@@ -1,0 +1,54 @@
+import type { RequestHandler } from 'express';
+import { passwordChangeRequestSchema, signInRequestSchema, type SessionResponse, type SessionUser } from '../contract.ts';
+import { unauthenticated } from '../errors.ts';
+import type { Authenticator } from '../middleware/auth.ts';
+import { route, type RouteSpec } from './table.ts';
+
+export function sessionRoutes(auth: Authenticator, signInLimiter: RequestHandler): RouteSpec[] {
+  return [
+    route({
+      method: 'get',
+      path: '/session',
+      access: 'signed-in',
+      summary: 'who am I',
+      handler: ({ user }): SessionResponse => ({ user }),
+    }),
+    route({
+      method: 'post',
+      path: '/session',
+      access: 'public',
+      summary: 'sign in with e-mail and password (rate-limited)',
+      before: [signInLimiter],
+      body: signInRequestSchema,
+      handler: async ({ req, res, services, actor, body }): Promise<SessionResponse> => {
+        const user: SessionUser | null = await auth.signIn(req, res);
+        if (!user) {
+          await services.audit.record(actor, { action: 'session.sign-in-failed', objectType: 'user', objectId: null, detail: { email: body.email } });
+          throw unauthenticated('wrong e-mail or password, or the account is disabled');
+        }
+        await services.audit.record({ ...actor, id: user.id, email: user.email }, { action: 'session.sign-in', objectType: 'user', objectId: user.id });
+        return { user };
+      },
+    }),
+    route({
+      method: 'delete',
+      path: '/session',
+      access: 'public',
+      summary: 'sign out (ends the session; harmless when signed out)',
+      handler: async ({ req, res, services, actor, signedIn }) => {
+        if (signedIn) await services.audit.record(actor, { action: 'session.sign-out', objectType: 'user', objectId: actor.id });
+        await auth.signOut(req, res);
+      },
+    }),
+    route({
+      method: 'put',
+      path: '/session/password',
+      access: 'signed-in',
+      summary: 'change my password (ends my other sessions)',
+      body: passwordChangeRequestSchema,
+      handler: async ({ user, body, services, actor, req }) => {
+        await services.users.changePassword(user.id, body.currentPassword, body.newPassword, req.sessionID, actor);
+      },
+    }),
+  ];
+}

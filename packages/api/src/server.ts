@@ -1,0 +1,61 @@
+/**
+ * `node --import tsx src/server.ts`: serves the API and the built web app (LW_APP_DIST) with an SPA
+ * fallback for every non-/api path. Waits for MariaDB at start-up instead of failing; afterwards a
+ * database outage is answered with 503 and the pool reconnects by itself.
+ */
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express from 'express';
+import { createApp } from './app.ts';
+import { ConfigError, describeDefaults, loadConfig, type Config } from './config.ts';
+import { createDataSource } from './data-source.ts';
+
+function log(message: string): void {
+  process.stdout.write(`loopwright-api: ${message}\n`);
+}
+
+async function initialiseWithRetry(config: Config) {
+  for (let attempt = 1; ; attempt += 1) {
+    const dataSource = createDataSource(config.db);
+    try {
+      return await dataSource.initialize();
+    } catch (err) {
+      if (attempt >= 60) throw err;
+      log(`database ${config.db.host}:${config.db.port} not reachable yet (${(err as Error).message}); retrying`);
+      await new Promise((resolve) => setTimeout(resolve, 1000));
+    }
+  }
+}
+
+async function main(): Promise<void> {
+  const config = loadConfig();
+  for (const line of describeDefaults(config)) log(line);
+  const dataSource = await initialiseWithRetry(config);
+  const built = createApp({ config, dataSource });
+
+  const appDist = path.resolve(process.cwd(), config.appDistDir);
+  if (existsSync(path.join(appDist, 'index.html'))) {
+    built.app.use(express.static(appDist, { index: false, maxAge: '1h' }));
+    // SPA fallback: any GET outside /api that is not a file gets index.html (/api 404s are JSON).
+    built.app.get(/^(?!\/api(\/|$)).*/, (_req, res) => {
+      res.set('Cache-Control', 'no-cache').sendFile(path.join(appDist, 'index.html'));
+    });
+  } else {
+    log(`no built web app at ${appDist} (build packages/app or set LW_APP_DIST); serving the API only`);
+  }
+
+  const server = built.app.listen(config.port, config.host, () => log(`listening on http://${config.host}:${config.port}`));
+  const stop = () => {
+    server.close(() => {
+      void built.close().then(() => dataSource.destroy()).finally(() => process.exit(0));
+    });
+    setTimeout(() => process.exit(0), 5000).unref();
+  };
+  process.once('SIGTERM', stop);
+  process.once('SIGINT', stop);
+}
+
+main().catch((err: unknown) => {
+  process.stderr.write(`loopwright-api: error: ${err instanceof ConfigError ? err.message : String((err as Error).stack ?? err)}\n`);
+  process.exit(1);
+});

@@ -1,0 +1,191 @@
+import { parseLoopSpec, type LoopSpec } from '@loopwright/dsp';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { z } from 'zod';
+import type { DesignDuplicateRequest, DesignRecord, DesignSummary, designCreateRequestSchema, designUpdateRequestSchema } from '../contract.ts';
+import { Design } from '../entities/index.ts';
+import { AppError, conflict, invalidInput, notFound, staleRevision } from '../errors.ts';
+import type { AuditActor, AuditService } from './audit.ts';
+import type { ProjectService } from './projects.ts';
+import { blankSpec, findTemplate } from './templates.ts';
+
+/**
+ * Says why a design may not be deleted (e.g. "it has releases"), or null. The release module registers
+ * one; a foreign key from its table to `designs` is the database's own second line of defence.
+ */
+export type DesignDeletionGuard = (designId: number, manager: EntityManager) => Promise<string | null>;
+
+interface DesignRow {
+  id: number;
+  projectId: number;
+  name: string;
+  revision: number;
+  ownerId: number;
+  ownerName: string;
+  createdAt: Date;
+  updatedAt: Date;
+  specJson?: string;
+}
+
+function toSummary(row: DesignRow): DesignSummary {
+  return {
+    id: Number(row.id),
+    projectId: Number(row.projectId),
+    name: row.name,
+    revision: Number(row.revision),
+    ownerId: Number(row.ownerId),
+    ownerName: row.ownerName,
+    createdAt: new Date(row.createdAt).toISOString(),
+    updatedAt: new Date(row.updatedAt).toISOString(),
+  };
+}
+
+function toRecord(row: DesignRow): DesignRecord {
+  return { ...toSummary(row), spec: JSON.parse(row.specJson ?? 'null') as LoopSpec };
+}
+
+type Actor = AuditActor & { id: number };
+type DesignCreateRequest = z.output<typeof designCreateRequestSchema>;
+type DesignUpdateRequest = z.output<typeof designUpdateRequestSchema>;
+
+export class DesignService {
+  private readonly deletionGuards: DesignDeletionGuard[] = [];
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly projects: ProjectService,
+    private readonly audit: AuditService,
+  ) {}
+
+  addDeletionGuard(guard: DesignDeletionGuard): void {
+    this.deletionGuards.push(guard);
+  }
+
+  private select(manager: EntityManager, withSpec: boolean) {
+    const qb = manager
+      .createQueryBuilder()
+      .select(['d.id AS id', 'd.projectId AS projectId', 'd.name AS name', 'd.revision AS revision', 'd.ownerId AS ownerId', 'u.displayName AS ownerName', 'd.createdAt AS createdAt', 'd.updatedAt AS updatedAt'])
+      .from(Design, 'd')
+      .innerJoin('d.owner', 'u')
+      .innerJoin('d.project', 'p');
+    if (withSpec) qb.addSelect('d.specJson', 'specJson');
+    return qb;
+  }
+
+  async list(organizationId: number, projectId: number): Promise<DesignSummary[]> {
+    await this.projects.assertInOrganization(organizationId, projectId);
+    const rows = await this.select(this.dataSource.manager, false).where('d.projectId = :projectId', { projectId }).orderBy('d.name', 'ASC').addOrderBy('d.id', 'ASC').getRawMany<DesignRow>();
+    return rows.map(toSummary);
+  }
+
+  async get(organizationId: number, id: number, manager: EntityManager = this.dataSource.manager): Promise<DesignRecord> {
+    const row = await this.select(manager, true).where('d.id = :id AND p.organizationId = :organizationId', { id, organizationId }).getRawOne<DesignRow>();
+    if (!row) throw notFound('design');
+    return toRecord(row);
+  }
+
+  private async assertWritableProject(organizationId: number, projectId: number): Promise<void> {
+    const { archived } = await this.projects.assertInOrganization(organizationId, projectId);
+    if (archived) throw conflict('the project is archived; restore it before changing its designs', 'projectId');
+  }
+
+  private async insert(projectId: number, name: string, spec: LoopSpec, actor: Actor, action: string, detail: unknown): Promise<number> {
+    return this.dataSource.transaction(async (manager) => {
+      const inserted = await manager.insert(Design, { projectId, name, specJson: JSON.stringify(spec), ownerId: actor.id, revision: 1 });
+      const id = Number(inserted.identifiers[0]?.id);
+      await this.audit.record(actor, { action, objectType: 'design', objectId: id, detail }, manager);
+      return id;
+    });
+  }
+
+  async create(organizationId: number, projectId: number, request: DesignCreateRequest, actor: Actor): Promise<DesignRecord> {
+    await this.assertWritableProject(organizationId, projectId);
+    let spec: LoopSpec;
+    if (request.templateId !== undefined) {
+      const template = findTemplate(request.templateId);
+      if (!template) throw invalidInput('templateId', `no template '${request.templateId}' (GET /api/templates lists them)`);
+      spec = template;
+    } else if (request.spec !== undefined) {
+      spec = this.validSpec(request.spec);
+    } else {
+      spec = blankSpec(request.name);
+    }
+    const source = request.templateId ?? (request.spec ? 'spec' : 'blank');
+    const id = await this.insert(projectId, request.name, spec, actor, 'design.create', { projectId, name: request.name, source });
+    return this.get(organizationId, id);
+  }
+
+  /** For specs from files: every issue is reported with the spec field it concerns. */
+  validSpec(input: unknown, fieldPrefix = 'spec'): LoopSpec {
+    const parsed = parseLoopSpec(input);
+    if (parsed.ok) return parsed.spec;
+    const first = parsed.issues[0];
+    const field = first?.field ? `${fieldPrefix}.${first.field}` : fieldPrefix;
+    throw invalidInput(field, parsed.issues.map((issue) => issue.message).join('; '));
+  }
+
+  async createFromFile(organizationId: number, projectId: number, fileText: string, title: string | undefined, actor: Actor): Promise<DesignRecord> {
+    await this.assertWritableProject(organizationId, projectId);
+    let json: unknown;
+    try {
+      json = JSON.parse(fileText);
+    } catch (err) {
+      throw invalidInput('file', `the file is not valid JSON: ${(err as Error).message}`);
+    }
+    const spec = this.validSpec(json, 'file');
+    const name = title ?? spec.name;
+    const id = await this.insert(projectId, name, spec, actor, 'design.upload', { projectId, name });
+    return this.get(organizationId, id);
+  }
+
+  /** Compare-and-set on the revision in one UPDATE, so two processes cannot both win. */
+  async update(organizationId: number, id: number, request: DesignUpdateRequest, actor: Actor): Promise<DesignRecord> {
+    const before = await this.get(organizationId, id);
+    await this.assertWritableProject(organizationId, before.projectId);
+    const changes: Partial<Pick<Design, 'name' | 'specJson'>> = {};
+    if (request.name !== undefined) changes.name = request.name;
+    if (request.spec !== undefined) changes.specJson = JSON.stringify(request.spec);
+    const updated = await this.dataSource.transaction(async (manager) => {
+      const result = await manager
+        .createQueryBuilder()
+        .update(Design)
+        .set({ ...changes, revision: () => 'revision + 1' })
+        .where('id = :id AND revision = :baseRevision', { id, baseRevision: request.baseRevision })
+        .execute();
+      if (result.affected !== 1) return false;
+      await this.audit.record(actor, { action: 'design.update', objectType: 'design', objectId: id, detail: { baseRevision: request.baseRevision, fields: Object.keys(changes) } }, manager);
+      return true;
+    });
+    const current = await this.get(organizationId, id);
+    if (!updated) throw staleRevision(current, request.baseRevision, current.revision);
+    return current;
+  }
+
+  async duplicate(organizationId: number, id: number, request: DesignDuplicateRequest, actor: Actor): Promise<DesignRecord> {
+    const source = await this.get(organizationId, id);
+    const projectId = request.projectId ?? source.projectId;
+    await this.assertWritableProject(organizationId, projectId);
+    const name = request.name ?? `${source.name} (copy)`.slice(0, 120);
+    const newId = await this.insert(projectId, name, source.spec, actor, 'design.duplicate', { sourceId: id, sourceRevision: source.revision, projectId });
+    return this.get(organizationId, newId);
+  }
+
+  async remove(organizationId: number, id: number, actor: Actor): Promise<void> {
+    const design = await this.get(organizationId, id);
+    await this.assertWritableProject(organizationId, design.projectId);
+    await this.dataSource.transaction(async (manager) => {
+      for (const guard of this.deletionGuards) {
+        const reason = await guard(id, manager);
+        if (reason !== null) throw conflict(`the design cannot be deleted: ${reason}`);
+      }
+      try {
+        await manager.delete(Design, { id });
+      } catch (err) {
+        if ((err as { driverError?: { code?: string } }).driverError?.code === 'ER_ROW_IS_REFERENCED_2') {
+          throw new AppError('conflict', 'the design cannot be deleted: other records (releases) refer to it', 409);
+        }
+        throw err;
+      }
+      await this.audit.record(actor, { action: 'design.delete', objectType: 'design', objectId: id, detail: { name: design.name, projectId: design.projectId, revision: design.revision } }, manager);
+    });
+  }
+}

@@ -1,0 +1,76 @@
+import { randomUUID } from 'node:crypto';
+import bcrypt from 'bcryptjs';
+import request from 'supertest';
+import type { DataSource } from 'typeorm';
+import { inject } from 'vitest';
+import { createApp, type BuiltApp } from '../src/app.ts';
+import { loadConfig, type Config } from '../src/config.ts';
+import { CSRF_HEADER, CSRF_HEADER_VALUE, ROLES, type Role } from '../src/contract.ts';
+import { createDataSource } from '../src/data-source.ts';
+import { Organization, User } from '../src/entities/index.ts';
+import type { TestDb } from './db.ts';
+
+export const PASSWORD = 'correct-horse-battery';
+
+export function testDb(): TestDb {
+  return inject('lwDb');
+}
+
+export function testConfig(overrides: Record<string, string> = {}, db: TestDb = testDb()): Config {
+  return loadConfig({
+    NODE_ENV: 'test',
+    LW_DB_HOST: db.host,
+    LW_DB_PORT: String(db.port),
+    LW_DB_USER: db.user,
+    LW_DB_PASSWORD: db.password,
+    LW_DB_NAME: db.database,
+    LW_BCRYPT_ROUNDS: '4',
+    LW_DB_POOL_SIZE: '5',
+    ...overrides,
+  });
+}
+
+export async function openDataSource(config: Config = testConfig()): Promise<DataSource> {
+  const dataSource = createDataSource(config.db);
+  await dataSource.initialize();
+  return dataSource;
+}
+
+export function buildApp(dataSource: DataSource, config: Config = testConfig()): BuiltApp {
+  return createApp({ config, dataSource, log: () => {} });
+}
+
+export interface TestOrg {
+  organizationId: number;
+  /** One account per role plus a "multi" account holding designer and reviewer. */
+  emails: Record<Role | 'multi', string>;
+  ids: Record<Role | 'multi', number>;
+}
+
+/** A fresh organisation with its own accounts, so test files never see each other's data. */
+export async function createTestOrg(dataSource: DataSource): Promise<TestOrg> {
+  const tag = randomUUID().slice(0, 8);
+  const org = await dataSource.getRepository(Organization).save({ name: `Test org ${tag}` });
+  const passwordHash = bcrypt.hashSync(PASSWORD, 4);
+  const emails = {} as TestOrg['emails'];
+  const ids = {} as TestOrg['ids'];
+  const accounts: [Role | 'multi', Role[]][] = [...ROLES.map((role): [Role, Role[]] => [role, [role]]), ['multi', ['designer', 'reviewer']]];
+  for (const [key, roles] of accounts) {
+    const email = `${key}-${tag}@example.test`;
+    const user = await dataSource.getRepository(User).save({ organizationId: org.id, email, displayName: `${key} ${tag}`, passwordHash, roles, disabled: false });
+    emails[key] = email;
+    ids[key] = user.id;
+  }
+  return { organizationId: org.id, emails, ids };
+}
+
+export type Agent = ReturnType<typeof request.agent>;
+
+/** A supertest agent (keeps cookies) signed in as the given account. */
+export async function signedInAgent(app: BuiltApp['app'], email: string, password = PASSWORD): Promise<Agent> {
+  const agent = request.agent(app);
+  await agent.post('/api/session').set(CSRF_HEADER, CSRF_HEADER_VALUE).send({ email, password }).expect(200);
+  return agent;
+}
+
+export const csrf = { [CSRF_HEADER]: CSRF_HEADER_VALUE } as const;
