@@ -1,0 +1,68 @@
+/**
+ * Every integer constant of the bit-true loop, fixed once at set-up (packages/dsp/README.md,
+ * "Bit-true arithmetic"): coefficient codes, tuning word, control scaling, sine table and widths.
+ * The release renders these same numbers into VHDL, Verilog and C.
+ */
+import type { LoopSpec } from '../spec/schema.ts';
+import type { QuantizedFilter } from '../types/fixed.ts';
+import type { BitTruePlan } from '../types/sim.ts';
+import { FieldError, requireIntIn } from '../fixed/fieldError.ts';
+import { ncoTuning } from '../nco/tuningWord.ts';
+import { ncoControlScaling } from '../nco/controlScaling.ts';
+import { sineFullScale, sineTable } from '../nco/sineTable.ts';
+
+/** The spec fields the bit-true loop reads (a LoopSpec satisfies it). */
+export type BitTrueSpec = Pick<LoopSpec, 'sampleRateHz' | 'centerHz' | 'input' | 'nco' | 'fixedPoint'>;
+
+/** float64 holds integers exactly below 2^53; the MAC sums five products of D + Wc − 2 bits. */
+const MAX_EXACT_BITS = 53;
+
+export function validateBitTrueWidths(spec: BitTrueSpec): void {
+  const { nco, fixedPoint: fp } = spec;
+  requireIntIn('fixedPoint.dataBits', fp.dataBits, 2, 32);
+  requireIntIn('fixedPoint.coefficientBits', fp.coefficientBits, 2, 32);
+  requireIntIn('fixedPoint.accumulatorBits', fp.accumulatorBits, 2, 64);
+  requireIntIn('nco.amplitudeBits', nco.amplitudeBits, 2, 32);
+  requireIntIn('nco.accumulatorBits', nco.accumulatorBits, 4, 64);
+  requireIntIn('nco.phaseBits', nco.phaseBits, 2, Math.min(24, nco.accumulatorBits));
+  if (fp.dataBits + fp.coefficientBits + 1 > MAX_EXACT_BITS) {
+    throw new FieldError('fixedPoint.dataBits', `fixedPoint.dataBits + coefficientBits must be at most ${MAX_EXACT_BITS - 1} for the bit-true MAC, got ${fp.dataBits} + ${fp.coefficientBits}`);
+  }
+  if (fp.dataBits + nco.amplitudeBits > MAX_EXACT_BITS) {
+    throw new FieldError('nco.amplitudeBits', `fixedPoint.dataBits + nco.amplitudeBits must be at most ${MAX_EXACT_BITS} for the detector product, got ${fp.dataBits} + ${nco.amplitudeBits}`);
+  }
+}
+
+/** Fix the bit-true loop's constants from a spec and its quantised loop filter. */
+export function planBitTrue(spec: BitTrueSpec, quantized: QuantizedFilter): BitTruePlan {
+  validateBitTrueWidths(spec);
+  const { nco, fixedPoint: fp } = spec;
+  return {
+    sampleRateHz: spec.sampleRateHz,
+    centerHz: spec.centerHz,
+    dataBits: fp.dataBits,
+    coefficientBits: fp.coefficientBits,
+    coefficientFractionBits: quantized.format.fractionBits,
+    macBits: fp.accumulatorBits,
+    rounding: fp.rounding,
+    overflow: fp.overflow,
+    ncoAccumulatorBits: nco.accumulatorBits,
+    phaseBits: nco.phaseBits,
+    amplitudeBits: nco.amplitudeBits,
+    waveform: nco.waveform,
+    gainHzPerUnit: nco.gainHzPerUnit,
+    sectionCount: quantized.sections.length,
+    coefficientCodes: quantized.sections.flatMap((s) => [s.codes.b0, s.codes.b1, s.codes.b2, s.codes.a1, s.codes.a2]),
+    tuning: ncoTuning(spec.centerHz, spec.sampleRateHz, nco.accumulatorBits),
+    control: ncoControlScaling({
+      gainHzPerUnit: nco.gainHzPerUnit,
+      sampleRateHz: spec.sampleRateHz,
+      accumulatorBits: nco.accumulatorBits,
+      dataBits: fp.dataBits,
+      coefficientBits: fp.coefficientBits,
+      rounding: fp.rounding,
+    }),
+    sineTable: sineTable(nco.phaseBits, nco.amplitudeBits),
+    ncoFullScale: sineFullScale(nco.amplitudeBits),
+  };
+}

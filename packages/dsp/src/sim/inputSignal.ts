@@ -1,0 +1,79 @@
+/**
+ * The loop's input, chunk by chunk: x[n] = A_in·sin(2π·φi[n]) + noise (DESIGN.md conventions), with
+ * the input phase φi in cycles advanced by f_i[n]/fs per sample, f_i = centerHz + the scenario's
+ * frequency offset. Phase is kept modulo 1 cycle so long runs lose no precision.
+ */
+import type { Scenario } from '../spec/scenario.ts';
+import { gaussianSource, type GaussianSource } from './prng.ts';
+
+export const DEFAULT_SEED = 1;
+
+export interface InputChunk {
+  /** Input sample values (full scale 1.0). */
+  readonly x: Float64Array;
+  /** Input phase at each sample, cycles in [0, 1). */
+  readonly phaseCycles: Float64Array;
+  /** The scenario's frequency offset from centerHz at each sample (the FM message in Hz). */
+  readonly offsetHz: Float64Array;
+}
+
+export interface InputGenerator {
+  /** Fill the chunk with samples n0 … n0 + count − 1 (calls must be consecutive). */
+  next(chunk: InputChunk, n0: number, count: number): void;
+}
+
+/** Modulating waveform of unit peak at phase p in cycles: sine, triangle (starts at 0 rising), square. */
+function modulation(kind: 'sine' | 'triangle' | 'square', p: number): number {
+  const c = p - Math.floor(p);
+  if (kind === 'sine') return Math.sin(2 * Math.PI * c);
+  if (kind === 'square') return c < 0.5 ? 1 : -1;
+  return c < 0.25 ? 4 * c : c < 0.75 ? 2 - 4 * c : 4 * c - 4;
+}
+
+/** The scenario's frequency offset (Hz) at time t, excluding phase steps. */
+export function scenarioOffsetHz(s: Scenario, tS: number): number {
+  switch (s.kind) {
+    case 'tone':
+      return s.offsetHz;
+    case 'frequency-step':
+      return tS >= s.atS ? s.stepHz : 0;
+    case 'phase-step':
+      return 0;
+    case 'fm':
+      return s.deviationHz * modulation(s.modulation, s.rateHz * tS);
+  }
+}
+
+export function inputGenerator(s: Scenario, sampleRateHz: number, centerHz: number, amplitude: number): InputGenerator {
+  const noise: GaussianSource | null = s.snrDb === undefined ? null : gaussianSource(s.seed ?? DEFAULT_SEED);
+  // SNR = (A²/2)/σ² for a sine of peak A in white noise of variance σ².
+  const sigma = s.snrDb === undefined ? 0 : Math.sqrt((amplitude * amplitude) / 2 / 10 ** (s.snrDb / 10));
+  const stepSample = s.kind === 'phase-step' ? Math.ceil(s.atS * sampleRateHz) : -1;
+  const stepCycles = s.kind === 'phase-step' ? s.stepDeg / 360 : 0;
+  let phase = (s.initialPhaseDeg ?? 0) / 360;
+  phase -= Math.floor(phase);
+  let noiseBuf = new Float64Array(0);
+  return {
+    next(chunk, n0, count) {
+      if (noise && noiseBuf.length < count) noiseBuf = new Float64Array(count);
+      if (noise) noise.fill(noiseBuf, count, sigma);
+      for (let i = 0; i < count; i++) {
+        const n = n0 + i;
+        if (n === stepSample) {
+          phase += stepCycles;
+          phase -= Math.floor(phase);
+        }
+        const off = scenarioOffsetHz(s, n / sampleRateHz);
+        chunk.phaseCycles[i] = phase;
+        chunk.offsetHz[i] = off;
+        chunk.x[i] = amplitude * Math.sin(2 * Math.PI * phase) + (noise ? (noiseBuf[i] as number) : 0);
+        phase += (centerHz + off) / sampleRateHz;
+        phase -= Math.floor(phase);
+      }
+    },
+  };
+}
+
+export function allocInputChunk(size: number): InputChunk {
+  return { x: new Float64Array(size), phaseCycles: new Float64Array(size), offsetHz: new Float64Array(size) };
+}

@@ -1,0 +1,188 @@
+/**
+ * Time-domain simulation of the loop, float and bit-true side by side on the same input samples.
+ * Work is done in chunks; between chunks the run reports progress and checks the abort flag, and
+ * `simulateAsync` yields to the event loop so a Web Worker can receive a cancel message.
+ */
+import type { Sos } from '../types/filter.ts';
+import type { QuantizedFilter } from '../types/fixed.ts';
+import type { BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, SimRun } from '../types/sim.ts';
+import type { LoopSpec } from '../spec/schema.ts';
+import type { Scenario } from '../spec/scenario.ts';
+import { FieldError } from '../fixed/fieldError.ts';
+import { roundShift } from '../fixed/rounding.ts';
+import { quantizeSections } from '../fixed/quantizeSections.ts';
+import { designLoopFilter } from '../design.ts';
+import { allocInputChunk, inputGenerator } from './inputSignal.ts';
+import { planBitTrue, type BitTrueSpec } from './bitTruePlan.ts';
+import { initialBitTrueState, quantizeInput, runBitTrueChunk, type BitTrueChunkOut } from './bitTrueKernel.ts';
+import { initialFloatState, runFloatChunk } from './floatKernel.ts';
+import { RunAccumulator } from './runAccumulator.ts';
+import { CHECKSUM_BASIS, checksumRecord } from './checksum.ts';
+
+export const CHUNK_SAMPLES = 8192;
+export const MAX_SIM_SAMPLES = 50_000_000;
+export const MAX_RECORD_SAMPLES = 1 << 22;
+export const DEFAULT_BUCKETS = 1000;
+export const DEFAULT_LOCK_TOLERANCE_RAD = 0.1;
+
+/** The spec fields a simulation reads (a LoopSpec satisfies it). */
+export type SimSpec = BitTrueSpec;
+
+export class SimulationAbortedError extends Error {
+  constructor() {
+    super('simulation aborted');
+    this.name = 'AbortError';
+  }
+}
+
+/** Simulate a spec: designs its loop filter (designLoopFilter) and quantises it, then runs both loops. */
+export function simulate(spec: LoopSpec, scenario: Scenario, options: SimOptions = {}): SimResult {
+  const sections = designLoopFilter(spec).sections;
+  return simulateSections(spec, sections, quantizeSections(sections, spec.fixedPoint), scenario, options);
+}
+
+/** As `simulate`, yielding to the event loop between chunks (cancellable from a worker message). */
+export async function simulateAsync(spec: LoopSpec, scenario: Scenario, options: SimOptions = {}): Promise<SimResult> {
+  const sections = designLoopFilter(spec).sections;
+  const steps = simulationSteps(spec, sections, quantizeSections(sections, spec.fixedPoint), scenario, options);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+    await new Promise<void>((resolve) => setTimeout(resolve, 0));
+  }
+}
+
+/** Simulate given sections and their quantisation (the design is the caller's). */
+export function simulateSections(
+  spec: SimSpec,
+  sections: readonly Sos[],
+  quantized: QuantizedFilter,
+  scenario: Scenario,
+  options: SimOptions = {},
+): SimResult {
+  const steps = simulationSteps(spec, sections, quantized, scenario, options);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+function sampleCount(spec: SimSpec, scenario: Scenario): number {
+  const total = Math.round(scenario.durationS * spec.sampleRateHz);
+  if (total < 1 || total > MAX_SIM_SAMPLES) {
+    throw new FieldError('durationS', `durationS ${scenario.durationS} gives ${total} samples at ${spec.sampleRateHz} Hz; allowed 1 to ${MAX_SIM_SAMPLES}`);
+  }
+  return total;
+}
+
+function allocRecord(length: number): BitTrueRecord {
+  return {
+    length,
+    inputCode: new Int32Array(length),
+    phaseHi: new Uint32Array(length),
+    phaseLo: new Uint32Array(length),
+    tableAddress: new Int32Array(length),
+    ncoCode: new Int32Array(length),
+    detectorCode: new Int32Array(length),
+    filterCode: new Int32Array(length),
+  };
+}
+
+function sliceRecord(r: BitTrueRecord, from: number, to: number): BitTrueRecord {
+  return {
+    length: to - from,
+    inputCode: r.inputCode.subarray(from, to),
+    phaseHi: r.phaseHi.subarray(from, to),
+    phaseLo: r.phaseLo.subarray(from, to),
+    tableAddress: r.tableAddress.subarray(from, to),
+    ncoCode: r.ncoCode.subarray(from, to),
+    detectorCode: r.detectorCode.subarray(from, to),
+    filterCode: r.filterCode.subarray(from, to),
+  };
+}
+
+/** NCO frequency (Hz) the bit-true loop runs at after filter output code y: (M + Δ)·fs/2^N. */
+export function bitTrueNcoHz(plan: BitTruePlan, y: number): number {
+  const { gainCode, gainShift } = plan.control;
+  const delta = roundShift(y * gainCode, gainShift, plan.rounding);
+  return plan.tuning.actualHz + (delta * plan.sampleRateHz) / 2 ** plan.ncoAccumulatorBits;
+}
+
+/** The chunked simulation as a generator: yields the fraction done after each chunk. */
+export function* simulationSteps(
+  spec: SimSpec,
+  sections: readonly Sos[],
+  quantized: QuantizedFilter,
+  scenario: Scenario,
+  options: SimOptions,
+): Generator<number, SimResult, void> {
+  const total = sampleCount(spec, scenario);
+  const mode = options.mode ?? 'both';
+  const runFloat = mode !== 'bit-true';
+  const runBit = mode !== 'float';
+  const keep = runBit && options.keepRecord === true;
+  if (keep && total > MAX_RECORD_SAMPLES) {
+    throw new FieldError('durationS', `a per-sample record is limited to ${MAX_RECORD_SAMPLES} samples, the scenario has ${total}`);
+  }
+  const plan = runBit ? planBitTrue(spec, quantized) : undefined;
+  const amplitude = spec.input.amplitude;
+  const setup = {
+    total,
+    buckets: options.buckets ?? DEFAULT_BUCKETS,
+    sampleRateHz: spec.sampleRateHz,
+    centerHz: spec.centerHz,
+    gainHzPerUnit: spec.nco.gainHzPerUnit,
+    amplitude,
+    lockToleranceRad: options.lockToleranceRad ?? DEFAULT_LOCK_TOLERANCE_RAD,
+    deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
+    fullTraces: options.fullTraces === true,
+  };
+  const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, amplitude);
+  const input = allocInputChunk(CHUNK_SAMPLES);
+  const floatCfg = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections };
+  const fState = initialFloatState(floatCfg);
+  const fOut = { ncoPhaseCycles: new Float64Array(CHUNK_SAMPLES), filterOutput: new Float64Array(CHUNK_SAMPLES) };
+  const fAcc = runFloat ? new RunAccumulator(setup) : null;
+  const bState = plan ? initialBitTrueState(plan) : null;
+  const record = keep ? allocRecord(total) : null;
+  const scratch = plan && !record ? allocRecord(CHUNK_SAMPLES) : null;
+  const bAcc = plan ? new RunAccumulator(setup) : null;
+  let checksum = CHECKSUM_BASIS;
+  for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {
+    if (options.signal?.aborted) throw new SimulationAbortedError();
+    const count = Math.min(CHUNK_SAMPLES, total - n0);
+    gen.next(input, n0, count);
+    if (fAcc) {
+      runFloatChunk(floatCfg, fState, input.x, count, fOut);
+      for (let i = 0; i < count; i++) {
+        const y = fOut.filterOutput[i] as number;
+        fAcc.push(n0 + i, input.phaseCycles[i] as number, fOut.ncoPhaseCycles[i] as number, input.x[i] as number, y, spec.centerHz + spec.nco.gainHzPerUnit * y, input.offsetHz[i] as number);
+      }
+    }
+    if (plan && bState && bAcc) {
+      const out: BitTrueRecord = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
+      quantizeInput(plan, input.x, count, out.inputCode);
+      runBitTrueChunk(plan, bState, out.inputCode, count, out as BitTrueChunkOut);
+      checksum = checksumRecord(checksum, out, count);
+      pushBitTrue(bAcc, plan, out, input, n0, count);
+    }
+    const fraction = (n0 + count) / total;
+    options.onProgress?.(fraction);
+    yield fraction;
+  }
+  const result: SimResult = { sampleCount: total, sampleRateHz: spec.sampleRateHz, durationS: total / spec.sampleRateHz };
+  const floatRun: SimRun | undefined = fAcc?.finish();
+  const bitRun: BitTrueRun | undefined = bAcc ? { ...bAcc.finish(), checksum, ...(record ? { record } : {}) } : undefined;
+  return { ...result, ...(floatRun ? { float: floatRun } : {}), ...(bitRun ? { bitTrue: bitRun } : {}), ...(plan ? { plan } : {}) };
+}
+
+function pushBitTrue(acc: RunAccumulator, plan: BitTruePlan, out: BitTrueRecord, input: ReturnType<typeof allocInputChunk>, n0: number, count: number): void {
+  const toCycles = 2 ** -plan.ncoAccumulatorBits;
+  const hiWeight = 2 ** 32 * toCycles;
+  const yScale = 2 ** -(plan.dataBits - 1);
+  for (let i = 0; i < count; i++) {
+    const phase = (out.phaseHi[i] as number) * hiWeight + (out.phaseLo[i] as number) * toCycles;
+    const y = out.filterCode[i] as number;
+    acc.push(n0 + i, input.phaseCycles[i] as number, phase, input.x[i] as number, y * yScale, bitTrueNcoHz(plan, y), input.offsetHz[i] as number);
+  }
+}

@@ -1,0 +1,135 @@
+/** Simulation types (src/sim, src/vectors, src/analysis/acquisitionSim.ts). */
+import type { NcoControlScaling, NcoTuning } from './nco.ts';
+import type { OverflowMode, RoundingMode } from './fixed.ts';
+
+export type { Scenario, ScenarioKind, ScenarioIssue, ParseScenarioResult } from '../spec/scenario.ts';
+
+/** The integer constants of the bit-true loop (README, "Bit-true arithmetic"). */
+export interface BitTruePlan {
+  readonly sampleRateHz: number;
+  readonly centerHz: number;
+  /** D: input, detector, section outputs and filter output are D-bit codes with D − 1 fraction bits. */
+  readonly dataBits: number;
+  readonly coefficientBits: number;
+  /** Fc: fraction bits of every coefficient code (resolved when the spec said "auto"). */
+  readonly coefficientFractionBits: number;
+  /** Wa: the section MAC word (fixedPoint.accumulatorBits). */
+  readonly macBits: number;
+  readonly rounding: RoundingMode;
+  readonly overflow: OverflowMode;
+  /** N: phase accumulator bits. */
+  readonly ncoAccumulatorBits: number;
+  /** P: sine-table address bits. */
+  readonly phaseBits: number;
+  /** B: sine-table code bits. */
+  readonly amplitudeBits: number;
+  readonly waveform: 'sine' | 'square';
+  readonly gainHzPerUnit: number;
+  readonly sectionCount: number;
+  /** b0, b1, b2, a1, a2 of each section in order. */
+  readonly coefficientCodes: readonly number[];
+  readonly tuning: NcoTuning;
+  readonly control: NcoControlScaling;
+  readonly sineTable: Int32Array;
+  /** 2^(B−1) − 1. */
+  readonly ncoFullScale: number;
+}
+
+/** Per-sample bit-true record (the golden vectors), typed arrays of equal length. */
+export interface BitTrueRecord {
+  readonly length: number;
+  readonly inputCode: Int32Array;
+  /** Phase accumulator at the sample (before it advances): hi·2^32 + lo. */
+  readonly phaseHi: Uint32Array;
+  readonly phaseLo: Uint32Array;
+  /** Sine-table address of the NCO output (after the quarter-wave offset for cos). */
+  readonly tableAddress: Int32Array;
+  readonly ncoCode: Int32Array;
+  readonly detectorCode: Int32Array;
+  readonly filterCode: Int32Array;
+}
+
+/** Min/max per bucket over consecutive samples; bucket k starts at bucketStartS[k]. */
+export interface DecimatedTrace {
+  readonly bucketStartS: Float64Array;
+  readonly min: Float64Array;
+  readonly max: Float64Array;
+}
+
+export interface SimTraces {
+  /** θe = θi − θo in rad, wrapped to (−π, π]. */
+  readonly phaseErrorRad: DecimatedTrace;
+  /** Loop-filter output in control units (the demodulated signal; × gainHzPerUnit = Hz). */
+  readonly filterOutput: DecimatedTrace;
+  readonly ncoFrequencyHz: DecimatedTrace;
+  /** Quadrature lock indicator ≈ cos θe (1 locked in phase, ≈ 0 not locked). */
+  readonly lockIndicator: DecimatedTrace;
+}
+
+export interface SimMetrics {
+  /** Time after which the smoothed phase error stays within lockToleranceRad of its final value; null if never. */
+  readonly lockTimeS: number | null;
+  readonly locked: boolean;
+  readonly lockToleranceRad: number;
+  /** Mean phase error over the last 10 % of the run, degrees in (−180, 180]. */
+  readonly steadyStatePhaseErrorDeg: number;
+  /** RMS of the phase error about that mean over the same span, degrees. */
+  readonly steadyStatePhaseJitterDeg: number;
+  /** Whole cycles slipped over the run (net change of the unwrapped phase error / 2π, rounded). */
+  readonly cycleSlips: number;
+  /** Mean NCO frequency minus input frequency over the last 10 %, Hz. */
+  readonly finalFrequencyErrorHz: number;
+  /** RMS of filterOutput·gainHzPerUnit − the scenario's frequency offset over the second half, Hz. */
+  readonly demodErrorRmsHz: number;
+  /** demodErrorRmsHz / deviationHz for FM (null otherwise). */
+  readonly demodErrorRelative: number | null;
+}
+
+export interface SimFullTraces {
+  readonly phaseErrorRad: Float64Array;
+  readonly filterOutput: Float64Array;
+  readonly ncoFrequencyHz: Float64Array;
+  readonly offsetHz: Float64Array;
+}
+
+export interface SimRun {
+  readonly traces: SimTraces;
+  readonly metrics: SimMetrics;
+  /** Every sample, when options.fullTraces was set (runs up to MAX_FULL_TRACE_SAMPLES). */
+  readonly full?: SimFullTraces;
+}
+
+export interface BitTrueRun extends SimRun {
+  /** FNV-1a over the 32-bit words of each sample's record (README, "Golden vectors"). */
+  readonly checksum: number;
+  readonly record?: BitTrueRecord;
+}
+
+export interface SimResult {
+  readonly sampleCount: number;
+  readonly sampleRateHz: number;
+  readonly durationS: number;
+  readonly float?: SimRun;
+  readonly bitTrue?: BitTrueRun;
+  readonly plan?: BitTruePlan;
+}
+
+/** Something with an `aborted` flag, like AbortSignal; checked once per chunk. */
+export interface AbortFlag {
+  readonly aborted: boolean;
+}
+
+export interface SimOptions {
+  /** Which loops to run (default both). */
+  readonly mode?: 'both' | 'float' | 'bit-true';
+  /** Buckets of the decimated traces (default 1000). */
+  readonly buckets?: number;
+  /** Called after each chunk with the fraction done in (0, 1]. */
+  readonly onProgress?: (fraction: number) => void;
+  readonly signal?: AbortFlag;
+  readonly fullTraces?: boolean;
+  /** Keep the per-sample bit-true record (golden vectors). */
+  readonly keepRecord?: boolean;
+  /** Lock tolerance in rad (default 0.1). */
+  readonly lockToleranceRad?: number;
+}
