@@ -33,7 +33,7 @@ export function handoffModel({ spec, quantized, tuning, control }: HandoffInput)
     {
       suffix: 'NCO_GAIN_SHIFT',
       value: control.gainShift,
-      meaning: 'tuning increment = round(filter output * NCO_GAIN_CODE / 2^NCO_GAIN_SHIFT); negative means a left shift',
+      meaning: 'tuning increment = round(filter output times NCO_GAIN_CODE / 2^NCO_GAIN_SHIFT); negative means a left shift',
     },
   ];
   const clocksPerSample = spec.clockHz / spec.sampleRateHz;

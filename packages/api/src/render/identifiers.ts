@@ -54,5 +54,5 @@ export function codeNames(name: string): CodeNames {
  * newline, `` ` ``, `#`, quotes). Everything else becomes `?`. Used only for our own generated wording.
  */
 export function commentText(text: string): string {
-  return text.replace(/[^A-Za-z0-9 .,:;=+\-()[\]^%<>|~!?@&{}/]/g, '?');
+  return text.replace(/[^A-Za-z0-9_ .,:;=+\-()[\]^%<>|~!?@&{}/]/g, '?');
 }

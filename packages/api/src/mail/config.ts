@@ -1,0 +1,45 @@
+/**
+ * Settings of the hand-off half (mail, review links, outbox), from the environment with units in
+ * the keys, validated once at start-up like the rest of the API's configuration.
+ */
+import { z } from 'zod';
+
+const int = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
+
+const handoffEnvSchema = z.object({
+  LW_SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  LW_SMTP_PORT: int(1, 65_535).default(1025),
+  /** Plain SMTP on loopback (the development fake) needs no STARTTLS; real relays should use it. */
+  LW_SMTP_IGNORE_TLS: z.enum(['true', 'false']).default('true').transform((v) => v === 'true'),
+  LW_SMTP_TIMEOUT_MS: int(100, 120_000).default(5_000),
+  LW_MAIL_FROM: z.string().min(3).default('Loopwright <loopwright@example.test>'),
+  /** Base of the links in e-mails: `${LW_PUBLIC_URL}/review/<token>`. */
+  LW_PUBLIC_URL: z.url().default('http://127.0.0.1:8080').transform((u) => u.replace(/\/+$/, '')),
+  LW_REVIEW_LINK_TTL_S: int(60, 90 * 24 * 3600).default(7 * 24 * 3600),
+  /** Outbox retry timer period; 0 disables the timer (tests call the retry function themselves). */
+  LW_OUTBOX_INTERVAL_MS: int(0, 3_600_000).default(30_000),
+});
+
+export interface HandoffConfig {
+  readonly smtp: { readonly host: string; readonly port: number; readonly ignoreTls: boolean; readonly timeoutMs: number };
+  readonly mailFrom: string;
+  readonly publicUrl: string;
+  readonly reviewLinkTtlS: number;
+  readonly outboxIntervalMs: number;
+}
+
+export function loadHandoffConfig(source: NodeJS.ProcessEnv = process.env): HandoffConfig {
+  const parsed = handoffEnvSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
+    throw new Error(`Invalid environment:\n  ${lines.join('\n  ')}`);
+  }
+  const env = parsed.data;
+  return {
+    smtp: { host: env.LW_SMTP_HOST, port: env.LW_SMTP_PORT, ignoreTls: env.LW_SMTP_IGNORE_TLS, timeoutMs: env.LW_SMTP_TIMEOUT_MS },
+    mailFrom: env.LW_MAIL_FROM,
+    publicUrl: env.LW_PUBLIC_URL,
+    reviewLinkTtlS: env.LW_REVIEW_LINK_TTL_S,
+    outboxIntervalMs: env.LW_OUTBOX_INTERVAL_MS,
+  };
+}

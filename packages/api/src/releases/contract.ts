@@ -1,0 +1,158 @@
+/**
+ * Request and response schemas of releases, reviews, review links, downloads and conformance.
+ * Pure zod (no node imports) so the app can import the types; re-exported by ../contract.ts.
+ */
+import { z } from 'zod';
+import { RELEASE_EVENTS, RELEASE_STATES } from './stateMachine.ts';
+
+const idSchema = z.coerce.number().int().min(1).max(2_147_483_647);
+const sha256Schema = z.string().regex(/^[0-9a-f]{64}$/, 'must be a SHA-256 in lower-case hex');
+
+export const releaseStateSchema = z.enum(RELEASE_STATES);
+export const releaseEventSchema = z.enum(RELEASE_EVENTS);
+
+export const releaseFileRecordSchema = z.object({
+  name: z.string(),
+  mediaType: z.string(),
+  sizeBytes: z.number().int(),
+  sha256: z.string(),
+});
+export type ReleaseFileRecord = z.infer<typeof releaseFileRecordSchema>;
+
+export const reviewRecordSchema = z.object({
+  id: z.number().int(),
+  reviewerId: z.number().int(),
+  reviewerName: z.string(),
+  decision: z.enum(['approve', 'request-changes']).nullable(),
+  comment: z.string().nullable(),
+  decidedAt: z.string().nullable(),
+  expiresAt: z.string(),
+});
+export type ReviewRecord = z.infer<typeof reviewRecordSchema>;
+
+export const releaseSummarySchema = z.object({
+  id: z.number().int(),
+  designId: z.number().int(),
+  number: z.number().int(),
+  /** "v1", "v2", … */
+  label: z.string(),
+  state: releaseStateSchema,
+  manifestSha256: z.string(),
+  specSha256: z.string(),
+  designRevision: z.number().int(),
+  createdById: z.number().int(),
+  createdByName: z.string(),
+  createdAt: z.string(),
+  stateChangedAt: z.string(),
+});
+export type ReleaseSummary = z.infer<typeof releaseSummarySchema>;
+
+export const releaseRecordSchema = releaseSummarySchema.extend({
+  designName: z.string(),
+  projectId: z.number().int(),
+  spec: z.unknown(),
+  results: z.unknown(),
+  files: z.array(releaseFileRecordSchema),
+  approvalsRequired: z.number().int().nullable(),
+  approvals: z.number().int(),
+  reviews: z.array(reviewRecordSchema),
+  /** What may happen next (the app shows only these actions). */
+  allowedEvents: z.array(releaseEventSchema),
+  /** DESIGN.md "Safety": the app shows it on the release page. */
+  caution: z.string(),
+});
+export type ReleaseRecord = z.infer<typeof releaseRecordSchema>;
+export const releaseListResponseSchema = z.object({ releases: z.array(releaseSummarySchema) });
+export type ReleaseListResponse = z.infer<typeof releaseListResponseSchema>;
+
+export const releaseParamsSchema = z.strictObject({ id: idSchema });
+export const releaseFileParamsSchema = z.strictObject({
+  id: idSchema,
+  name: z.string().regex(/^[A-Za-z0-9_.-]{1,80}$/, 'must be a file name of the release'),
+});
+
+export const reviewRequestSchema = z.strictObject({
+  /** User ids of the reviewers (each must hold the reviewer role). */
+  reviewerIds: z
+    .array(idSchema)
+    .min(1, 'name at least one reviewer')
+    .max(20, 'at most 20 reviewers')
+    .refine((ids) => new Set(ids).size === ids.length, 'each reviewer once'),
+  approvalsRequired: z.number().int().min(1),
+});
+export type ReviewRequest = z.infer<typeof reviewRequestSchema>;
+
+export const reviewTokenParamsSchema = z.strictObject({ token: z.string().min(1).max(200) });
+
+export const reviewDecisionSchema = z.strictObject({
+  decision: z.enum(['approve', 'request-changes']),
+  comment: z.string().max(4000).optional(),
+  /** The manifest hash the reviewer read; a decision on other content is refused. */
+  manifestSha256: sha256Schema,
+});
+export type ReviewDecisionRequest = z.infer<typeof reviewDecisionSchema>;
+
+export const reviewLinkViewSchema = z.object({
+  reviewerName: z.string(),
+  expiresAt: z.string(),
+  release: releaseRecordSchema,
+  /** Diff against the design's previous release, when there is one. */
+  diff: z.unknown().nullable(),
+});
+export type ReviewLinkView = z.infer<typeof reviewLinkViewSchema>;
+
+export const reviewDecisionResponseSchema = z.object({
+  decision: z.enum(['approve', 'request-changes']),
+  state: releaseStateSchema,
+  approvals: z.number().int(),
+  approvalsRequired: z.number().int(),
+});
+export type ReviewDecisionResponse = z.infer<typeof reviewDecisionResponseSchema>;
+
+export const diffQuerySchema = z.strictObject({ against: idSchema });
+
+export const valueChangeSchema = z.object({ path: z.string(), before: z.unknown(), after: z.unknown() });
+export const releaseDiffSchema = z.object({
+  from: z.object({ id: z.number().int(), label: z.string() }),
+  to: z.object({ id: z.number().int(), label: z.string() }),
+  spec: z.array(valueChangeSchema),
+  codes: z.array(z.object({ name: z.string(), before: z.string().nullable(), after: z.string().nullable() })),
+  margins: z.array(valueChangeSchema),
+});
+export type ReleaseDiff = z.infer<typeof releaseDiffSchema>;
+
+export const CONFORMANCE_UPLOAD_FIELD = 'file';
+
+export const mismatchSchema = z.object({
+  sampleIndex: z.number().int(),
+  column: z.string(),
+  expected: z.string(),
+  got: z.string(),
+});
+export const conformanceRecordSchema = z.object({
+  id: z.number().int(),
+  releaseId: z.number().int(),
+  uploadedById: z.number().int(),
+  uploadedByName: z.string(),
+  fileName: z.string(),
+  sizeBytes: z.number().int(),
+  sha256: z.string(),
+  verdict: z.enum(['bit-exact', 'mismatch']),
+  samplesCompared: z.number().int(),
+  mismatchCount: z.number().int(),
+  firstMismatches: z.array(mismatchSchema),
+  createdAt: z.string(),
+});
+export type ConformanceRecord = z.infer<typeof conformanceRecordSchema>;
+export const conformanceListResponseSchema = z.object({ runs: z.array(conformanceRecordSchema) });
+export type ConformanceListResponse = z.infer<typeof conformanceListResponseSchema>;
+
+export const downloadRecordSchema = z.object({
+  id: z.number().int(),
+  releaseId: z.number().int(),
+  userId: z.number().int(),
+  userEmail: z.string(),
+  fileName: z.string(),
+  at: z.string(),
+});
+export type DownloadRecord = z.infer<typeof downloadRecordSchema>;

@@ -1,0 +1,69 @@
+/**
+ * What the server computes from a stored spec before anything is rendered: the analysis, the
+ * quantised sections, the NCO set-up and the golden vectors, all from packages/dsp (the server's
+ * numbers are the ones that count). Validation happens here, at the public entry, and names the field.
+ */
+import {
+  analyzeDesign,
+  ncoControlScaling,
+  ncoTuning,
+  parseLoopSpec,
+  type AnalysisResult,
+  type LoopSpec,
+} from '@loopwright/dsp';
+import type { ReleaseComputation } from './artifacts.ts';
+import { goldenVectorsFor } from './vectors.ts';
+
+export class RenderInputError extends Error {
+  override readonly name = 'RenderInputError';
+  constructor(
+    readonly field: string,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+/** The results a manifest records: the analysis without its plot arrays (the app recomputes plots). */
+export function manifestResults(analysis: AnalysisResult, extra: Record<string, unknown>): Record<string, unknown> {
+  const { bode: _bode, stepResponses: _steps, ...numbers } = analysis;
+  return { analysis: numbers, ...extra };
+}
+
+export function validSpec(input: unknown): LoopSpec {
+  const parsed = parseLoopSpec(input);
+  if (!parsed.ok) {
+    const first = parsed.issues[0];
+    throw new RenderInputError(first?.field ?? '', parsed.issues.map((i) => i.message).join('; '));
+  }
+  return parsed.spec;
+}
+
+export function computeRelease(input: unknown): ReleaseComputation {
+  const spec = validSpec(input);
+  const analysis = analyzeDesign(spec);
+  const quantized = analysis.quantization.filter;
+  if (!quantized) {
+    const e = analysis.quantization.error;
+    throw new RenderInputError(e?.field ?? 'fixedPoint', `the loop filter cannot be quantised: ${e?.message ?? 'unknown reason'}`);
+  }
+  const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, spec.nco.accumulatorBits);
+  const control = ncoControlScaling({
+    gainHzPerUnit: spec.nco.gainHzPerUnit,
+    sampleRateHz: spec.sampleRateHz,
+    accumulatorBits: spec.nco.accumulatorBits,
+    dataBits: spec.fixedPoint.dataBits,
+    coefficientBits: spec.fixedPoint.coefficientBits,
+    rounding: spec.fixedPoint.rounding,
+  });
+  const vectors = goldenVectorsFor(spec);
+  return {
+    spec,
+    quantized,
+    tuning,
+    control,
+    results: manifestResults(analysis, { nco: { tuning, control }, vectors: vectors.summary }),
+    vectorsCsv: vectors.csv,
+    vectorColumns: vectors.columns,
+  };
+}
