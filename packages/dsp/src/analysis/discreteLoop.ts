@@ -38,12 +38,17 @@ export interface DiscreteLoopAnalysis {
 
 export const DEFAULT_POINTS = 600;
 
-/** Poles of F at z = 1 (integrators), counted by deflating A(z⁻¹) by (1 − z⁻¹) while A(1) ≈ 0. */
-export function integratorCount(a: readonly number[]): number {
-  let p = [...a];
+/** Relative size of A(1) below which a pole at z = 1 counts as an integrator (bilinear and quantised
+ * integrators give A(1) = 0 exactly; a narrow low-pass section still has A(1)/Σ|a| ≈ (ωT)² ≫ 1e-14). */
+const INTEGRATOR_TOL = 1e-14;
+
+/** Poles of F at z = 1 (integrators): per section, or by deflating A(z⁻¹) by (1 − z⁻¹) while A(1) ≈ 0. */
+export function integratorCount(filter: DigitalFilter): number {
+  if (isSections(filter)) return filter.reduce((n, s) => n + integratorCount({ b: s.b, a: s.a }), 0);
+  let p = [...filter.a];
   let count = 0;
   const scale = p.reduce((s, x) => s + Math.abs(x), 0);
-  while (p.length > 1 && Math.abs(p.reduce((s, x) => s + x, 0)) <= 1e-12 * scale) {
+  while (p.length > 1 && Math.abs(p.reduce((s, x) => s + x, 0)) <= INTEGRATOR_TOL * scale) {
     // synthetic division by (1 − w): q_i = p_i + q_{i−1}
     const q: number[] = [];
     let acc = 0;
@@ -62,7 +67,7 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
   const nyquistHz = fs / 2;
   const k = loopGain(spec).kRadPerS;
   const tf: DigitalTf = isSections(filter) ? sosToTf(filter as readonly Sos[]) : filter;
-  const loopType = 1 + integratorCount(tf.a);
+  const loopType = 1 + integratorCount(filter);
   const fn = discreteLoopResponse(filter, k, fs);
   const fMin = Math.min(options.fMinHz ?? nyquistHz * 1e-7, nyquistHz / 10);
   const grid = logGrid(fMin, nyquistHz, options.points ?? DEFAULT_POINTS);

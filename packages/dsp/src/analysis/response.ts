@@ -70,8 +70,11 @@ export function errorTransfer(open: ResponseFn): ResponseFn {
   };
 }
 
-/** 20·log10|h|, floored at −400 dB so that an exact zero never yields −Infinity in a result. */
+/** Floor of toDb: an exact zero (or an underflow) never yields −Infinity in a result. */
+export const DB_FLOOR = -3000;
+
+/** 20·log10|h| in dB, at least DB_FLOOR. */
 export function toDb(h: Complex): number {
-  const m2 = h.re * h.re + h.im * h.im;
-  return m2 > 1e-40 ? 10 * Math.log10(m2) : -400;
+  const m = Math.hypot(h.re, h.im);
+  return m > 0 ? Math.max(20 * Math.log10(m), DB_FLOOR) : DB_FLOOR;
 }

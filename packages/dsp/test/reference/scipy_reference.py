@@ -1,0 +1,231 @@
+#!/usr/bin/python3
+"""Reference figures from SciPy (Debian python3-scipy) for the dsp tests.
+
+Reads one JSON document {"butter": [...], "bilinear": [...], "loops": [...]} on stdin and writes the
+answers as JSON on stdout. Everything here is built independently of the TypeScript code, from the
+conventions of DESIGN.md and scipy.signal:
+
+* Butterworth: scipy.signal.butter (analog=True, and digital with fs, which prewarps the cutoff).
+* Bilinear: scipy.signal.bilinear with fs_eff = c/2, where c = 2*fs or, prewarped at wp,
+  c = wp / tan(wp / (2 fs)) (OS3 Sec. 7.2; SciPy applies the same prewarp inside `butter`).
+* Loops: F(s) from the loop-filter formulas as zeros/poles/gain, bilinear_zpk, then
+  L(s) = K F(s)/s (freqs_zpk) and L(z) = K T F(z)/(z - 1) (freqz_zpk). Margins on a dense log grid
+  refined with brentq; the discrete search interval is closed at fs/2. No control library is packaged
+  for Debian, hence the grid search (REFERENCES.md).
+"""
+import json
+import sys
+
+import numpy as np
+from scipy import integrate, optimize, signal
+
+GRID_POINTS = 20000
+END_TOUCH_DEG = 1e-7
+
+
+def bilinear_constant(fs, prewarp_hz):
+    if prewarp_hz is None:
+        return 2.0 * fs
+    wp = 2 * np.pi * prewarp_hz
+    return wp / np.tan(wp / (2 * fs))
+
+
+def butter_case(case):
+    n, fc = case["order"], case["cutoffHz"]
+    b_an, a_an = signal.butter(n, 2 * np.pi * fc, analog=True)
+    out = {"analogNum": b_an.tolist(), "analogDen": a_an.tolist()}
+    fs = case.get("sampleRateHz")
+    if fs is not None:
+        b, a = signal.butter(n, fc, fs=fs)
+        f = np.asarray(case["freqHz"], dtype=float)
+        _, h = signal.freqz(b, a, worN=f, fs=fs)
+        out.update({"b": b.tolist(), "a": a.tolist(), "magDb": (20 * np.log10(np.abs(h))).tolist(),
+                    "phaseDeg": np.degrees(np.angle(h)).tolist()})
+        _, hc = signal.freqz(b, a, worN=[fc], fs=fs)
+        out["cutoffDb"] = float(20 * np.log10(abs(hc[0])))
+    return out
+
+
+def bilinear_case(case):
+    fs_eff = bilinear_constant(case["sampleRateHz"], case.get("prewarpHz")) / 2
+    b, a = signal.bilinear(case["num"], case["den"], fs=fs_eff)
+    return {"b": np.atleast_1d(b).tolist(), "a": np.atleast_1d(a).tolist()}
+
+
+def time_constants(kind, k, natural_hz, damping):
+    """Targets to time constants, G3 Ch. 2 / B6: PI tau1 = K/wn^2, tau2 = 2 zeta/wn; lag-lead
+    tau1 + tau2 = K/wn^2, tau2 = 2 zeta/wn - 1/K."""
+    wn = 2 * np.pi * natural_hz
+    if kind == "pi":
+        return {"tau1S": k / wn ** 2, "tau2S": 2 * damping / wn}
+    t2 = 2 * damping / wn - 1 / k
+    return {"tau1S": k / wn ** 2 - t2, "tau2S": t2}
+
+
+def analog_filter_zpk(f, ripple):
+    """F(s) of the loop filter (and ripple filter) as zeros, poles, gain."""
+    kind = f["kind"]
+    z, p, k = [], [], 1.0
+    if kind in ("lag-lead", "pi") and "naturalHz" in f:
+        f = dict(f, **time_constants(kind, f["kRadPerS"], f["naturalHz"], f["damping"]))
+    if kind == "single-pole":
+        tau = 1 / (2 * np.pi * f["cutoffHz"])
+        p, k = [-1 / tau], 1 / tau
+    elif kind == "lag-lead":
+        t1, t2 = f["tau1S"], f["tau2S"]
+        z, p, k = [-1 / t2], [-1 / (t1 + t2)], t2 / (t1 + t2)
+    elif kind == "pi":
+        t1, t2 = f["tau1S"], f["tau2S"]
+        z, p, k = [-1 / t2], [0.0], t2 / t1
+    elif kind == "butterworth":
+        z, p, k = signal.butter(f["order"], 2 * np.pi * f["cutoffHz"], analog=True, output="zpk")
+    if ripple is not None:
+        rz, rp, rk = signal.butter(ripple["order"], 2 * np.pi * ripple["cutoffHz"], analog=True, output="zpk")
+        z, p, k = np.concatenate([z, rz]), np.concatenate([p, rp]), k * rk
+    return np.asarray(z, dtype=complex), np.asarray(p, dtype=complex), float(k)
+
+
+def root(fun, a, b):
+    """brentq, or the better end of the bracket when rounding at an end point hides the sign change."""
+    fa, fb = fun(a), fun(b)
+    if fa == 0 or fb == 0 or (fa > 0) != (fb > 0):
+        return optimize.brentq(fun, a, b, xtol=1e-14)
+    return a if abs(fa) < abs(fb) else b
+
+
+def unwrap_from(h, loop_type):
+    ph = np.unwrap(np.angle(h))
+    ph0 = np.degrees(ph[0])
+    shift = 360 * np.round((-90 * loop_type - ph0) / 360)
+    return np.degrees(ph) + shift
+
+
+def margins(resp, freqs, loop_type):
+    """Gain/phase crossovers of resp(f) on the grid, refined with brentq in log f."""
+    h = resp(freqs)
+    mag_db = 20 * np.log10(np.maximum(np.abs(h), 1e-200))
+    ph = unwrap_from(h, loop_type)
+    lf = np.log(freqs)
+
+    def phase_near(x, i):
+        return ph[i] + np.degrees(np.angle(resp(np.array([np.exp(x)]))[0] / h[i]))
+
+    pms = []
+    for i in range(len(freqs) - 1):
+        a, b = mag_db[i], mag_db[i + 1]
+        if (a > 0 and b <= 0) or (a < 0 and b >= 0):
+            x = root(lambda x: 20 * np.log10(abs(resp(np.array([np.exp(x)]))[0])), lf[i], lf[i + 1])
+            pms.append((np.exp(x), 180 + phase_near(x, i)))
+    gms = []
+    last = len(freqs) - 1
+    for i in range(last):
+        pa, pb = ph[i], ph[i + 1]
+        lo, hi = min(pa, pb), max(pa, pb)
+        for n in range(int(np.ceil((lo - END_TOUCH_DEG + 180) / 360)), int(np.floor((hi + END_TOUCH_DEG + 180) / 360)) + 1):
+            level = -180 + 360 * n
+            pbl = level if (i + 1 == last and abs(pb - level) < END_TOUCH_DEG) else pb
+            da, db = pa - level, pbl - level
+            if not ((da > 0 and db <= 0) or (da < 0 and db >= 0)):
+                continue
+            if db == 0:
+                f = freqs[i + 1]
+            else:
+                f = np.exp(root(lambda x: phase_near(x, i) - level, lf[i], lf[i + 1]))
+            g = abs(resp(np.array([f]))[0])
+            if g < 1e-12:
+                continue
+            gms.append((f, -20 * np.log10(g)))
+    out = {"crossoverHz": None, "phaseMarginDeg": None, "phaseCrossoverHz": None, "gainMarginDb": None}
+    if pms:
+        f, pm = min(pms, key=lambda t: t[1])
+        out.update(crossoverHz=float(f), phaseMarginDeg=float(pm))
+    if gms:
+        f, gm = min(gms, key=lambda t: abs(t[1]))
+        out.update(phaseCrossoverHz=float(f), gainMarginDb=float(gm))
+    return out
+
+
+def closed_loop_figures(resp, freqs):
+    hc = lambda f: resp(f) / (1 + resp(f))
+    db = 20 * np.log10(np.abs(hc(freqs)))
+    i_peak = int(np.argmax(db))
+    peak = max(0.0, float(db[i_peak]))
+    if db[i_peak] > 0 and 0 < i_peak < len(freqs) - 1:
+        r = optimize.minimize_scalar(lambda x: -20 * np.log10(abs(hc(np.array([np.exp(x)]))[0])),
+                                     bounds=(np.log(freqs[i_peak - 1]), np.log(freqs[i_peak + 1])), method="bounded",
+                                     options={"xatol": 1e-12})
+        peak = max(peak, float(-r.fun))
+    target = 10 * np.log10(0.5)
+    bw = None
+    for i in range(i_peak, len(freqs) - 1):
+        if db[i] >= target and db[i + 1] < target:
+            x = root(lambda x: 20 * np.log10(abs(hc(np.array([np.exp(x)]))[0])) - target,
+                     np.log(freqs[i]), np.log(freqs[i + 1]))
+            bw = float(np.exp(x))
+            break
+    return {"bandwidth3dbHz": bw, "peakingDb": peak}
+
+
+def noise_bandwidth(resp, f_lo, f_hi):
+    """One-sided integral of |H|^2 df with scipy.integrate.quad over log-spaced pieces."""
+    def h2(f):
+        v = resp(np.array([f]))[0]
+        v = v / (1 + v)
+        return abs(v) ** 2
+    edges = np.geomspace(f_lo, f_hi, 40)
+    total = f_lo * h2(f_lo)  # |H| is flat (≈ 1) below the grid
+    for a, b in zip(edges[:-1], edges[1:]):
+        total += integrate.quad(h2, a, b, limit=200, epsabs=0, epsrel=1e-11)[0]
+    return total
+
+
+def loop_case(case):
+    fs = case["sampleRateHz"]
+    k = case["kRadPerS"]
+    z, p, kf = analog_filter_zpk(dict(case["filter"], kRadPerS=k), case.get("rippleFilter"))
+    loop_type = 1 + int(np.sum(np.abs(p) == 0))
+    fs_eff = bilinear_constant(fs, case.get("prewarpHz")) / 2
+    zd, pd, kd = signal.bilinear_zpk(z, p, kf, fs_eff)
+    pa = np.concatenate([p, [0.0]])
+    pdd = np.concatenate([pd, [1.0]])
+
+    def analog(f):
+        _, h = signal.freqs_zpk(z, pa, k * kf, worN=2 * np.pi * np.asarray(f, dtype=float))
+        return h
+
+    def discrete(f):
+        _, h = signal.freqz_zpk(zd, pdd, k * kd / fs, worN=np.asarray(f, dtype=float), fs=fs)
+        return h
+
+    f_lo, f_hi_analog, nyq = case["fMinHz"], case["fMaxAnalogHz"], fs / 2
+    grid_a = np.geomspace(f_lo, f_hi_analog, GRID_POINTS)
+    grid_d = np.geomspace(f_lo, nyq, GRID_POINTS)
+    grid_d[-1] = nyq
+    out = {"analog": margins(analog, grid_a, loop_type), "discrete": margins(discrete, grid_d, loop_type),
+           "analogClosed": closed_loop_figures(analog, grid_a), "discreteClosed": closed_loop_figures(discrete, grid_d)}
+    if case.get("noiseBandwidth"):
+        out["analogNoiseHz"] = noise_bandwidth(analog, f_lo, f_hi_analog * 1e3)
+        out["discreteNoiseHz"] = noise_bandwidth(discrete, f_lo, nyq)
+    f = np.asarray(case.get("freqHz", []), dtype=float)
+    if f.size:
+        ha, hd = analog(f), discrete(f)
+        out["analogMagDb"] = (20 * np.log10(np.abs(ha))).tolist()
+        out["discreteMagDb"] = (20 * np.log10(np.abs(hd))).tolist()
+        out["analogPhaseDeg"] = np.degrees(np.angle(ha)).tolist()
+        out["discretePhaseDeg"] = np.degrees(np.angle(hd)).tolist()
+    return out
+
+
+def main():
+    data = json.load(sys.stdin)
+    out = {
+        "scipyVersion": __import__("scipy").__version__,
+        "butter": [butter_case(c) for c in data.get("butter", [])],
+        "bilinear": [bilinear_case(c) for c in data.get("bilinear", [])],
+        "loops": [loop_case(c) for c in data.get("loops", [])],
+    }
+    json.dump(out, sys.stdout)
+
+
+if __name__ == "__main__":
+    main()
