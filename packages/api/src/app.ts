@@ -35,7 +35,7 @@ function defaultLog(message: string, err?: unknown): void {
 export function createApp(options: AppOptions): BuiltApp {
   const { config, dataSource } = options;
   const log = options.log ?? defaultLog;
-  const services = createServices(dataSource, { bcryptRounds: config.bcryptRounds });
+  const services = createServices(dataSource, config);
   const auth = new Authenticator(dataSource, services.users, config);
   const routes = apiRoutes(auth, signInRateLimiter(dataSource, config), options.extraRoutes);
 
@@ -62,6 +62,7 @@ export function createApp(options: AppOptions): BuiltApp {
     apiRouter,
     async close() {
       await auth.close();
+      await services.compute.close();
     },
   };
 }

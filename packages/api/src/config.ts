@@ -29,6 +29,10 @@ const envSchema = z.object({
   LW_SIGNIN_LIMIT_PER_WINDOW: int(1, 10_000).default(10),
   LW_SIGNIN_WINDOW_S: int(1, 24 * 3600).default(15 * 60),
   LW_SIM_THREADS: int(1, 64).default(2),
+  LW_COMPUTE_TIMEOUT_S: int(1, 3600).default(60),
+  LW_COMPUTE_MAX_QUEUE: int(1, 10_000).default(64),
+  /** Largest simulation one request may ask for: durationS × sampleRateHz loop samples. */
+  LW_SIM_MAX_SAMPLES: int(1_000, 50_000_000).default(5_000_000),
   /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
   LW_BCRYPT_ROUNDS: int(4, 15).default(12),
   LW_TRUST_PROXY: flag.default(false),
@@ -58,7 +62,12 @@ export interface Config {
   readonly bodyLimitBytes: number;
   readonly uploadLimitBytes: number;
   readonly signIn: { readonly limitPerWindow: number; readonly windowS: number };
-  readonly simulationThreads: number;
+  readonly compute: {
+    readonly threads: number;
+    readonly timeoutS: number;
+    readonly maxQueue: number;
+    readonly maxSimulationSamples: number;
+  };
   readonly bcryptRounds: number;
   readonly trustProxy: boolean;
   /** Keys that fell back to their development default, with the value used (printed at start-up). */
@@ -102,7 +111,12 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     bodyLimitBytes: env.LW_BODY_LIMIT_BYTES,
     uploadLimitBytes: env.LW_UPLOAD_LIMIT_BYTES,
     signIn: { limitPerWindow: env.LW_SIGNIN_LIMIT_PER_WINDOW, windowS: env.LW_SIGNIN_WINDOW_S },
-    simulationThreads: env.LW_SIM_THREADS,
+    compute: {
+      threads: env.LW_SIM_THREADS,
+      timeoutS: env.LW_COMPUTE_TIMEOUT_S,
+      maxQueue: env.LW_COMPUTE_MAX_QUEUE,
+      maxSimulationSamples: env.LW_SIM_MAX_SAMPLES,
+    },
     bcryptRounds: env.LW_BCRYPT_ROUNDS,
     trustProxy: env.LW_TRUST_PROXY,
     defaultsUsed,

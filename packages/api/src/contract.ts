@@ -4,7 +4,7 @@
  * browser bundle can use it too. Request objects are strict: an unknown field is a 400 naming it.
  */
 import { z } from 'zod';
-import { loopSpecSchema } from '@loopwright/dsp';
+import { loopSpecSchema, type AnalysisResult } from '@loopwright/dsp';
 
 export const ROLES = ['designer', 'reviewer', 'firmware', 'admin'] as const;
 export const roleSchema = z.enum(ROLES);
@@ -56,6 +56,8 @@ export const ERROR_CODES = [
   'conflict',
   'stale_revision',
   'rate_limited',
+  'server_busy',
+  'timeout',
   'database_unavailable',
   'internal',
 ] as const;
@@ -244,6 +246,13 @@ export const designUploadFieldsSchema = z.strictObject({ name: titleSchema(120).
 
 export const analysisRequestSchema = z.strictObject({ spec: loopSpecSchema });
 export type AnalysisRequest = z.input<typeof analysisRequestSchema>;
+
+/** The server's analysis (packages/dsp analyzeDesign); for a stored design, which revision it is of. */
+export interface AnalysisResponse {
+  readonly analysis: AnalysisResult;
+  readonly designId?: number;
+  readonly revision?: number;
+}
 
 // ---------------------------------------------------------------------------------------------- audit
 

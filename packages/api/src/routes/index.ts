@@ -1,5 +1,6 @@
 import type { RequestHandler } from 'express';
 import type { Authenticator } from '../middleware/auth.ts';
+import { analysisRoutes } from './analysis.ts';
 import { auditRoutes } from './audit.ts';
 import { designRoutes } from './designs.ts';
 import { healthRoutes } from './health.ts';
@@ -10,5 +11,5 @@ import { userRoutes } from './users.ts';
 
 /** Every API route, in one table (path relative to /api). Other modules add theirs here. */
 export function apiRoutes(auth: Authenticator, signInLimiter: RequestHandler, extra: readonly RouteSpec[] = []): RouteSpec[] {
-  return [...healthRoutes, ...sessionRoutes(auth, signInLimiter), ...userRoutes, ...projectRoutes, ...designRoutes, ...auditRoutes, ...extra];
+  return [...healthRoutes, ...sessionRoutes(auth, signInLimiter), ...userRoutes, ...projectRoutes, ...designRoutes, ...analysisRoutes, ...auditRoutes, ...extra];
 }

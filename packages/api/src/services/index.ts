@@ -1,5 +1,8 @@
 import type { DataSource } from 'typeorm';
+import type { Config } from '../config.ts';
+import { AnalysisService } from './analysis.ts';
 import { AuditService } from './audit.ts';
+import { ComputePool } from './compute.ts';
 import { DesignService } from './designs.ts';
 import { ProjectService } from './projects.ts';
 import { SessionControl } from './sessions.ts';
@@ -12,13 +15,17 @@ export interface Services {
   readonly users: UserService;
   readonly projects: ProjectService;
   readonly designs: DesignService;
+  readonly compute: ComputePool;
+  readonly analysis: AnalysisService;
 }
 
-export function createServices(dataSource: DataSource, options: { bcryptRounds: number }): Services {
+export function createServices(dataSource: DataSource, config: Config): Services {
   const audit = new AuditService(dataSource);
   const sessions = new SessionControl(dataSource);
-  const users = new UserService(dataSource, audit, sessions, options.bcryptRounds);
+  const users = new UserService(dataSource, audit, sessions, config.bcryptRounds);
   const projects = new ProjectService(dataSource, audit);
   const designs = new DesignService(dataSource, projects, audit);
-  return { dataSource, audit, sessions, users, projects, designs };
+  const compute = new ComputePool({ threads: config.compute.threads, timeoutMs: config.compute.timeoutS * 1000, maxQueue: config.compute.maxQueue });
+  const analysis = new AnalysisService(compute, designs);
+  return { dataSource, audit, sessions, users, projects, designs, compute, analysis };
 }
