@@ -36,3 +36,5 @@ export { planBitTrue, validateBitTrueWidths } from './sim/bitTruePlan.ts';
 export { runBitTrueChunk, initialBitTrueState, quantizeInput } from './sim/bitTrueKernel.ts';
 export { checksumRecord, CHECKSUM_BASIS } from './sim/checksum.ts';
 export { mulberry32, gaussianSource } from './sim/prng.ts';
+export { goldenVectors, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from './vectors/goldenVectors.ts';
+export { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from './vectors/vectorsCsv.ts';

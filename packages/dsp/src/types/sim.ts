@@ -133,3 +133,5 @@ export interface SimOptions {
   /** Lock tolerance in rad (default 0.1). */
   readonly lockToleranceRad?: number;
 }
+export type { GoldenVectors } from '../vectors/goldenVectors.ts';
+export type { VectorCsvColumn } from '../vectors/vectorsCsv.ts';
