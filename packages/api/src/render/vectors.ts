@@ -1,12 +1,51 @@
-/** Golden vectors of a release (placeholder until dsp's goldenVectors lands). */
-import type { LoopSpec } from '@loopwright/dsp';
+/**
+ * Golden vectors of a release: dsp's bit-true record of its default scenario, in dsp's CSV layout
+ * (packages/dsp/src/vectors/vectorsCsv.ts). The column meanings below are keyed by dsp's column list,
+ * so a column added there fails the type check here until README.txt describes it.
+ */
+import {
+  formatVectorsCsv,
+  goldenVectors,
+  VECTOR_CSV_COLUMNS,
+  type LoopSpec,
+  type Scenario,
+} from '@loopwright/dsp';
+
+type VectorColumn = (typeof VECTOR_CSV_COLUMNS)[number];
+
+const COLUMN_MEANINGS: Readonly<Record<VectorColumn, string>> = {
+  sample: 'sample index n, from 0',
+  input_code: 'input sample x[n], dataBits signed, dataBits - 1 fraction bits',
+  nco_phase: 'NCO phase accumulator at n before it advances, unsigned, nco.accumulatorBits wide',
+  table_address: 'sine-table address of the NCO output: (phase >> (N - P)) + 2^(P-2) mod 2^P',
+  nco_code: 'NCO output code, nco.amplitudeBits signed',
+  detector_code: 'detector output u[n], dataBits signed',
+  filter_code: 'loop-filter output y[n] (last section), dataBits signed',
+};
+
+export const VECTOR_COLUMNS: readonly { name: VectorColumn; meaning: string }[] = VECTOR_CSV_COLUMNS.map((name) => ({
+  name,
+  meaning: COLUMN_MEANINGS[name],
+}));
 
 export interface ReleaseVectors {
   readonly csv: string;
   readonly columns: readonly { name: string; meaning: string }[];
-  readonly summary: Record<string, unknown>;
+  /** Scenario, sample count and checksum, recorded in the manifest's results. */
+  readonly summary: { readonly scenario: Scenario; readonly samples: number; readonly checksum: number };
 }
 
-export function goldenVectorsFor(_spec: LoopSpec): ReleaseVectors {
-  return { csv: 'sample\n', columns: [{ name: 'sample', meaning: 'pending' }], summary: {} };
+export function goldenVectorsFor(spec: LoopSpec): ReleaseVectors {
+  const v = goldenVectors(spec);
+  return {
+    csv: formatVectorsCsv(v),
+    columns: VECTOR_COLUMNS,
+    summary: { scenario: v.scenario, samples: v.record.length, checksum: v.checksum },
+  };
+}
+
+/** The first `count` golden vectors of a scenario, in the release's CSV layout (header included). */
+export function scenarioVectorsCsv(spec: LoopSpec, scenario: Scenario, count: number): string {
+  const lines = formatVectorsCsv(goldenVectors(spec, scenario)).split('\n');
+  return `${lines.slice(0, count + 1).join('\n')}\n`;
 }

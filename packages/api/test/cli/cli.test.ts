@@ -1,0 +1,127 @@
+/**
+ * The terminal commands as a CI pipeline runs them: a child process, stdout holding only JSON/CSV,
+ * one line on stderr and exit code 2 for bad input, relative paths against INIT_CWD.
+ */
+import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { mainsSyncSpec, ultrasonicSinglePoleSpec, VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
+import { describe, expect, it } from 'vitest';
+
+const MAIN = fileURLToPath(new URL('../../src/cli/main.ts', import.meta.url));
+const ROOT = fileURLToPath(new URL('../../../../', import.meta.url));
+
+function cli(args: string[], initCwd: string) {
+  const r = spawnSync(process.execPath, ['--import', 'tsx', MAIN, ...args], {
+    // As `npm run -s loopwright` does: the process runs at the repository root and INIT_CWD says
+    // where the user typed the command.
+    cwd: ROOT,
+    env: { ...process.env, INIT_CWD: initCwd },
+    encoding: 'utf8',
+    timeout: 60_000,
+  });
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+function workspace(): string {
+  const dir = mkdtempSync(join(tmpdir(), 'lw-cli-'));
+  writeFileSync(join(dir, 'spec.json'), JSON.stringify(mainsSyncSpec));
+  writeFileSync(join(dir, 'tone.json'), JSON.stringify({ kind: 'tone', offsetHz: 0.5, durationS: 0.5, seed: 3 }));
+  return dir;
+}
+
+const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+
+describe('loopwright CLI', () => {
+  it('design prints the analysis as JSON and nothing else', () => {
+    const dir = workspace();
+    const r = cli(['design', 'spec.json'], dir);
+    expect(r.code, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { specName: string; margins: { discrete: unknown }; verdict: { stable: boolean } };
+    expect(out.specName).toBe('mains_sync_50hz');
+    expect(out.verdict.stable).toBe(true);
+    expect(r.stderr).toBe('');
+  });
+
+  it('simulate prints metrics JSON, and with --vectors N the first N golden vectors as CSV', () => {
+    const dir = workspace();
+    const metrics = cli(['simulate', 'spec.json', 'tone.json'], dir);
+    expect(metrics.code, metrics.stderr).toBe(0);
+    const m = JSON.parse(metrics.stdout) as { sampleCount: number; bitTrue: { locked: boolean; checksum: number } };
+    expect(m.sampleCount).toBe(5000); // 0.5 s at 10 kHz
+    expect(typeof m.bitTrue.checksum).toBe('number');
+
+    const csv = cli(['simulate', 'spec.json', 'tone.json', '--vectors', '5'], dir);
+    expect(csv.code, csv.stderr).toBe(0);
+    const lines = csv.stdout.trimEnd().split('\n');
+    expect(lines[0]).toBe(VECTOR_CSV_COLUMNS.join(','));
+    expect(lines).toHaveLength(6);
+    expect(lines.slice(1).map((l) => l.split(',')[0])).toEqual(['0', '1', '2', '3', '4']);
+  });
+
+  it('render writes exactly the files the manifest lists, with the sums it states', () => {
+    const dir = workspace();
+    const r = cli(['render', 'spec.json', 'out'], dir);
+    expect(r.code, r.stderr).toBe(0);
+    const outDir = join(dir, 'out');
+    const manifest = JSON.parse(readFileSync(join(outDir, 'manifest.json'), 'utf8')) as { files: { name: string; sha256: string; bytes: number }[] };
+    expect(readdirSync(outDir).sort()).toEqual(['manifest.json', ...manifest.files.map((f) => f.name)].sort());
+    for (const f of manifest.files) {
+      const bytes = readFileSync(join(outDir, f.name));
+      expect(sha256(bytes), f.name).toBe(f.sha256);
+      expect(bytes.length).toBe(f.bytes);
+    }
+    const report = JSON.parse(r.stdout) as { manifestSha256: string };
+    expect(report.manifestSha256).toBe(sha256(readFileSync(join(outDir, 'manifest.json'))));
+  });
+
+  it('renders the same bytes for the same spec on every run', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'other.json'), JSON.stringify(ultrasonicSinglePoleSpec));
+    const a = JSON.parse(cli(['render', 'other.json', 'a'], dir).stdout) as { manifestSha256: string };
+    const b = JSON.parse(cli(['render', 'other.json', 'b'], dir).stdout) as { manifestSha256: string };
+    expect(a.manifestSha256).toBe(b.manifestSha256);
+  });
+
+  it('names the offending field on one stderr line and exits 2 for a bad spec', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'bad.json'), JSON.stringify({ ...mainsSyncSpec, fixedPoint: { ...mainsSyncSpec.fixedPoint, dataBits: 1 } }));
+    for (const args of [['design', 'bad.json'], ['render', 'bad.json', 'out'], ['simulate', 'bad.json', 'tone.json']]) {
+      const r = cli(args, dir);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
+      expect(r.stderr).toContain('fixedPoint.dataBits');
+    }
+  });
+
+  it('names the scenario field for a bad scenario', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'bad-scenario.json'), JSON.stringify({ kind: 'tone', offsetHz: 1, durationS: -1 }));
+    const r = cli(['simulate', 'spec.json', 'bad-scenario.json'], dir);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/SCENARIO\.json.*durationS/);
+  });
+
+  it('exits 2 with one line for a missing file, invalid JSON, an unknown command or a bad --vectors', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'broken.json'), '{"specVersion": 1,');
+    const cases: [string[], RegExp][] = [
+      [['design', 'nope.json'], /SPEC\.json: cannot read .*nope\.json \(ENOENT\)/],
+      [['design', 'broken.json'], /SPEC\.json: .*broken\.json is not valid JSON/],
+      [['frobnicate'], /unknown command "frobnicate"/],
+      [['simulate', 'spec.json', 'tone.json', '--vectors', 'lots'], /--vectors: must be a whole number/],
+      [['render', 'spec.json'], /render takes 2 arguments, got 1/],
+    ];
+    for (const [args, pattern] of cases) {
+      const r = cli(args, dir);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr).toMatch(pattern);
+      expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
+    }
+  });
+});
