@@ -26,7 +26,7 @@ export function createDataSource(db: Config['db']): DataSource {
     migrationsTableName: 'migrations',
     synchronize: false,
     migrationsRun: false,
-    logging: ['error'],
+    logging: false, // failed queries would print their parameters (hashes, e-mails); errors are logged by the API
     poolSize: db.poolSize,
     connectTimeout: db.connectTimeoutMs,
     extra: {
