@@ -4,7 +4,7 @@ import { useSessionStore } from '../src/stores/useSessionStore.ts';
 import { sessionApi } from '../src/api/sessionApi.ts';
 import { ApiError } from '../src/api/client.ts';
 
-const designer = { id: 1, email: 'designer@example.test', displayName: 'Dana Designer', roles: ['designer' as const] };
+const designer = { id: 1, email: 'designer@example.test', displayName: 'Dana Designer', roles: ['designer' as const], organizationId: 1 };
 
 describe('session store', () => {
   beforeEach(() => {

@@ -3,10 +3,8 @@ import type { AuditEntry, AuditQuery, CreateUserRequest, UpdateUserRequest, User
 
 export const usersApi = {
   list: () => api.request<{ users: UserAccount[] }>('/users').then((b) => b.users),
-  create: (request: CreateUserRequest) =>
-    api.request<{ user: UserAccount }>('/users', { method: 'POST', body: request }).then((b) => b.user),
-  update: (id: number, request: UpdateUserRequest) =>
-    api.request<{ user: UserAccount }>(`/users/${id}`, { method: 'PATCH', body: request }).then((b) => b.user),
+  create: (request: CreateUserRequest) => api.request<UserAccount>('/users', { method: 'POST', body: request }),
+  update: (id: number, request: UpdateUserRequest) => api.request<UserAccount>(`/users/${id}`, { method: 'PATCH', body: request }),
 };
 
 export const auditApi = {

@@ -67,7 +67,8 @@ function buildUrl(baseUrl: string, path: string, query?: RequestOptions['query']
 }
 
 function buildInit(options: RequestOptions): RequestInit {
-  const headers: Record<string, string> = { Accept: 'application/json' };
+  // The API refuses state-changing browser requests without this header (its CSRF rule).
+  const headers: Record<string, string> = { Accept: 'application/json', 'X-Requested-With': 'loopwright' };
   const init: RequestInit = { method: options.method ?? 'GET', headers, credentials: 'same-origin' };
   if (options.signal) init.signal = options.signal;
   if (options.body instanceof FormData) {

@@ -6,20 +6,26 @@ export interface CreateProjectRequest {
   readonly description: string;
 }
 
+/** A design starts from a template (GET /api/templates), a full spec, or blank. */
 export interface CreateDesignRequest {
   readonly name: string;
-  readonly spec: unknown;
+  readonly templateId?: string;
+  readonly spec?: unknown;
+}
+
+export interface DesignTemplate {
+  readonly id: string;
+  readonly title: string;
+  readonly description: string;
 }
 
 export const projectsApi = {
   list: () => api.request<{ projects: Project[] }>('/projects').then((b) => b.projects),
-  get: (id: number) => api.request<{ project: Project }>(`/projects/${id}`).then((b) => b.project),
-  create: (request: CreateProjectRequest) =>
-    api.request<{ project: Project }>('/projects', { method: 'POST', body: request }).then((b) => b.project),
+  get: (id: number) => api.request<Project>(`/projects/${id}`),
+  create: (request: CreateProjectRequest) => api.request<Project>('/projects', { method: 'POST', body: request }),
+  templates: () => api.request<{ templates: DesignTemplate[] }>('/templates').then((b) => b.templates),
   designs: (id: number) =>
     api.request<{ designs: DesignSummary[] }>(`/projects/${id}/designs`).then((b) => b.designs),
   createDesign: (id: number, request: CreateDesignRequest) =>
-    api
-      .request<{ design: DesignSummary }>(`/projects/${id}/designs`, { method: 'POST', body: request })
-      .then((b) => b.design),
+    api.request<DesignSummary>(`/projects/${id}/designs`, { method: 'POST', body: request }),
 };

@@ -3,14 +3,21 @@
  * Kept in one place so that switching to the API package's contract types is one edit.
  */
 
+import type { LoopSpec, LoopSpecInput } from '@loopwright/dsp';
+
 export const ROLES = ['designer', 'reviewer', 'firmware', 'admin'] as const;
 export type Role = (typeof ROLES)[number];
+
+export function isRole(value: unknown): value is Role {
+  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
+}
 
 export interface SessionUser {
   readonly id: number;
   readonly email: string;
   readonly displayName: string;
   readonly roles: readonly Role[];
+  readonly organizationId: number;
 }
 
 export interface SignInRequest {
@@ -22,7 +29,10 @@ export interface Project {
   readonly id: number;
   readonly name: string;
   readonly description: string;
+  readonly archived: boolean;
+  readonly designCount: number;
   readonly createdAt: string;
+  readonly updatedAt: string;
 }
 
 export interface DesignSummary {
@@ -30,19 +40,20 @@ export interface DesignSummary {
   readonly projectId: number;
   readonly name: string;
   readonly revision: number;
+  readonly ownerId: number;
+  readonly ownerName: string;
+  readonly createdAt: string;
   readonly updatedAt: string;
 }
 
 export interface Design extends DesignSummary {
-  /** The loop spec JSON (validated by the shared zod schema before use). */
-  readonly spec: unknown;
-  readonly updatedBy?: string;
+  readonly spec: LoopSpec;
 }
 
 export interface SaveDesignRequest {
-  readonly spec: unknown;
-  /** The revision the edit started from; the server answers 409 when it has moved on. */
-  readonly revision: number;
+  readonly spec?: LoopSpecInput;
+  /** The revision the edit started from; the server answers 409 stale_revision when it moved on. */
+  readonly baseRevision: number;
   readonly name?: string;
 }
 
@@ -126,6 +137,8 @@ export interface UserAccount {
   readonly displayName: string;
   readonly roles: readonly Role[];
   readonly disabled: boolean;
+  readonly createdAt: string;
+  readonly updatedAt: string;
 }
 
 export interface CreateUserRequest {
@@ -144,15 +157,19 @@ export interface UpdateUserRequest {
 export interface AuditEntry {
   readonly id: number;
   readonly at: string;
-  readonly actor: string;
+  readonly actorId: number | null;
+  readonly actorEmail: string | null;
   readonly action: string;
-  readonly target: string;
-  readonly detail: string;
+  readonly objectType: string;
+  readonly objectId: string | null;
+  readonly ip: string | null;
+  readonly detail: unknown;
 }
 
 export interface AuditQuery {
-  readonly actor?: string;
-  readonly action?: string;
-  readonly from?: string;
-  readonly to?: string;
+  readonly objectType?: string;
+  readonly objectId?: string;
+  readonly actorId?: number;
+  readonly beforeId?: number;
+  readonly limit?: number;
 }

@@ -1,0 +1,129 @@
+/**
+ * Bode plot of the open loop: magnitude (dB) above, phase (degrees) below, log frequency axis
+ * shared by both; analog prototype dashed, discrete loop solid; crossover and the −180° point
+ * marked, with the margins written beside them.
+ */
+import type { EChartsCoreOption } from 'echarts/core';
+import { CHART_COLORS, chartAnimation } from './echarts.ts';
+
+export interface BodeTrace {
+  readonly label: string;
+  readonly freqHz: readonly number[];
+  readonly magnitudeDb: readonly number[];
+  readonly phaseDeg: readonly number[];
+  readonly style: 'analog' | 'discrete' | 'quantised';
+}
+
+export interface BodeMarkers {
+  readonly crossoverHz: number | null;
+  readonly phaseMarginDeg: number | null;
+  /** Where the phase reaches −180° (gain margin is read there). */
+  readonly phaseCrossoverHz: number | null;
+  readonly gainMarginDb: number | null;
+  readonly nyquistHz: number | null;
+}
+
+const STYLE = {
+  analog: { color: CHART_COLORS.analog, type: 'dashed' as const, width: 1.5 },
+  discrete: { color: CHART_COLORS.float, type: 'solid' as const, width: 2 },
+  quantised: { color: CHART_COLORS.fixed, type: 'dotted' as const, width: 1.5 },
+};
+
+function pairs(x: readonly number[], y: readonly number[]): [number, number][] {
+  const out: [number, number][] = [];
+  const n = Math.min(x.length, y.length);
+  for (let i = 0; i < n; i++) {
+    const xi = x[i] as number;
+    const yi = y[i] as number;
+    if (xi > 0 && Number.isFinite(yi)) out.push([xi, yi]);
+  }
+  return out;
+}
+
+function fmtHz(hz: number): string {
+  if (hz >= 1e6) return `${(hz / 1e6).toPrecision(3)} MHz`;
+  if (hz >= 1e3) return `${(hz / 1e3).toPrecision(3)} kHz`;
+  return `${hz.toPrecision(3)} Hz`;
+}
+
+function markerLines(m: BodeMarkers, axis: 'mag' | 'phase'): object[] {
+  const lines: object[] = [];
+  if (m.crossoverHz !== null) {
+    const text = axis === 'phase' && m.phaseMarginDeg !== null ? `PM ${m.phaseMarginDeg.toFixed(1)}°` : `fc ${fmtHz(m.crossoverHz)}`;
+    lines.push({ xAxis: m.crossoverHz, label: { formatter: text, position: 'insideEndTop' }, lineStyle: { color: CHART_COLORS.marker } });
+  }
+  if (m.phaseCrossoverHz !== null) {
+    const text = axis === 'mag' && m.gainMarginDb !== null ? `GM ${m.gainMarginDb.toFixed(1)} dB` : '−180°';
+    lines.push({ xAxis: m.phaseCrossoverHz, label: { formatter: text, position: 'insideEndBottom' }, lineStyle: { color: CHART_COLORS.fail, type: 'dashed' } });
+  }
+  if (m.nyquistHz !== null) {
+    lines.push({ xAxis: m.nyquistHz, label: { formatter: 'fs/2', position: 'insideEndTop' }, lineStyle: { color: CHART_COLORS.reference, type: 'dotted' } });
+  }
+  lines.push(axis === 'mag' ? { yAxis: 0, label: { show: false } } : { yAxis: -180, label: { show: false } });
+  return lines;
+}
+
+/**
+ * Lower limit of the magnitude axis: a bilinear zero at Nyquist sends the discrete response to the
+ * dB floor there; showing that would squash everything else, so the axis stops 40 dB below the
+ * lowest point above MAG_FLOOR_DB (and never below it).
+ */
+const MAG_FLOOR_DB = -160;
+
+export function magnitudeAxisMin(traces: readonly BodeTrace[]): number {
+  let lowest = Infinity;
+  for (const t of traces) for (const v of t.magnitudeDb) if (v > MAG_FLOOR_DB && v < lowest) lowest = v;
+  if (!Number.isFinite(lowest)) return MAG_FLOOR_DB;
+  return Math.max(MAG_FLOOR_DB, Math.floor((lowest - 10) / 20) * 20);
+}
+
+export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): EChartsCoreOption {
+  const series = traces.flatMap((t, index) => {
+    const lineStyle = STYLE[t.style];
+    const common = { type: 'line', name: t.label, showSymbol: false, lineStyle, color: lineStyle.color, animation: false };
+    const first = index === 0;
+    return [
+      {
+        ...common,
+        xAxisIndex: 0,
+        yAxisIndex: 0,
+        data: pairs(t.freqHz, t.magnitudeDb),
+        ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'mag') } } : {}),
+      },
+      {
+        ...common,
+        xAxisIndex: 1,
+        yAxisIndex: 1,
+        data: pairs(t.freqHz, t.phaseDeg),
+        ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'phase') } } : {}),
+      },
+    ];
+  });
+  const xAxis = (gridIndex: number, name: string) => ({
+    type: 'log',
+    gridIndex,
+    name,
+    nameLocation: 'middle',
+    nameGap: 22,
+    axisLabel: { formatter: (v: number) => fmtHz(v).replace(' ', '\u2009'), hideOverlap: true },
+    splitLine: { show: true, lineStyle: { color: CHART_COLORS.grid } },
+    minorSplitLine: { show: true, lineStyle: { color: '#f1eee7' } },
+  });
+  return {
+    animation: chartAnimation(),
+    legend: { top: 0, data: traces.map((t) => t.label) },
+    tooltip: { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) },
+    axisPointer: { link: [{ xAxisIndex: 'all' }] },
+    grid: [
+      { left: 58, right: 18, top: 28, height: '36%' },
+      { left: 58, right: 18, top: '58%', bottom: 36 },
+    ],
+    xAxis: [xAxis(0, ''), xAxis(1, 'Frequency')],
+    yAxis: [
+      { type: 'value', gridIndex: 0, name: 'Magnitude (dB)', nameLocation: 'middle', nameGap: 40, min: magnitudeAxisMin(traces), splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+      { type: 'value', gridIndex: 1, name: 'Phase (°)', nameLocation: 'middle', nameGap: 40, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    ],
+    dataZoom: [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }],
+    series,
+  };
+}

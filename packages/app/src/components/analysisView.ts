@@ -1,0 +1,184 @@
+/**
+ * What the editor's result panels show, computed from the worker's analysis so the templates
+ * only lay it out.
+ */
+import type { AnalysisResult, LoopMargins } from '@loopwright/dsp';
+import type { BodeMarkers, BodeTrace } from '../charts/bodeOption.ts';
+import { fmtEng, fmtFixed, fmtHz, fmtSig } from '../lib/format.ts';
+
+export type Judgement = 'pass' | 'fail' | 'info';
+
+export interface SummaryRow {
+  readonly label: string;
+  readonly analog: string;
+  readonly discrete: string;
+  readonly quantised: string;
+  readonly target: string;
+  readonly judgement: Judgement;
+  readonly testId: string;
+}
+
+export interface FigureRow {
+  readonly label: string;
+  readonly value: string;
+  readonly note?: string;
+}
+
+export function bodeTraces(a: AnalysisResult): BodeTrace[] {
+  const b = a.bode;
+  const traces: BodeTrace[] = [
+    { label: 'Analog prototype', freqHz: b.freqHz, magnitudeDb: b.analogMagnitudeDb, phaseDeg: b.analogPhaseDeg, style: 'analog' },
+    { label: 'Discrete loop', freqHz: b.freqHz, magnitudeDb: b.discreteMagnitudeDb, phaseDeg: b.discretePhaseDeg, style: 'discrete' },
+  ];
+  if (b.quantizedMagnitudeDb && b.quantizedPhaseDeg) {
+    traces.push({ label: 'Quantised coefficients', freqHz: b.freqHz, magnitudeDb: b.quantizedMagnitudeDb, phaseDeg: b.quantizedPhaseDeg, style: 'quantised' });
+  }
+  // The discrete loop first: its crossover and margins are the ones marked (they are what ships).
+  return [traces[1]!, traces[0]!, ...traces.slice(2)];
+}
+
+export function bodeMarkers(a: AnalysisResult, sampleRateHz: number): BodeMarkers {
+  const m = a.margins.discrete;
+  return {
+    crossoverHz: m.crossoverHz,
+    phaseMarginDeg: m.phaseMarginDeg,
+    phaseCrossoverHz: m.phaseCrossoverHz,
+    gainMarginDb: m.gainMarginDb,
+    nyquistHz: sampleRateHz / 2,
+  };
+}
+
+function judgePm(m: LoopMargins | undefined, min: number): boolean {
+  return m?.phaseMarginDeg !== null && m?.phaseMarginDeg !== undefined && m.phaseMarginDeg >= min;
+}
+
+/** Gain margin passes when it meets the target or does not exist (the phase never reaches −180°). */
+function judgeGm(m: LoopMargins | undefined, min: number): boolean {
+  return m !== undefined && (m.gainMarginDb === null || m.gainMarginDb >= min);
+}
+
+function gmText(m: LoopMargins | undefined): string {
+  if (!m) return '—';
+  return m.gainMarginDb === null ? 'unbounded' : fmtFixed(m.gainMarginDb, 1, 'dB');
+}
+
+export function marginRows(a: AnalysisResult): SummaryRow[] {
+  const { analog, discrete } = a.margins;
+  const q = a.quantization.loop?.margins;
+  const { minPhaseMarginDeg: minPm, minGainMarginDb: minGm } = a.verdict;
+  const pmOk = judgePm(discrete, minPm) && (q === undefined || judgePm(q, minPm));
+  const gmOk = judgeGm(discrete, minGm) && (q === undefined || judgeGm(q, minGm));
+  const stableOk = a.verdict.stable;
+  const yesNo = (v: boolean | undefined) => (v === undefined ? '—' : v ? 'stable' : 'UNSTABLE');
+  return [
+    {
+      label: 'Stability',
+      analog: yesNo(a.stability.analogStable),
+      discrete: yesNo(a.stability.discreteStable),
+      quantised: yesNo(a.quantization.loop?.stable),
+      target: 'stable',
+      judgement: stableOk ? 'pass' : 'fail',
+      testId: 'row-stability',
+    },
+    {
+      label: 'Crossover',
+      analog: fmtHz(analog.crossoverHz),
+      discrete: fmtHz(discrete.crossoverHz),
+      quantised: fmtHz(q?.crossoverHz),
+      target: '',
+      judgement: 'info',
+      testId: 'row-crossover',
+    },
+    {
+      label: 'Phase margin',
+      analog: fmtFixed(analog.phaseMarginDeg, 1, '°'),
+      discrete: fmtFixed(discrete.phaseMarginDeg, 1, '°'),
+      quantised: fmtFixed(q?.phaseMarginDeg, 1, '°'),
+      target: `≥ ${minPm}°`,
+      judgement: pmOk ? 'pass' : 'fail',
+      testId: 'row-phase-margin',
+    },
+    {
+      label: 'Gain margin',
+      analog: gmText(analog),
+      discrete: gmText(discrete),
+      quantised: gmText(q),
+      target: `≥ ${minGm} dB`,
+      judgement: gmOk ? 'pass' : 'fail',
+      testId: 'row-gain-margin',
+    },
+    {
+      label: 'Closed-loop −3 dB',
+      analog: fmtHz(a.closedLoop.analog.bandwidth3dbHz),
+      discrete: fmtHz(a.closedLoop.discrete.bandwidth3dbHz),
+      quantised: fmtHz(a.quantization.loop?.closedLoop?.bandwidth3dbHz),
+      target: '',
+      judgement: 'info',
+      testId: 'row-bandwidth',
+    },
+    {
+      label: 'Peaking',
+      analog: fmtFixed(a.closedLoop.analog.peakingDb, 2, 'dB'),
+      discrete: fmtFixed(a.closedLoop.discrete.peakingDb, 2, 'dB'),
+      quantised: fmtFixed(a.quantization.loop?.closedLoop?.peakingDb, 2, 'dB'),
+      target: '',
+      judgement: 'info',
+      testId: 'row-peaking',
+    },
+  ];
+}
+
+export function loopFigures(a: AnalysisResult): FigureRow[] {
+  const rows: FigureRow[] = [
+    { label: 'Loop type', value: String(a.loopType) },
+    { label: 'Loop gain K = Kd·Ko', value: `${fmtSig(a.loopGain.kRadPerS, 5)} 1/s`, note: `Kd ${fmtSig(a.loopGain.kd, 4)} /rad` },
+    {
+      label: 'Noise bandwidth',
+      value: `${fmtHz(a.noiseBandwidth.discreteHz)} discrete`,
+      note: `${fmtHz(a.noiseBandwidth.analogHz)} analog (${a.noiseBandwidth.analogMethod})`,
+    },
+  ];
+  if (a.secondOrder) {
+    rows.push({ label: 'Natural frequency', value: fmtHz(a.secondOrder.naturalHz) });
+    rows.push({ label: 'Damping ζ', value: fmtSig(a.secondOrder.damping, 4), note: `PM by formula ${fmtFixed(a.secondOrder.phaseMarginFormulaDeg, 1, '°')}` });
+  }
+  rows.push({
+    label: `Ripple at ${fmtHz(a.ripple.rippleHz)}`,
+    value: `${fmtFixed(a.ripple.discreteAttenuationDb, 1, 'dB')} attenuation`,
+    note: `${fmtFixed(a.ripple.discretePhaseRippleDeg, 3, '°')} phase ripple; aliases to ${fmtHz(a.ripple.aliasedRippleHz)}`,
+  });
+  return rows;
+}
+
+export function rangeFigures(a: AnalysisResult): FigureRow[] {
+  const e = a.estimates;
+  const ss = a.steadyState;
+  return [
+    { label: 'Lock-in range', value: fmtHz(e.lockInHz), note: 'estimate' },
+    { label: 'Hold-in range', value: e.holdInHz === null ? 'unbounded' : fmtHz(e.holdInHz), note: 'estimate' },
+    { label: 'Pull-out range', value: fmtHz(e.pullOutHz), note: 'estimate' },
+    {
+      label: 'Pull-in time per Hz²',
+      value: e.pullInTimeSPerHz2 === null ? '—' : fmtEng(e.pullInTimeSPerHz2, 's/Hz²', 3),
+      note: 'estimate',
+    },
+    { label: 'Error after frequency step', value: `${fmtSig(ss.frequencyStepRadPerHz, 4)} rad/Hz` },
+    {
+      label: 'Error during frequency ramp',
+      value: ss.frequencyRampRadPerHzPerS === null ? 'unbounded' : `${fmtSig(ss.frequencyRampRadPerHzPerS, 4)} rad per Hz/s`,
+    },
+  ];
+}
+
+export interface Verdict {
+  readonly label: string;
+  readonly tone: 'pass' | 'fail';
+  readonly reasons: readonly string[];
+}
+
+export function verdictOf(a: AnalysisResult): Verdict {
+  const v = a.verdict;
+  if (!v.stable) return { label: 'Unstable', tone: 'fail', reasons: v.reasons };
+  if (!v.marginsMet) return { label: 'Stable — margins not met', tone: 'fail', reasons: v.reasons };
+  return { label: 'Stable — margins met', tone: 'pass', reasons: [] };
+}

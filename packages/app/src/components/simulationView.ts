@@ -1,0 +1,31 @@
+import type { SimMetrics, SimResult } from '@loopwright/dsp';
+import { fmtEng, fmtFixed, fmtHz } from '../lib/format.ts';
+
+export interface MetricRow {
+  readonly label: string;
+  readonly float: string;
+  readonly bitTrue: string;
+  readonly testId: string;
+}
+
+const METRICS: readonly { label: string; testId: string; text: (m: SimMetrics) => string }[] = [
+  { label: 'Locked', testId: 'metric-locked', text: (m) => (m.locked ? 'yes' : 'NO') },
+  { label: 'Lock time', testId: 'metric-lock-time', text: (m) => (m.lockTimeS === null ? 'never' : fmtEng(m.lockTimeS, 's', 4)) },
+  { label: 'Steady-state phase error', testId: 'metric-phase-error', text: (m) => fmtFixed(m.steadyStatePhaseErrorDeg, 3, '°') },
+  { label: 'Phase jitter (RMS)', testId: 'metric-jitter', text: (m) => fmtFixed(m.steadyStatePhaseJitterDeg, 3, '°') },
+  { label: 'Cycle slips', testId: 'metric-slips', text: (m) => String(m.cycleSlips) },
+  { label: 'Final frequency error', testId: 'metric-freq-error', text: (m) => fmtHz(m.finalFrequencyErrorHz, 4) },
+  { label: 'Demodulation error (RMS)', testId: 'metric-demod', text: (m) => fmtHz(m.demodErrorRmsHz, 4) + (m.demodErrorRelative === null ? '' : ` (${fmtFixed(100 * m.demodErrorRelative, 2)} % of deviation)`) },
+];
+
+export function metricRows(result: SimResult): MetricRow[] {
+  const f = result.float?.metrics;
+  const b = result.bitTrue?.metrics;
+  return METRICS.map((m) => ({ label: m.label, testId: m.testId, float: f ? m.text(f) : '—', bitTrue: b ? m.text(b) : '—' }));
+}
+
+export function runSummary(result: SimResult, elapsedMs: number | null): string {
+  const time = elapsedMs === null ? '' : ` in ${(elapsedMs / 1000).toFixed(2)} s`;
+  const checksum = result.bitTrue ? ` · bit-true checksum 0x${(result.bitTrue.checksum >>> 0).toString(16).padStart(8, '0')}` : '';
+  return `${result.sampleCount.toLocaleString('en')} samples at ${fmtHz(result.sampleRateHz)}${time}${checksum}`;
+}

@@ -1,0 +1,36 @@
+import { parseLoopSpec, type LoopSpec, type SpecIssue, type SpecWarning } from '@loopwright/dsp';
+import { draftToSpec, type SpecDraft } from './specDraft.ts';
+
+export interface DraftCheck {
+  /** The validated spec, or null while any field is wrong. */
+  readonly spec: LoopSpec | null;
+  /** Message per field path; "" holds issues of the document as a whole. */
+  readonly errors: Readonly<Record<string, string>>;
+  readonly warnings: readonly SpecWarning[];
+  readonly issueCount: number;
+}
+
+// The form shows which field a message belongs to by its place, so the schema's "path: " prefix goes.
+function withoutPrefix(issue: SpecIssue): string {
+  const prefix = `${issue.field}: `;
+  return issue.message.startsWith(prefix) ? issue.message.slice(prefix.length) : issue.message;
+}
+
+/** Validate the draft with the shared zod schema (parseLoopSpec) and spread issues over the fields. */
+export function checkDraft(draft: Readonly<SpecDraft>): DraftCheck {
+  const result = parseLoopSpec(draftToSpec(draft));
+  if (result.ok) return { spec: result.spec, errors: {}, warnings: result.warnings, issueCount: 0 };
+  const errors: Record<string, string> = {};
+  for (const issue of result.issues) {
+    const field = issue.field === 'filter' ? 'filter.kind' : issue.field;
+    errors[field] = errors[field] ? `${errors[field]}; ${withoutPrefix(issue)}` : withoutPrefix(issue);
+  }
+  return { spec: null, errors, warnings: [], issueCount: result.issues.length };
+}
+
+/** Messages for paths no visible field shows, so nothing the schema says gets lost. */
+export function unplacedErrors(errors: Readonly<Record<string, string>>, visiblePaths: ReadonlySet<string>): string[] {
+  return Object.entries(errors)
+    .filter(([path]) => !visiblePaths.has(path))
+    .map(([path, message]) => (path ? `${path}: ${message}` : message));
+}

@@ -1,0 +1,99 @@
+import { defineStore } from 'pinia';
+import { computed, ref } from 'vue';
+import { designsApi } from '../api/designsApi.ts';
+import { ApiError } from '../api/client.ts';
+import type { Design } from '../api/types.ts';
+import { draftToSpec, specToDraft, type SpecDraft } from '../form/specDraft.ts';
+import { checkDraft } from '../form/specValidation.ts';
+import { threeWay, type ThreeWayChange } from '../lib/specDiff.ts';
+
+export interface SaveConflict {
+  readonly theirs: Design;
+  readonly changes: readonly ThreeWayChange[];
+}
+
+/** The design being edited: stored record, the user's draft, saving with revision checks. */
+export const useDesignStore = defineStore('design', () => {
+  const design = ref<Design | null>(null);
+  const draft = ref<SpecDraft>({});
+  const baseDraft = ref<SpecDraft>({});
+  const loading = ref(false);
+  const saving = ref(false);
+  const loadError = ref<unknown>(null);
+  const conflict = ref<SaveConflict | null>(null);
+
+  const check = computed(() => checkDraft(draft.value));
+  const dirty = computed(() => JSON.stringify(draftToSpec(draft.value)) !== JSON.stringify(draftToSpec(baseDraft.value)));
+
+  function adopt(record: Design): void {
+    design.value = record;
+    draft.value = specToDraft(record.spec);
+    baseDraft.value = { ...draft.value };
+  }
+
+  async function load(id: number): Promise<void> {
+    loading.value = true;
+    loadError.value = null;
+    conflict.value = null;
+    try {
+      adopt(await designsApi.get(id));
+    } catch (cause) {
+      loadError.value = cause;
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  function setField(path: string, value: string): void {
+    draft.value = { ...draft.value, [path]: value };
+  }
+
+  /** Save the draft; on a stale revision keep the draft and describe the clash instead. */
+  async function save(baseRevision = design.value?.revision): Promise<'saved' | 'conflict' | 'invalid'> {
+    const current = design.value;
+    const spec = check.value.spec;
+    if (!current || baseRevision === undefined) return 'invalid';
+    if (!spec) return 'invalid';
+    saving.value = true;
+    try {
+      const saved = await designsApi.save(current.id, { baseRevision, spec });
+      adopt(saved);
+      conflict.value = null;
+      return 'saved';
+    } catch (cause) {
+      const theirs = conflictingDesign(cause);
+      if (!theirs) throw cause;
+      conflict.value = { theirs, changes: threeWay(draftToSpec(baseDraft.value), draftToSpec(draft.value), theirs.spec) };
+      return 'conflict';
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  /** Keep my edits on top of their revision (overwrite the fields they changed). */
+  async function keepMine(): Promise<'saved' | 'conflict' | 'invalid'> {
+    const theirs = conflict.value?.theirs;
+    if (!theirs) return 'invalid';
+    return save(theirs.revision);
+  }
+
+  /** Drop my edits and continue from their revision. */
+  function takeTheirs(): void {
+    const theirs = conflict.value?.theirs;
+    if (!theirs) return;
+    adopt(theirs);
+    conflict.value = null;
+  }
+
+  return { design, draft, loading, saving, loadError, conflict, check, dirty, load, setField, save, keepMine, takeTheirs };
+});
+
+/** The current record a 409 stale_revision carries in error.current (packages/api contract). */
+function conflictingDesign(cause: unknown): Design | null {
+  if (!(cause instanceof ApiError) || cause.status !== 409) return null;
+  const body = cause.body as { error?: { current?: unknown } } | undefined;
+  const current = body?.error?.current as { design?: Design } | Design | undefined;
+  if (!current) return null;
+  if ('design' in current && current.design) return current.design;
+  return 'spec' in current ? (current as Design) : null;
+}

@@ -1,0 +1,117 @@
+/**
+ * The jobs the DSP worker runs: each a call into packages/dsp (the same code the server runs at
+ * release time), nothing re-implemented here. Outputs are plain data so they cross postMessage.
+ */
+import {
+  analyzeDesign,
+  ncoControlScaling,
+  ncoSpectralEstimates,
+  ncoTuning,
+  simulateAsync,
+  type AnalysisResult,
+  type LoopSpec,
+  type NcoControlScaling,
+  type NcoSpectralEstimates,
+  type NcoTuning,
+  type Scenario,
+  type SimResult,
+} from '@loopwright/dsp';
+import { decimateMinMax } from '../charts/decimate.ts';
+
+export interface NcoReportData {
+  readonly tuning: NcoTuning;
+  readonly spectral: NcoSpectralEstimates;
+  readonly control: NcoControlScaling | null;
+  readonly controlError: string | null;
+}
+
+export interface DesignAnalysis {
+  readonly analysis: AnalysisResult;
+  readonly nco: NcoReportData;
+}
+
+export interface SimulationOutput {
+  /** The run without its per-sample traces (only the decimated ones cross to the page). */
+  readonly result: SimResult;
+  /**
+   * The scenario's input frequency offset (the modulating signal) as [t, Hz] pairs, min/max
+   * decimated; null for runs too long to keep every sample.
+   */
+  readonly offsetHz: readonly [number, number][] | null;
+}
+
+interface Jobs {
+  analyze: { input: null; output: DesignAnalysis };
+  simulate: { input: Scenario; output: SimulationOutput };
+}
+
+export type DspJobKind = keyof Jobs;
+export type DspJobInput<K extends DspJobKind> = Jobs[K]['input'];
+export type DspJobOutput<K extends DspJobKind> = Jobs[K]['output'];
+
+export interface JobContext {
+  readonly signal: AbortSignal;
+  readonly onProgress: (fraction: number, label?: string) => void;
+}
+
+function ncoReport(spec: LoopSpec): NcoReportData {
+  const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, spec.nco.accumulatorBits);
+  const spectral = ncoSpectralEstimates(spec.nco.accumulatorBits, spec.nco.phaseBits, spec.nco.amplitudeBits);
+  try {
+    const control = ncoControlScaling({
+      gainHzPerUnit: spec.nco.gainHzPerUnit,
+      sampleRateHz: spec.sampleRateHz,
+      accumulatorBits: spec.nco.accumulatorBits,
+      dataBits: spec.fixedPoint.dataBits,
+      coefficientBits: spec.fixedPoint.coefficientBits,
+      rounding: spec.fixedPoint.rounding,
+    });
+    return { tuning, spectral, control, controlError: null };
+  } catch (cause) {
+    return { tuning, spectral, control: null, controlError: cause instanceof Error ? cause.message : String(cause) };
+  }
+}
+
+export function analyzeJob(spec: LoopSpec): DesignAnalysis {
+  return { analysis: analyzeDesign(spec), nco: ncoReport(spec) };
+}
+
+/** Runs up to this many samples also return every sample, so the modulating signal can be drawn. */
+export const FULL_TRACE_LIMIT = 1 << 19;
+const OFFSET_POINTS = 2000;
+
+export async function simulateJob(spec: LoopSpec, scenario: Scenario, ctx: JobContext): Promise<SimulationOutput> {
+  const samples = Math.ceil(scenario.durationS * spec.sampleRateHz);
+  const fullTraces = samples <= FULL_TRACE_LIMIT;
+  const run = await simulateAsync(spec, scenario, { signal: ctx.signal, onProgress: (f) => ctx.onProgress(f), fullTraces });
+  const full = run.float?.full ?? run.bitTrue?.full;
+  const offsetHz = full ? decimateMinMax(timeAxis(full.offsetHz.length, spec.sampleRateHz), full.offsetHz, OFFSET_POINTS) : null;
+  return { result: withoutFullTraces(run), offsetHz };
+}
+
+function timeAxis(length: number, sampleRateHz: number): Float64Array {
+  const t = new Float64Array(length);
+  for (let i = 0; i < length; i++) t[i] = i / sampleRateHz;
+  return t;
+}
+
+function withoutFullTraces(run: SimResult): SimResult {
+  const strip = <T extends { full?: unknown }>(r: T | undefined): T | undefined => {
+    if (!r) return r;
+    const { full: _full, ...rest } = r;
+    return rest as T;
+  };
+  const float = strip(run.float);
+  const bitTrue = strip(run.bitTrue);
+  const { float: _f, bitTrue: _b, ...rest } = run;
+  return { ...rest, ...(float ? { float } : {}), ...(bitTrue ? { bitTrue } : {}) };
+}
+
+export async function runDspJob(kind: DspJobKind, spec: LoopSpec, input: unknown, ctx: JobContext): Promise<unknown> {
+  switch (kind) {
+    case 'analyze':
+      return analyzeJob(spec);
+    case 'simulate':
+      return simulateJob(spec, input as Scenario, ctx);
+  }
+}

@@ -1,0 +1,74 @@
+/**
+ * The whole product for browser tests: a fresh project-local MariaDB, the API's migrations and demo
+ * seed, the SMTP fake, and the API app serving the built web app (as the API's server does) on a
+ * free loopback port.
+ */
+import { existsSync } from 'node:fs';
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { createRequire } from 'node:module';
+import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
+import { findFreePort } from '../../../scripts/lib/ports.ts';
+import { APP_DIST, ROOT } from './paths.ts';
+import { startSmtpFake, type SmtpFake } from './smtpFake.ts';
+
+export interface Stack {
+  readonly baseUrl: string;
+  readonly mail: SmtpFake;
+  stop(): Promise<void>;
+}
+
+const requireFromApi = createRequire(path.join(ROOT, 'packages', 'api', 'package.json'));
+
+export async function startStack(options: { dataDir?: string } = {}): Promise<Stack> {
+  if (!existsSync(path.join(APP_DIST, 'index.html'))) throw new Error(`no built app at ${APP_DIST}: run vite build first`);
+  const dataDir = options.dataDir ?? path.join(ROOT, '.data', `e2e-${process.pid}`);
+  const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_e2e', user: 'loopwright', password: 'e2e-only-password' });
+  const mail = await startSmtpFake();
+  const port = await findFreePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  Object.assign(process.env, {
+    NODE_ENV: 'test',
+    LW_DB_HOST: db.host,
+    LW_DB_PORT: String(db.port),
+    LW_DB_USER: db.user,
+    LW_DB_PASSWORD: db.password,
+    LW_DB_NAME: db.database,
+    LW_BCRYPT_ROUNDS: '4',
+    LW_SMTP_HOST: '127.0.0.1',
+    LW_SMTP_PORT: String(mail.port),
+    LW_PUBLIC_URL: baseUrl,
+    LW_OUTBOX_INTERVAL_MS: '500',
+    LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
+  });
+  const api = await import('../../../packages/api/src/index.ts');
+  const config = api.loadConfig(process.env);
+  const dataSource = api.createDataSource(config.db);
+  await dataSource.initialize();
+  await api.runMigrations(dataSource);
+  await api.seedDemo(dataSource, 4);
+  const built = api.createApp({ config, dataSource, log: () => {} });
+  const express = requireFromApi('express') as typeof import('express');
+  built.app.use(express.static(APP_DIST, { index: false }));
+  built.app.get(/^(?!\/api(\/|$)).*/, (_req, res) => {
+    res.set('Cache-Control', 'no-cache').sendFile(path.join(APP_DIST, 'index.html'));
+  });
+  const server: Server = await new Promise((resolve) => {
+    const s = built.app.listen(port, '127.0.0.1', () => resolve(s));
+  });
+  void (server.address() as AddressInfo);
+  return {
+    baseUrl,
+    mail,
+    async stop() {
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await built.close();
+      await dataSource.destroy();
+      await mail.stop();
+      await db.stop();
+      await fs.rm(dataDir, { recursive: true, force: true });
+    },
+  };
+}
