@@ -27,7 +27,7 @@ export { secondOrderNoiseBandwidthHz, highGainNoiseBandwidthHz, numericNoiseBand
 export { secondOrderParameters, phaseMarginFromDampingDeg } from './analysis/secondOrder.ts';
 export { acquisitionEstimates, pullInTimeS } from './analysis/estimates.ts';
 export { steadyStateErrors, frequencyStepErrorRad } from './analysis/steadyState.ts';
-export { schurCohnStable, hurwitzStable } from './analysis/stability.ts';
+export { routhHurwitzStable, discreteLoopStable } from './analysis/stability.ts';
 export { analyzeDesign, tryAnalyzeDesign, LoopSpecError } from './analysis/analyzeDesign.ts';
 export { quantizeFilter } from './fixed/quantizeFilter.ts';
 export { scenarioSchema, parseScenario } from './spec/scenario.ts';
@@ -38,3 +38,4 @@ export { checksumRecord, CHECKSUM_BASIS } from './sim/checksum.ts';
 export { mulberry32, gaussianSource } from './sim/prng.ts';
 export { goldenVectors, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from './vectors/goldenVectors.ts';
 export { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from './vectors/vectorsCsv.ts';
+export { measureAcquisition, cascadeDcGain } from './analysis/acquisitionSim.ts';

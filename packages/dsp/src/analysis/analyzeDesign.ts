@@ -18,7 +18,7 @@ import { sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
 import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
 import { analogClosedLoop, discreteClosedLoop } from './loopPolynomials.ts';
-import { hurwitzStable } from './stability.ts';
+import { routhHurwitzStable } from './stability.ts';
 import { highGainNoiseBandwidthHz, numericNoiseBandwidthHz, secondOrderNoiseBandwidthHz } from './noiseBandwidth.ts';
 import { secondOrderParameters, phaseMarginFromDampingDeg } from './secondOrder.ts';
 import { acquisitionEstimates } from './estimates.ts';
@@ -165,7 +165,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
   const analogMargins = loopMargins(analogFn, analogOpen);
   const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid);
   const analogPolys = analogClosedLoop(design.analog, k);
-  const analogStable = hurwitzStable(analogPolys.h.den, 2 * Math.PI * Math.max(analogMargins.crossoverHz ?? k / (2 * Math.PI), 1e-300));
+  const analogStable = routhHurwitzStable(analogPolys.h.den);
 
   const discrete = discreteLoopMargins(spec, design.sections, { fMinHz: range.fMinHz, points });
   const plotGrid = discrete.open.freqHz;

@@ -13,7 +13,13 @@ import { loopGain } from '../analysis/loopGain.ts';
 import { lagLeadFromTargets } from '../filters/timeConstants.ts';
 
 /** Finite number > 0 (zod 4's z.number() already rejects NaN and ±Infinity). */
-const positive = () => z.number().positive();
+/**
+ * Frequencies and gains in Hz: 1 µHz … 1 THz. The bounds keep every derived figure (K, ωn, noise
+ * bandwidth) far from floating-point under- and overflow; no real loop lives outside them.
+ */
+const hz = () => z.number().min(1e-6).max(1e12);
+/** Time constants: 1 ps … 1e6 s, for the same reason. */
+const seconds = () => z.number().min(1e-12).max(1e6);
 const intIn = (min: number, max: number) => z.number().int().min(min).max(max);
 
 export const FILTER_KINDS = ['single-pole', 'lag-lead', 'pi', 'butterworth'] as const;
@@ -22,7 +28,7 @@ export const BUTTERWORTH_MAX_ORDER = 4;
 /** Single-pole low-pass F = 1/(1+sτ), τ = 1/(2π·cutoffHz); a type-1 loop. */
 export const singlePoleFilterSchema = z.strictObject({
   kind: z.literal('single-pole'),
-  cutoffHz: positive(),
+  cutoffHz: hz(),
 });
 
 /**
@@ -30,10 +36,10 @@ export const singlePoleFilterSchema = z.strictObject({
  * from which the time constants are designed (src/filters/timeConstants.ts).
  */
 const secondOrderFields = {
-  tau1S: positive().optional(),
-  tau2S: positive().optional(),
-  naturalHz: positive().optional(),
-  damping: positive().max(100).optional(),
+  tau1S: seconds().optional(),
+  tau2S: seconds().optional(),
+  naturalHz: hz().optional(),
+  damping: z.number().min(1e-3).max(100).optional(),
 };
 
 /** Passive lag-lead F = (1+sτ2)/(1+s(τ1+τ2)); a type-1 loop. */
@@ -46,7 +52,7 @@ export const piFilterSchema = z.strictObject({ kind: z.literal('pi'), ...secondO
 export const butterworthFilterSchema = z.strictObject({
   kind: z.literal('butterworth'),
   order: intIn(1, BUTTERWORTH_MAX_ORDER),
-  cutoffHz: positive(),
+  cutoffHz: hz(),
 });
 
 export const loopFilterSchema = z.discriminatedUnion('kind', [
@@ -59,7 +65,7 @@ export const loopFilterSchema = z.discriminatedUnion('kind', [
 /** Optional Butterworth low-pass in series with the loop filter, against the 2·f detector ripple. */
 export const rippleFilterSchema = z.strictObject({
   order: intIn(1, BUTTERWORTH_MAX_ORDER),
-  cutoffHz: positive(),
+  cutoffHz: hz(),
 });
 
 const baseLoopSpecSchema = z.strictObject({
@@ -67,12 +73,12 @@ const baseLoopSpecSchema = z.strictObject({
   name: z
     .string()
     .regex(/^[a-z][a-z0-9_]{0,39}$/, 'must match [a-z][a-z0-9_]{0,39} (it becomes an HDL and C identifier)'),
-  clockHz: positive(),
-  sampleRateHz: positive(),
-  centerHz: positive(),
+  clockHz: hz(),
+  sampleRateHz: hz(),
+  centerHz: hz(),
   input: z.strictObject({
     /** Peak amplitude, 1.0 = full scale. */
-    amplitude: positive().max(1),
+    amplitude: z.number().min(1e-6).max(1),
   }),
   detector: z.strictObject({ kind: z.literal('multiplier') }),
   nco: z.strictObject({
@@ -80,14 +86,14 @@ const baseLoopSpecSchema = z.strictObject({
     /** Address bits of the sine table (2^phaseBits entries). */
     phaseBits: intIn(2, 24),
     amplitudeBits: intIn(2, 32),
-    gainHzPerUnit: positive(),
+    gainHzPerUnit: hz(),
     waveform: z.enum(['sine', 'square']),
   }),
   filter: loopFilterSchema,
   rippleFilter: rippleFilterSchema.nullable().optional(),
   discretization: z.strictObject({
     method: z.literal('bilinear'),
-    prewarpHz: positive().nullable().default(null),
+    prewarpHz: hz().nullable().default(null),
   }),
   fixedPoint: z.strictObject({
     coefficientBits: intIn(2, 32),
