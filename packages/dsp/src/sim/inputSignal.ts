@@ -44,7 +44,17 @@ export function scenarioOffsetHz(s: Scenario, tS: number): number {
   }
 }
 
-export function inputGenerator(s: Scenario, sampleRateHz: number, centerHz: number, amplitude: number): InputGenerator {
+/**
+ * `offsetFnHz` replaces the scenario's frequency offset (used by the acquisition search for a
+ * ramp-and-hold input); noise, seed and initial phase still come from the scenario.
+ */
+export function inputGenerator(
+  s: Scenario,
+  sampleRateHz: number,
+  centerHz: number,
+  amplitude: number,
+  offsetFnHz?: (tS: number) => number,
+): InputGenerator {
   const noise: GaussianSource | null = s.snrDb === undefined ? null : gaussianSource(s.seed ?? DEFAULT_SEED);
   // SNR = (A²/2)/σ² for a sine of peak A in white noise of variance σ².
   const sigma = s.snrDb === undefined ? 0 : Math.sqrt((amplitude * amplitude) / 2 / 10 ** (s.snrDb / 10));
@@ -63,7 +73,7 @@ export function inputGenerator(s: Scenario, sampleRateHz: number, centerHz: numb
           phase += stepCycles;
           phase -= Math.floor(phase);
         }
-        const off = scenarioOffsetHz(s, n / sampleRateHz);
+        const off = offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
         chunk.phaseCycles[i] = phase;
         chunk.offsetHz[i] = off;
         chunk.x[i] = amplitude * Math.sin(2 * Math.PI * phase) + (noise ? (noiseBuf[i] as number) : 0);

@@ -135,3 +135,43 @@ export interface SimOptions {
 }
 export type { GoldenVectors } from '../vectors/goldenVectors.ts';
 export type { VectorCsvColumn } from '../vectors/vectorsCsv.ts';
+
+/** One acquisition figure measured by simulation of the nonlinear float loop. */
+export interface AcquisitionMeasurement {
+  /** The measured frequency offset in Hz (bisection midpoint), or null when even the smallest offset failed. */
+  readonly valueHz: number | null;
+  /** True when the loop still passed at the search limit: the true figure is at least valueHz. */
+  readonly atSearchLimit: boolean;
+  /** Bisection bracket [passHz, failHz] (failHz null at the limit). */
+  readonly passHz: number;
+  readonly failHz: number | null;
+  /** How the figure was measured, in words. */
+  readonly definition: string;
+}
+
+export interface AcquisitionSimResult {
+  /** Distinguishes these from the formula estimates of the analysis (label "estimate"). */
+  readonly label: 'simulated';
+  readonly lockInHz: AcquisitionMeasurement;
+  readonly pullOutHz: AcquisitionMeasurement;
+  readonly holdInHz: AcquisitionMeasurement;
+  readonly pullInHz: AcquisitionMeasurement;
+  /** Offsets searched in [0, searchLimitHz]. */
+  readonly searchLimitHz: number;
+  readonly initialPhasesDeg: readonly number[];
+  readonly runs: number;
+  readonly samplesSimulated: number;
+  /** True when the sample budget ran out and later searches were cut short. */
+  readonly budgetExhausted: boolean;
+  readonly notes: readonly string[];
+}
+
+export interface AcquisitionOptions {
+  /** Total samples the search may simulate (default 2 000 000: a few hundred ms). */
+  readonly maxSamples?: number;
+  /** Bisection steps per figure (default 7: 1/128 of the search limit). */
+  readonly bisectionSteps?: number;
+  readonly initialPhasesDeg?: readonly number[];
+  readonly onProgress?: (fraction: number) => void;
+  readonly signal?: AbortFlag;
+}

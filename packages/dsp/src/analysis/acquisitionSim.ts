@@ -1,0 +1,212 @@
+/**
+ * Lock-in, pull-out, hold-in and pull-in measured by simulating the NONLINEAR float loop (the same
+ * loop as src/sim/floatKernel.ts), because the textbook formulas (G3, B6; src/analysis/estimates.ts)
+ * are rough and can be off by up to 2x (Ku23). Definitions used (after Ku23, which makes them precise):
+ * - cycle slip: the phase error leaves its starting value by 2π or more at some time, sup|θe(t) − θe(0)| ≥ 2π;
+ * - lock-in: largest input offset from which the loop, started at rest (filter state zero, NCO at
+ *   centerHz), locks without a cycle slip for every tested initial phase;
+ * - pull-out: largest frequency step applied to a locked loop that causes no cycle slip;
+ * - hold-in: largest offset a locked loop keeps: the input is ramped slowly from centerHz to the
+ *   offset and held there, and the phase error must not pass π (the multiplier detector's unstable
+ *   equilibrium, after which it slips) and must settle;
+ * - pull-in: largest offset from which the loop, started at rest, ends locked (slips allowed) within
+ *   the run length (a multiple of 1/(ζωn) plus the pull-in time estimate Δω²/(2ζωn³), G3).
+ * Each is a bisection on the offset in [0, searchLimitHz] assuming pass below / fail above.
+ */
+import type { Sos } from '../types/filter.ts';
+import type { LoopSpec } from '../spec/schema.ts';
+import type { Scenario } from '../spec/scenario.ts';
+import type { AcquisitionMeasurement, AcquisitionOptions, AcquisitionSimResult } from '../types/sim.ts';
+import { designLoopFilter } from '../design.ts';
+import { loopGain } from './loopGain.ts';
+import { allocInputChunk, inputGenerator } from '../sim/inputSignal.ts';
+import { initialFloatState, runFloatChunk, type FloatLoopConfig } from '../sim/floatKernel.ts';
+import { SimulationAbortedError } from '../sim/simulate.ts';
+
+const TWO_PI = 2 * Math.PI;
+const CHUNK = 4096;
+const DEFAULT_PHASES_DEG = [0, 60, 120, 180, 240, 300];
+const MAX_RUN_SAMPLES = 400_000;
+const MIN_RUN_SAMPLES = 2_000;
+/** Locked at the end: the ripple-free phase error moves less than this over the last 20 % of the run. */
+const LOCKED_SPAN_RAD = 0.1;
+/** The multiplier detector's unstable equilibrium is π from the stable one: passing it starts a slip. */
+const HOLD_LOSS_RAD = Math.PI;
+
+interface Trial {
+  readonly slipped: boolean;
+  readonly lockedAtEnd: boolean;
+}
+
+interface Context {
+  readonly spec: LoopSpec;
+  readonly cfg: FloatLoopConfig;
+  readonly options: AcquisitionOptions;
+  readonly budget: number;
+  used: number;
+  runs: number;
+  exhausted: boolean;
+}
+
+/** F(0) of a cascade; null when a section has a pole at z = 1 (an integrator: type-2 loop). */
+export function cascadeDcGain(sections: readonly Sos[]): number | null {
+  let g = 1;
+  for (const { b, a } of sections) {
+    const den = a[0] + a[1] + a[2];
+    if (Math.abs(den) <= 1e-12 * (Math.abs(a[0]) + Math.abs(a[1]) + Math.abs(a[2]))) return null;
+    g *= (b[0] + b[1] + b[2]) / den;
+  }
+  return g;
+}
+
+/** Simulate one scenario; stop early once a slip is seen when `stopOnSlip`. */
+/** Thrown inside a bisection when the sample budget is spent; the bisection keeps its bracket. */
+class BudgetSpent extends Error {}
+
+function trial(ctx: Context, scenario: Scenario, samples: number, stopOnSlip: boolean, slipRad = TWO_PI, offsetFnHz?: (tS: number) => number): Trial {
+  const { spec, cfg } = ctx;
+  if (ctx.options.signal?.aborted) throw new SimulationAbortedError();
+  if (ctx.used >= ctx.budget) {
+    ctx.exhausted = true;
+    throw new BudgetSpent();
+  }
+  ctx.runs++;
+  const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, spec.input.amplitude, offsetFnHz);
+  const input = allocInputChunk(CHUNK);
+  const out = { ncoPhaseCycles: new Float64Array(CHUNK), filterOutput: new Float64Array(CHUNK) };
+  const st = initialFloatState(cfg);
+  // Boxcar over one period of the 2·centerHz ripple for the end-of-run lock test.
+  const box = Math.max(1, Math.round(spec.sampleRateHz / (2 * spec.centerHz)));
+  const tailFrom = Math.floor(samples * 0.8);
+  let e0 = 0;
+  let eu = 0;
+  let prev = 0;
+  let slipAt: number | null = null;
+  let tailMin = Infinity;
+  let tailMax = -Infinity;
+  let boxSum = 0;
+  const ring = new Float64Array(box);
+  for (let n0 = 0; n0 < samples; n0 += CHUNK) {
+    const count = Math.min(CHUNK, samples - n0);
+    gen.next(input, n0, count);
+    runFloatChunk(cfg, st, input.x, count, out);
+    ctx.used += count;
+    for (let i = 0; i < count; i++) {
+      const n = n0 + i;
+      let e = (input.phaseCycles[i] as number) - (out.ncoPhaseCycles[i] as number);
+      e -= Math.round(e);
+      let de = e - prev;
+      de -= Math.round(de);
+      prev = e;
+      if (n === 0) {
+        e0 = e * TWO_PI;
+        eu = e0;
+      } else eu += de * TWO_PI;
+      if (slipAt === null && Math.abs(eu - e0) >= slipRad) slipAt = n;
+      boxSum += eu - (ring[n % box] as number);
+      ring[n % box] = eu;
+      if (n >= tailFrom && n >= box) {
+        const s = boxSum / box;
+        if (s < tailMin) tailMin = s;
+        if (s > tailMax) tailMax = s;
+      }
+    }
+    if (stopOnSlip && slipAt !== null) break;
+  }
+  return { slipped: slipAt !== null, lockedAtEnd: tailMax - tailMin < LOCKED_SPAN_RAD };
+}
+
+/** Bisection for the largest offset in [0, limit] that passes; `pass` must be monotone (true below). */
+function bisect(ctx: Context, limitHz: number, steps: number, pass: (hz: number) => boolean, definition: string): AcquisitionMeasurement {
+  let lo = 0;
+  let hi = limitHz;
+  try {
+    if (pass(limitHz)) return { valueHz: limitHz, atSearchLimit: true, passHz: limitHz, failHz: null, definition };
+  } catch (err) {
+    if (!(err instanceof BudgetSpent)) throw err;
+    return { valueHz: null, atSearchLimit: false, passHz: 0, failHz: null, definition: `${definition} (not measured: sample budget spent)` };
+  }
+  try {
+    for (let k = 0; k < steps; k++) {
+      const mid: number = (lo + hi) / 2;
+      if (pass(mid)) lo = mid;
+      else hi = mid;
+    }
+  } catch (err) {
+    if (!(err instanceof BudgetSpent)) throw err;
+  }
+  return { valueHz: lo === 0 ? null : (lo + hi) / 2, atSearchLimit: false, passHz: lo, failHz: hi, definition };
+}
+
+/**
+ * Measure the acquisition figures of a spec's loop by simulation (float, nonlinear, no noise).
+ * Bounded by options.maxSamples; reports progress per figure and honours options.signal.
+ */
+export function measureAcquisition(spec: LoopSpec, options: AcquisitionOptions = {}): AcquisitionSimResult {
+  const design = designLoopFilter(spec);
+  const cfg: FloatLoopConfig = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections: design.sections };
+  const ctx: Context = { spec, cfg, options, budget: options.maxSamples ?? 2_000_000, used: 0, runs: 0, exhausted: false };
+  const k = loopGain(spec).kRadPerS;
+  const dc = cascadeDcGain(design.sections);
+  const zeta = design.damping ?? 0.7;
+  // Characteristic rate: ζωn for second-order loops, else the type-1 loop's K·F(0) (its crossover).
+  const wn = design.naturalHz !== undefined ? TWO_PI * design.naturalHz : k * Math.abs(dc ?? 1);
+  // Long enough that an offset 1 % past a saddle-node (the hold-in edge) visibly drifts in the tail.
+  const settleS = 60 / (zeta * wn);
+  const fs = spec.sampleRateHz;
+  const runSamples = (s: number) => Math.max(MIN_RUN_SAMPLES, Math.min(MAX_RUN_SAMPLES, Math.ceil(s * fs)));
+  const notes: string[] = [];
+  // Type 1: hold-in is K·F(0); search a little beyond it. Type 2: the bit-true control word saturates at
+  // ±1 unit, so the firmware cannot pull the NCO beyond ±gainHzPerUnit: that is the search limit.
+  const limitHz = dc === null ? spec.nco.gainHzPerUnit : Math.min(spec.nco.gainHzPerUnit, (1.5 * k * Math.abs(dc)) / TWO_PI);
+  if (dc === null) notes.push('type-2 loop: hold-in and pull-in of the ideal float loop are unbounded; the search stops at ±gainHzPerUnit, the bit-true control range');
+  const steps = options.bisectionSteps ?? 7;
+  const phases = options.initialPhasesDeg ?? DEFAULT_PHASES_DEG;
+  const progress = (f: number) => options.onProgress?.(f);
+
+  const lockIn = bisect(ctx, limitHz, steps, (hz) => phases.every((p) => {
+    const t = trial(ctx, { kind: 'tone', offsetHz: hz, initialPhaseDeg: p, durationS: runSamples(settleS) / fs }, runSamples(settleS), true);
+    return !t.slipped && t.lockedAtEnd;
+  }), `largest offset that locks from rest without a cycle slip for initial phases ${phases.join(', ')}°`);
+  progress(0.25);
+
+  const stepAtS = 10 / fs;
+  const pullOut = bisect(ctx, limitHz, steps, (hz) => {
+    const n = runSamples(settleS + stepAtS);
+    return !trial(ctx, { kind: 'frequency-step', stepHz: hz, atS: stepAtS, durationS: n / fs }, n, true).slipped;
+  }, 'largest frequency step on a locked loop that causes no cycle slip');
+  progress(0.5);
+
+  // Hold-in: ramp slowly from centre to the offset, then hold it. The ramp rate is 2 % of ωn² (rad/s²)
+  // so its own phase error (dΔω/dt)/ωn² (G3) is about 0.02 rad; the hold shows whether an equilibrium
+  // exists at that offset. Lock is lost when the error passes the detector's unstable equilibrium (π).
+  const rampHzPerS = (0.02 * wn * wn) / TWO_PI;
+  const holdIn = bisect(ctx, limitHz, steps, (hz) => {
+    const rampS = hz / rampHzPerS;
+    const n = Math.min(MAX_RUN_SAMPLES * 4, runSamples(settleS) + Math.ceil(rampS * fs));
+    const t = trial(ctx, { kind: 'tone', offsetHz: hz, durationS: n / fs }, n, true, HOLD_LOSS_RAD, (tS) => hz * Math.min(1, tS / rampS));
+    return !t.slipped && t.lockedAtEnd;
+  }, 'largest offset a locked loop holds: a slow ramp from centre to the offset, then a hold, without the phase error passing π');
+  progress(0.75);
+
+  const pullTime = (hz: number) => ((TWO_PI * hz) ** 2) / (2 * zeta * wn ** 3);
+  const pullIn = bisect(ctx, limitHz, steps, (hz) => {
+    const n = runSamples(settleS + 3 * pullTime(hz));
+    return trial(ctx, { kind: 'tone', offsetHz: hz, initialPhaseDeg: 0, durationS: n / fs }, n, false).lockedAtEnd;
+  }, 'largest offset from which the loop, started at rest, ends locked (cycle slips allowed) within the run');
+  progress(1);
+  if (ctx.exhausted) notes.push('sample budget exhausted: later bisections stopped early (wider brackets)');
+  return {
+    label: 'simulated',
+    lockInHz: lockIn,
+    pullOutHz: pullOut,
+    holdInHz: holdIn,
+    pullInHz: pullIn,
+    searchLimitHz: limitHz,
+    initialPhasesDeg: phases,
+    runs: ctx.runs,
+    samplesSimulated: ctx.used,
+    budgetExhausted: ctx.exhausted,
+    notes,
+  };
+}
