@@ -1,0 +1,115 @@
+/** Conformance uploads of a release: compare with its golden vectors, store the verdict, list them. */
+import { createHash } from 'node:crypto';
+import type { DataSource } from 'typeorm';
+import type { SessionUser } from '../contract.ts';
+import { AppError, invalidInput } from '../errors.ts';
+import type { AuditService } from '../services/audit.ts';
+import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from './contract.ts';
+import { ConformanceRun } from './entities/index.ts';
+import type { Actor, ReleaseService } from './releaseService.ts';
+import { fileContents } from './repository.ts';
+import { compareVectors, MalformedCapture, parseVectorCsv } from './vectorCompare.ts';
+
+interface RunRow {
+  id: number;
+  releaseId: number;
+  uploadedById: number;
+  uploadedByName: string;
+  fileName: string;
+  sizeBytes: number;
+  sha256: string;
+  verdict: 'bit-exact' | 'mismatch';
+  samplesCompared: number;
+  mismatchCount: number;
+  firstMismatchesJson: string;
+  createdAt: Date | string;
+}
+
+function toRecord(r: RunRow): ConformanceRecord {
+  return {
+    id: Number(r.id),
+    releaseId: Number(r.releaseId),
+    uploadedById: Number(r.uploadedById),
+    uploadedByName: r.uploadedByName,
+    fileName: r.fileName,
+    sizeBytes: Number(r.sizeBytes),
+    sha256: r.sha256,
+    verdict: r.verdict,
+    samplesCompared: Number(r.samplesCompared),
+    mismatchCount: Number(r.mismatchCount),
+    firstMismatches: JSON.parse(r.firstMismatchesJson) as ConformanceRecord['firstMismatches'],
+    createdAt: new Date(r.createdAt).toISOString(),
+  };
+}
+
+export class ConformanceService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly releases: ReleaseService,
+    private readonly audit: AuditService,
+  ) {}
+
+  async upload(organizationId: number, releaseId: number, file: Express.Multer.File | undefined, user: SessionUser, actor: Actor): Promise<ConformanceRecord> {
+    if (!file) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `attach the capture CSV in the multipart field "${CONFORMANCE_UPLOAD_FIELD}"`);
+    const row = await this.releases.visibleRow(organizationId, releaseId, user);
+    const goldenFile = (await fileContents(this.dataSource.manager, row.id)).find((f) => f.name.endsWith('_vectors.csv'));
+    if (!goldenFile) throw new AppError('internal', 'the release has no golden vectors', 500);
+    let got: string[][];
+    try {
+      got = parseVectorCsv(file.buffer.toString('utf8'));
+    } catch (err) {
+      if (err instanceof MalformedCapture) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${file.originalname.slice(0, 120)}: ${err.message}`);
+      throw err;
+    }
+    const result = compareVectors(parseVectorCsv(Buffer.from(goldenFile.content).toString('utf8')), got);
+    const id = await this.dataSource.transaction(async (manager) => {
+      const inserted = await manager.insert(ConformanceRun, {
+        releaseId: row.id,
+        uploadedById: user.id,
+        fileName: file.originalname.slice(0, 255),
+        sizeBytes: file.size,
+        sha256: createHash('sha256').update(file.buffer).digest('hex'),
+        verdict: result.verdict,
+        samplesCompared: result.samplesCompared,
+        mismatchCount: result.mismatchCount,
+        firstMismatchesJson: JSON.stringify(result.firstMismatches),
+      });
+      const runId = Number(inserted.identifiers[0]?.id);
+      await this.audit.record(actor, { action: 'release.conformance', objectType: 'release', objectId: row.id, detail: { runId, verdict: result.verdict, mismatchCount: result.mismatchCount } }, manager);
+      return runId;
+    });
+    const [record] = await this.query(row.id, id);
+    if (!record) throw new AppError('internal', 'the conformance run was not stored', 500);
+    return record;
+  }
+
+  async list(organizationId: number, releaseId: number, user: SessionUser): Promise<ConformanceRecord[]> {
+    const row = await this.releases.visibleRow(organizationId, releaseId, user);
+    return this.query(row.id);
+  }
+
+  private async query(releaseId: number, id?: number): Promise<ConformanceRecord[]> {
+    const qb = this.dataSource
+      .createQueryBuilder()
+      .select([
+        'c.id AS id',
+        'c.releaseId AS releaseId',
+        'c.uploadedById AS uploadedById',
+        'u.displayName AS uploadedByName',
+        'c.fileName AS fileName',
+        'c.sizeBytes AS sizeBytes',
+        'c.sha256 AS sha256',
+        'c.verdict AS verdict',
+        'c.samplesCompared AS samplesCompared',
+        'c.mismatchCount AS mismatchCount',
+        'c.firstMismatchesJson AS firstMismatchesJson',
+        'c.createdAt AS createdAt',
+      ])
+      .from(ConformanceRun, 'c')
+      .innerJoin('users', 'u', 'u.id = c.uploadedById')
+      .where('c.releaseId = :releaseId', { releaseId })
+      .orderBy('c.id', 'DESC');
+    if (id !== undefined) qb.andWhere('c.id = :id', { id });
+    return (await qb.getRawMany<RunRow>()).map(toRecord);
+  }
+}

@@ -1,0 +1,47 @@
+/** The hand-off half: releases, reviews and review links, downloads, conformance and the mail outbox. */
+import type { DataSource } from 'typeorm';
+import { loadHandoffConfig, type HandoffConfig } from '../mail/config.ts';
+import { MailOutbox } from '../mail/outbox.ts';
+import { createMailTransport } from '../mail/transport.ts';
+import type { AuditService } from '../services/audit.ts';
+import type { DesignService } from '../services/designs.ts';
+import { ConformanceService } from './conformanceService.ts';
+import { DownloadService } from './downloadService.ts';
+import { ReleaseService } from './releaseService.ts';
+import { ReviewService } from './reviewService.ts';
+
+export interface ReleaseServices {
+  readonly config: HandoffConfig;
+  readonly outbox: MailOutbox;
+  readonly releases: ReleaseService;
+  readonly reviews: ReviewService;
+  readonly downloads: DownloadService;
+  readonly conformance: ConformanceService;
+  /** Stops the outbox timer (part of the app's close()). */
+  close(): void;
+}
+
+export function createReleaseServices(
+  dataSource: DataSource,
+  deps: { readonly audit: AuditService; readonly designs: DesignService },
+  config: HandoffConfig = loadHandoffConfig(),
+): ReleaseServices {
+  const outbox = new MailOutbox(dataSource, createMailTransport(config.smtp), config.mailFrom);
+  const releases = new ReleaseService(dataSource, deps.designs, deps.audit);
+  deps.designs.addDeletionGuard(async (designId, manager) => {
+    const n = await releases.releaseCount(designId, manager);
+    return n > 0 ? `it has ${n} release(s), which are kept for the record` : null;
+  });
+  const stopTimer = outbox.startTimer(config.outboxIntervalMs);
+  return {
+    config,
+    outbox,
+    releases,
+    reviews: new ReviewService(dataSource, releases, deps.audit, outbox, config),
+    downloads: new DownloadService(dataSource, releases, deps.audit),
+    conformance: new ConformanceService(dataSource, releases, deps.audit),
+    close: stopTimer,
+  };
+}
+
+export { releaseEntities } from './entities/index.ts';

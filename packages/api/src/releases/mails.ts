@@ -1,0 +1,68 @@
+/**
+ * Wording of the hand-off e-mails (plain text). Only our own words, the validated spec name, the
+ * release label, people's display names and URLs we built enter a message.
+ */
+import { CAUTION } from '../render/caution.ts';
+import type { MailMessage } from '../mail/outbox.ts';
+
+export interface ReviewMailInput {
+  readonly to: string;
+  readonly reviewerName: string;
+  readonly requesterName: string;
+  readonly specName: string;
+  readonly label: string;
+  readonly link: string;
+  readonly expiresAt: Date;
+  readonly approvalsRequired: number;
+  readonly manifestSha256: string;
+}
+
+export function reviewRequestMail(m: ReviewMailInput): MailMessage {
+  return {
+    kind: 'review-request',
+    to: m.to,
+    subject: `Review requested: ${m.specName} ${m.label}`,
+    text: [
+      `Hello ${m.reviewerName},`,
+      '',
+      `${m.requesterName} asks you to review release ${m.label} of loop design ${m.specName}.`,
+      `${m.approvalsRequired} approval(s) are needed.`,
+      '',
+      `Open the release to approve it or ask for changes:`,
+      m.link,
+      '',
+      `The link is for you alone, works once and expires at ${m.expiresAt.toISOString()}.`,
+      `Release manifest SHA-256: ${m.manifestSha256}`,
+      '',
+      CAUTION,
+    ].join('\n'),
+  };
+}
+
+export interface ApprovedMailInput {
+  readonly to: string;
+  readonly name: string;
+  readonly specName: string;
+  readonly label: string;
+  readonly releaseUrl: string;
+  readonly manifestSha256: string;
+}
+
+export function releaseApprovedMail(m: ApprovedMailInput): MailMessage {
+  return {
+    kind: 'release-approved',
+    to: m.to,
+    subject: `Release approved: ${m.specName} ${m.label}`,
+    text: [
+      `Hello ${m.name},`,
+      '',
+      `Release ${m.label} of loop design ${m.specName} is approved and ready to download:`,
+      m.releaseUrl,
+      '',
+      `Manifest SHA-256: ${m.manifestSha256}`,
+      'Check the SHA-256 of every file against manifest.json, and upload your simulation output for a conformance check.',
+      '',
+      CAUTION,
+    ].join('\n'),
+  };
+}

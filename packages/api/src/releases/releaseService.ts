@@ -1,0 +1,168 @@
+/**
+ * Cutting and reading releases. A cut recomputes everything from the design's stored spec with
+ * packages/dsp (render/compute.ts), renders every artifact (render/artifacts.ts, the same function
+ * as `loopwright render`), and stores spec, results and bytes with their SHA-256 in one transaction.
+ * The number is taken under a row lock on the design (SELECT … FOR UPDATE), so concurrent cuts queue
+ * and never collide; the unique (designId, number) index is the database's second line of defence.
+ */
+import type { DataSource, EntityManager } from 'typeorm';
+import type { SessionUser } from '../contract.ts';
+import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
+import type { AuditActor, AuditService } from '../services/audit.ts';
+import type { DesignService } from '../services/designs.ts';
+import { renderArtifacts, type Manifest, type RenderedRelease } from '../render/artifacts.ts';
+import { CAUTION } from '../render/caution.ts';
+import { computeRelease, RenderInputError } from '../render/compute.ts';
+import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from './contract.ts';
+import { releaseDiff } from './diff.ts';
+import { Release, ReleaseFile } from './entities/index.ts';
+import { releaseLabel, toFileRecord, toReviewRecord, toSummary, type ReleaseRow } from './records.ts';
+import { fileContents, findRelease, listFiles, listReleases, listReviews } from './repository.ts';
+import { allowedEvents, transition, type ReleaseEvent } from './stateMachine.ts';
+import { canSee, FIRMWARE_VISIBLE_STATES, seesAllStates } from './visibility.ts';
+
+export type Actor = AuditActor & { id: number };
+
+/** Render a stored spec; a spec the server cannot turn into artifacts is the designer's to fix (400). */
+export function renderStoredSpec(spec: unknown): RenderedRelease {
+  try {
+    return renderArtifacts(computeRelease(spec));
+  } catch (err) {
+    if (err instanceof RenderInputError) throw invalidInput(`spec.${err.field}`.replace(/\.$/, ''), err.message);
+    throw err;
+  }
+}
+
+export class ReleaseService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly designs: DesignService,
+    private readonly audit: AuditService,
+  ) {}
+
+  async cut(organizationId: number, designId: number, actor: Actor): Promise<ReleaseRecord> {
+    const design = await this.designs.get(organizationId, designId);
+    const rendered = renderStoredSpec(design.spec);
+    const id = await this.dataSource.transaction(async (manager) => {
+      await manager.query('SELECT `id` FROM `designs` WHERE `id` = ? FOR UPDATE', [designId]);
+      const [{ next }] = (await manager.query('SELECT COALESCE(MAX(`number`), 0) + 1 AS `next` FROM `releases` WHERE `designId` = ?', [designId])) as [{ next: number | string }];
+      const number = Number(next);
+      const inserted = await manager.insert(Release, {
+        designId,
+        number,
+        state: 'draft',
+        specJson: JSON.stringify(rendered.manifest.spec),
+        resultsJson: JSON.stringify(rendered.manifest.results),
+        specSha256: rendered.specSha256,
+        manifestSha256: rendered.manifestSha256,
+        designRevision: design.revision,
+        createdById: actor.id,
+      });
+      const releaseId = Number(inserted.identifiers[0]?.id);
+      await manager.insert(
+        ReleaseFile,
+        rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: f.bytes })),
+      );
+      await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256 } }, manager);
+      return releaseId;
+    });
+    return this.getForUser(organizationId, id, { roles: ['designer'] });
+  }
+
+  /** The row, or 404 when it does not exist in the organisation or the user may not see it. */
+  async visibleRow(organizationId: number, id: number, user: Pick<SessionUser, 'roles'>, manager: EntityManager = this.dataSource.manager, withContent = false): Promise<ReleaseRow> {
+    const row = await findRelease(manager, organizationId, id, withContent);
+    if (!row || !canSee(user, row.state)) throw notFound('release');
+    return row;
+  }
+
+  async getForUser(organizationId: number, id: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseRecord> {
+    const row = await this.visibleRow(organizationId, id, user, this.dataSource.manager, true);
+    return this.record(row);
+  }
+
+  async record(row: ReleaseRow, manager: EntityManager = this.dataSource.manager): Promise<ReleaseRecord> {
+    const [files, reviews] = await Promise.all([listFiles(manager, row.id), listReviews(manager, row.id)]);
+    return {
+      ...toSummary(row),
+      designName: row.designName,
+      projectId: Number(row.projectId),
+      spec: JSON.parse(row.specJson ?? 'null') as unknown,
+      results: JSON.parse(row.resultsJson ?? 'null') as unknown,
+      files: files.map(toFileRecord),
+      approvalsRequired: row.approvalsRequired === null ? null : Number(row.approvalsRequired),
+      approvals: reviews.filter((r) => r.decision === 'approve').length,
+      reviews: reviews.map(toReviewRecord),
+      allowedEvents: allowedEvents(row.state),
+      caution: CAUTION,
+    };
+  }
+
+  async listForDesign(organizationId: number, designId: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseSummary[]> {
+    await this.designs.get(organizationId, designId);
+    const rows = await listReleases(this.dataSource.manager, organizationId, { designId, ...(seesAllStates(user) ? {} : { states: FIRMWARE_VISIBLE_STATES }) });
+    return rows.map(toSummary);
+  }
+
+  /** Approved releases of the organisation (the Downloads screen). */
+  async listApproved(organizationId: number): Promise<ReleaseSummary[]> {
+    return (await listReleases(this.dataSource.manager, organizationId, { states: ['approved'] })).map(toSummary);
+  }
+
+  /**
+   * Moves a release to the state the state machine gives for `event`, as a compare-and-set on the
+   * state it read (under the row lock of `manager`'s transaction when the caller holds one).
+   */
+  async applyEvent(manager: EntityManager, row: Pick<ReleaseRow, 'id' | 'state'>, event: ReleaseEvent, extra: { approvalsRequired?: number } = {}): Promise<ReleaseRow['state']> {
+    const t = transition(row.state, event);
+    if (!t.ok) throw conflict(t.message, 'state');
+    const result = await manager
+      .createQueryBuilder()
+      .update(Release)
+      .set({ state: t.to, stateChangedAt: () => 'CURRENT_TIMESTAMP(3)', ...extra })
+      .where('id = :id AND state = :state', { id: row.id, state: row.state })
+      .execute();
+    if (result.affected !== 1) throw conflict('the release changed state meanwhile; reload it', 'state');
+    return t.to;
+  }
+
+  async withdraw(organizationId: number, id: number, actor: Actor, reason: string | undefined): Promise<ReleaseRecord> {
+    await this.dataSource.transaction(async (manager) => {
+      const row = await findRelease(manager, organizationId, id, false, true);
+      if (!row) throw notFound('release');
+      const to = await this.applyEvent(manager, row, 'withdraw');
+      await this.audit.record(actor, { action: 'release.withdraw', objectType: 'release', objectId: id, detail: { from: row.state, to, reason: reason ?? null } }, manager);
+    });
+    return this.getForUser(organizationId, id, { roles: ['designer'] });
+  }
+
+  async manifestOf(releaseId: number): Promise<Manifest> {
+    const [file] = await fileContents(this.dataSource.manager, releaseId, 'manifest.json');
+    if (!file) throw new AppError('internal', 'the release has no manifest', 500);
+    return JSON.parse(Buffer.from(file.content).toString('utf8')) as Manifest;
+  }
+
+  async diff(organizationId: number, id: number, againstId: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseDiff> {
+    const [to, from] = await Promise.all([this.visibleRow(organizationId, id, user, undefined, true), this.visibleRow(organizationId, againstId, user, undefined, true)]);
+    if (to.designId !== from.designId) throw invalidInput('against', 'compare releases of the same design');
+    const side = async (row: ReleaseRow) => ({
+      id: Number(row.id),
+      label: releaseLabel(Number(row.number)),
+      spec: JSON.parse(row.specJson ?? 'null') as unknown,
+      constants: (await this.manifestOf(row.id)).constants,
+      margins: (JSON.parse(row.resultsJson ?? 'null') as { analysis?: { margins?: unknown } } | null)?.analysis?.margins ?? null,
+    });
+    return releaseDiff(await side(from), await side(to));
+  }
+
+  /** The previous release of the same design (for the reviewer's diff), or null. */
+  async previousOf(organizationId: number, row: ReleaseRow): Promise<ReleaseRow | null> {
+    const rows = await listReleases(this.dataSource.manager, organizationId, { designId: row.designId });
+    return rows.find((r) => Number(r.number) < Number(row.number)) ?? null;
+  }
+
+  /** Registered with the design service: a design with releases cannot be deleted. */
+  async releaseCount(designId: number, manager: EntityManager): Promise<number> {
+    return manager.count(Release, { where: { designId } });
+  }
+}

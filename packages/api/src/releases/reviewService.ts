@@ -1,0 +1,251 @@
+/**
+ * Review requests and the e-mailed review links (tokens: reviewToken.ts). A decision is a POST that
+ * locks the link row, checks the token and its bindings, marks it used and moves the release through
+ * the state machine, all in one transaction; refusals (replayed, expired, tampered, foreign) roll that
+ * back and are recorded in the audit trail on their own.
+ */
+import type { DataSource, EntityManager } from 'typeorm';
+import type { SessionUser } from '../contract.ts';
+import { User } from '../entities/User.ts';
+import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
+import type { HandoffConfig } from '../mail/config.ts';
+import type { MailMessage, MailOutbox } from '../mail/outbox.ts';
+import type { AuditActor, AuditService } from '../services/audit.ts';
+import type { ReleaseRecord, ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView, ReviewRequest } from './contract.ts';
+import { ReleaseReview } from './entities/index.ts';
+import { releaseApprovedMail, reviewRequestMail } from './mails.ts';
+import { releaseLabel, type ReleaseRow } from './records.ts';
+import type { Actor, ReleaseService } from './releaseService.ts';
+import { findRelease } from './repository.ts';
+import { issueToken, parseToken, tokenMatches } from './reviewToken.ts';
+import type { ReleaseState } from './stateMachine.ts';
+
+export type RefusalReason = 'malformed' | 'unknown' | 'tampered' | 'replayed' | 'expired' | 'foreign';
+
+const REFUSAL_TEXT: Record<RefusalReason, string> = {
+  malformed: 'this review link is not a valid link (it may have been cut or altered)',
+  unknown: 'this review link does not exist (it may have been altered)',
+  tampered: 'this review link does not match its record (it was altered or does not belong to this release)',
+  replayed: 'this review link was already used; each link decides once',
+  expired: 'this review link has expired; ask the designer for a new review request',
+  foreign: 'this review link belongs to someone or something else',
+};
+
+export class ReviewLinkRefused extends AppError {
+  constructor(
+    readonly reason: RefusalReason,
+    detail?: string,
+  ) {
+    super('forbidden', detail ? `${REFUSAL_TEXT[reason]}: ${detail}` : REFUSAL_TEXT[reason], 403, 'token');
+  }
+}
+
+interface LinkRow {
+  id: number;
+  releaseId: number;
+  reviewerId: number;
+  reviewerName: string;
+  reviewerEmail: string;
+  selector: string;
+  tokenHash: string;
+  manifestSha256: string;
+  expiresAt: Date | string;
+  usedAt: Date | string | null;
+}
+
+interface FirmwareRecipient {
+  email: string;
+  displayName: string;
+}
+
+export class ReviewService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly releases: ReleaseService,
+    private readonly audit: AuditService,
+    private readonly outbox: MailOutbox,
+    private readonly config: HandoffConfig,
+  ) {}
+
+  reviewUrl(token: string): string {
+    return `${this.config.publicUrl}/review/${token}`;
+  }
+
+  releaseUrl(id: number): string {
+    return `${this.config.publicUrl}/releases/${id}`;
+  }
+
+  async requestReview(organizationId: number, releaseId: number, request: ReviewRequest, actor: Actor & { displayName: string }): Promise<ReleaseRecord> {
+    if (request.approvalsRequired > request.reviewerIds.length) {
+      throw invalidInput('approvalsRequired', `approvalsRequired ${request.approvalsRequired} exceeds the ${request.reviewerIds.length} reviewer(s) named`);
+    }
+    const mailIds = await this.dataSource.transaction(async (manager) => {
+      const row = await findRelease(manager, organizationId, releaseId, true, true);
+      if (!row) throw notFound('release');
+      const reviewers = await this.reviewers(manager, organizationId, request.reviewerIds, [actor.id, Number(row.createdById)]);
+      await this.releases.applyEvent(manager, row, 'request-review', { approvalsRequired: request.approvalsRequired });
+      const specName = (JSON.parse(row.specJson ?? '{}') as { name: string }).name;
+      const expiresAt = new Date(Date.now() + this.config.reviewLinkTtlS * 1000);
+      const mails: MailMessage[] = [];
+      for (const reviewer of reviewers) {
+        const issued = issueToken({ releaseId: row.id, reviewerId: reviewer.id, manifestSha256: row.manifestSha256 });
+        await manager.insert(ReleaseReview, {
+          releaseId: row.id,
+          reviewerId: reviewer.id,
+          requestedById: actor.id,
+          selector: issued.selector,
+          tokenHash: issued.tokenHash,
+          manifestSha256: row.manifestSha256,
+          expiresAt,
+        });
+        mails.push(
+          reviewRequestMail({
+            to: reviewer.email,
+            reviewerName: reviewer.displayName,
+            requesterName: actor.displayName,
+            specName,
+            label: releaseLabel(Number(row.number)),
+            link: this.reviewUrl(issued.token),
+            expiresAt,
+            approvalsRequired: request.approvalsRequired,
+            manifestSha256: row.manifestSha256,
+          }),
+        );
+      }
+      await this.audit.record(actor, { action: 'release.review-requested', objectType: 'release', objectId: row.id, detail: { reviewerIds: request.reviewerIds, approvalsRequired: request.approvalsRequired, expiresAt: expiresAt.toISOString() } }, manager);
+      return this.outbox.enqueue(manager, mails);
+    });
+    await this.outbox.deliverPending(mailIds);
+    return this.releases.getForUser(organizationId, releaseId, { roles: ['designer'] });
+  }
+
+  private async reviewers(manager: EntityManager, organizationId: number, ids: readonly number[], excluded: readonly number[]): Promise<User[]> {
+    const users = await manager.getRepository(User).findBy(ids.map((id) => ({ id, organizationId })));
+    const byId = new Map(users.map((u) => [u.id, u]));
+    return ids.map((id, i) => {
+      const u = byId.get(id);
+      const field = `reviewerIds.${i}`;
+      if (!u) throw invalidInput(field, `no account ${id} in your organisation`);
+      if (u.disabled) throw invalidInput(field, `${u.displayName} has a disabled account`);
+      if (!u.roles.includes('reviewer')) throw invalidInput(field, `${u.displayName} does not hold the reviewer role`);
+      if (excluded.includes(u.id)) throw invalidInput(field, `${u.displayName} cut or requested this release and cannot also review it`);
+      return u;
+    });
+  }
+
+  private async linkRow(manager: EntityManager, selector: string, lock: boolean): Promise<LinkRow | undefined> {
+    const qb = manager
+      .createQueryBuilder()
+      .select([
+        'v.id AS id',
+        'v.releaseId AS releaseId',
+        'v.reviewerId AS reviewerId',
+        'u.displayName AS reviewerName',
+        'u.email AS reviewerEmail',
+        'v.selector AS selector',
+        'v.tokenHash AS tokenHash',
+        'v.manifestSha256 AS manifestSha256',
+        'v.expiresAt AS expiresAt',
+        'v.usedAt AS usedAt',
+      ])
+      .from(ReleaseReview, 'v')
+      .innerJoin('v.reviewer', 'u')
+      .where('v.selector = :selector', { selector });
+    if (lock) qb.setLock('pessimistic_write', undefined, ['v']);
+    return qb.getRawOne<LinkRow>();
+  }
+
+  /** Checks a token against its row and the release; returns both or throws ReviewLinkRefused. */
+  private async verify(manager: EntityManager, token: string, lock: boolean): Promise<{ link: LinkRow; release: ReleaseRow; organizationId: number }> {
+    const parsed = parseToken(token);
+    if (!parsed) throw new ReviewLinkRefused('malformed');
+    const link = await this.linkRow(manager, parsed.selector, lock);
+    if (!link) throw new ReviewLinkRefused('unknown');
+    const binding = { selector: link.selector, releaseId: Number(link.releaseId), reviewerId: Number(link.reviewerId), manifestSha256: link.manifestSha256 };
+    if (!tokenMatches(parsed.secret, binding, link.tokenHash)) throw new ReviewLinkRefused('tampered');
+    const orgRow = (await manager.query('SELECT p.`organizationId` AS organizationId FROM `releases` r JOIN `designs` d ON d.id = r.designId JOIN `projects` p ON p.id = d.projectId WHERE r.id = ?', [link.releaseId])) as { organizationId: number }[];
+    const organizationId = Number(orgRow[0]?.organizationId);
+    const release = await findRelease(manager, organizationId, Number(link.releaseId), true, lock);
+    if (!release) throw new ReviewLinkRefused('unknown');
+    if (release.manifestSha256 !== link.manifestSha256) throw new ReviewLinkRefused('tampered', 'the release content is not the one the link was issued for');
+    if (link.usedAt !== null) throw new ReviewLinkRefused('replayed');
+    if (new Date(link.expiresAt).getTime() <= Date.now()) throw new ReviewLinkRefused('expired');
+    return { link, release, organizationId };
+  }
+
+  /** Records a refusal outside the failed transaction, then rethrows it. */
+  private async refused(err: unknown, token: string, ip: string | null, action: string): Promise<never> {
+    if (err instanceof ReviewLinkRefused) {
+      const selector = parseToken(token)?.selector ?? null;
+      const actor: AuditActor = { id: null, email: null, ip };
+      await this.audit.record(actor, { action: 'review-link.refused', objectType: 'review-link', objectId: selector, detail: { reason: err.reason, attempted: action } });
+    }
+    throw err;
+  }
+
+  /** What the e-mail link opens. Reads only: the link stays unused. */
+  async read(token: string, ip: string | null, sessionUser: SessionUser | undefined): Promise<ReviewLinkView> {
+    try {
+      const { link, release, organizationId } = await this.verify(this.dataSource.manager, token, false);
+      if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw new ReviewLinkRefused('foreign', 'it was sent to another reviewer');
+      const previous = await this.releases.previousOf(organizationId, release);
+      const reviewerView = { roles: ['reviewer' as const] };
+      return {
+        reviewerName: link.reviewerName,
+        expiresAt: new Date(link.expiresAt).toISOString(),
+        release: await this.releases.record(release),
+        diff: previous ? await this.releases.diff(organizationId, release.id, previous.id, reviewerView) : null,
+      };
+    } catch (err) {
+      return this.refused(err, token, ip, 'read');
+    }
+  }
+
+  async decide(token: string, body: ReviewDecisionRequest, ip: string | null, sessionUser: SessionUser | undefined): Promise<ReviewDecisionResponse> {
+    let outcome: { response: ReviewDecisionResponse; mailIds: string[] };
+    try {
+      outcome = await this.dataSource.transaction(async (manager) => {
+        const { link, release, organizationId } = await this.verify(manager, token, true);
+        if (body.manifestSha256 !== link.manifestSha256) throw new ReviewLinkRefused('foreign', 'the decision is about other release content than this link is for');
+        if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw new ReviewLinkRefused('foreign', 'it was sent to another reviewer');
+        if (release.state !== 'in-review') throw conflict(`the release is ${release.state}; it no longer takes review decisions`, 'state');
+        await manager.update(ReleaseReview, { id: link.id }, { usedAt: new Date(), decision: body.decision, comment: body.comment ?? null });
+        const [{ approvals }] = (await manager.query("SELECT COUNT(*) AS approvals FROM `release_reviews` WHERE `releaseId` = ? AND `decision` = 'approve'", [release.id])) as [{ approvals: number | string }];
+        const required = Number(release.approvalsRequired ?? 1);
+        let state: ReleaseState = release.state;
+        let mails: MailMessage[] = [];
+        if (body.decision === 'request-changes') state = await this.releases.applyEvent(manager, release, 'request-changes');
+        else if (Number(approvals) >= required) {
+          state = await this.releases.applyEvent(manager, release, 'approve');
+          mails = await this.approvedMails(manager, organizationId, release);
+        }
+        const actor: AuditActor = { id: Number(link.reviewerId), email: link.reviewerEmail, ip };
+        await this.audit.record(actor, { action: `review.${body.decision}`, objectType: 'release', objectId: release.id, detail: { reviewId: link.id, state, approvals: Number(approvals), required, via: 'link' } }, manager);
+        const mailIds = await this.outbox.enqueue(manager, mails);
+        return { response: { decision: body.decision, state, approvals: Number(approvals), approvalsRequired: required }, mailIds };
+      });
+    } catch (err) {
+      return this.refused(err, token, ip, 'decide');
+    }
+    await this.outbox.deliverPending(outcome.mailIds);
+    return outcome.response;
+  }
+
+  private async approvedMails(manager: EntityManager, organizationId: number, release: ReleaseRow): Promise<MailMessage[]> {
+    const recipients = (await manager.query(
+      "SELECT `email`, `displayName` FROM `users` WHERE `organizationId` = ? AND `disabled` = 0 AND FIND_IN_SET('firmware', `roles`) > 0 ORDER BY `id`",
+      [organizationId],
+    )) as FirmwareRecipient[];
+    const specName = (JSON.parse(release.specJson ?? '{}') as { name: string }).name;
+    return recipients.map((r) =>
+      releaseApprovedMail({
+        to: r.email,
+        name: r.displayName,
+        specName,
+        label: releaseLabel(Number(release.number)),
+        releaseUrl: this.releaseUrl(release.id),
+        manifestSha256: release.manifestSha256,
+      }),
+    );
+  }
+}
