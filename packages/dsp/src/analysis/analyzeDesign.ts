@@ -12,7 +12,7 @@ import type { AcquisitionEstimates, SteadyStateErrors, StepResponses } from '../
 import type { QuantizedFilter } from '../types/fixed.ts';
 import { type LoopFilterDesign, designLoopFilter } from '../design.ts';
 import { type LoopGain, loopGain } from './loopGain.ts';
-import { analogLoopResponse, analogResponse, closedLoop, digitalResponse, discreteLoopResponse, toDb } from './response.ts';
+import { analogLoopResponse, analogResponse, closedFromOpen, closedLoop, digitalResponse, discreteLoopResponse, toDb } from './response.ts';
 import { logGrid } from './grid.ts';
 import { sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
@@ -163,14 +163,13 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
   const analogGrid = logGrid(range.fMinHz, range.fMaxAnalogHz, points);
   const analogOpen = sampleResponse(analogFn, analogGrid, loopType);
   const analogMargins = loopMargins(analogFn, analogOpen);
-  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid);
+  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, analogOpen.values.map(closedFromOpen));
   const analogPolys = analogClosedLoop(design.analog, k);
   const analogStable = routhHurwitzStable(analogPolys.h.den);
 
   const discrete = discreteLoopMargins(spec, design.sections, { fMinHz: range.fMinHz, points });
   const plotGrid = discrete.open.freqHz;
   const analogOnPlot = sampleResponse(analogFn, plotGrid, loopType);
-  const discreteFn = discreteLoopResponse(design.sections, k, fs);
 
   const quantization = quantize(spec, design, range.fMinHz, points);
   const second = secondOrderParameters(spec, k, design.tau);
@@ -181,8 +180,8 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
     analogPhaseDeg: analogOnPlot.phaseDeg,
     discreteMagnitudeDb: discrete.open.magnitudeDb,
     discretePhaseDeg: discrete.open.phaseDeg,
-    analogClosedLoopDb: plotGrid.map((f) => toDb(closedLoop(analogFn)(f))),
-    discreteClosedLoopDb: plotGrid.map((f) => toDb(closedLoop(discreteFn)(f))),
+    analogClosedLoopDb: analogOnPlot.values.map((l) => toDb(closedFromOpen(l))),
+    discreteClosedLoopDb: discrete.open.values.map((l) => toDb(closedFromOpen(l))),
     quantizedMagnitudeDb: quantization.open?.magnitudeDb ?? null,
     quantizedPhaseDeg: quantization.open?.phaseDeg ?? null,
   };

@@ -6,6 +6,7 @@
  * here has because the NCO integrates).
  */
 import { brentRoot, goldenMax } from './roots.ts';
+import type { Complex } from '../filters/complex.ts';
 import { type ResponseFn, toDb } from './response.ts';
 
 export interface ClosedLoopFigures {
@@ -17,8 +18,12 @@ export interface ClosedLoopFigures {
 
 export const MINUS_3DB = 10 * Math.log10(0.5);
 
-export function closedLoopFigures(h: ResponseFn, grid: readonly number[]): ClosedLoopFigures {
-  const db = grid.map((f) => toDb(h(f)));
+/**
+ * Figures of the closed loop h on the grid; `samples` may give h on the grid already (from the open-loop
+ * samples, H = L/(1 + L)) to save the evaluations.
+ */
+export function closedLoopFigures(h: ResponseFn, grid: readonly number[], samples?: readonly Complex[]): ClosedLoopFigures {
+  const db = samples ? samples.map(toDb) : grid.map((f) => toDb(h(f)));
   let iPeak = 0;
   for (let i = 1; i < db.length; i++) if (db[i]! > db[iPeak]!) iPeak = i;
   let peakingDb = Math.max(0, db[iPeak]!);

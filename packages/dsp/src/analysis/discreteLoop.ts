@@ -7,7 +7,7 @@ import type { DigitalTf, Sos } from '../types/filter.ts';
 import type { LoopSpec } from '../spec/schema.ts';
 import { sosToTf } from '../filters/sections.ts';
 import { loopGain } from './loopGain.ts';
-import { type DigitalFilter, closedLoop, discreteLoopResponse, isSections, type ResponseFn } from './response.ts';
+import { type DigitalFilter, closedFromOpen, closedLoop, discreteLoopResponse, isSections, type ResponseFn } from './response.ts';
 import { logGrid } from './grid.ts';
 import { type SampledResponse, sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
@@ -73,7 +73,7 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
   const open = sampleResponse(fn, grid, loopType);
   const margins = loopMargins(fn, open);
   const stable = discreteLoopStable(isSections(filter) ? filter : [tfAsSection(tf)], k, fs);
-  const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid);
+  const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid, open.values.map(closedFromOpen));
   return { margins, stable, closedLoop: cl, open, loopType, response: fn };
 }
 

@@ -6,6 +6,9 @@
  */
 import type { ResponseFn } from './response.ts';
 
+/** Simpson intervals in ln f; ample for the smooth, low-Q responses of a loop (checked against quad). */
+export const DEFAULT_INTERVALS = 1200;
+
 /** Closed form for a second-order H = (b1 s + b0)/(s² + a1 s + a0), Hz. */
 export function secondOrderNoiseBandwidthHz(b1: number, b0: number, a1: number, a0: number): number {
   return (b1 * b1 * a0 + b0 * b0) / (4 * a0 * a1);
@@ -27,7 +30,7 @@ export function numericNoiseBandwidthHz(
   fMaxHz: number,
   options: { readonly intervals?: number; readonly tail?: boolean } = {},
 ): number {
-  const n = 2 * Math.ceil((options.intervals ?? 4000) / 2);
+  const n = 2 * Math.ceil((options.intervals ?? DEFAULT_INTERVALS) / 2);
   const u0 = Math.log(fMinHz);
   const du = (Math.log(fMaxHz) - u0) / n;
   const g = (u: number) => {

@@ -6,7 +6,7 @@
  */
 import type { AnalogTf, DigitalTf, Sos } from '../types/filter.ts';
 import { type Complex, cdiv, cexpj, cmul, cscale } from '../filters/complex.ts';
-import { polyvalAscending, polyvalDescending } from '../filters/polynomial.ts';
+import { polyvalAscending } from '../filters/polynomial.ts';
 
 /** A digital filter in either representation. */
 export type DigitalFilter = DigitalTf | readonly Sos[];
@@ -14,21 +14,66 @@ export type DigitalFilter = DigitalTf | readonly Sos[];
 /** Complex response as a function of frequency in Hz. */
 export type ResponseFn = (freqHz: number) => Complex;
 
-/** F(jω) of analog sections (or one transfer function) at freqHz. */
+/**
+ * F(jω) of analog sections (or one transfer function) at freqHz. Written with scalar locals: this is
+ * the innermost loop of every grid and root search, and object allocation would dominate it.
+ */
 export function analogResponse(sections: readonly AnalogTf[], freqHz: number): Complex {
-  const s = { re: 0, im: 2 * Math.PI * freqHz };
-  let h: Complex = { re: 1, im: 0 };
-  for (const tf of sections) h = cmul(h, cdiv(polyvalDescending(tf.num, s), polyvalDescending(tf.den, s)));
-  return h;
+  const w = 2 * Math.PI * freqHz;
+  let hr = 1;
+  let hi = 0;
+  for (const tf of sections) {
+    let nr = 0;
+    let ni = 0;
+    for (const c of tf.num) {
+      const t = -ni * w + c; // (nr + j·ni)·(jω) + c
+      ni = nr * w;
+      nr = t;
+    }
+    let dr = 0;
+    let di = 0;
+    for (const c of tf.den) {
+      const t = -di * w + c;
+      di = dr * w;
+      dr = t;
+    }
+    const d = dr * dr + di * di;
+    const qr = (nr * dr + ni * di) / d;
+    const qi = (ni * dr - nr * di) / d;
+    const r = hr * qr - hi * qi;
+    hi = hr * qi + hi * qr;
+    hr = r;
+  }
+  return { re: hr, im: hi };
 }
 
 /** H(e^{jωT}) of a digital filter at freqHz for the sample rate fs. */
 export function digitalResponse(filter: DigitalFilter, freqHz: number, sampleRateHz: number): Complex {
-  const w = cexpj((-2 * Math.PI * freqHz) / sampleRateHz); // z⁻¹ on the unit circle
-  const parts: readonly DigitalTf[] = isSections(filter) ? filter : [filter];
-  let h: Complex = { re: 1, im: 0 };
-  for (const p of parts) h = cmul(h, cdiv(polyvalAscending(p.b, w), polyvalAscending(p.a, w)));
-  return h;
+  const omega = (2 * Math.PI * freqHz) / sampleRateHz;
+  if (!isSections(filter)) {
+    const w = cexpj(-omega); // z⁻¹ on the unit circle
+    return cdiv(polyvalAscending(filter.b, w), polyvalAscending(filter.a, w));
+  }
+  const c1 = Math.cos(omega);
+  const s1 = Math.sin(omega);
+  const c2 = Math.cos(2 * omega);
+  const s2 = Math.sin(2 * omega);
+  let hr = 1;
+  let hi = 0;
+  for (const { b, a } of filter) {
+    // P(e^{−jω}) = p0 + p1·e^{−jω} + p2·e^{−j2ω}
+    const nr = b[0] + b[1] * c1 + b[2] * c2;
+    const ni = -(b[1] * s1 + b[2] * s2);
+    const dr = a[0] + a[1] * c1 + a[2] * c2;
+    const di = -(a[1] * s1 + a[2] * s2);
+    const d = dr * dr + di * di;
+    const qr = (nr * dr + ni * di) / d;
+    const qi = (ni * dr - nr * di) / d;
+    const r = hr * qr - hi * qi;
+    hi = hr * qi + hi * qr;
+    hr = r;
+  }
+  return { re: hr, im: hi };
 }
 
 export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
@@ -52,6 +97,11 @@ export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sa
     const nco = cdiv({ re: kt, im: 0 }, { re: z.re - 1, im: z.im });
     return cmul(nco, digitalResponse(filter, f, sampleRateHz));
   };
+}
+
+/** H = L/(1 + L) from an open-loop value. */
+export function closedFromOpen(l: Complex): Complex {
+  return cdiv(l, { re: 1 + l.re, im: l.im });
 }
 
 /** Closed-loop phase transfer H = L/(1 + L) from an open-loop response. */

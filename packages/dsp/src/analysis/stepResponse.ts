@@ -26,8 +26,19 @@ export function stepResponses(
   const n = useDiscrete ? loopSamples : MAX_SAMPLES;
   const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
   const t = 1 / rateHz;
-  const phaseStepErrorRad = runFilter(e, n, () => 1, stride);
-  const frequencyStepErrorRad = runFilter(e, n, (i) => 2 * Math.PI * i * t, stride);
-  const timeS = phaseStepErrorRad.map((_, k) => k * stride * t);
+  // E is linear and the 1 Hz frequency step's phase 2π·t is the running sum of 2π·T-high steps, so
+  // its response is the running sum of the phase-step response scaled by 2π·T: one filter run for both.
+  const phase = runFilter(e, n, () => 1, 1);
+  const phaseStepErrorRad: number[] = [];
+  const frequencyStepErrorRad: number[] = [];
+  const timeS: number[] = [];
+  let acc = 0;
+  for (let i = 0; i < n; i++) {
+    acc += phase[i]! * 2 * Math.PI * t;
+    if (i % stride !== 0) continue;
+    timeS.push(i * t);
+    phaseStepErrorRad.push(phase[i]!);
+    frequencyStepErrorRad.push(acc - phase[i]! * 2 * Math.PI * t);
+  }
   return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad };
 }

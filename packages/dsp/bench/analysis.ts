@@ -1,0 +1,32 @@
+/**
+ * Benchmark of analyzeDesign on the demo examples (target: < 5 ms per spec, so the design editor can
+ * re-analyse on every edit in a Web Worker). Reports figures; never fails a test run.
+ */
+import { analyzeDesign } from '../src/analysis/analyzeDesign.ts';
+import { exampleSpecs } from '../src/spec/examples.ts';
+
+export const ANALYZE_TARGET_MS = 5;
+
+export interface AnalysisBenchFigure {
+  readonly example: string;
+  readonly firstCallMs: number;
+  readonly medianMs: number;
+  readonly p95Ms: number;
+  readonly targetMs: number;
+  readonly met: boolean;
+}
+
+export function runAnalysisBench(runs = 300, warmup = 100): AnalysisBenchFigure[] {
+  return exampleSpecs.map((e) => {
+    const times: number[] = [];
+    for (let i = 0; i < runs; i++) {
+      const t0 = performance.now();
+      analyzeDesign(e.spec);
+      times.push(performance.now() - t0);
+    }
+    const steady = times.slice(warmup).sort((a, b) => a - b);
+    const at = (q: number) => steady[Math.min(steady.length - 1, Math.floor(q * steady.length))]!;
+    const medianMs = at(0.5);
+    return { example: e.id, firstCallMs: times[0]!, medianMs, p95Ms: at(0.95), targetMs: ANALYZE_TARGET_MS, met: medianMs < ANALYZE_TARGET_MS };
+  });
+}
