@@ -33,9 +33,9 @@ function releaseQuery(manager: EntityManager, withContent: boolean) {
 }
 
 export async function findRelease(manager: EntityManager, organizationId: number, id: number, withContent = false, lock = false): Promise<ReleaseRow | undefined> {
-  const qb = releaseQuery(manager, withContent).where('r.id = :id AND p.organizationId = :organizationId', { id, organizationId });
-  if (lock) qb.setLock('pessimistic_write', undefined, ['r']);
-  return qb.getRawOne<ReleaseRow>();
+  // The row lock is taken on the release row alone (the join would lock design, project and user too).
+  if (lock) await manager.query('SELECT `id` FROM `releases` WHERE `id` = ? FOR UPDATE', [id]);
+  return releaseQuery(manager, withContent).where('r.id = :id AND p.organizationId = :organizationId', { id, organizationId }).getRawOne<ReleaseRow>();
 }
 
 export async function listReleases(manager: EntityManager, organizationId: number, where: { designId?: number; states?: readonly string[] }): Promise<ReleaseRow[]> {

@@ -151,7 +151,7 @@ export class ReviewService {
       .from(ReleaseReview, 'v')
       .innerJoin('v.reviewer', 'u')
       .where('v.selector = :selector', { selector });
-    if (lock) qb.setLock('pessimistic_write', undefined, ['v']);
+    if (lock) await manager.query('SELECT `id` FROM `release_reviews` WHERE `selector` = ? FOR UPDATE', [selector]);
     return qb.getRawOne<LinkRow>();
   }
 

@@ -1,0 +1,181 @@
+/**
+ * The whole hand-off on the real MariaDB and a real SMTP server: cut, request review, read the
+ * e-mails, follow the links, approve, download, check the sums, upload a matching and a corrupted
+ * capture.
+ */
+import { execFileSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CAUTION } from '../../src/render/caution.ts';
+import { csrf, signedInAgent, type Agent } from '../helpers.ts';
+import { designFromTemplate, linkToken, startHandoff, type Handoff } from './handoff.ts';
+
+const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest('hex');
+
+/** supertest buffers binary bodies with this parser. */
+function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => void): void {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+}
+
+let h: Handoff;
+let firmware: Agent;
+let designId: number;
+
+beforeAll(async () => {
+  h = await startHandoff();
+  firmware = await signedInAgent(h.built.app, h.org.emails.firmware);
+  designId = await designFromTemplate(h.designer);
+});
+
+afterAll(async () => {
+  await h.close();
+});
+
+describe('hand-off flow', () => {
+  let releaseId: number;
+  let manifestSha256: string;
+  let manifest: { files: { name: string; sha256: string; bytes: number }[]; constants: unknown[] };
+  const downloaded = new Map<string, Buffer>();
+
+  it('cuts v1 with every artifact, its SHA-256 and the caution', async () => {
+    const res = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+    releaseId = res.body.id;
+    manifestSha256 = res.body.manifestSha256;
+    expect(res.body.label).toBe('v1');
+    expect(res.body.state).toBe('draft');
+    expect(res.body.caution).toBe(CAUTION);
+    expect(res.body.files.map((f: { name: string }) => f.name)).toEqual([
+      'manifest.json',
+      'mains_sync_50hz_pkg.vhd',
+      'mains_sync_50hz.vh',
+      'mains_sync_50hz.h',
+      'mains_sync_50hz_vectors.csv',
+      'README.txt',
+    ]);
+    expect(res.body.allowedEvents).toEqual(['request-review', 'withdraw']);
+    expect(res.body.results.analysis.verdict.stable).toBe(true);
+  });
+
+  it('asks two reviewers, who each receive a link to the Review page', async () => {
+    const res = await h.designer
+      .post(`/api/releases/${releaseId}/reviews`)
+      .set(csrf)
+      .send({ reviewerIds: [h.org.ids.reviewer, h.org.ids.multi], approvalsRequired: 2 })
+      .expect(200);
+    expect(res.body.state).toBe('in-review');
+    expect(res.body.approvalsRequired).toBe(2);
+    const mails = await h.smtp.waitFor(2);
+    expect(mails.map((m) => m.to[0]).sort()).toEqual([h.org.emails.reviewer, h.org.emails.multi].sort());
+    for (const m of mails) {
+      expect(m.subject).toBe('Review requested: mains_sync_50hz v1');
+      expect(m.text).toContain(manifestSha256);
+      expect(m.text).toContain('Verify these numbers in simulation and on the bench');
+    }
+  });
+
+  it('lets each reviewer read the release from the link without using it up, then approve', async () => {
+    const tokenOf = (email: string) => linkToken(h.smtp.mails.find((m) => m.to.includes(email))!.text);
+    const anonymous = request(h.built.app);
+    const first = tokenOf(h.org.emails.reviewer);
+    for (let i = 0; i < 2; i++) {
+      const view = await anonymous.get(`/api/review-links/${first}`).expect(200);
+      expect(view.body.release.manifestSha256).toBe(manifestSha256);
+      expect(view.body.release.caution).toBe(CAUTION);
+      expect(view.body.diff).toBeNull();
+    }
+    const one = await anonymous.post(`/api/review-links/${first}`).send({ decision: 'approve', comment: 'margins fine', manifestSha256 }).expect(200);
+    expect(one.body).toEqual({ decision: 'approve', state: 'in-review', approvals: 1, approvalsRequired: 2 });
+
+    const second = tokenOf(h.org.emails.multi);
+    const two = await anonymous.post(`/api/review-links/${second}`).send({ decision: 'approve', manifestSha256 }).expect(200);
+    expect(two.body.state).toBe('approved');
+  });
+
+  it('e-mails the firmware engineers of the organisation when approved', async () => {
+    const mails = await h.smtp.waitFor(3);
+    const approved = mails.filter((m) => m.subject === 'Release approved: mains_sync_50hz v1');
+    expect(approved.map((m) => m.to[0])).toEqual([h.org.emails.firmware]);
+    expect(approved[0]!.text).toContain(`/releases/${releaseId}`);
+  });
+
+  it('serves every file with bytes equal to the stored bytes and to the manifest sums', async () => {
+    const m = await firmware.get(`/api/releases/${releaseId}/files/manifest.json`).buffer(true).parse(binary).expect(200);
+    expect(sha256(m.body)).toBe(manifestSha256);
+    manifest = JSON.parse(m.body.toString('utf8'));
+    const stored = (await h.dataSource.query('SELECT `name`, `content` FROM `release_files` WHERE `releaseId` = ?', [releaseId])) as { name: string; content: Buffer }[];
+    for (const f of manifest.files) {
+      const res = await firmware.get(`/api/releases/${releaseId}/files/${f.name}`).buffer(true).parse(binary).expect(200);
+      expect(sha256(res.body), f.name).toBe(f.sha256);
+      expect(res.body.length).toBe(f.bytes);
+      expect(res.headers['x-content-sha256']).toBe(f.sha256);
+      expect(Buffer.compare(res.body, stored.find((s) => s.name === f.name)!.content)).toBe(0);
+      downloaded.set(f.name, res.body);
+    }
+  });
+
+  it('zips every artifact with manifest.json first, byte for byte (read back with Python zipfile)', async () => {
+    const res = await firmware.get(`/api/releases/${releaseId}/bundle`).buffer(true).parse(binary).expect(200);
+    expect(res.headers['content-type']).toBe('application/zip');
+    const dir = mkdtempSync(join(tmpdir(), 'lw-bundle-'));
+    writeFileSync(join(dir, 'b.zip'), res.body);
+    // Python's standard zipfile as an independent reader of the archive (reference library).
+    const listing = execFileSync('/usr/bin/python3', ['-c', 'import sys,zipfile,hashlib\nz=zipfile.ZipFile(sys.argv[1])\nfor i in z.infolist(): print(i.filename, hashlib.sha256(z.read(i)).hexdigest())', join(dir, 'b.zip')], { encoding: 'utf8' });
+    const entries = listing.trim().split('\n').map((l) => l.split(' '));
+    expect(entries[0]![0]).toBe('mains_sync_50hz-v1/manifest.json');
+    expect(entries[0]![1]).toBe(manifestSha256);
+    expect(entries.slice(1).map(([n, s]) => [n, s])).toEqual(manifest.files.map((f) => [`mains_sync_50hz-v1/${f.name}`, f.sha256]));
+  });
+
+  it('logs every download: who, which release, which file, when', async () => {
+    const res = await h.designer.get(`/api/releases/${releaseId}/downloads`).expect(200);
+    const names = (res.body.downloads as { fileName: string; userEmail: string; at: string }[]).map((d) => d.fileName).sort();
+    expect(names).toEqual(['bundle', 'manifest.json', ...manifest.files.map((f) => f.name)].sort());
+    for (const d of res.body.downloads) {
+      expect(d.userEmail).toBe(h.org.emails.firmware);
+      expect(d.releaseId).toBe(releaseId);
+      expect(Number.isNaN(Date.parse(d.at))).toBe(false);
+    }
+  });
+
+  it('judges a matching capture bit-exact and a corrupted one with its first mismatch', async () => {
+    const golden = downloaded.get('mains_sync_50hz_vectors.csv')!;
+    const ok = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', golden, 'sim_out.csv').expect(201);
+    expect(ok.body).toMatchObject({ verdict: 'bit-exact', mismatchCount: 0, firstMismatches: [], samplesCompared: 4096, fileName: 'sim_out.csv' });
+
+    const lines = golden.toString('utf8').split('\n');
+    const row = lines[101]!.split(','); // sample 100
+    const expected = row[6]!;
+    row[6] = String(Number(expected) + 1); // filter_code off by one LSB
+    lines[101] = row.join(',');
+    const bad = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from(lines.join('\n')), 'corrupt.csv').expect(201);
+    expect(bad.body.verdict).toBe('mismatch');
+    expect(bad.body.mismatchCount).toBe(1);
+    expect(bad.body.firstMismatches).toEqual([{ sampleIndex: 100, column: 'filter_code', expected, got: row[6] }]);
+
+    const list = await h.designer.get(`/api/releases/${releaseId}/conformance`).expect(200);
+    expect(list.body.runs.map((r: { verdict: string }) => r.verdict)).toEqual(['mismatch', 'bit-exact']);
+  });
+
+  it('refuses a malformed capture naming the line', async () => {
+    const golden = downloaded.get('mains_sync_50hz_vectors.csv')!.toString('utf8').split('\n');
+    golden[4] = golden[4]!.replace(/,[^,]*$/, ',1.5');
+    const res = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from(golden.join('\n')), 'x.csv').expect(400);
+    expect(res.body.error.field).toBe('file');
+    expect(res.body.error.message).toContain('line 5');
+    expect(res.body.error.message).toContain('filter_code');
+  });
+
+  it('has no way to change a release: no update route, and the database refuses', async () => {
+    await h.designer.put(`/api/releases/${releaseId}`).set(csrf).send({}).expect(404);
+    await h.designer.patch(`/api/releases/${releaseId}`).set(csrf).send({}).expect(404);
+    await expect(h.dataSource.query("UPDATE `releases` SET `specJson` = '{}' WHERE `id` = ?", [releaseId])).rejects.toThrow(/never changes/);
+    await expect(h.dataSource.query("UPDATE `release_files` SET `content` = 'x' WHERE `releaseId` = ?", [releaseId])).rejects.toThrow(/insert-only/);
+    await expect(h.dataSource.query('DELETE FROM `releases` WHERE `id` = ?', [releaseId])).rejects.toThrow(/kept for the record/);
+  });
+});
