@@ -63,6 +63,7 @@ export function createApp(options: AppOptions): BuiltApp {
     async close() {
       await auth.close();
       await services.compute.close();
+      services.handoff.close();
     },
   };
 }

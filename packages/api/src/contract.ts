@@ -4,7 +4,7 @@
  * browser bundle can use it too. Request objects are strict: an unknown field is a 400 naming it.
  */
 import { z } from 'zod';
-import { loopSpecSchema, type AnalysisResult } from '@loopwright/dsp';
+import { loopSpecSchema, scenarioSchema, type AnalysisResult, type SimResult } from '@loopwright/dsp';
 
 export const ROLES = ['designer', 'reviewer', 'firmware', 'admin'] as const;
 export const roleSchema = z.enum(ROLES);
@@ -254,6 +254,32 @@ export interface AnalysisResponse {
   readonly revision?: number;
 }
 
+// ---------------------------------------------------------------------------------------------- simulations
+
+export { scenarioSchema };
+
+/** A simulation of a stored design (POST /api/designs/:id/simulations); scenario per DESIGN.md. */
+export const simulationRequestSchema = z.strictObject({
+  scenario: scenarioSchema,
+  /** Which loops to run: float, bit-true or both side by side (default both). */
+  mode: z.enum(['both', 'float', 'bit-true']).default('both'),
+  /** Points of the decimated (min/max) traces. */
+  buckets: z.number().int().min(10).max(10_000).default(1000),
+});
+export type SimulationRequest = z.output<typeof simulationRequestSchema>;
+export type SimulationRequestInput = z.input<typeof simulationRequestSchema>;
+
+/** An unsaved spec simulated as it is (POST /api/simulations). */
+export const specSimulationRequestSchema = simulationRequestSchema.extend({ spec: loopSpecSchema });
+export type SpecSimulationRequestInput = z.input<typeof specSimulationRequestSchema>;
+
+export interface SimulationResponse {
+  readonly scenario: SimulationRequest['scenario'];
+  readonly simulation: SimResult;
+  readonly designId?: number;
+  readonly revision?: number;
+}
+
 // ---------------------------------------------------------------------------------------------- audit
 
 export const auditEntrySchema = z.object({
@@ -279,3 +305,7 @@ export const auditQuerySchema = z.strictObject({
   limit: z.coerce.number().int().min(1).max(500).default(100),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
+
+// ---------------------------------------------------------------------------------------------- releases
+
+export * from './releases/contract.ts';

@@ -3,9 +3,11 @@ import { DataSource } from 'typeorm';
 import { loadConfig, type Config } from './config.ts';
 import { coreEntities } from './entities/index.ts';
 import { coreMigrations } from './migration/index.ts';
+import { releaseEntities } from './releases/entities/index.ts';
+import { releaseMigrations } from './releases/migration/index.ts';
 
-export const entities = [...coreEntities];
-export const migrations = [...coreMigrations];
+export const entities = [...coreEntities, ...releaseEntities];
+export const migrations = [...coreMigrations, ...releaseMigrations];
 
 /**
  * MariaDB through TypeORM. The schema comes only from the migrations (never synchronize); type

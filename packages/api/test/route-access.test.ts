@@ -61,6 +61,14 @@ const CASES: Record<string, Case> = {
   'DELETE /designs/:id': { allowed: DESIGNER, call: async (a, f) => a.delete(`/api/designs/${await f.freshDesign()}`).set(csrf) },
   'POST /analysis': { allowed: ANALYSTS, call: (a) => a.post('/api/analysis').set(csrf).send({ spec: ultrasonicSinglePoleSpec }) },
   'POST /designs/:id/analysis': { allowed: ANALYSTS, call: (a, f) => a.post(`/api/designs/${f.designId}/analysis`).set(csrf) },
+  'POST /simulations': {
+    allowed: ANALYSTS,
+    call: (a) => a.post('/api/simulations').set(csrf).send({ spec: ultrasonicSinglePoleSpec, scenario: { kind: 'tone', offsetHz: 10, durationS: 0.001 }, mode: 'float', buckets: 10 }),
+  },
+  'POST /designs/:id/simulations': {
+    allowed: ANALYSTS,
+    call: (a, f) => a.post(`/api/designs/${f.designId}/simulations`).set(csrf).send({ scenario: { kind: 'tone', offsetHz: 10, durationS: 0.001 }, mode: 'float', buckets: 10 }),
+  },
   'GET /audit': { allowed: ADMIN, call: (a) => a.get('/api/audit') },
 };
 

@@ -8,8 +8,9 @@ import { projectRoutes } from './projects.ts';
 import { sessionRoutes } from './session.ts';
 import type { RouteSpec } from './table.ts';
 import { userRoutes } from './users.ts';
+import { releaseRoutes } from '../releases/routes.ts';
 
 /** Every API route, in one table (path relative to /api). Other modules add theirs here. */
 export function apiRoutes(auth: Authenticator, signInLimiter: RequestHandler, extra: readonly RouteSpec[] = []): RouteSpec[] {
-  return [...healthRoutes, ...sessionRoutes(auth, signInLimiter), ...userRoutes, ...projectRoutes, ...designRoutes, ...analysisRoutes, ...auditRoutes, ...extra];
+  return [...healthRoutes, ...sessionRoutes(auth, signInLimiter), ...userRoutes, ...projectRoutes, ...designRoutes, ...analysisRoutes, ...auditRoutes, ...releaseRoutes, ...extra];
 }

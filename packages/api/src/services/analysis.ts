@@ -1,5 +1,5 @@
 import type { AnalysisResult, LoopSpec, SpecIssue } from '@loopwright/dsp';
-import type { AnalysisResponse } from '../contract.ts';
+import type { AnalysisResponse, SimulationRequest, SimulationResponse } from '../contract.ts';
 import { invalidInput } from '../errors.ts';
 import type { ComputePool } from './compute.ts';
 import type { DesignService } from './designs.ts';
@@ -9,21 +9,42 @@ function issuesToError(issues: readonly SpecIssue[], prefix: string) {
   return invalidInput(first?.field ? `${prefix}.${first.field}` : prefix, issues.map((issue) => issue.message).join('; '));
 }
 
-/** The server's own analysis (the numbers that count), computed off the event loop. */
+/** The server's own analyses and simulations (the numbers that count), computed off the event loop. */
 export class AnalysisService {
   constructor(
     private readonly compute: ComputePool,
     private readonly designs: DesignService,
+    private readonly maxSimulationSamples: number,
   ) {}
 
-  async analyzeSpec(spec: LoopSpec): Promise<AnalysisResult> {
-    const outcome = await this.compute.run({ kind: 'analysis', spec });
-    if (!outcome.ok) throw issuesToError(outcome.issues, 'spec');
+  async analyzeSpec(spec: LoopSpec, cancel?: AbortSignal): Promise<AnalysisResult> {
+    const outcome = await this.compute.run({ kind: 'analysis', spec }, cancel);
+    if (!outcome.ok) throw issuesToError(outcome.issues, outcome.prefix);
+    if (outcome.kind !== 'analysis') throw new Error('compute pool answered an analysis with another kind');
     return outcome.analysis;
   }
 
-  async analyzeStoredDesign(organizationId: number, designId: number): Promise<AnalysisResponse> {
+  async analyzeStoredDesign(organizationId: number, designId: number, cancel?: AbortSignal): Promise<AnalysisResponse> {
     const design = await this.designs.get(organizationId, designId);
-    return { analysis: await this.analyzeSpec(design.spec), designId: design.id, revision: design.revision };
+    return { analysis: await this.analyzeSpec(design.spec, cancel), designId: design.id, revision: design.revision };
+  }
+
+  /** One request may simulate at most maxSimulationSamples loop samples (durationS × sampleRateHz). */
+  async simulateSpec(spec: LoopSpec, request: SimulationRequest, cancel?: AbortSignal): Promise<SimulationResponse> {
+    const samples = Math.ceil(request.scenario.durationS * spec.sampleRateHz);
+    if (samples > this.maxSimulationSamples) {
+      const maxDurationS = this.maxSimulationSamples / spec.sampleRateHz;
+      throw invalidInput('scenario.durationS', `scenario.durationS ${request.scenario.durationS} s is ${samples} loop samples at ${spec.sampleRateHz} Hz; this server simulates at most ${this.maxSimulationSamples} per request (durationS ≤ ${Number(maxDurationS.toPrecision(4))} s)`);
+    }
+    const options = { mode: request.mode, buckets: request.buckets };
+    const outcome = await this.compute.run({ kind: 'simulation', spec, scenario: request.scenario, options }, cancel);
+    if (!outcome.ok) throw issuesToError(outcome.issues, outcome.prefix);
+    if (outcome.kind !== 'simulation') throw new Error('compute pool answered a simulation with another kind');
+    return { scenario: request.scenario, simulation: outcome.simulation };
+  }
+
+  async simulateStoredDesign(organizationId: number, designId: number, request: SimulationRequest, cancel?: AbortSignal): Promise<SimulationResponse> {
+    const design = await this.designs.get(organizationId, designId);
+    return { ...(await this.simulateSpec(design.spec, request, cancel)), designId: design.id, revision: design.revision };
   }
 }

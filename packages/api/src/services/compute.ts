@@ -30,15 +30,17 @@ export class ComputePool {
     });
   }
 
-  async run(task: ComputeTask): Promise<ComputeOutcome> {
+  /** `cancel` (e.g. the client went away) stops the task; so does the time limit. */
+  async run(task: ComputeTask, cancel?: AbortSignal): Promise<ComputeOutcome> {
     if (this.pool.queueSize >= this.options.maxQueue) {
       throw new AppError('server_busy', 'the server is busy computing; try again shortly', 503);
     }
-    const signal = AbortSignal.timeout(this.options.timeoutMs);
+    const timeout = AbortSignal.timeout(this.options.timeoutMs);
+    const signal = cancel ? AbortSignal.any([timeout, cancel]) : timeout;
     try {
       return await this.pool.run(task, { signal });
     } catch (err) {
-      if (signal.aborted) {
+      if (timeout.aborted) {
         throw new AppError('timeout', `the computation took longer than ${Math.round(this.options.timeoutMs / 1000)} s and was stopped`, 503);
       }
       throw err;

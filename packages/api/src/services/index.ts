@@ -7,6 +7,7 @@ import { DesignService } from './designs.ts';
 import { ProjectService } from './projects.ts';
 import { SessionControl } from './sessions.ts';
 import { UserService } from './users.ts';
+import { createReleaseServices, type ReleaseServices } from '../releases/index.ts';
 
 export interface Services {
   readonly dataSource: DataSource;
@@ -17,6 +18,8 @@ export interface Services {
   readonly designs: DesignService;
   readonly compute: ComputePool;
   readonly analysis: AnalysisService;
+  /** Releases, reviews, downloads, conformance and the mail outbox (src/releases). */
+  readonly handoff: ReleaseServices;
 }
 
 export function createServices(dataSource: DataSource, config: Config): Services {
@@ -26,6 +29,7 @@ export function createServices(dataSource: DataSource, config: Config): Services
   const projects = new ProjectService(dataSource, audit);
   const designs = new DesignService(dataSource, projects, audit);
   const compute = new ComputePool({ threads: config.compute.threads, timeoutMs: config.compute.timeoutS * 1000, maxQueue: config.compute.maxQueue });
-  const analysis = new AnalysisService(compute, designs);
-  return { dataSource, audit, sessions, users, projects, designs, compute, analysis };
+  const analysis = new AnalysisService(compute, designs, config.compute.maxSimulationSamples);
+  const handoff = createReleaseServices(dataSource, { audit, designs });
+  return { dataSource, audit, sessions, users, projects, designs, compute, analysis, handoff };
 }

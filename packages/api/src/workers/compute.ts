@@ -4,19 +4,46 @@
  * thrown, because an Error crossing the thread boundary keeps only its message.
  */
 import { threadId } from 'node:worker_threads';
-import { tryAnalyzeDesign, type AnalysisResult, type SpecIssue } from '@loopwright/dsp';
+import {
+  parseScenario,
+  simulate,
+  tryAnalyzeDesign,
+  type AnalysisResult,
+  type LoopSpec,
+  type SimOptions,
+  type SimResult,
+  type SpecIssue,
+} from '@loopwright/dsp';
 
-export type ComputeTask = { readonly kind: 'analysis'; readonly spec: unknown };
+export type ComputeTask =
+  | { readonly kind: 'analysis'; readonly spec: unknown }
+  | {
+      readonly kind: 'simulation';
+      /** Already validated by the API (a stored design or a request body). */
+      readonly spec: LoopSpec;
+      readonly scenario: unknown;
+      readonly options: Pick<SimOptions, 'mode' | 'buckets'>;
+    };
+
+export type ComputeFailure = { readonly ok: false; readonly issues: readonly SpecIssue[]; readonly prefix: 'spec' | 'scenario' };
 
 /** threadId says which thread computed (0 is the main thread), for the tests and the log. */
 export type ComputeOutcome = { readonly threadId: number } & (
   | { readonly ok: true; readonly kind: 'analysis'; readonly analysis: AnalysisResult }
-  | { readonly ok: false; readonly issues: readonly SpecIssue[] }
+  | { readonly ok: true; readonly kind: 'simulation'; readonly simulation: SimResult }
+  | ComputeFailure
 );
 
 export function runComputeTask(task: ComputeTask): ComputeOutcome {
-  const analysed = tryAnalyzeDesign(task.spec);
-  return analysed.ok ? { threadId, ok: true, kind: 'analysis', analysis: analysed.result } : { threadId, ok: false, issues: analysed.issues };
+  if (task.kind === 'analysis') {
+    const analysed = tryAnalyzeDesign(task.spec);
+    return analysed.ok
+      ? { threadId, ok: true, kind: 'analysis', analysis: analysed.result }
+      : { threadId, ok: false, issues: analysed.issues, prefix: 'spec' };
+  }
+  const scenario = parseScenario(task.scenario);
+  if (!scenario.ok) return { threadId, ok: false, issues: scenario.issues, prefix: 'scenario' };
+  return { threadId, ok: true, kind: 'simulation', simulation: simulate(task.spec, scenario.scenario, task.options) };
 }
 
 export default runComputeTask;

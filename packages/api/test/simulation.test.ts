@@ -1,0 +1,63 @@
+import { mainsSyncSpec, simulate } from '@loopwright/dsp';
+import type { DataSource } from 'typeorm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BuiltApp } from '../src/app.ts';
+import { buildApp, createTestOrg, csrf, openDataSource, signedInAgent, testConfig, type Agent, type TestOrg } from './helpers.ts';
+
+let dataSource: DataSource;
+let built: BuiltApp;
+let org: TestOrg;
+let reviewer: Agent;
+let designId: number;
+
+// 0.5 s at the 10 kHz loop rate of the mains example: 5000 samples, quick in a test.
+const scenario = { kind: 'frequency-step', stepHz: 0.5, atS: 0.1, durationS: 0.5 } as const;
+
+beforeAll(async () => {
+  dataSource = await openDataSource();
+  built = buildApp(dataSource, testConfig({ LW_SIM_MAX_SAMPLES: '100000' }));
+  org = await createTestOrg(dataSource);
+  const designer = await signedInAgent(built.app, org.emails.designer);
+  reviewer = await signedInAgent(built.app, org.emails.reviewer);
+  const project = (await designer.post('/api/projects').set(csrf).send({ name: 'Simulations' }).expect(201)).body;
+  designId = (await designer.post(`/api/projects/${project.id}/designs`).set(csrf).send({ name: 'Mains', spec: mainsSyncSpec }).expect(201)).body.id;
+});
+
+afterAll(async () => {
+  await built.close();
+  await dataSource.destroy();
+});
+
+describe('simulations in the worker pool', () => {
+  it('simulates a stored design and returns what packages/dsp simulate computes, float and bit-true', async () => {
+    const response = await reviewer.post(`/api/designs/${designId}/simulations`).set(csrf).send({ scenario }).expect(200);
+    expect(response.body).toMatchObject({ designId, revision: 1, scenario });
+    const expected = JSON.parse(JSON.stringify(simulate(mainsSyncSpec, scenario, { mode: 'both', buckets: 1000 })));
+    expect(response.body.simulation).toEqual(expected);
+    expect(response.body.simulation.float).toBeDefined();
+    expect(response.body.simulation.bitTrue).toBeDefined();
+  });
+
+  it('simulates an unsaved spec from the body', async () => {
+    const response = await reviewer.post('/api/simulations').set(csrf).send({ spec: mainsSyncSpec, scenario, mode: 'float', buckets: 50 }).expect(200);
+    expect(response.body.simulation.float).toBeDefined();
+    expect(response.body.simulation.bitTrue).toBeUndefined();
+  });
+
+  it('names the scenario field that is wrong', async () => {
+    const response = await reviewer.post(`/api/designs/${designId}/simulations`).set(csrf).send({ scenario: { kind: 'tone', offsetHz: 'near', durationS: 0.1 } }).expect(400);
+    expect(response.body.error).toMatchObject({ code: 'invalid_input', field: 'scenario.offsetHz' });
+  });
+
+  it('refuses a simulation longer than the per-request sample budget, naming durationS', async () => {
+    // 100 000 samples allowed in this app; 20 s at 10 kHz is 200 000.
+    const response = await reviewer.post(`/api/designs/${designId}/simulations`).set(csrf).send({ scenario: { ...scenario, durationS: 20 } }).expect(400);
+    expect(response.body.error.field).toBe('scenario.durationS');
+  });
+
+  it('runs the simulation in a worker thread', async () => {
+    const outcome = await built.services.compute.run({ kind: 'simulation', spec: mainsSyncSpec, scenario, options: { mode: 'float' } });
+    expect(outcome.ok).toBe(true);
+    expect(outcome.threadId).not.toBe(0);
+  });
+});
