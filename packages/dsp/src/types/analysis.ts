@@ -9,6 +9,7 @@ export type { LoopMargins, PhaseCrossing } from '../analysis/margins.ts';
 export type { ClosedLoopFigures } from '../analysis/closedLoopFigures.ts';
 export type { LoopFilterDesign } from '../design.ts';
 export type { DiscreteLoopAnalysis, DiscreteLoopOptions } from '../analysis/discreteLoop.ts';
+export type { WordLengthOptions, WordLengthResult, CoefficientWidthPoint, DataWidthPoint } from '../wordlength/wordLengthSearch.ts';
 export type { AnalysisResult, AnalysisVerdict, AnalyzeOptions, NoiseBandwidth, RippleFigures, BodePlotData } from '../analysis/analyzeDesign.ts';
 
 export interface AcquisitionEstimates {
