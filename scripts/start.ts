@@ -75,15 +75,17 @@ async function main(): Promise<void> {
   const httpPort = portFromEnv('PORT', 8080);
   if (await isPortTaken(httpPort)) throw new StartupError(`port ${httpPort} on 127.0.0.1 is taken by another program; set PORT to a free port`);
 
+  // LW_DATA_DIR lets the tests run a whole start on data of their own, never the developer's.
+  const dataDir = path.resolve(process.env.LW_DATA_DIR ?? path.join(ROOT, '.data', 'dev'));
   const db = await startMariaDb({
-    dataDir: path.join(ROOT, '.data', 'dev', 'mariadb'),
+    dataDir: path.join(dataDir, 'mariadb'),
     port: portFromEnv('LW_DB_PORT', 3417),
     database: 'loopwright',
     user: 'loopwright',
     password: process.env.LW_DB_PASSWORD ?? 'dev-only-password',
   });
   onShutdown(() => db.stop());
-  log(`MariaDB on 127.0.0.1:${db.port} (data in .data/dev/mariadb, kept between runs)`);
+  log(`MariaDB on 127.0.0.1:${db.port} (data in ${path.relative(ROOT, dataDir) || dataDir}, kept between runs)`);
 
   const smtpPort = (await isPortTaken(1025)) ? await findFreePort() : 1025;
   const mailWebPort = (await isPortTaken(1080)) ? await findFreePort() : 1080;

@@ -37,10 +37,12 @@ const SUITES: readonly Suite[] = [
   { name: 'types: dsp', kind: 'check', cwd: 'packages/dsp', command: ['pnpm', 'exec', 'tsc', '-p', '.'] },
   { name: 'types: api', kind: 'check', cwd: 'packages/api', command: ['pnpm', 'exec', 'tsc', '-p', '.'] },
   { name: 'types: app', kind: 'check', cwd: 'packages/app', command: ['pnpm', 'exec', 'vue-tsc', '--noEmit', '-p', 'tsconfig.json'] },
-  { name: 'types: scripts and tests', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'scripts'] },
+  { name: 'types: scripts', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'scripts'] },
+  { name: 'types: tests', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'tests'] },
   { name: 'dsp', kind: 'vitest', cwd: 'packages/dsp', config: 'vitest.config.ts' },
   { name: 'api', kind: 'vitest', cwd: 'packages/api', config: 'vitest.config.ts' },
   { name: 'app', kind: 'vitest', cwd: 'packages/app', config: 'vitest.config.ts' },
+  { name: 'foundation', kind: 'vitest', cwd: '.', config: 'tests/vitest.config.ts' },
   { name: 'e2e', kind: 'vitest', cwd: '.', config: 'tests/e2e/vitest.config.ts' },
 ];
 

@@ -179,10 +179,14 @@ function sqlString(value: string): string {
   return `'${value.replace(/\\/g, '\\\\').replace(/'/g, "\\'")}'`;
 }
 
-async function createDatabase(optionFile: string, o: MariaDbOptions): Promise<void> {
+/** Names go into SQL text, so they are checked before anything starts. */
+function checkCredentials(o: MariaDbOptions): void {
   if (!SAFE_NAME.test(o.database)) throw new StartupError(`database name '${o.database}' must match ${SAFE_NAME}`);
   if (!SAFE_NAME.test(o.user)) throw new StartupError(`database user '${o.user}' must match ${SAFE_NAME}`);
   if (!SAFE_PASSWORD.test(o.password)) throw new StartupError(`database password must match ${SAFE_PASSWORD}`);
+}
+
+async function createDatabase(optionFile: string, o: MariaDbOptions): Promise<void> {
   const statements = [
     `CREATE DATABASE IF NOT EXISTS \`${o.database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
     ...['127.0.0.1', 'localhost'].flatMap((host) => [
@@ -204,6 +208,7 @@ async function createDatabase(optionFile: string, o: MariaDbOptions): Promise<vo
  * application user exist. A data directory whose server is still running is reused as it is.
  */
 export async function startMariaDb(o: MariaDbOptions): Promise<MariaDbInstance> {
+  checkCredentials(o);
   const dataDir = path.resolve(o.dataDir);
   const readyTimeoutS = o.readyTimeoutS ?? 60;
   await prepareDataDir(dataDir, o.fresh ?? false);
