@@ -33,6 +33,16 @@ export function renderStoredSpec(spec: unknown): RenderedRelease {
   }
 }
 
+interface StoredResults {
+  analysis?: { margins?: { analog?: unknown; discrete?: unknown }; quantization?: { loop?: { margins?: unknown } | null } };
+}
+
+/** Margins of the analog prototype, the discrete loop and the loop with quantised coefficients. */
+function marginsOf(results: StoredResults | null): unknown {
+  const a = results?.analysis;
+  return { analog: a?.margins?.analog ?? null, discrete: a?.margins?.discrete ?? null, quantized: a?.quantization?.loop?.margins ?? null };
+}
+
 export class ReleaseService {
   constructor(
     private readonly dataSource: DataSource,
@@ -150,7 +160,7 @@ export class ReleaseService {
       label: releaseLabel(Number(row.number)),
       spec: JSON.parse(row.specJson ?? 'null') as unknown,
       constants: (await this.manifestOf(row.id)).constants,
-      margins: (JSON.parse(row.resultsJson ?? 'null') as { analysis?: { margins?: unknown } } | null)?.analysis?.margins ?? null,
+      margins: marginsOf(JSON.parse(row.resultsJson ?? 'null')),
     });
     return releaseDiff(await side(from), await side(to));
   }

@@ -39,7 +39,7 @@ export function parseVectorCsv(text: string): string[][] {
   if (text.trim() === '') throw new MalformedCapture(1, 'the file is empty; expected the header ' + VECTOR_CSV_COLUMNS.join(','));
   let rows: { record: string[]; info: { lines: number } }[];
   try {
-    rows = parse(text, { skip_empty_lines: true, trim: true, info: true, bom: true }) as unknown as { record: string[]; info: { lines: number } }[];
+    rows = parse(text, { skip_empty_lines: true, trim: true, info: true, bom: true, relax_column_count: true }) as unknown as { record: string[]; info: { lines: number } }[];
   } catch (err) {
     const e = err as { lines?: number; message: string };
     throw new MalformedCapture(e.lines ?? 1, `not readable as CSV (${e.message})`);

@@ -1,0 +1,79 @@
+/**
+ * Mail that cannot be sent is kept in the outbox and retried, never lost; the change it reports
+ * (a review request) is made all the same.
+ */
+import { createServer, type AddressInfo } from 'node:net';
+import { afterAll, beforeAll, expect, it, vi } from 'vitest';
+import { backoffS } from '../../src/mail/outbox.ts';
+import { csrf } from '../helpers.ts';
+import { designFromTemplate, linkToken, startHandoff, type Handoff } from '../releases/handoff.ts';
+import { startSmtpFake } from './smtpFake.ts';
+
+/** A loopback port with nothing listening (taken, then released). */
+async function deadPort(): Promise<number> {
+  const server = createServer();
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
+  const port = (server.address() as AddressInfo).port;
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+  return port;
+}
+
+let h: Handoff;
+let port: number;
+
+beforeAll(async () => {
+  port = await deadPort();
+  h = await startHandoff({ LW_SMTP_PORT: String(port), LW_SMTP_TIMEOUT_MS: '2000' });
+});
+
+afterAll(async () => {
+  await h.close();
+});
+
+it('backs off 30 s, 60 s, 120 s … up to an hour', () => {
+  expect([1, 2, 3, 4].map(backoffS)).toEqual([30, 60, 120, 240]);
+  expect(backoffS(20)).toBe(3600);
+});
+
+it('keeps a mail the relay refused, still makes the change, and delivers it on retry', async () => {
+  const designId = await designFromTemplate(h.designer, 'mains-sync');
+  const cut = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  const res = await h.designer.post(`/api/releases/${cut.body.id}/reviews`).set(csrf).send({ reviewerIds: [h.org.ids.reviewer], approvalsRequired: 1 }).expect(200);
+  expect(res.body.state).toBe('in-review');
+
+  const pending = (await h.dataSource.query("SELECT `id`, `attempts`, `lastError`, `sentAt`, `toAddress` FROM `mail_outbox` WHERE `toAddress` = ?", [h.org.emails.reviewer])) as {
+    id: string;
+    attempts: number;
+    lastError: string | null;
+    sentAt: Date | null;
+  }[];
+  expect(pending).toHaveLength(1);
+  expect(pending[0]!.sentAt).toBeNull();
+  expect(Number(pending[0]!.attempts)).toBe(1);
+  expect(pending[0]!.lastError).toMatch(/ECONNREFUSED/);
+
+  // Not due yet: a retry now sends nothing.
+  expect(await h.built.services.handoff.outbox.deliverPending()).toEqual({ sent: 0, failed: 0 });
+
+  // The relay comes back on the same port; the backoff has passed.
+  const smtp = await startSmtpFake(port);
+  try {
+    await h.dataSource.query('UPDATE `mail_outbox` SET `nextAttemptAt` = CURRENT_TIMESTAMP(3) WHERE `id` = ?', [pending[0]!.id]);
+    const stop = h.built.services.handoff.outbox.startTimer(50);
+    try {
+      await vi.waitFor(() => expect(smtp.mails).toHaveLength(1), { timeout: 10_000, interval: 50 });
+    } finally {
+      stop();
+    }
+    expect(smtp.mails[0]!.to).toEqual([h.org.emails.reviewer]);
+    expect(linkToken(smtp.mails[0]!.text)).toMatch(/^[A-Za-z0-9_-]{12}\.[A-Za-z0-9_-]{43}$/);
+    const [row] = (await h.dataSource.query('SELECT `sentAt`, `attempts` FROM `mail_outbox` WHERE `id` = ?', [pending[0]!.id])) as { sentAt: Date | null; attempts: number }[];
+    expect(row!.sentAt).not.toBeNull();
+    expect(Number(row!.attempts)).toBe(2);
+    // Sent once only: a further retry finds nothing due.
+    expect(await h.built.services.handoff.outbox.deliverPending()).toEqual({ sent: 0, failed: 0 });
+    expect(smtp.mails).toHaveLength(1);
+  } finally {
+    await smtp.close();
+  }
+});

@@ -1,0 +1,66 @@
+/** Release numbers come from the database: concurrent cuts of one design never collide. */
+import { afterAll, beforeAll, expect, it } from 'vitest';
+import { csrf } from '../helpers.ts';
+import { designFromTemplate, startHandoff, type Handoff } from './handoff.ts';
+
+let h: Handoff;
+
+beforeAll(async () => {
+  h = await startHandoff();
+});
+
+afterAll(async () => {
+  await h.close();
+});
+
+it('numbers 20 concurrent cuts of one design v1…v20, each once', async () => {
+  const designId = await designFromTemplate(h.designer, 'if-fm-demod');
+  const responses = await Promise.all(Array.from({ length: 20 }, () => h.designer.post(`/api/designs/${designId}/releases`).set(csrf)));
+  expect(responses.map((r) => r.status)).toEqual(Array(20).fill(201));
+  const numbers = responses.map((r) => r.body.number as number).sort((a, b) => a - b);
+  expect(numbers).toEqual(Array.from({ length: 20 }, (_, i) => i + 1));
+  const rows = (await h.dataSource.query('SELECT `number` FROM `releases` WHERE `designId` = ? ORDER BY `number`', [designId])) as { number: number }[];
+  expect(rows.map((r) => Number(r.number))).toEqual(numbers);
+  // The same spec renders the same bytes every time (nothing time- or number-dependent in the files).
+  expect(new Set(responses.map((r) => r.body.manifestSha256)).size).toBe(1);
+});
+
+it('refuses a second row with a taken number (the unique index behind the lock)', async () => {
+  const designId = await designFromTemplate(h.designer, 'mains-sync');
+  await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  await expect(
+    h.dataSource.query(
+      "INSERT INTO `releases` (`designId`, `number`, `specJson`, `resultsJson`, `specSha256`, `manifestSha256`, `designRevision`, `createdById`) VALUES (?, 1, '{}', '{}', ?, ?, 1, ?)",
+      [designId, '0'.repeat(64), '0'.repeat(64), h.org.ids.designer],
+    ),
+  ).rejects.toThrow(/Duplicate entry/);
+});
+
+it('keeps a design with releases from being deleted', async () => {
+  const designId = await designFromTemplate(h.designer, 'mains-sync');
+  await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  const res = await h.designer.delete(`/api/designs/${designId}`).set(csrf).expect(409);
+  expect(res.body.error.message).toMatch(/release/);
+});
+
+it('diffs two releases: spec fields, codes and margins that changed', async () => {
+  const designId = await designFromTemplate(h.designer, 'mains-sync');
+  const v1 = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  const design = await h.designer.get(`/api/designs/${designId}`).expect(200);
+  const spec = { ...design.body.spec, filter: { ...design.body.spec.filter, naturalHz: 4 } };
+  await h.designer.put(`/api/designs/${designId}`).set(csrf).send({ baseRevision: design.body.revision, spec }).expect(200);
+  const v2 = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  const diff = await h.designer.get(`/api/releases/${v2.body.id}/diff?against=${v1.body.id}`).expect(200);
+  expect(diff.body.from.label).toBe('v1');
+  expect(diff.body.to.label).toBe('v2');
+  expect(diff.body.spec).toEqual([{ path: 'filter.naturalHz', before: 5, after: 4 }]);
+  // PI from targets: tau1 = K/wn^2 grows, so the integrator-section codes change (G3 Ch. 2).
+  expect(diff.body.codes.map((c: { name: string }) => c.name)).toContain('MAINS_SYNC_50HZ_S0_B0');
+  const paths = diff.body.margins.map((m: { path: string }) => m.path);
+  expect(paths).toContain('discrete.phaseMarginDeg');
+  expect(paths.some((p: string) => p.startsWith('quantized.'))).toBe(true);
+  const other = await designFromTemplate(h.designer, 'ultrasonic-single-pole');
+  const foreign = await h.designer.post(`/api/designs/${other}/releases`).set(csrf).expect(201);
+  const refused = await h.designer.get(`/api/releases/${v2.body.id}/diff?against=${foreign.body.id}`).expect(400);
+  expect(refused.body.error.field).toBe('against');
+});

@@ -1,0 +1,110 @@
+/** The pure parts: state machine, tokens, vector comparison, diff. */
+import { VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
+import { describe, expect, it } from 'vitest';
+import { valueChanges } from '../../src/releases/diff.ts';
+import { issueToken, parseToken, tokenHash, tokenMatches } from '../../src/releases/reviewToken.ts';
+import { allowedEvents, RELEASE_EVENTS, RELEASE_STATES, transition } from '../../src/releases/stateMachine.ts';
+import { compareVectors, parseVectorCsv } from '../../src/releases/vectorCompare.ts';
+
+describe('release state machine', () => {
+  it('allows exactly the documented transitions', () => {
+    const allowed = RELEASE_STATES.flatMap((from) => RELEASE_EVENTS.flatMap((e) => {
+      const t = transition(from, e);
+      return t.ok ? [`${from} -${e}-> ${t.to}`] : [];
+    }));
+    expect(allowed.sort()).toEqual(
+      [
+        'draft -request-review-> in-review',
+        'in-review -approve-> approved',
+        'in-review -request-changes-> changes-requested',
+        'draft -withdraw-> withdrawn',
+        'in-review -withdraw-> withdrawn',
+        'changes-requested -withdraw-> withdrawn',
+        'approved -withdraw-> withdrawn',
+      ].sort(),
+    );
+  });
+
+  it('says why a transition is refused', () => {
+    const t = transition('approved', 'approve');
+    expect(t.ok).toBe(false);
+    expect(!t.ok && t.message).toBe('cannot approve a release that is approved (only from: in-review)');
+    expect(allowedEvents('withdrawn')).toEqual([]);
+  });
+});
+
+describe('review tokens', () => {
+  const binding = { releaseId: 7, reviewerId: 3, manifestSha256: 'a'.repeat(64) };
+
+  it('are random, parse back, and verify only with their own binding', () => {
+    const a = issueToken(binding);
+    const b = issueToken(binding);
+    expect(a.token).not.toBe(b.token);
+    const parsed = parseToken(a.token)!;
+    expect(parsed.selector).toBe(a.selector);
+    expect(tokenMatches(parsed.secret, { ...binding, selector: a.selector }, a.tokenHash)).toBe(true);
+    expect(tokenMatches(parsed.secret, { ...binding, selector: a.selector, reviewerId: 4 }, a.tokenHash)).toBe(false);
+    expect(tokenMatches(parsed.secret, { ...binding, selector: a.selector, manifestSha256: 'b'.repeat(64) }, a.tokenHash)).toBe(false);
+    expect(tokenMatches(parseToken(b.token)!.secret, { ...binding, selector: a.selector }, a.tokenHash)).toBe(false);
+  });
+
+  it('store only a SHA-256 that does not contain the secret', () => {
+    const a = issueToken(binding);
+    const secret = parseToken(a.token)!.secret;
+    expect(a.tokenHash).toMatch(/^[0-9a-f]{64}$/);
+    expect(a.tokenHash).toBe(tokenHash(secret, { ...binding, selector: a.selector }));
+    expect(a.tokenHash.includes(secret)).toBe(false);
+  });
+
+  it('refuse any other shape', () => {
+    for (const t of ['', 'abc', `${'a'.repeat(12)}.${'b'.repeat(42)}`, `${'a'.repeat(12)}.${'b'.repeat(43)}x`, `${'a'.repeat(11)}!.${'b'.repeat(43)}`]) {
+      expect(parseToken(t)).toBeNull();
+    }
+  });
+});
+
+describe('golden vector comparison', () => {
+  const header = VECTOR_CSV_COLUMNS.join(',');
+  const row = (n: number, f = 0) => [n, 10, 4294967295, 3, -7, 5, f].join(',');
+  const golden = parseVectorCsv([header, row(0), row(1), row(2)].join('\n') + '\n');
+
+  it('is bit-exact for the same numbers, however they are spaced or zero-padded', () => {
+    const got = parseVectorCsv(`${header}\r\n${row(0)}\r\n 1, 10, 4294967295, 3, -07, 5, 0\r\n${row(2)}\r\n`);
+    expect(compareVectors(golden, got)).toEqual({ verdict: 'bit-exact', samplesCompared: 3, mismatchCount: 0, firstMismatches: [] });
+  });
+
+  it('counts every differing value and reports the first ten', () => {
+    const many = parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n))].join('\n'));
+    const got = parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n, n % 2))].join('\n'));
+    const r = compareVectors(many, got);
+    expect(r.mismatchCount).toBe(15);
+    expect(r.firstMismatches).toHaveLength(10);
+    expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'filter_code', expected: '0', got: '1' });
+  });
+
+  it('counts missing samples as mismatches', () => {
+    const got = parseVectorCsv([header, row(0)].join('\n'));
+    const r = compareVectors(golden, got);
+    expect(r.verdict).toBe('mismatch');
+    expect(r.mismatchCount).toBe(2);
+    expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'sample', expected: '1', got: '(missing)' });
+  });
+
+  it('names the line of a malformed file', () => {
+    expect(() => parseVectorCsv('')).toThrow(/^line 1: the file is empty/);
+    expect(() => parseVectorCsv('a,b\n1,2\n')).toThrow(/^line 1: the header must be/);
+    expect(() => parseVectorCsv(`${header}\n${row(0)}\n1,2,3\n`)).toThrow(/^line 3: expected 7 values, got 3/);
+    expect(() => parseVectorCsv(`${header}\n${row(0)}\n${row(1).replace('-7', 'x')}\n`)).toThrow(/^line 3: column nco_code: "x" is not a decimal integer/);
+    expect(() => parseVectorCsv(`${header}\n"unterminated\n`)).toThrow(/^line \d+: not readable as CSV/);
+  });
+});
+
+describe('diff of JSON documents', () => {
+  it('lists changed, added and removed leaves by dot path', () => {
+    expect(valueChanges({ a: 1, b: { c: 2, d: [1, 2] } }, { a: 1, b: { c: 3, d: [1] }, e: null })).toEqual([
+      { path: 'b.c', before: 2, after: 3 },
+      { path: 'b.d.1', before: 2, after: null },
+      { path: 'e', before: null, after: null },
+    ]);
+  });
+});
