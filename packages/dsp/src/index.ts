@@ -31,7 +31,7 @@ export { routhHurwitzStable, discreteLoopStable } from './analysis/stability.ts'
 export { analyzeDesign, tryAnalyzeDesign, LoopSpecError } from './analysis/analyzeDesign.ts';
 export { quantizeFilter } from './fixed/quantizeFilter.ts';
 export { scenarioSchema, parseScenario } from './spec/scenario.ts';
-export { simulate, simulateAsync, simulateSections, simulationSteps, bitTrueNcoHz, SimulationAbortedError } from './sim/simulate.ts';
+export { simulate, simulateAsync, simulateSections, simulationSteps, bitTrueNcoHzOf, SimulationAbortedError } from './sim/simulate.ts';
 export { planBitTrue, validateBitTrueWidths } from './sim/bitTruePlan.ts';
 export { runBitTrueChunk, initialBitTrueState, quantizeInput } from './sim/bitTrueKernel.ts';
 export { checksumRecord, CHECKSUM_BASIS } from './sim/checksum.ts';

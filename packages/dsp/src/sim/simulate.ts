@@ -9,15 +9,13 @@ import type { BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, Sim
 import type { LoopSpec } from '../spec/schema.ts';
 import type { Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
-import { roundShift } from '../fixed/rounding.ts';
 import { quantizeSections } from '../fixed/quantizeSections.ts';
 import { designLoopFilter } from '../design.ts';
 import { allocInputChunk, inputGenerator } from './inputSignal.ts';
 import { planBitTrue, type BitTrueSpec } from './bitTruePlan.ts';
-import { initialBitTrueState, quantizeInput, runBitTrueChunk, type BitTrueChunkOut } from './bitTrueKernel.ts';
+import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut } from './bitTrueKernel.ts';
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
 import { RunAccumulator } from './runAccumulator.ts';
-import { CHECKSUM_BASIS, checksumRecord } from './checksum.ts';
 
 export const CHUNK_SAMPLES = 8192;
 export const MAX_SIM_SAMPLES = 50_000_000;
@@ -101,11 +99,21 @@ function sliceRecord(r: BitTrueRecord, from: number, to: number): BitTrueRecord 
   };
 }
 
-/** NCO frequency (Hz) the bit-true loop runs at after filter output code y: (M + Δ)·fs/2^N. */
-export function bitTrueNcoHz(plan: BitTruePlan, y: number): number {
+/**
+ * NCO frequency (Hz) of the bit-true loop as a function of the filter output code y:
+ * (M + Δ(y))·fs/2^N with Δ rounded exactly as the kernel rounds it.
+ */
+export function bitTrueNcoHzOf(plan: BitTruePlan): (y: number) => number {
+  const mode: number = MODE[plan.rounding];
   const { gainCode, gainShift } = plan.control;
-  const delta = roundShift(y * gainCode, gainShift, plan.rounding);
-  return plan.tuning.actualHz + (delta * plan.sampleRateHz) / 2 ** plan.ncoAccumulatorBits;
+  const gInv = 2 ** -gainShift;
+  const hzPerLsb = plan.sampleRateHz / 2 ** plan.ncoAccumulatorBits;
+  const centerHz = plan.tuning.actualHz;
+  return (y) => {
+    const t = y * gainCode * gInv;
+    const d = gainShift <= 0 ? t : mode === 0 ? Math.floor(t) : roundScaled(t, mode);
+    return centerHz + d * hzPerLsb;
+  };
 }
 
 /** The chunked simulation as a generator: yields the fraction done after each chunk. */
@@ -147,7 +155,6 @@ export function* simulationSteps(
   const record = keep ? allocRecord(total) : null;
   const scratch = plan && !record ? allocRecord(CHUNK_SAMPLES) : null;
   const bAcc = plan ? new RunAccumulator(setup) : null;
-  let checksum = CHECKSUM_BASIS;
   for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {
     if (options.signal?.aborted) throw new SimulationAbortedError();
     const count = Math.min(CHUNK_SAMPLES, total - n0);
@@ -163,7 +170,6 @@ export function* simulationSteps(
       const out: BitTrueRecord = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
       quantizeInput(plan, input.x, count, out.inputCode);
       runBitTrueChunk(plan, bState, out.inputCode, count, out as BitTrueChunkOut);
-      checksum = checksumRecord(checksum, out, count);
       pushBitTrue(bAcc, plan, out, input, n0, count);
     }
     const fraction = (n0 + count) / total;
@@ -172,7 +178,7 @@ export function* simulationSteps(
   }
   const result: SimResult = { sampleCount: total, sampleRateHz: spec.sampleRateHz, durationS: total / spec.sampleRateHz };
   const floatRun: SimRun | undefined = fAcc?.finish();
-  const bitRun: BitTrueRun | undefined = bAcc ? { ...bAcc.finish(), checksum, ...(record ? { record } : {}) } : undefined;
+  const bitRun: BitTrueRun | undefined = bAcc && bState ? { ...bAcc.finish(), checksum: bState.checksum, ...(record ? { record } : {}) } : undefined;
   return { ...result, ...(floatRun ? { float: floatRun } : {}), ...(bitRun ? { bitTrue: bitRun } : {}), ...(plan ? { plan } : {}) };
 }
 
@@ -180,9 +186,10 @@ function pushBitTrue(acc: RunAccumulator, plan: BitTruePlan, out: BitTrueRecord,
   const toCycles = 2 ** -plan.ncoAccumulatorBits;
   const hiWeight = 2 ** 32 * toCycles;
   const yScale = 2 ** -(plan.dataBits - 1);
+  const ncoHz = bitTrueNcoHzOf(plan);
   for (let i = 0; i < count; i++) {
     const phase = (out.phaseHi[i] as number) * hiWeight + (out.phaseLo[i] as number) * toCycles;
     const y = out.filterCode[i] as number;
-    acc.push(n0 + i, input.phaseCycles[i] as number, phase, input.x[i] as number, y * yScale, bitTrueNcoHz(plan, y), input.offsetHz[i] as number);
+    acc.push(n0 + i, input.phaseCycles[i] as number, phase, input.x[i] as number, y * yScale, ncoHz(y), input.offsetHz[i] as number);
   }
 }
