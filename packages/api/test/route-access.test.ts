@@ -42,6 +42,7 @@ const CASES: Record<string, Case> = {
     allowed: ADMIN,
     call: (a) => a.post('/api/users').set(csrf).send({ email: `new-${randomUUID().slice(0, 8)}@example.test`, displayName: 'New person', password: 'a-long-enough-password', roles: ['firmware'] }),
   },
+  'GET /reviewers': { allowed: DESIGNER, call: (a) => a.get('/api/reviewers') },
   'PATCH /users/:id': { allowed: ADMIN, call: async (a, f) => a.patch(`/api/users/${await f.freshUser()}`).set(csrf).send({ displayName: 'Renamed' }) },
   'GET /projects': { allowed: 'signed-in', call: (a) => a.get('/api/projects') },
   'POST /projects': { allowed: DESIGNER, call: (a) => a.post('/api/projects').set(csrf).send({ name: 'Role table project' }) },

@@ -29,4 +29,15 @@ export const userRoutes = [
     body: userUpdateRequestSchema,
     handler: ({ services, user, params, body, actor }): Promise<UserRecord> => services.users.update(user.organizationId, params.id, body, actor),
   }),
+  route({
+    method: 'get',
+    path: '/reviewers',
+    access: ['designer'],
+    summary: 'enabled accounts holding the reviewer role (id, name, e-mail), so a designer can name reviewers',
+    handler: async ({ services, user }) => ({
+      reviewers: (await services.users.list(user.organizationId))
+        .filter((u) => u.roles.includes('reviewer') && !u.disabled)
+        .map((u) => ({ id: u.id, displayName: u.displayName, email: u.email })),
+    }),
+  }),
 ];
