@@ -24,18 +24,29 @@ export function acquisitionEstimates(
     notes.push('lock-in, pull-out and pull-in time: ωn and ζ do not apply to a loop of order above 2');
     return {
       lockInHz: null,
+      lockInRadPerS: null,
       holdInHz: holdIn === null ? null : hz(holdIn),
+      holdInRadPerS: holdIn,
       pullOutHz: null,
+      pullOutRadPerS: null,
       pullInTimeSPerHz2: null,
       label: 'estimate',
       notes,
     };
   }
   const { wnRadPerS: wn, damping: z } = second;
+  const lockIn = 2 * z * wn;
+  const pullOut = 1.8 * wn * (z + 1);
+  if (holdIn !== null && lockIn > holdIn) {
+    notes.push('lock-in: the 2ζωn formula exceeds the hold-in range K·F(0) here (a low-gain type-1 loop); the loop cannot lock beyond hold-in, so read it as at most the hold-in range');
+  }
   return {
-    lockInHz: hz(2 * z * wn),
+    lockInHz: hz(lockIn),
+    lockInRadPerS: lockIn,
     holdInHz: holdIn === null ? null : hz(holdIn),
-    pullOutHz: hz(1.8 * wn * (z + 1)),
+    holdInRadPerS: holdIn,
+    pullOutHz: hz(pullOut),
+    pullOutRadPerS: pullOut,
     // TP = Δω²/(2ζωn³) with Δω = 2π·Δf, so TP = c·Δf² with c = (2π)²/(2ζωn³).
     pullInTimeSPerHz2: (4 * Math.PI * Math.PI) / (2 * z * wn ** 3),
     label: 'estimate',

@@ -13,12 +13,15 @@ export type { WordLengthOptions, WordLengthResult, CoefficientWidthPoint, DataWi
 export type { AnalysisResult, AnalysisVerdict, AnalyzeOptions, NoiseBandwidth, RippleFigures, BodePlotData } from '../analysis/analyzeDesign.ts';
 
 export interface AcquisitionEstimates {
-  /** ≈ 2ζωn/(2π) (G3, B6). */
+  /** ≈ 2ζωn/(2π) (G3, B6); lockInRadPerS = 2ζωn. */
   readonly lockInHz: number | null;
-  /** K·F(0)/(2π); null for a PI loop (infinite). */
+  readonly lockInRadPerS: number | null;
+  /** K·F(0)/(2π); null for a PI loop (infinite). holdInRadPerS = K·F(0). */
   readonly holdInHz: number | null;
-  /** ≈ 1.8ωn(ζ+1)/(2π) (B6). */
+  readonly holdInRadPerS: number | null;
+  /** ≈ 1.8ωn(ζ+1)/(2π) (B6); pullOutRadPerS = 1.8ωn(ζ+1). */
   readonly pullOutHz: number | null;
+  readonly pullOutRadPerS: number | null;
   /** Pull-in time TP ≈ c·Δf² for an initial offset Δf in Hz; this is c = (2π)²/(2ζωn³) in s/Hz². */
   readonly pullInTimeSPerHz2: number | null;
   /** Always "estimate": textbook formulas, off by up to 2x against simulation (Ku23). */
