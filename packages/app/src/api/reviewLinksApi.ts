@@ -1,9 +1,10 @@
 import { api } from './client.ts';
-import type { ReviewDecisionRequest, ReviewLinkView } from './types.ts';
+import type { ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView } from './types.ts';
 
 export const reviewLinksApi = {
+  /** Reads only: the link stays unused until a decision is posted. */
   read: (token: string) => api.request<ReviewLinkView>(`/review-links/${encodeURIComponent(token)}`),
-  /** A deliberate POST: the link's GET never decides anything (DESIGN.md flow, step 4). */
+  /** A deliberate POST bound to the manifest hash the reviewer read (DESIGN.md flow, step 4). */
   decide: (token: string, request: ReviewDecisionRequest) =>
-    api.request<ReviewLinkView>(`/review-links/${encodeURIComponent(token)}`, { method: 'POST', body: request }),
+    api.request<ReviewDecisionResponse>(`/review-links/${encodeURIComponent(token)}`, { method: 'POST', body: request }),
 };

@@ -8,6 +8,9 @@ import { fmtEng, fmtFixed, fmtHz, fmtSig } from '../lib/format.ts';
 
 export type Judgement = 'pass' | 'fail' | 'info';
 
+/** The numbers of an analysis without its plot arrays (what a release's manifest stores). */
+export type AnalysisNumbers = Omit<AnalysisResult, 'bode' | 'stepResponses'>;
+
 export interface SummaryRow {
   readonly label: string;
   readonly analog: string;
@@ -62,7 +65,7 @@ function gmText(m: LoopMargins | undefined): string {
   return m.gainMarginDb === null ? 'unbounded' : fmtFixed(m.gainMarginDb, 1, 'dB');
 }
 
-export function marginRows(a: AnalysisResult): SummaryRow[] {
+export function marginRows(a: AnalysisNumbers): SummaryRow[] {
   const { analog, discrete } = a.margins;
   const q = a.quantization.loop?.margins;
   const { minPhaseMarginDeg: minPm, minGainMarginDb: minGm } = a.verdict;
@@ -128,7 +131,7 @@ export function marginRows(a: AnalysisResult): SummaryRow[] {
   ];
 }
 
-export function loopFigures(a: AnalysisResult): FigureRow[] {
+export function loopFigures(a: AnalysisNumbers): FigureRow[] {
   const rows: FigureRow[] = [
     { label: 'Loop type', value: String(a.loopType) },
     { label: 'Loop gain K = Kd·Ko', value: `${fmtSig(a.loopGain.kRadPerS, 5)} 1/s`, note: `Kd ${fmtSig(a.loopGain.kd, 4)} /rad` },
@@ -150,7 +153,7 @@ export function loopFigures(a: AnalysisResult): FigureRow[] {
   return rows;
 }
 
-export function rangeFigures(a: AnalysisResult): FigureRow[] {
+export function rangeFigures(a: AnalysisNumbers): FigureRow[] {
   const e = a.estimates;
   const ss = a.steadyState;
   return [
@@ -176,7 +179,7 @@ export interface Verdict {
   readonly reasons: readonly string[];
 }
 
-export function verdictOf(a: AnalysisResult): Verdict {
+export function verdictOf(a: AnalysisNumbers): Verdict {
   const v = a.verdict;
   if (!v.stable) return { label: 'Unstable', tone: 'fail', reasons: v.reasons };
   if (!v.marginsMet) return { label: 'Stable — margins not met', tone: 'fail', reasons: v.reasons };

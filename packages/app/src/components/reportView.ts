@@ -3,6 +3,7 @@ import type { QuantizedFilter } from '@loopwright/dsp';
 import type { NcoReportData } from '../workers/dspJobs.ts';
 import { fmtEng, fmtFixed, fmtHz, fmtSig } from '../lib/format.ts';
 
+
 export interface CoefficientRow {
   readonly key: string;
   readonly section: string;
@@ -45,7 +46,7 @@ export function coefficientRows(q: QuantizedFilter): CoefficientRow[] {
       code: String(c.code),
       hex: twosComplementHex(c.code, q.format.wordBits),
       quantised: fmtSig(c.quantizedValue, 10),
-      error: fmtEng(c.quantizedValue - c.value, '', 3).trim(),
+      error: (c.quantizedValue - c.value).toExponential(2),
       overflowed: c.overflowed,
     })),
   );

@@ -1,0 +1,115 @@
+/** Display data for releases: state tags, hashes, sizes, the diff as rows. */
+import type { ReleaseDiff, ReleaseFileRecord, ReleaseRecord, ReleaseState, ReleaseSummary, ReviewRecord } from '../api/types.ts';
+import { formatDate } from '../views/projectsView.ts';
+
+export type TagType = 'primary' | 'success' | 'warning' | 'info' | 'danger';
+
+const STATE_TEXT: Record<ReleaseState, { text: string; tag: TagType }> = {
+  draft: { text: 'draft', tag: 'info' },
+  'in-review': { text: 'in review', tag: 'warning' },
+  approved: { text: 'approved', tag: 'success' },
+  'changes-requested': { text: 'changes requested', tag: 'danger' },
+  withdrawn: { text: 'withdrawn', tag: 'info' },
+};
+
+export function stateTag(state: ReleaseState): { text: string; tag: TagType } {
+  return STATE_TEXT[state];
+}
+
+export interface ReleaseRow {
+  readonly id: number;
+  readonly label: string;
+  readonly state: ReleaseState;
+  readonly stateText: string;
+  readonly stateTag: TagType;
+  readonly date: string;
+  readonly author: string;
+  readonly approvals: string;
+  readonly sha256: string;
+  readonly shortSha: string;
+  readonly revision: string;
+}
+
+export function releaseRows(list: readonly ReleaseSummary[], records: Readonly<Record<number, ReleaseRecord>>): ReleaseRow[] {
+  return list.map((r) => {
+    const full = records[r.id];
+    const tag = stateTag(r.state);
+    return {
+      id: r.id,
+      label: r.label,
+      state: r.state,
+      stateText: tag.text,
+      stateTag: tag.tag,
+      date: formatDate(r.createdAt),
+      author: r.createdByName,
+      approvals: approvalsText(full),
+      sha256: r.manifestSha256,
+      shortSha: `${r.manifestSha256.slice(0, 12)}…`,
+      revision: `rev ${r.designRevision}`,
+    };
+  });
+}
+
+export function approvalsText(r: ReleaseRecord | undefined): string {
+  if (!r) return '…';
+  if (r.approvalsRequired === null) return '—';
+  return `${r.approvals} of ${r.approvalsRequired}`;
+}
+
+export function sizeText(bytes: number): string {
+  if (bytes < 1024) return `${bytes} B`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(1)} KiB`;
+  return `${(bytes / 1024 / 1024).toFixed(2)} MiB`;
+}
+
+export interface FileRow extends ReleaseFileRecord {
+  readonly sizeText: string;
+}
+
+export function fileRows(files: readonly ReleaseFileRecord[]): FileRow[] {
+  return files.map((f) => ({ ...f, sizeText: sizeText(f.sizeBytes) }));
+}
+
+export interface ReviewRow {
+  readonly id: number;
+  readonly reviewer: string;
+  readonly decision: string;
+  readonly tone: TagType;
+  readonly comment: string;
+  readonly when: string;
+}
+
+export function reviewRows(reviews: readonly ReviewRecord[]): ReviewRow[] {
+  return reviews.map((r) => ({
+    id: r.id,
+    reviewer: r.reviewerName,
+    decision: r.decision === null ? 'pending' : r.decision === 'approve' ? 'approved' : 'changes requested',
+    tone: r.decision === null ? 'info' : r.decision === 'approve' ? 'success' : 'danger',
+    comment: r.comment ?? '',
+    when: r.decidedAt ? formatDate(r.decidedAt) : `link expires ${formatDate(r.expiresAt)}`,
+  }));
+}
+
+export interface DiffRow {
+  readonly group: string;
+  readonly path: string;
+  readonly before: string;
+  readonly after: string;
+}
+
+function show(value: unknown): string {
+  if (value === null || value === undefined) return '—';
+  if (typeof value === 'number') return String(Number(value.toPrecision(10)));
+  return typeof value === 'string' ? value : JSON.stringify(value);
+}
+
+/** Margins lists hold many internal figures; the reviewer reads the headline ones first. */
+const MARGIN_PATHS = /(crossoverHz|phaseMarginDeg|gainMarginDb|phaseCrossoverHz)$/;
+
+export function diffRows(d: ReleaseDiff): DiffRow[] {
+  return [
+    ...d.spec.map((c) => ({ group: 'Spec', path: c.path, before: show(c.before), after: show(c.after) })),
+    ...d.codes.map((c) => ({ group: 'Integer codes', path: c.name, before: show(c.before), after: show(c.after) })),
+    ...d.margins.filter((c) => MARGIN_PATHS.test(c.path)).map((c) => ({ group: 'Margins', path: c.path, before: show(c.before), after: show(c.after) })),
+  ];
+}

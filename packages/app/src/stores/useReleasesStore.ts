@@ -1,0 +1,80 @@
+import { defineStore } from 'pinia';
+import { ref } from 'vue';
+import { releasesApi } from '../api/releasesApi.ts';
+import { designsApi } from '../api/designsApi.ts';
+import type { Design, ReleaseDiff, ReleaseRecord, ReleaseSummary, ReviewerChoice, ReviewRequest } from '../api/types.ts';
+
+/** The releases of one design: list, full records, cutting, review requests and diffs. */
+export const useReleasesStore = defineStore('releases', () => {
+  const designId = ref<number | null>(null);
+  const design = ref<Design | null>(null);
+  const releases = ref<ReleaseSummary[]>([]);
+  const records = ref<Record<number, ReleaseRecord>>({});
+  const loading = ref(false);
+  const error = ref<unknown>(null);
+  const cutting = ref(false);
+  const reviewers = ref<ReviewerChoice[]>([]);
+  const diff = ref<ReleaseDiff | null>(null);
+  const diffError = ref<unknown>(null);
+
+  async function load(id: number): Promise<void> {
+    designId.value = id;
+    loading.value = true;
+    error.value = null;
+    diff.value = null;
+    try {
+      const [d, list] = await Promise.all([designsApi.get(id), releasesApi.forDesign(id)]);
+      design.value = d;
+      releases.value = [...list].sort((a, b) => b.number - a.number);
+      const full = await Promise.all(releases.value.map((r) => releasesApi.get(r.id)));
+      records.value = Object.fromEntries(full.map((r) => [r.id, r]));
+    } catch (cause) {
+      error.value = cause;
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  async function refresh(releaseId: number): Promise<ReleaseRecord> {
+    const record = await releasesApi.get(releaseId);
+    records.value = { ...records.value, [releaseId]: record };
+    releases.value = releases.value.map((r) => (r.id === releaseId ? { ...r, state: record.state, stateChangedAt: record.stateChangedAt } : r));
+    return record;
+  }
+
+  async function cut(): Promise<ReleaseRecord> {
+    const id = designId.value;
+    if (id === null) throw new Error('no design loaded');
+    cutting.value = true;
+    try {
+      const record = await releasesApi.cut(id);
+      records.value = { ...records.value, [record.id]: record };
+      const { designName: _n, projectId: _p, spec: _s, results: _r, files: _f, approvalsRequired: _a, approvals: _c, reviews: _v, allowedEvents: _e, caution: _k, ...summary } = record;
+      releases.value = [summary, ...releases.value.filter((r) => r.id !== record.id)];
+      return record;
+    } finally {
+      cutting.value = false;
+    }
+  }
+
+  async function loadReviewers(): Promise<void> {
+    reviewers.value = await releasesApi.reviewers();
+  }
+
+  async function requestReview(releaseId: number, request: ReviewRequest): Promise<ReleaseRecord> {
+    await releasesApi.requestReview(releaseId, request);
+    return refresh(releaseId);
+  }
+
+  async function compare(fromId: number, toId: number): Promise<void> {
+    diffError.value = null;
+    try {
+      diff.value = await releasesApi.diff(toId, fromId);
+    } catch (cause) {
+      diff.value = null;
+      diffError.value = cause;
+    }
+  }
+
+  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, cut, loadReviewers, requestReview, compare };
+});

@@ -1,0 +1,52 @@
+import type { ConformanceRecord, ReleaseRecord } from '../api/types.ts';
+import { fileRows, type FileRow } from '../components/releaseView.ts';
+import { formatDate } from './projectsView.ts';
+
+export interface DownloadRow {
+  readonly id: number;
+  readonly project: string;
+  readonly design: string;
+  readonly label: string;
+  readonly approved: string;
+  readonly sha256: string;
+  readonly files: readonly FileRow[];
+}
+
+export function downloadRows(releases: readonly ReleaseRecord[], projectNames: Readonly<Record<number, string>>): DownloadRow[] {
+  return releases.map((r) => ({
+    id: r.id,
+    project: projectNames[r.projectId] ?? `project ${r.projectId}`,
+    design: r.designName,
+    label: r.label,
+    approved: formatDate(r.stateChangedAt),
+    sha256: r.manifestSha256,
+    files: fileRows(r.files),
+  }));
+}
+
+export interface RunView {
+  readonly id: number;
+  readonly fileName: string;
+  readonly when: string;
+  readonly who: string;
+  readonly verdict: string;
+  readonly bitExact: boolean;
+  readonly summary: string;
+  readonly mismatches: ConformanceRecord['firstMismatches'];
+}
+
+export function runViews(runs: readonly ConformanceRecord[]): RunView[] {
+  return runs.map((r) => ({
+    id: r.id,
+    fileName: r.fileName,
+    when: formatDate(r.createdAt),
+    who: r.uploadedByName,
+    verdict: r.verdict,
+    bitExact: r.verdict === 'bit-exact',
+    summary:
+      r.verdict === 'bit-exact'
+        ? `bit-exact over ${r.samplesCompared.toLocaleString('en')} samples`
+        : `${r.mismatchCount.toLocaleString('en')} mismatching value(s) in ${r.samplesCompared.toLocaleString('en')} samples`,
+    mismatches: r.firstMismatches,
+  }));
+}
