@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BuiltApp } from '../src/app.ts';
 import { ROLES, type Role } from '../src/contract.ts';
 import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, signedInAgent, type Agent, type TestOrg } from './helpers.ts';
+import { releaseFixtures, type ReleaseFixtures } from './releases/fixtures.ts';
 
 /**
  * Every route × every role (and signed out): the expected answer is 2xx when the policy below allows
@@ -20,6 +21,7 @@ interface Fixtures {
   designId: number;
   freshDesign(): Promise<number>;
   freshUser(): Promise<number>;
+  releases: ReleaseFixtures;
 }
 
 interface Case {
@@ -71,6 +73,35 @@ const CASES: Record<string, Case> = {
     call: (a, f) => a.post(`/api/designs/${f.designId}/simulations`).set(csrf).send({ scenario: { kind: 'tone', offsetHz: 10, durationS: 0.001 }, mode: 'float', buckets: 10 }),
   },
   'GET /audit': { allowed: ADMIN, call: (a) => a.get('/api/audit') },
+  // Releases (src/releases/routes.ts). The approved fixture release is visible to every role.
+  'POST /designs/:id/releases': { allowed: DESIGNER, call: (a, f) => a.post(`/api/designs/${f.designId}/releases`).set(csrf) },
+  'GET /designs/:id/releases': { allowed: 'signed-in', call: (a, f) => a.get(`/api/designs/${f.designId}/releases`) },
+  'GET /releases': { allowed: 'signed-in', call: (a) => a.get('/api/releases') },
+  'GET /releases/:id': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}`) },
+  'POST /releases/:id/withdraw': { allowed: DESIGNER, call: async (a, f) => a.post(`/api/releases/${await f.releases.freshDraft()}/withdraw`).set(csrf).send({}) },
+  'GET /releases/:id/diff': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/diff?against=${f.releases.approvedId}`) },
+  'GET /releases/:id/files/:name': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/files/manifest.json`) },
+  'GET /releases/:id/bundle': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/bundle`) },
+  'GET /releases/:id/downloads': { allowed: ['designer', 'admin'], call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/downloads`) },
+  'POST /releases/:id/reviews': {
+    allowed: DESIGNER,
+    call: async (a, f) => a.post(`/api/releases/${await f.releases.freshDraft()}/reviews`).set(csrf).send({ reviewerIds: [org.ids.reviewer], approvalsRequired: 1 }),
+  },
+  'GET /releases/:id/reviews': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/reviews`) },
+  // The token is the authority on review links: called without a session, whoever holds the role.
+  'GET /review-links/:token': { allowed: 'public', call: async (_a, f) => request(built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}`) },
+  'POST /review-links/:token': {
+    allowed: 'public',
+    call: async (_a, f) => {
+      const link = await f.releases.freshToken();
+      return request(built.app).post(`/api/review-links/${link.token}`).send({ decision: 'approve', manifestSha256: link.manifestSha256 });
+    },
+  },
+  'POST /releases/:id/conformance': {
+    allowed: ['firmware', 'designer'],
+    call: (a, f) => a.post(`/api/releases/${f.releases.approvedId}/conformance`).set(csrf).attach('file', f.releases.goldenCsv, 'capture.csv'),
+  },
+  'GET /releases/:id/conformance': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/conformance`) },
 };
 
 let dataSource: DataSource;
@@ -91,7 +122,8 @@ beforeAll(async () => {
   const freshDesign = async (): Promise<number> => (await designs.create(org.organizationId, projectId, { name: 'Fixture', templateId: 'ultrasonic-single-pole' }, designerActor)).id;
   const freshUser = async (): Promise<number> =>
     (await users.create(org.organizationId, { email: `fixture-${randomUUID().slice(0, 8)}@example.test`, displayName: 'Fixture', password: 'a-long-enough-password', roles: ['reviewer'] }, adminActor)).id;
-  fixtures = { projectId, designId: await freshDesign(), freshDesign, freshUser };
+  const designId = await freshDesign();
+  fixtures = { projectId, designId, freshDesign, freshUser, releases: await releaseFixtures(built, org, designId) };
 });
 
 afterAll(async () => {

@@ -1,0 +1,34 @@
+/**
+ * Release fixtures made through the services (no HTTP), for tests of other modules such as the
+ * route × role table. Review tokens are read from the mail outbox, where the e-mail text is kept.
+ */
+import type { BuiltApp } from '../../src/app.ts';
+import type { TestOrg } from '../helpers.ts';
+
+export interface ReleaseFixtures {
+  /** An approved release (visible to every role) of `designId`. */
+  approvedId: number;
+  manifestSha256: string;
+  goldenCsv: Buffer;
+  freshDraft(): Promise<number>;
+  /** A release in review and the token of the link e-mailed to the org's reviewer. */
+  freshToken(): Promise<{ releaseId: number; token: string; manifestSha256: string }>;
+}
+
+export async function releaseFixtures(built: BuiltApp, org: TestOrg, designId: number): Promise<ReleaseFixtures> {
+  const { handoff, dataSource } = built.services;
+  const designer = { id: org.ids.designer, email: org.emails.designer, ip: null, displayName: 'Designer' };
+  const freshDraft = async () => (await handoff.releases.cut(org.organizationId, designId, designer)).id;
+  const freshToken = async () => {
+    const releaseId = await freshDraft();
+    const release = await handoff.reviews.requestReview(org.organizationId, releaseId, { reviewerIds: [org.ids.reviewer], approvalsRequired: 1 }, designer);
+    const rows = (await dataSource.query("SELECT `textBody` FROM `mail_outbox` WHERE `toAddress` = ? AND `kind` = 'review-request' ORDER BY `id` DESC LIMIT 1", [org.emails.reviewer])) as { textBody: string }[];
+    const token = /\/review\/([A-Za-z0-9_-]{12}\.[A-Za-z0-9_-]{43})/.exec(rows[0]?.textBody ?? '')?.[1];
+    if (!token) throw new Error('no review link in the outbox');
+    return { releaseId, token, manifestSha256: release.manifestSha256 };
+  };
+  const first = await freshToken();
+  await handoff.reviews.decide(first.token, { decision: 'approve', manifestSha256: first.manifestSha256 }, null, undefined);
+  const files = (await dataSource.query("SELECT `content` FROM `release_files` WHERE `releaseId` = ? AND `name` LIKE '%\\_vectors.csv'", [first.releaseId])) as { content: Buffer }[];
+  return { approvedId: first.releaseId, manifestSha256: first.manifestSha256, goldenCsv: Buffer.from(files[0]!.content), freshDraft, freshToken };
+}
