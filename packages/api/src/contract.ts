@@ -309,3 +309,8 @@ export type AuditQuery = z.infer<typeof auditQuerySchema>;
 // ---------------------------------------------------------------------------------------------- releases
 
 export * from './releases/contract.ts';
+
+// ---------------------------------------------------------------------------------------------- releases
+
+/** Releases, reviews, review links, downloads and conformance (owned by src/releases). */
+export * from './releases/contract.ts';
