@@ -28,6 +28,10 @@ import { analysisRange } from './frequencyRange.ts';
 import { DEFAULT_POINTS, type DiscreteLoopAnalysis, discreteLoopMargins } from './discreteLoop.ts';
 import { quantizeSections } from '../fixed/quantizeSections.ts';
 import { FieldError } from '../fixed/fieldError.ts';
+import { ncoTuning } from '../nco/tuningWord.ts';
+import { ncoSpectralEstimates } from '../nco/spectralEstimates.ts';
+import { ncoControlScaling } from '../nco/controlScaling.ts';
+import type { NcoControlScaling, NcoSpectralEstimates, NcoTuning } from '../types/nco.ts';
 
 export interface AnalyzeOptions {
   /** Phase margin the verdict asks for (default 45°, common practice, no source). */
@@ -89,6 +93,15 @@ export interface QuantizationSummary {
   } | null;
 }
 
+/** The NCO at the loop rate: tuning word (TRG71), spur/SNR estimates (NS87, Be48), control scaling. */
+export interface NcoSummary {
+  readonly tuning: NcoTuning;
+  readonly spectral: NcoSpectralEstimates;
+  /** Control word to tuning increment; null with controlError when the widths cannot represent it. */
+  readonly control: NcoControlScaling | null;
+  readonly controlError: { readonly field: string; readonly message: string } | null;
+}
+
 export interface AnalysisVerdict {
   readonly stable: boolean;
   readonly marginsMet: boolean;
@@ -115,6 +128,7 @@ export interface AnalysisResult {
   readonly steadyState: SteadyStateErrors;
   readonly stepResponses: StepResponses;
   readonly quantization: QuantizationSummary;
+  readonly nco: NcoSummary;
   readonly verdict: AnalysisVerdict;
   readonly warnings: readonly SpecWarning[];
 }
@@ -189,7 +203,8 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
   const crossoverHz = discrete.margins.crossoverHz ?? analogMargins.crossoverHz ?? k / (2 * Math.PI);
   const dampingForSpan = Math.min(Math.max(second?.damping ?? 0.5, 0.1), 1);
   const durationS = 3 / (crossoverHz * dampingForSpan);
-  const verdict = judge(discrete, quantization.summary, analogStable, minPm, minGm);
+  const nco = ncoSummary(spec);
+  const verdict = judge(discrete, quantization.summary, nco, analogStable, minPm, minGm);
   return {
     specName: spec.name,
     loopGain: gain,
@@ -208,6 +223,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
     steadyState: steadyStateErrors(loopType, k, dcGain, spec.filter.kind === 'pi' ? (design.tau?.tau1S ?? null) : null),
     stepResponses: stepResponses(discreteClosedLoop(design.digital, k, fs).e, analogPolys.e, fs, durationS),
     quantization: quantization.summary,
+    nco,
     verdict,
     warnings: [...specWarnings, ...analysisWarnings(spec, discrete, analogMargins)],
   };
@@ -224,6 +240,27 @@ function quantize(spec: LoopSpec, design: LoopFilterDesign, fMinHz: number, poin
   } catch (err) {
     if (!(err instanceof FieldError)) throw err;
     return { summary: { filter: null, error: { field: err.field, message: err.message }, loop: null }, open: null };
+  }
+}
+
+/** The fixed-point module's NCO figures for the spec (the NCO runs at sampleRateHz, DESIGN.md). */
+function ncoSummary(spec: LoopSpec): NcoSummary {
+  const { nco, fixedPoint: fp } = spec;
+  const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, nco.accumulatorBits);
+  const spectral = ncoSpectralEstimates(nco.accumulatorBits, nco.phaseBits, nco.amplitudeBits);
+  try {
+    const control = ncoControlScaling({
+      gainHzPerUnit: nco.gainHzPerUnit,
+      sampleRateHz: spec.sampleRateHz,
+      accumulatorBits: nco.accumulatorBits,
+      dataBits: fp.dataBits,
+      coefficientBits: fp.coefficientBits,
+      rounding: fp.rounding,
+    });
+    return { tuning, spectral, control, controlError: null };
+  } catch (err) {
+    if (!(err instanceof FieldError)) throw err;
+    return { tuning, spectral, control: null, controlError: { field: err.field, message: err.message } };
   }
 }
 
@@ -293,6 +330,7 @@ function rippleFigures(spec: LoopSpec, design: LoopFilterDesign, gain: LoopGain)
 function judge(
   discrete: DiscreteLoopAnalysis,
   q: QuantizationSummary,
+  nco: NcoSummary,
   analogStable: boolean,
   minPm: number,
   minGm: number,
@@ -301,6 +339,7 @@ function judge(
   if (!analogStable) reasons.push('the analog prototype loop is unstable');
   if (!discrete.stable) reasons.push('the discrete loop is unstable (a closed-loop pole on or outside the unit circle)');
   if (q.error) reasons.push(`quantisation failed: ${q.error.message}`);
+  if (nco.controlError) reasons.push(`NCO control scaling failed: ${nco.controlError.message}`);
   else if (q.loop && !q.loop.stable) reasons.push('the loop with quantised coefficients is unstable');
   const check = (label: string, m: LoopMargins) => {
     if (m.phaseMarginDeg === null || m.phaseMarginDeg < minPm) {
