@@ -3,12 +3,11 @@
  * fallback for every non-/api path. Waits for MariaDB at start-up instead of failing; afterwards a
  * database outage is answered with 503 and the pool reconnects by itself.
  */
-import { existsSync } from 'node:fs';
 import path from 'node:path';
-import express from 'express';
 import { createApp } from './app.ts';
 import { ConfigError, describeDefaults, loadConfig, type Config } from './config.ts';
 import { createDataSource } from './data-source.ts';
+import { serveWebApp } from './web/static.ts';
 
 function log(message: string): void {
   process.stdout.write(`loopwright-api: ${message}\n`);
@@ -34,13 +33,7 @@ async function main(): Promise<void> {
   const built = createApp({ config, dataSource });
 
   const appDist = path.resolve(process.cwd(), config.appDistDir);
-  if (existsSync(path.join(appDist, 'index.html'))) {
-    built.app.use(express.static(appDist, { index: false, maxAge: '1h' }));
-    // SPA fallback: any GET outside /api that is not a file gets index.html (/api 404s are JSON).
-    built.app.get(/^(?!\/api(\/|$)).*/, (_req, res) => {
-      res.set('Cache-Control', 'no-cache').sendFile(path.join(appDist, 'index.html'));
-    });
-  } else {
+  if (!serveWebApp(built.app, appDist)) {
     log(`no built web app at ${appDist} (build packages/app or set LW_APP_DIST); serving the API only`);
   }
 

@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
-import type { Role, SessionUser, UserCreateRequest, UserRecord, UserUpdateRequest } from '../contract.ts';
+import type { SessionUser, UserCreateRequest, UserRecord, UserUpdateRequest } from '../contract.ts';
 import { User } from '../entities/index.ts';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';
@@ -121,10 +121,5 @@ export class UserService {
       await this.audit.record(actor, { action: 'user.password-change', objectType: 'user', objectId: userId }, manager);
     });
     await this.sessions.endSessionsOf(userId, keepSessionId);
-  }
-
-  async hasRole(userId: number, role: Role): Promise<boolean> {
-    const user = await this.repo.findOneBy({ id: userId });
-    return user !== null && !user.disabled && user.roles.includes(role);
   }
 }
