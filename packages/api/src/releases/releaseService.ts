@@ -6,7 +6,7 @@
  * and never collide; the unique (designId, number) index is the database's second line of defence.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import type { SessionUser } from '../contract.ts';
+import type { DesignRecord, SessionUser } from '../contract.ts';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
@@ -52,8 +52,14 @@ export class ReleaseService {
 
   async cut(organizationId: number, designId: number, actor: Actor): Promise<ReleaseRecord> {
     const design = await this.designs.get(organizationId, designId);
-    const rendered = renderStoredSpec(design.spec);
-    const id = await this.dataSource.transaction(async (manager) => {
+    const id = await this.store(design, renderStoredSpec(design.spec), actor);
+    return this.getForUser(organizationId, id, { roles: ['designer'] });
+  }
+
+  /** Stores a rendered release as the design's next number; returns the release id. */
+  async store(design: Pick<DesignRecord, 'id' | 'revision'>, rendered: RenderedRelease, actor: Actor): Promise<number> {
+    const designId = design.id;
+    return this.dataSource.transaction(async (manager) => {
       await manager.query('SELECT `id` FROM `designs` WHERE `id` = ? FOR UPDATE', [designId]);
       const [{ next }] = (await manager.query('SELECT COALESCE(MAX(`number`), 0) + 1 AS `next` FROM `releases` WHERE `designId` = ?', [designId])) as [{ next: number | string }];
       const number = Number(next);
@@ -76,7 +82,6 @@ export class ReleaseService {
       await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256 } }, manager);
       return releaseId;
     });
-    return this.getForUser(organizationId, id, { roles: ['designer'] });
   }
 
   /** The row, or 404 when it does not exist in the organisation or the user may not see it. */

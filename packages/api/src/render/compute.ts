@@ -5,14 +5,18 @@
  */
 import {
   analyzeDesign,
+  FieldError,
   ncoControlScaling,
   ncoTuning,
   parseLoopSpec,
   type AnalysisResult,
   type LoopSpec,
+  type NcoControlScaling,
+  type NcoTuning,
+  type QuantizedFilter,
 } from '@loopwright/dsp';
 import type { ReleaseComputation } from './artifacts.ts';
-import { goldenVectorsFor } from './vectors.ts';
+import { goldenVectorsFor, type ReleaseVectors } from './vectors.ts';
 
 export class RenderInputError extends Error {
   override readonly name = 'RenderInputError';
@@ -39,8 +43,16 @@ export function validSpec(input: unknown): LoopSpec {
   return parsed.spec;
 }
 
-export function computeRelease(input: unknown): ReleaseComputation {
-  const spec = validSpec(input);
+/** Everything but the golden vectors (the benchmark times the two apart). */
+export interface DesignComputation {
+  readonly spec: LoopSpec;
+  readonly analysis: AnalysisResult;
+  readonly quantized: QuantizedFilter;
+  readonly tuning: NcoTuning;
+  readonly control: NcoControlScaling;
+}
+
+export function computeDesign(spec: LoopSpec): DesignComputation {
   const analysis = analyzeDesign(spec);
   const quantized = analysis.quantization.filter;
   if (!quantized) {
@@ -56,14 +68,30 @@ export function computeRelease(input: unknown): ReleaseComputation {
     coefficientBits: spec.fixedPoint.coefficientBits,
     rounding: spec.fixedPoint.rounding,
   });
-  const vectors = goldenVectorsFor(spec);
+  return { spec, analysis, quantized, tuning, control };
+}
+
+export function withVectors(d: DesignComputation, vectors: ReleaseVectors): ReleaseComputation {
   return {
-    spec,
-    quantized,
-    tuning,
-    control,
-    results: manifestResults(analysis, { nco: { tuning, control }, vectors: vectors.summary }),
+    spec: d.spec,
+    quantized: d.quantized,
+    tuning: d.tuning,
+    control: d.control,
+    results: manifestResults(d.analysis, { nco: { tuning: d.tuning, control: d.control }, vectors: vectors.summary }),
     vectorsCsv: vectors.csv,
     vectorColumns: vectors.columns,
   };
+}
+
+export function computeRelease(input: unknown): ReleaseComputation {
+  const spec = validSpec(input);
+  const design = computeDesign(spec);
+  let vectors: ReleaseVectors;
+  try {
+    vectors = goldenVectorsFor(spec);
+  } catch (err) {
+    if (err instanceof FieldError) throw new RenderInputError(err.field, err.message);
+    throw err;
+  }
+  return withVectors(design, vectors);
 }
