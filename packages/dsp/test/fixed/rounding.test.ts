@@ -115,3 +115,24 @@ describe('quantiser', () => {
     expect(autoFractionBits([300], 8, 'nearest')).toBeNull();
   });
 });
+
+describe('hot-loop rounding', () => {
+  it('roundScaled(p·2^−s) equals roundShift(p, s) for exact integers up to 2^52', async () => {
+    // The bit-true kernel rounds t = p·2^−s with t ± 0.5 (exact for |p| < 2^52); roundShift is the
+    // remainder-based definition of the README. They must agree everywhere, ties included.
+    const { roundScaled, MODE } = await import('../../src/sim/bitTrueKernel.ts');
+    fc.assert(
+      fc.property(
+        fc.integer({ min: -(2 ** 40), max: 2 ** 40 }),
+        fc.integer({ min: 0, max: 2 ** 11 }),
+        fc.integer({ min: 1, max: 12 }),
+        fc.constantFrom('nearest', 'half-even' as const),
+        (hiPart, lowPart, s, mode) => {
+          const p = hiPart * 2 ** 11 + lowPart; // dense in ties at small s
+          expect(roundScaled(p * 2 ** -s, MODE[mode]) + 0).toBe(roundShift(p, s, mode) + 0);
+        },
+      ),
+      { numRuns: 2000 },
+    );
+  });
+});

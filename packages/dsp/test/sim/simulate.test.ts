@@ -178,3 +178,17 @@ describe('parseScenario', () => {
     expect(() => simulate(ultrasonicSinglePoleSpec, { kind: 'tone', offsetHz: 0, durationS: 1000 })).toThrow(/durationS/);
   });
 });
+
+describe('simulate: lock indicator', () => {
+  it('reads near 1 when locked and near 0 when the offset is beyond hold-in (K·F(0) = 800 Hz, G3)', () => {
+    const locked = simulate(ultrasonicSinglePoleSpec, { kind: 'tone', offsetHz: 0, durationS: 0.01 }, { mode: 'float' });
+    const tr = locked.float!.traces.lockIndicator;
+    expect(tr.min.at(-1)!).toBeGreaterThan(0.9);
+    const unlocked = simulate(ultrasonicSinglePoleSpec, { kind: 'tone', offsetHz: 3000, durationS: 0.01 }, { mode: 'float' });
+    const u = unlocked.float!.traces.lockIndicator;
+    const mid = Array.from(u.max.slice(500)).reduce((a, b) => a + b, 0) / 500;
+    expect(Math.abs(mid)).toBeLessThan(0.5);
+    expect(unlocked.float!.metrics.locked).toBe(false);
+    expect(unlocked.float!.metrics.cycleSlips).toBeGreaterThan(10);
+  });
+});
