@@ -40,3 +40,4 @@ export { goldenVectors, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from './v
 export { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from './vectors/vectorsCsv.ts';
 export { measureAcquisition, cascadeDcGain } from './analysis/acquisitionSim.ts';
 export { wordLengthSearch } from './wordlength/wordLengthSearch.ts';
+export { compareVectors } from './vectors/compareVectors.ts';

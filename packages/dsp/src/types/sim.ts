@@ -175,3 +175,4 @@ export interface AcquisitionOptions {
   readonly onProgress?: (fraction: number) => void;
   readonly signal?: AbortFlag;
 }
+export type { VectorComparison, VectorMismatch } from '../vectors/compareVectors.ts';
