@@ -192,3 +192,20 @@ describe('simulate: lock indicator', () => {
     expect(unlocked.float!.metrics.cycleSlips).toBeGreaterThan(10);
   });
 });
+
+describe('simulate: lock time', () => {
+  it('matches the decay envelope of a second-order type-2 loop after a phase step (G3 Ch. 2, Og5)', () => {
+    // Phase-error response to a step Δθ: Δθ·e^(−ζωn t)·(cos ωd t − ζ/√(1−ζ²)·sin ωd t); its envelope
+    // Δθ·e^(−ζωn t)/√(1−ζ²) falls below the tolerance at t = ln(Δθ/(tol·√(1−ζ²)))/(ζωn).
+    const spec: LoopSpec = { ...mainsSyncSpec, rippleFilter: null };
+    const zeta = 0.707;
+    const wn = 2 * Math.PI * 5;
+    const stepRad = (40 * Math.PI) / 180;
+    const tol = 0.1;
+    const expectedS = Math.log(stepRad / (tol * Math.sqrt(1 - zeta * zeta))) / (zeta * wn);
+    const r = simulate(spec, { kind: 'phase-step', stepDeg: 40, atS: 0.5, durationS: 2 }, { mode: 'float', lockToleranceRad: tol });
+    // Slack: the boxcar over one 2·centerHz period (10 ms) delays the smoothed error by ~5 ms, plus one
+    // lock bucket (2 s / 4096).
+    expect(Math.abs(r.float!.metrics.lockTimeS! - 0.5 - expectedS)).toBeLessThan(0.012);
+  });
+});
