@@ -80,23 +80,37 @@ export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
   return Array.isArray(filter);
 }
 
+/**
+ * A response that stays finite: exactly on a pole (a quantised pole can land on the unit circle at a
+ * grid frequency) the value is taken a relative 1e-9 beside it, where it is huge but finite and its
+ * phase is meaningful.
+ */
+function finite(fn: ResponseFn): ResponseFn {
+  return (f) => {
+    const h = fn(f);
+    if (Number.isFinite(h.re) && Number.isFinite(h.im)) return h;
+    const g = fn(f * (1 - 1e-9));
+    return Number.isFinite(g.re) && Number.isFinite(g.im) ? g : { re: 1e300, im: 0 };
+  };
+}
+
 /** Analog open loop K·F(jω)/(jω) with K = Kd·Ko. */
 export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): ResponseFn {
-  return (f) => {
+  return finite((f) => {
     const w = 2 * Math.PI * f;
     const h = cscale(analogResponse(sections, f), kRadPerS / w);
     return { re: h.im, im: -h.re }; // divide by j
-  };
+  });
 }
 
 /** Discrete open loop K·T·F(z)/(z − 1), K = Kd·Ko, T = 1/fs. */
 export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sampleRateHz: number): ResponseFn {
   const kt = kRadPerS / sampleRateHz;
-  return (f) => {
+  return finite((f) => {
     const z = cexpj((2 * Math.PI * f) / sampleRateHz);
     const nco = cdiv({ re: kt, im: 0 }, { re: z.re - 1, im: z.im });
     return cmul(nco, digitalResponse(filter, f, sampleRateHz));
-  };
+  });
 }
 
 /** H = L/(1 + L) from an open-loop value. */
@@ -120,11 +134,13 @@ export function errorTransfer(open: ResponseFn): ResponseFn {
   };
 }
 
-/** Floor of toDb: an exact zero (or an underflow) never yields −Infinity in a result. */
+/** Floor and ceiling of toDb: an exact zero or a pole never yields ±Infinity (or NaN) in a result. */
 export const DB_FLOOR = -3000;
+export const DB_CEILING = 3000;
 
-/** 20·log10|h| in dB, at least DB_FLOOR. */
+/** 20·log10|h| in dB, within [DB_FLOOR, DB_CEILING]. */
 export function toDb(h: Complex): number {
   const m = Math.hypot(h.re, h.im);
-  return m > 0 ? Math.max(20 * Math.log10(m), DB_FLOOR) : DB_FLOOR;
+  if (!(m > 0)) return DB_FLOOR; // zero, or NaN from 0/0
+  return Math.min(Math.max(20 * Math.log10(m), DB_FLOOR), DB_CEILING);
 }

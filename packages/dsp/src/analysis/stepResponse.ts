@@ -12,6 +12,8 @@ import { runFilter } from './filterRun.ts';
 
 export const MAX_SAMPLES = 20_000;
 export const PLOT_POINTS = 400;
+/** Phase errors beyond this (rad) end the traces of an unstable loop (flagged `diverged`). */
+export const DIVERGED_RAD = 1e6;
 
 export function stepResponses(
   discreteE: DigitalTf,
@@ -33,12 +35,17 @@ export function stepResponses(
   const frequencyStepErrorRad: number[] = [];
   const timeS: number[] = [];
   let acc = 0;
+  let diverged = false;
   for (let i = 0; i < n; i++) {
     acc += phase[i]! * 2 * Math.PI * t;
+    if (!(Math.abs(acc) < DIVERGED_RAD && Math.abs(phase[i]!) < DIVERGED_RAD)) {
+      diverged = true; // an unstable loop: the linear model means nothing past here
+      break;
+    }
     if (i % stride !== 0) continue;
     timeS.push(i * t);
     phaseStepErrorRad.push(phase[i]!);
     frequencyStepErrorRad.push(acc - phase[i]! * 2 * Math.PI * t);
   }
-  return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad };
+  return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
 }

@@ -47,4 +47,6 @@ export interface StepResponses {
   readonly phaseStepErrorRad: readonly number[];
   /** Phase error after a 1 Hz frequency step at t = 0. */
   readonly frequencyStepErrorRad: readonly number[];
+  /** True when the traces were cut short because the (unstable) loop's error grew past 1e6 rad. */
+  readonly diverged: boolean;
 }

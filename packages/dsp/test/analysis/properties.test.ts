@@ -64,6 +64,54 @@ describe('analyzeDesign over random valid specs', () => {
   });
 });
 
+describe('tryAnalyzeDesign over the whole valid range', () => {
+  const lu = (lo: number, hi: number) => fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((e) => 10 ** e);
+  const wideSpec = fc
+    .record({
+      fs: lu(1, 1e11),
+      amplitude: lu(1e-6, 1),
+      center: lu(1e-6, 0.49),
+      gain: lu(1e-6, 1e10),
+      kind: fc.constantFrom('single-pole', 'lag-lead', 'pi', 'butterworth'),
+      corner: lu(1e-6, 0.49),
+      damping: lu(0.01, 10),
+      order: fc.integer({ min: 1, max: 4 }),
+      ripple: fc.option(lu(1e-6, 0.49)),
+      prewarp: fc.option(lu(1e-6, 0.49)),
+      coefficientBits: fc.integer({ min: 2, max: 32 }),
+    })
+    .map((p) => ({
+      ...mainsSyncSpec,
+      clockHz: p.fs,
+      sampleRateHz: p.fs,
+      centerHz: p.center * p.fs,
+      input: { amplitude: p.amplitude },
+      nco: { ...mainsSyncSpec.nco, gainHzPerUnit: p.gain },
+      filter:
+        p.kind === 'single-pole'
+          ? { kind: p.kind, cutoffHz: p.corner * p.fs }
+          : p.kind === 'butterworth'
+            ? { kind: p.kind, order: p.order, cutoffHz: p.corner * p.fs }
+            : { kind: p.kind, naturalHz: p.corner * p.fs, damping: p.damping },
+      rippleFilter: p.ripple === null ? null : { order: p.order, cutoffHz: p.ripple * p.fs },
+      discretization: { method: 'bilinear', prewarpHz: p.prewarp === null ? null : p.prewarp * p.fs },
+      fixedPoint: { ...mainsSyncSpec.fixedPoint, coefficientBits: p.coefficientBits, accumulatorBits: 64 },
+    }));
+
+  it('never throws and never yields NaN or ±Infinity, for unstable, degenerate and extreme loops too', () => {
+    // Extremes on purpose: 2-bit coefficients (poles quantised onto the unit circle), loop gains far
+    // above the loop rate (unstable, diverging step responses), corners a millionth of the rate.
+    fc.assert(
+      fc.property(wideSpec, (spec) => {
+        const r = tryAnalyzeDesign(spec);
+        if (r.ok) expect(nonFinitePaths(r.result)).toEqual([]);
+        else expect(r.issues.length).toBeGreaterThan(0);
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
+
 describe('invalid input', () => {
   it('parseLoopSpec and tryAnalyzeDesign never throw on arbitrary values', () => {
     fc.assert(
