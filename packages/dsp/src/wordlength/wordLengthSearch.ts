@@ -82,6 +82,8 @@ export interface WordLengthResult {
     readonly floatReference: { readonly steadyStatePhaseErrorDeg: number; readonly phaseJitterDeg: number; readonly locked: boolean };
     readonly note: string | null;
   } | null;
+  /** Why `data` is null although the data search was asked for. */
+  readonly dataNote: string | null;
 }
 
 /** Run the search for a validated spec. */
@@ -98,12 +100,13 @@ export function wordLengthSearch(spec: LoopSpec, options: WordLengthOptions = {}
   const coefficients = searchCoefficients(spec, sections, ref.phaseMarginDeg, { pmTol, dbTol, points, options }, (f) =>
     progress?.(f * coefficientShare, 'coefficients'),
   );
-  const data = wantData ? searchData(spec, sections, errTol, options, (f) => progress?.(coefficientShare + f * (1 - coefficientShare), 'data')) : null;
+  const dataSearch = wantData ? searchDataSafely(spec, sections, errTol, options, (f) => progress?.(coefficientShare + f * (1 - coefficientShare), 'data')) : { data: null, note: null };
   return {
     reference: { phaseMarginDeg: ref.phaseMarginDeg, gainMarginDb: ref.gainMarginDb, crossoverHz: ref.crossoverHz },
     tolerances: { phaseMarginDeg: pmTol, responseDb: dbTol, phaseErrorDeg: errTol },
     coefficients,
-    data,
+    data: dataSearch.data,
+    dataNote: dataSearch.note,
   };
 }
 
@@ -192,6 +195,16 @@ function dataScenario(spec: LoopSpec, crossoverHz: number, maxSamples: number): 
   const wantS = 20 / crossoverHz;
   const maxS = maxSamples / spec.sampleRateHz;
   return { scenario: { kind: 'tone', offsetHz, durationS: Math.min(wantS, maxS), seed: 1 }, cut: wantS > maxS };
+}
+
+/** The data search, or no data search with the reason when the spec cannot be simulated bit-true. */
+function searchDataSafely(...args: Parameters<typeof searchData>): { data: WordLengthResult['data']; note: string | null } {
+  try {
+    return { data: searchData(...args), note: null };
+  } catch (err) {
+    if (err instanceof FieldError) return { data: null, note: `data width not searched: ${err.message}` };
+    throw err;
+  }
 }
 
 function searchData(

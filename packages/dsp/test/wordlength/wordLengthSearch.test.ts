@@ -93,3 +93,21 @@ describe('data width search (bit-true simulation against float)', () => {
     expect(r.data!.floatReference.steadyStatePhaseErrorDeg).toBeCloseTo(expectedDeg, 1);
   });
 });
+
+describe('word-length search over random valid specs', () => {
+  it('never throws and returns finite figures (fast-check)', async () => {
+    const fc = (await import('fast-check')).default;
+    const { mulberry32, randomLoopSpec } = await import('../reference/random.ts');
+    const finite = (x: unknown): boolean =>
+      typeof x === 'number' ? Number.isFinite(x) : Array.isArray(x) ? x.every(finite) : x && typeof x === 'object' ? Object.values(x).every(finite) : true;
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 2 ** 31 - 1 }), (seed) => {
+        const spec = randomLoopSpec(mulberry32(seed), 0);
+        const r = wordLengthSearch(spec, { minCoefficientBits: 8, maxCoefficientBits: 20, minDataBits: 10, maxDataBits: 14, maxSamplesPerRun: 20_000 });
+        expect(finite(r)).toBe(true);
+        expect(r.coefficients.curve).toHaveLength(13);
+      }),
+      { numRuns: 15 },
+    );
+  });
+});
