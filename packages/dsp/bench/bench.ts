@@ -20,6 +20,7 @@ import { planBitTrue } from '../src/sim/bitTruePlan.ts';
 import { allocInputChunk, inputGenerator } from '../src/sim/inputSignal.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk } from '../src/sim/bitTrueKernel.ts';
 import { simulate, CHUNK_SAMPLES } from '../src/sim/simulate.ts';
+import { measureAcquisition } from '../src/analysis/acquisitionSim.ts';
 import * as dsp from '../src/index.ts';
 import { formatCParams } from './cParams.ts';
 
@@ -95,6 +96,14 @@ function simulateSamplesPerS(mode: 'float' | 'bit-true'): number {
   return r.sampleCount / ((performance.now() - t0) / 1000);
 }
 
+/** Mean time of measureAcquisition over the example specs (after one warm-up pass). */
+function measureAcquisitionMs(): number {
+  for (const e of exampleSpecs) measureAcquisition(e.spec);
+  const t0 = performance.now();
+  for (const e of exampleSpecs) measureAcquisition(e.spec);
+  return (performance.now() - t0) / exampleSpecs.length;
+}
+
 export async function runDspBench(): Promise<Record<string, unknown>> {
   const spec = mainsSyncSpec;
   const sections = designLoopFilter(spec).sections;
@@ -132,6 +141,7 @@ export async function runDspBench(): Promise<Record<string, unknown>> {
     simulateFloatSamplesPerS: Math.round(simulateSamplesPerS('float')),
     simulateBitTrueSamplesPerS: Math.round(simulateSamplesPerS('bit-true')),
     analyzeDesignMs: analyzeDesignMs(),
+    measureAcquisitionMs: measureAcquisitionMs(),
   };
 }
 

@@ -117,7 +117,7 @@ function trial(ctx: Context, scenario: Scenario, samples: number, stopOnSlip: bo
 }
 
 /** Bisection for the largest offset in [0, limit] that passes; `pass` must be monotone (true below). */
-function bisect(ctx: Context, limitHz: number, steps: number, pass: (hz: number) => boolean, definition: string): AcquisitionMeasurement {
+function bisect(limitHz: number, steps: number, pass: (hz: number) => boolean, definition: string): AcquisitionMeasurement {
   let lo = 0;
   let hi = limitHz;
   try {
@@ -138,72 +138,109 @@ function bisect(ctx: Context, limitHz: number, steps: number, pass: (hz: number)
   return { valueHz: lo === 0 ? null : (lo + hi) / 2, atSearchLimit: false, passHz: lo, failHz: hi, definition };
 }
 
+/** What every figure's search shares: the limits and the loop's time scale. */
+interface Search {
+  readonly limitHz: number;
+  readonly steps: number;
+  readonly phasesDeg: readonly number[];
+  readonly fs: number;
+  /** ζωn-based run length (s) and the characteristic rate ωn (rad/s) with damping ζ. */
+  readonly settleS: number;
+  readonly wn: number;
+  readonly zeta: number;
+}
+
+function runSamples(q: Search, seconds: number): number {
+  return Math.max(MIN_RUN_SAMPLES, Math.min(MAX_RUN_SAMPLES, Math.ceil(seconds * q.fs)));
+}
+
+function lockIn(ctx: Context, q: Search): AcquisitionMeasurement {
+  const n = runSamples(q, q.settleS);
+  return bisect(q.limitHz, q.steps, (hz) => q.phasesDeg.every((p) => {
+    const t = trial(ctx, { kind: 'tone', offsetHz: hz, initialPhaseDeg: p, durationS: n / q.fs }, n, true);
+    return !t.slipped && t.lockedAtEnd;
+  }), `largest offset that locks from rest without a cycle slip for initial phases ${q.phasesDeg.join(', ')}°`);
+}
+
+function pullOut(ctx: Context, q: Search): AcquisitionMeasurement {
+  const atS = 10 / q.fs;
+  const n = runSamples(q, q.settleS + atS);
+  return bisect(q.limitHz, q.steps, (hz) => !trial(ctx, { kind: 'frequency-step', stepHz: hz, atS, durationS: n / q.fs }, n, true).slipped,
+    'largest frequency step on a locked loop that causes no cycle slip');
+}
+
+/**
+ * Ramp slowly from centre to the offset, then hold it. The ramp rate is 2 % of ωn² (rad/s²), so its
+ * own phase error (dΔω/dt)/ωn² (G3) is about 0.02 rad; the hold shows whether an equilibrium exists
+ * there. Lock is lost when the error passes the detector's unstable equilibrium (π).
+ */
+function holdIn(ctx: Context, q: Search): AcquisitionMeasurement {
+  const rampHzPerS = (0.02 * q.wn * q.wn) / TWO_PI;
+  return bisect(q.limitHz, q.steps, (hz) => {
+    const rampS = hz / rampHzPerS;
+    const n = Math.min(MAX_RUN_SAMPLES * 4, runSamples(q, q.settleS) + Math.ceil(rampS * q.fs));
+    const t = trial(ctx, { kind: 'tone', offsetHz: hz, durationS: n / q.fs }, n, true, HOLD_LOSS_RAD, (tS) => hz * Math.min(1, tS / rampS));
+    return !t.slipped && t.lockedAtEnd;
+  }, 'largest offset a locked loop holds: a slow ramp from centre to the offset, then a hold, without the phase error passing π');
+}
+
+/** Run length: the settle time plus three pull-in times Δω²/(2ζωn³) (G3) for the offset tried. */
+function pullIn(ctx: Context, q: Search): AcquisitionMeasurement {
+  const pullTimeS = (hz: number) => (TWO_PI * hz) ** 2 / (2 * q.zeta * q.wn ** 3);
+  return bisect(q.limitHz, q.steps, (hz) => {
+    const n = runSamples(q, q.settleS + 3 * pullTimeS(hz));
+    return trial(ctx, { kind: 'tone', offsetHz: hz, initialPhaseDeg: 0, durationS: n / q.fs }, n, false).lockedAtEnd;
+  }, 'largest offset from which the loop, started at rest, ends locked (cycle slips allowed) within the run');
+}
+
 /**
  * Measure the acquisition figures of a spec's loop by simulation (float, nonlinear, no noise).
  * Bounded by options.maxSamples; reports progress per figure and honours options.signal.
  */
 export function measureAcquisition(spec: LoopSpec, options: AcquisitionOptions = {}): AcquisitionSimResult {
   const design = designLoopFilter(spec);
-  const cfg: FloatLoopConfig = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections: design.sections };
+  const cfg: FloatLoopConfig = {
+    sampleRateHz: spec.sampleRateHz,
+    centerHz: spec.centerHz,
+    gainHzPerUnit: spec.nco.gainHzPerUnit,
+    waveform: spec.nco.waveform,
+    sections: design.sections,
+  };
   const ctx: Context = { spec, cfg, options, budget: options.maxSamples ?? 2_000_000, used: 0, runs: 0, exhausted: false };
   const k = loopGain(spec).kRadPerS;
   const dc = cascadeDcGain(design.sections);
   const zeta = design.damping ?? 0.7;
-  // Characteristic rate: ζωn for second-order loops, else the type-1 loop's K·F(0) (its crossover).
+  // Characteristic rate: ωn for second-order loops, else the type-1 loop's K·F(0) (its crossover).
   const wn = design.naturalHz !== undefined ? TWO_PI * design.naturalHz : k * Math.abs(dc ?? 1);
-  // Long enough that an offset 1 % past a saddle-node (the hold-in edge) visibly drifts in the tail.
-  const settleS = 60 / (zeta * wn);
-  const fs = spec.sampleRateHz;
-  const runSamples = (s: number) => Math.max(MIN_RUN_SAMPLES, Math.min(MAX_RUN_SAMPLES, Math.ceil(s * fs)));
   const notes: string[] = [];
   // Type 1: hold-in is K·F(0); search a little beyond it. Type 2: the bit-true control word saturates at
   // ±1 unit, so the firmware cannot pull the NCO beyond ±gainHzPerUnit: that is the search limit.
   const limitHz = dc === null ? spec.nco.gainHzPerUnit : Math.min(spec.nco.gainHzPerUnit, (1.5 * k * Math.abs(dc)) / TWO_PI);
   if (dc === null) notes.push('type-2 loop: hold-in and pull-in of the ideal float loop are unbounded; the search stops at ±gainHzPerUnit, the bit-true control range');
-  const steps = options.bisectionSteps ?? 7;
-  const phases = options.initialPhasesDeg ?? DEFAULT_PHASES_DEG;
-  const progress = (f: number) => options.onProgress?.(f);
-
-  const lockIn = bisect(ctx, limitHz, steps, (hz) => phases.every((p) => {
-    const t = trial(ctx, { kind: 'tone', offsetHz: hz, initialPhaseDeg: p, durationS: runSamples(settleS) / fs }, runSamples(settleS), true);
-    return !t.slipped && t.lockedAtEnd;
-  }), `largest offset that locks from rest without a cycle slip for initial phases ${phases.join(', ')}°`);
-  progress(0.25);
-
-  const stepAtS = 10 / fs;
-  const pullOut = bisect(ctx, limitHz, steps, (hz) => {
-    const n = runSamples(settleS + stepAtS);
-    return !trial(ctx, { kind: 'frequency-step', stepHz: hz, atS: stepAtS, durationS: n / fs }, n, true).slipped;
-  }, 'largest frequency step on a locked loop that causes no cycle slip');
-  progress(0.5);
-
-  // Hold-in: ramp slowly from centre to the offset, then hold it. The ramp rate is 2 % of ωn² (rad/s²)
-  // so its own phase error (dΔω/dt)/ωn² (G3) is about 0.02 rad; the hold shows whether an equilibrium
-  // exists at that offset. Lock is lost when the error passes the detector's unstable equilibrium (π).
-  const rampHzPerS = (0.02 * wn * wn) / TWO_PI;
-  const holdIn = bisect(ctx, limitHz, steps, (hz) => {
-    const rampS = hz / rampHzPerS;
-    const n = Math.min(MAX_RUN_SAMPLES * 4, runSamples(settleS) + Math.ceil(rampS * fs));
-    const t = trial(ctx, { kind: 'tone', offsetHz: hz, durationS: n / fs }, n, true, HOLD_LOSS_RAD, (tS) => hz * Math.min(1, tS / rampS));
-    return !t.slipped && t.lockedAtEnd;
-  }, 'largest offset a locked loop holds: a slow ramp from centre to the offset, then a hold, without the phase error passing π');
-  progress(0.75);
-
-  const pullTime = (hz: number) => ((TWO_PI * hz) ** 2) / (2 * zeta * wn ** 3);
-  const pullIn = bisect(ctx, limitHz, steps, (hz) => {
-    const n = runSamples(settleS + 3 * pullTime(hz));
-    return trial(ctx, { kind: 'tone', offsetHz: hz, initialPhaseDeg: 0, durationS: n / fs }, n, false).lockedAtEnd;
-  }, 'largest offset from which the loop, started at rest, ends locked (cycle slips allowed) within the run');
-  progress(1);
+  const search: Search = {
+    limitHz,
+    steps: options.bisectionSteps ?? 7,
+    phasesDeg: options.initialPhasesDeg ?? DEFAULT_PHASES_DEG,
+    fs: spec.sampleRateHz,
+    // Long enough that an offset 1 % past a saddle-node (the hold-in edge) visibly drifts in the tail.
+    settleS: 60 / (zeta * wn),
+    wn,
+    zeta,
+  };
+  const figures = [lockIn, pullOut, holdIn, pullIn].map((measure, i) => {
+    const m = measure(ctx, search);
+    options.onProgress?.((i + 1) / 4);
+    return m;
+  }) as [AcquisitionMeasurement, AcquisitionMeasurement, AcquisitionMeasurement, AcquisitionMeasurement];
   if (ctx.exhausted) notes.push('sample budget exhausted: later bisections stopped early (wider brackets)');
   return {
     label: 'simulated',
-    lockInHz: lockIn,
-    pullOutHz: pullOut,
-    holdInHz: holdIn,
-    pullInHz: pullIn,
+    lockInHz: figures[0],
+    pullOutHz: figures[1],
+    holdInHz: figures[2],
+    pullInHz: figures[3],
     searchLimitHz: limitHz,
-    initialPhasesDeg: phases,
+    initialPhasesDeg: search.phasesDeg,
     runs: ctx.runs,
     samplesSimulated: ctx.used,
     budgetExhausted: ctx.exhausted,
