@@ -1,22 +1,26 @@
 /**
  * API benchmark (not a timed test): authenticated reads of the project list at 50 concurrent
  * connections against a real MariaDB, and the same while simulations run in the worker pool.
- * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-api, seeds the demo scenario,
- * listens on a free loopback port and drives it with autocannon in this process.
+ * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-api, seeds the demo scenario, runs
+ * the real server (src/server.ts) as a child process on a free loopback port — as it runs in
+ * production, and so the load generator does not share its event loop — and drives it with autocannon
+ * in this process.
  */
+import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs/promises';
-import type { AddressInfo } from 'node:net';
+import os from 'node:os';
 import path from 'node:path';
 import autocannon from 'autocannon';
 import { mainsSyncSpec } from '@loopwright/dsp';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
-import { createApp } from '../src/app.ts';
+import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { loadConfig } from '../src/config.ts';
 import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../src/contract.ts';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
 import { DEMO_PASSWORD, seedDemo } from '../src/seed.ts';
 
 const ROOT = path.resolve(import.meta.dirname, '../../..');
+const API_DIR = path.resolve(import.meta.dirname, '..');
 const CONNECTIONS = 50;
 const DURATION_S = 10;
 /** The issue's targets on 2 cores. */
@@ -41,11 +45,39 @@ async function signIn(baseUrl: string, email: string): Promise<string> {
   return cookie.split(';')[0] ?? '';
 }
 
+async function waitForHealth(baseUrl: string, server: ChildProcess): Promise<void> {
+  const deadline = Date.now() + 60_000;
+  while (Date.now() < deadline) {
+    if (server.exitCode !== null) throw new Error(`the API server exited during start-up (code ${server.exitCode})`);
+    try {
+      if ((await fetch(`${baseUrl}/api/health`)).ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+  throw new Error('the API server did not become healthy within 60 s');
+}
+
+function stopServer(server: ChildProcess): Promise<void> {
+  if (server.exitCode !== null || server.pid === undefined) return Promise.resolve();
+  return new Promise((resolve) => {
+    const timer = setTimeout(() => server.kill('SIGKILL'), 5000);
+    server.once('exit', () => {
+      clearTimeout(timer);
+      resolve();
+    });
+    server.kill('SIGTERM');
+  });
+}
+
 export async function runApiBench(): Promise<object> {
   const dataDir = path.join(ROOT, '.data', 'bench-api');
   const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_bench', user: 'loopwright', password: 'bench-only-password' });
-  const config = loadConfig({
+  const port = await findFreePort();
+  const env: Record<string, string> = {
     NODE_ENV: 'production',
+    PORT: String(port),
     LW_SESSION_SECRET: 'benchmark-session-secret-of-at-least-32-chars',
     LW_DB_HOST: db.host,
     LW_DB_PORT: String(db.port),
@@ -53,21 +85,26 @@ export async function runApiBench(): Promise<object> {
     LW_DB_PASSWORD: db.password,
     LW_DB_NAME: db.database,
     LW_BCRYPT_ROUNDS: '10',
-  });
+    LW_APP_DIST: path.join(dataDir, 'no-app'),
+  };
+  const config = loadConfig(env);
   const dataSource = createDataSource(config.db);
   await dataSource.initialize();
-  const built = createApp({ config, dataSource });
-  const server = built.app.listen(0, '127.0.0.1');
+  let server: ChildProcess | undefined;
   try {
     await runMigrations(dataSource);
     await seedDemo(dataSource, config.bcryptRounds);
-    await new Promise<void>((resolve) => (server.listening ? resolve() : server.once('listening', () => resolve())));
-    const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+    await dataSource.destroy();
+    server = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], { cwd: API_DIR, env: { ...process.env, ...env }, stdio: ['ignore', 'ignore', 'inherit'] });
+    const baseUrl = `http://127.0.0.1:${port}`;
+    await waitForHealth(baseUrl, server);
     const cookie = await signIn(baseUrl, 'designer@example.test');
     const headers = { Cookie: cookie };
 
     // Warm-up: connection pools, JIT.
     await run({ url: `${baseUrl}/api/projects`, connections: 10, duration: 2, headers });
+    // Other work on the machine skews the figures; report how busy it was.
+    const loadAverage1m = os.loadavg()[0];
     const list = await run({ url: `${baseUrl}/api/projects`, connections: CONNECTIONS, duration: DURATION_S, headers });
 
     // The same read while a stream of simulations keeps the worker pool busy.
@@ -108,12 +145,12 @@ export async function runApiBench(): Promise<object> {
         simulationSamplesEach: 20 * mainsSyncSpec.sampleRateHz,
       },
       computeThreads: config.compute.threads,
+      loadAverage1mBefore: Math.round((loadAverage1m ?? 0) * 100) / 100,
+      cores: os.availableParallelism(),
     };
   } finally {
-    await new Promise<void>((resolve) => server.close(() => resolve()));
-    server.closeAllConnections();
-    await built.close();
-    await dataSource.destroy();
+    if (server) await stopServer(server);
+    if (dataSource.isInitialized) await dataSource.destroy();
     await db.stop();
     await fs.rm(dataDir, { recursive: true, force: true });
   }

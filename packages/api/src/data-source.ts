@@ -36,6 +36,8 @@ export function createDataSource(db: Config['db']): DataSource {
       waitForConnections: true,
       queueLimit: 500,
       enableKeepAlive: true,
+      // No captured call-site stack per query: it costs an Error per query and never reaches a client.
+      trace: false,
     },
   });
 }

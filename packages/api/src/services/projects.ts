@@ -43,11 +43,19 @@ export class ProjectService {
       .from(Project, 'p');
   }
 
+  /**
+   * The hottest read of the API (every Projects screen), so plain SQL on a composite index rather than
+   * the query builder: the builder's per-call work halved the benchmark's throughput.
+   */
   async list(organizationId: number, query: ProjectListQuery): Promise<ProjectRecord[]> {
-    const qb = this.selectRecords().where('p.organizationId = :organizationId', { organizationId }).orderBy('p.name', 'ASC').addOrderBy('p.id', 'ASC');
-    if (query.archived === 'false') qb.andWhere('p.archivedAt IS NULL');
-    if (query.archived === 'true') qb.andWhere('p.archivedAt IS NOT NULL');
-    return (await qb.getRawMany<ProjectRow>()).map(toRecord);
+    const archivedFilter = { false: ' AND p.archivedAt IS NULL', true: ' AND p.archivedAt IS NOT NULL', all: '' }[query.archived];
+    const rows: ProjectRow[] = await this.dataSource.query(
+      'SELECT p.id, p.name, p.description, p.archivedAt, p.createdAt, p.updatedAt, ' +
+        '(SELECT COUNT(*) FROM designs d WHERE d.projectId = p.id) AS designCount ' +
+        `FROM projects p WHERE p.organizationId = ?${archivedFilter} ORDER BY p.name, p.id`,
+      [organizationId],
+    );
+    return rows.map(toRecord);
   }
 
   async get(organizationId: number, id: number): Promise<ProjectRecord> {
