@@ -27,7 +27,7 @@ export { secondOrderNoiseBandwidthHz, highGainNoiseBandwidthHz, numericNoiseBand
 export { secondOrderParameters, phaseMarginFromDampingDeg } from './analysis/secondOrder.ts';
 export { acquisitionEstimates, pullInTimeS } from './analysis/estimates.ts';
 export { steadyStateErrors, frequencyStepErrorRad } from './analysis/steadyState.ts';
-export { routhHurwitzStable, discreteLoopStable } from './analysis/stability.ts';
+export { routhHurwitzStable, discreteLoopStable, schurCohnStable } from './analysis/stability.ts';
 export { analyzeDesign, tryAnalyzeDesign, LoopSpecError } from './analysis/analyzeDesign.ts';
 export { quantizeFilter } from './fixed/quantizeFilter.ts';
 export { scenarioSchema, parseScenario } from './spec/scenario.ts';
@@ -41,3 +41,4 @@ export { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from './vectors/ve
 export { measureAcquisition, cascadeDcGain } from './analysis/acquisitionSim.ts';
 export { wordLengthSearch } from './wordlength/wordLengthSearch.ts';
 export { compareVectors } from './vectors/compareVectors.ts';
+export { simResultToJson } from './sim/simResultJson.ts';

@@ -176,3 +176,4 @@ export interface AcquisitionOptions {
   readonly signal?: AbortFlag;
 }
 export type { VectorComparison, VectorMismatch } from '../vectors/compareVectors.ts';
+export type { JsonSimResult, JsonSimRun, JsonTrace } from '../sim/simResultJson.ts';
