@@ -12,7 +12,8 @@ import { logGrid } from './grid.ts';
 import { type SampledResponse, sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
 import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
-import { discreteLoopStable } from './stability.ts';
+import { discreteLoopStable, schurCohnStable } from './stability.ts';
+import { discreteClosedLoop } from './loopPolynomials.ts';
 
 export interface DiscreteLoopOptions {
   /** Lowest grid frequency (Hz); default 1e-7·fs/2. The grid always ends exactly at fs/2. */
@@ -72,15 +73,17 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
   const grid = logGrid(fMin, nyquistHz, options.points ?? DEFAULT_POINTS);
   const open = sampleResponse(fn, grid, loopType);
   const margins = loopMargins(fn, open);
-  const stable = discreteLoopStable(isSections(filter) ? filter : [tfAsSection(tf)], k, fs);
+  // Sections (or a b/a of order ≤ 2) get the section-wise test; a high-order b/a only the b/a test.
+  const stable = isSections(filter)
+    ? discreteLoopStable(filter, k, fs)
+    : tf.a.length <= 3 && tf.b.length <= 3
+      ? discreteLoopStable([tfAsSection(tf)], k, fs)
+      : schurCohnStable(discreteClosedLoop(tf, k, fs).h.a);
   const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid, open.values.map(closedFromOpen));
   return { margins, stable, closedLoop: cl, open, loopType, response: fn };
 }
 
-/** A b/a of order ≤ 2 as one section; higher orders must be given as sections for the stability test. */
+/** A b/a of order ≤ 2 as one section. */
 function tfAsSection(tf: DigitalTf): Sos {
-  if (tf.a.length > 3 || tf.b.length > 3) {
-    throw new RangeError('discreteLoopMargins: give a filter of order > 2 as second-order sections (b/a loses the poles near z = 1)');
-  }
   return { b: [tf.b[0] ?? 0, tf.b[1] ?? 0, tf.b[2] ?? 0], a: [tf.a[0] ?? 1, tf.a[1] ?? 0, tf.a[2] ?? 0] };
 }

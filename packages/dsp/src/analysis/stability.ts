@@ -79,3 +79,24 @@ function trimLeading(p: readonly number[]): number[] {
   while (i < p.length - 1 && p[i] === 0) i++;
   return p.slice(i);
 }
+
+/**
+ * Schur–Cohn test by the Levinson step-down recursion (PM4 Sec. 3.6.7 (memory)): every root of the
+ * ascending z⁻¹ polynomial a lies strictly inside |z| = 1 iff every reflection coefficient has |k| < 1.
+ * Only for a b/a given as such; unreliable when roots crowd z = 1 (see above) — prefer sections.
+ */
+export function schurCohnStable(a: readonly number[]): boolean {
+  let n = a.length;
+  while (n > 1 && a[n - 1] === 0) n--;
+  let p = a.slice(0, n).map((x) => x / a[0]!);
+  while (p.length > 1) {
+    const m = p.length - 1;
+    const k = p[m]!;
+    if (!(Math.abs(k) < 1)) return false;
+    const d = 1 - k * k;
+    const next = new Array<number>(m);
+    for (let i = 0; i < m; i++) next[i] = (p[i]! - k * p[m - i]!) / d;
+    p = next;
+  }
+  return true;
+}
