@@ -17,8 +17,15 @@ const handoffEnvSchema = z.object({
   LW_PUBLIC_URL: z.url().default('http://127.0.0.1:8080').transform((u) => u.replace(/\/+$/, '')),
   LW_REVIEW_LINK_TTL_S: int(60, 90 * 24 * 3600).default(7 * 24 * 3600),
   /** Outbox retry timer period; 0 disables the timer (tests call the retry function themselves). */
-  LW_OUTBOX_INTERVAL_MS: int(0, 3_600_000).default(30_000),
+  LW_OUTBOX_INTERVAL_MS: int(0, 3_600_000).optional(),
+  NODE_ENV: z.string().optional(),
 });
+
+/**
+ * 30 s, except under NODE_ENV=test: test files share one database, and a timer in one test process
+ * would send (or fail) the mail another test is watching.
+ */
+const defaultOutboxIntervalMs = (nodeEnv: string | undefined) => (nodeEnv === 'test' ? 0 : 30_000);
 
 export interface HandoffConfig {
   readonly smtp: { readonly host: string; readonly port: number; readonly ignoreTls: boolean; readonly timeoutMs: number };
@@ -40,6 +47,6 @@ export function loadHandoffConfig(source: NodeJS.ProcessEnv = process.env): Hand
     mailFrom: env.LW_MAIL_FROM,
     publicUrl: env.LW_PUBLIC_URL,
     reviewLinkTtlS: env.LW_REVIEW_LINK_TTL_S,
-    outboxIntervalMs: env.LW_OUTBOX_INTERVAL_MS,
+    outboxIntervalMs: env.LW_OUTBOX_INTERVAL_MS ?? defaultOutboxIntervalMs(env.NODE_ENV),
   };
 }
