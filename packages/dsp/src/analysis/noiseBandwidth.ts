@@ -4,7 +4,10 @@
  * (standard integral table, e.g. G3 Ch. 2 (memory)). The high-gain expression (ωn/2)(ζ + 1/(4ζ)) holds
  * for the PI loop only: for a single-pole loop the exact value is K/4 (REFERENCES.md).
  */
-import type { ResponseFn } from './response.ts';
+import type { LoopSpec } from '../spec/schema.ts';
+import type { LoopFilterDesign } from '../design.ts';
+import { type ResponseFn, analogLoopResponse, closedLoop, discreteLoopResponse } from './response.ts';
+import { analogClosedLoop } from './loopPolynomials.ts';
 
 /** Simpson intervals in ln f; ample for the smooth, low-Q responses of a loop (checked against quad). */
 export const DEFAULT_INTERVALS = 1200;
@@ -54,3 +57,46 @@ export function numericNoiseBandwidthHz(
   }
   return total;
 }
+
+export interface NoiseBandwidth {
+  /** ∫₀^∞ |H(j2πf)|² df of the analog prototype loop (closed form when second order). */
+  readonly analogHz: number;
+  readonly analogMethod: 'closed-form' | 'numeric';
+  /** ∫₀^{fs/2} |H(e^{j2πf/fs})|² df of the discrete loop (numeric). */
+  readonly discreteHz: number;
+  /** (ωn/2)(ζ + 1/(4ζ)): the high-gain approximation, exact for PI only; null when ωn, ζ do not apply. */
+  readonly highGainApproximationHz: number | null;
+}
+
+/** Noise bandwidth of the analog prototype (closed form when second order) and of the discrete loop. */
+export function loopNoiseBandwidth(
+  spec: LoopSpec,
+  design: LoopFilterDesign,
+  k: number,
+  range: { fMinHz: number; fMaxAnalogHz: number; nyquistHz: number },
+  second: { wnRadPerS: number; damping: number } | null,
+): NoiseBandwidth {
+  const { h } = analogClosedLoop(design.analog, k);
+  const den = h.den;
+  const lead = den[0]!;
+  let analogHz: number;
+  let analogMethod: NoiseBandwidth['analogMethod'];
+  if (den.length === 3 && h.num.length <= 2) {
+    const num = h.num.length === 2 ? h.num : [0, h.num[0]!];
+    analogHz = secondOrderNoiseBandwidthHz(num[0]! / lead, num[1]! / lead, den[1]! / lead, den[2]! / lead);
+    analogMethod = 'closed-form';
+  } else {
+    const hFn = closedLoop(analogLoopResponse(design.analogSections, k));
+    analogHz = numericNoiseBandwidthHz(hFn, range.fMinHz, range.fMaxAnalogHz, { tail: true });
+    analogMethod = 'numeric';
+  }
+  const hd = closedLoop(discreteLoopResponse(design.sections, k, spec.sampleRateHz));
+  const discreteHz = numericNoiseBandwidthHz(hd, range.fMinHz, range.nyquistHz);
+  return {
+    analogHz,
+    analogMethod,
+    discreteHz,
+    highGainApproximationHz: second ? highGainNoiseBandwidthHz(second.wnRadPerS, second.damping) : null,
+  };
+}
+

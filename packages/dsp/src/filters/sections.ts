@@ -24,3 +24,15 @@ function trimTrailingZeros(p: readonly number[]): number[] {
   while (n > 1 && p[n - 1] === 0) n--;
   return p.slice(0, n);
 }
+
+/** F(0) as a product over sections; null when a section has a pole at s = 0 (PI). */
+export function analogDcGain(sections: readonly AnalogTf[]): number | null {
+  let g = 1;
+  for (const s of sections) {
+    const d = s.den[s.den.length - 1]!;
+    if (d === 0) return null;
+    g *= s.num[s.num.length - 1]! / d;
+  }
+  return g;
+}
+

@@ -10,7 +10,12 @@ export type { ClosedLoopFigures } from '../analysis/closedLoopFigures.ts';
 export type { LoopFilterDesign } from '../design.ts';
 export type { DiscreteLoopAnalysis, DiscreteLoopOptions } from '../analysis/discreteLoop.ts';
 export type { WordLengthOptions, WordLengthResult, CoefficientWidthPoint, DataWidthPoint } from '../wordlength/wordLengthSearch.ts';
-export type { AnalysisResult, AnalysisVerdict, AnalyzeOptions, NcoSummary, QuantizationSummary, NoiseBandwidth, RippleFigures, BodePlotData } from '../analysis/analyzeDesign.ts';
+export type { AnalysisResult, AnalyzeOptions, BodePlotData } from '../analysis/analyzeDesign.ts';
+export type { AnalysisVerdict } from '../analysis/verdict.ts';
+export type { NcoSummary } from '../analysis/ncoSummary.ts';
+export type { QuantizationSummary } from '../analysis/quantizedLoop.ts';
+export type { NoiseBandwidth } from '../analysis/noiseBandwidth.ts';
+export type { RippleFigures } from '../analysis/ripple.ts';
 
 export interface AcquisitionEstimates {
   /** ≈ 2ζωn/(2π) (G3, B6); lockInRadPerS = 2ζωn. */

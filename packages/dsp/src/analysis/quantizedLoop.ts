@@ -1,0 +1,38 @@
+/**
+ * The loop with quantised coefficients: the fixed-point module quantises the sections to the spec's
+ * coefficient format, and the discrete loop is analysed again with them (discreteLoopMargins).
+ */
+import type { LoopSpec } from '../spec/schema.ts';
+import type { QuantizedFilter } from '../types/fixed.ts';
+import type { LoopFilterDesign } from '../design.ts';
+import type { LoopMargins } from './margins.ts';
+import type { ClosedLoopFigures } from './closedLoopFigures.ts';
+import { discreteLoopMargins } from './discreteLoop.ts';
+import { quantizeSections } from '../fixed/quantizeSections.ts';
+import { FieldError } from '../fixed/fieldError.ts';
+
+export interface QuantizationSummary {
+  readonly filter: QuantizedFilter | null;
+  readonly error: { readonly field: string; readonly message: string } | null;
+  readonly loop: {
+    readonly margins: LoopMargins;
+    readonly stable: boolean;
+    readonly closedLoop: ClosedLoopFigures | null;
+  } | null;
+}
+
+/** Quantise and analyse; a format that cannot hold the coefficients is reported, not thrown. */
+export function quantizedLoop(spec: LoopSpec, design: LoopFilterDesign, fMinHz: number, points: number) {
+  try {
+    const filter = quantizeSections(design.sections, spec.fixedPoint);
+    const loop = discreteLoopMargins(spec, filter.sections.map((s) => s.quantized), { fMinHz, points });
+    return {
+      summary: { filter, error: null, loop: { margins: loop.margins, stable: loop.stable && filter.stable, closedLoop: loop.closedLoop } },
+      open: loop.open,
+    };
+  } catch (err) {
+    if (!(err instanceof FieldError)) throw err;
+    return { summary: { filter: null, error: { field: err.field, message: err.message }, loop: null }, open: null };
+  }
+}
+

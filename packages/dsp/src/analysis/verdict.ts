@@ -1,0 +1,62 @@
+/**
+ * The verdict of an analysis (stable, margins met) and the warnings the analysis adds to the spec's.
+ * Default requirements PM ≥ 45°, GM ≥ 6 dB are common practice, no source; callers may change them.
+ */
+import type { LoopSpec, SpecWarning } from '../spec/schema.ts';
+import type { LoopMargins } from './margins.ts';
+import type { DiscreteLoopAnalysis } from './discreteLoop.ts';
+import type { QuantizationSummary } from './quantizedLoop.ts';
+import type { NcoSummary } from './ncoSummary.ts';
+
+export interface AnalysisVerdict {
+  readonly stable: boolean;
+  readonly marginsMet: boolean;
+  readonly minPhaseMarginDeg: number;
+  readonly minGainMarginDb: number;
+  readonly reasons: readonly string[];
+}
+
+export function analysisVerdict(
+  discrete: DiscreteLoopAnalysis,
+  q: QuantizationSummary,
+  nco: NcoSummary,
+  analogStable: boolean,
+  minPm: number,
+  minGm: number,
+): AnalysisVerdict {
+  const reasons: string[] = [];
+  if (!analogStable) reasons.push('the analog prototype loop is unstable');
+  if (!discrete.stable) reasons.push('the discrete loop is unstable (a closed-loop pole on or outside the unit circle)');
+  if (q.error) reasons.push(`quantisation failed: ${q.error.message}`);
+  if (nco.controlError) reasons.push(`NCO control scaling failed: ${nco.controlError.message}`);
+  else if (q.loop && !q.loop.stable) reasons.push('the loop with quantised coefficients is unstable');
+  const check = (label: string, m: LoopMargins) => {
+    if (m.phaseMarginDeg === null || m.phaseMarginDeg < minPm) {
+      reasons.push(`${label} phase margin ${m.phaseMarginDeg === null ? 'undefined' : m.phaseMarginDeg.toFixed(1) + '°'} is below ${minPm}°`);
+    }
+    if (m.gainMarginDb !== null && m.gainMarginDb < minGm) reasons.push(`${label} gain margin ${m.gainMarginDb.toFixed(1)} dB is below ${minGm} dB`);
+  };
+  check('discrete', discrete.margins);
+  if (q.loop) check('quantised', q.loop.margins);
+  const stable = analogStable && discrete.stable && q.error === null && (q.loop?.stable ?? false);
+  const marginsMet = !reasons.some((r) => r.includes('margin'));
+  return { stable, marginsMet, minPhaseMarginDeg: minPm, minGainMarginDb: minGm, reasons };
+}
+
+export function analysisWarnings(spec: LoopSpec, discrete: DiscreteLoopAnalysis, analog: LoopMargins): SpecWarning[] {
+  const w: SpecWarning[] = [];
+  const fc = discrete.margins.crossoverHz ?? analog.crossoverHz;
+  if (fc !== null && fc > spec.sampleRateHz / 20) {
+    w.push({
+      field: 'sampleRateHz',
+      message: `the loop crossover (${fc.toPrecision(4)} Hz) is above sampleRateHz/20: the discrete loop departs from its analog prototype (bilinear warping and the NCO's sample of delay); trust the discrete margins`,
+    });
+  }
+  if (analog.phaseMarginDeg !== null && discrete.margins.phaseMarginDeg !== null && analog.phaseMarginDeg - discrete.margins.phaseMarginDeg > 10) {
+    w.push({
+      field: 'sampleRateHz',
+      message: `the discrete loop loses ${(analog.phaseMarginDeg - discrete.margins.phaseMarginDeg).toFixed(1)}° of phase margin against the analog prototype`,
+    });
+  }
+  return w;
+}
