@@ -122,6 +122,8 @@ export const releaseDiffSchema = z.object({
 export type ReleaseDiff = z.infer<typeof releaseDiffSchema>;
 
 export const CONFORMANCE_UPLOAD_FIELD = 'file';
+/** A capture of a release's 4096 samples is about 200 KB; 8 MiB leaves room for padded exports and 64-bit phase words. */
+export const CONFORMANCE_UPLOAD_LIMIT_BYTES = 8 * 1024 * 1024;
 
 export const mismatchSchema = z.object({
   sampleIndex: z.number().int(),

@@ -4,6 +4,7 @@ import { idParamsSchema } from '../contract.ts';
 import { route } from '../routes/table.ts';
 import {
   CONFORMANCE_UPLOAD_FIELD,
+  CONFORMANCE_UPLOAD_LIMIT_BYTES,
   diffQuerySchema,
   releaseFileParamsSchema,
   releaseParamsSchema,
@@ -140,7 +141,7 @@ export const releaseRoutes = [
     summary: `upload a capture CSV in the golden-vector layout (multipart field "${CONFORMANCE_UPLOAD_FIELD}"); stores and returns the verdict`,
     status: 201,
     params: releaseParamsSchema,
-    upload: { field: CONFORMANCE_UPLOAD_FIELD },
+    upload: { field: CONFORMANCE_UPLOAD_FIELD, limitBytes: CONFORMANCE_UPLOAD_LIMIT_BYTES },
     body: z.strictObject({}),
     handler: ({ services, user, params, file, actor }) => services.handoff.conformance.upload(user.organizationId, params.id, file, user, { ...actor, id: user.id }),
   }),

@@ -35,8 +35,8 @@ export interface RouteSpec<P extends z.ZodType = z.ZodType, Q extends z.ZodType 
   readonly params?: P;
   readonly query?: Q;
   readonly body?: B;
-  /** Multipart upload of one file in this field (memory storage, size-limited). */
-  readonly upload?: { readonly field: string };
+  /** Multipart upload of one file in this field (memory storage, size-limited; limitBytes overrides the default). */
+  readonly upload?: { readonly field: string; readonly limitBytes?: number };
   /** 'token': the URL carries a secret token that is the authority, so the CSRF header is not required. */
   readonly csrf?: 'header' | 'token';
   /** Extra middleware run after the access check and before validation (e.g. a rate limiter). */
@@ -135,12 +135,13 @@ export interface RouterOptions {
 
 /** Mounts a table of routes: CSRF check, access check, extra middleware, upload, validation, handler. */
 export function mountRoutes(router: Router, routes: readonly RouteSpec[], services: Services, options: RouterOptions): void {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: options.uploadLimitBytes, files: 1, fields: 10, parts: 11 } });
+  const uploader = (fileSize: number) => multer({ storage: multer.memoryStorage(), limits: { fileSize, files: 1, fields: 10, parts: 11 } });
+  const upload = uploader(options.uploadLimitBytes);
   for (const spec of routes) {
     const chain: RequestHandler[] = [];
     if (spec.csrf !== 'token') chain.push(requireCsrfHeader);
     chain.push(checkAccess(spec.access), ...(spec.before ?? []));
-    if (spec.upload) chain.push(upload.single(spec.upload.field));
+    if (spec.upload) chain.push((spec.upload.limitBytes === undefined ? upload : uploader(spec.upload.limitBytes)).single(spec.upload.field));
     chain.push(run(spec, services));
     router[spec.method](spec.path, ...chain);
   }

@@ -169,6 +169,11 @@ describe('hand-off flow', () => {
     expect(res.body.error.field).toBe('file');
     expect(res.body.error.message).toContain('line 5');
     expect(res.body.error.message).toContain('filter_code');
+    const huge = Buffer.alloc(9 * 1024 * 1024, 0x20);
+    const tooBig = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', huge, 'huge.csv').expect(413);
+    expect(tooBig.body.error.code).toBe('payload_too_large');
+    const runs = await h.designer.get(`/api/releases/${releaseId}/conformance`).expect(200);
+    expect(runs.body.runs).toHaveLength(2);
   });
 
   it('has no way to change a release: no update route, and the database refuses', async () => {
