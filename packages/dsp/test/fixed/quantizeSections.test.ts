@@ -75,6 +75,20 @@ describe('quantizeSections: the narrow-band trap (10 Hz Butterworth at fs = 1 MH
     expect(q.traps.map((t) => t.kind)).toContain('numerator-zero');
   });
 
+  it('with truncation (toward −∞) pushes the pole outside the unit circle', () => {
+    const q = quantizeSections([section], { ...fx18, rounding: 'truncate', coefficientFractionBits: 'auto' });
+    // Codes from first principles: floor(a·2^16) (IEEE754 roundTowardNegative); A(1) < 0 means a real
+    // pole beyond z = 1 (OS3 Sec. 6.8 stability triangle).
+    const a1Code = Math.floor(section.a[1] * 2 ** 16);
+    const a2Code = Math.floor(section.a[2] * 2 ** 16);
+    expect(2 ** 16 + a1Code + a2Code).toBeLessThan(0);
+    const s = q.sections[0]!;
+    expect([s.codes.a1, s.codes.a2]).toEqual([a1Code, a2Code]);
+    expect(s.stability).toBe('outside');
+    expect(s.poleRadius).toBeGreaterThan(1);
+    expect(q.traps.find((t) => t.kind === 'pole-outside-circle')?.message).toMatch(/outside the unit circle/);
+  });
+
   it('a 100 Hz section at 1 MHz keeps its poles inside with enough bits (32-bit word)', () => {
     const q = quantizeSections([butterworth2(100, 1e6)], { coefficientBits: 32, coefficientFractionBits: 'auto', rounding: 'nearest', overflow: 'saturate' });
     expect(q.stable).toBe(true);
