@@ -32,7 +32,7 @@ export { analyzeDesign, tryAnalyzeDesign, LoopSpecError } from './analysis/analy
 export { quantizeFilter } from './fixed/quantizeFilter.ts';
 export { scenarioSchema, parseScenario } from './spec/scenario.ts';
 export { simulate, simulateAsync, simulateSections, simulationSteps, bitTrueNcoHzOf, SimulationAbortedError } from './sim/simulate.ts';
-export { planBitTrue, validateBitTrueWidths } from './sim/bitTruePlan.ts';
+export { planBitTrue, validateBitTrueWidths, bitTrueFormats } from './sim/bitTruePlan.ts';
 export { runBitTrueChunk, initialBitTrueState, quantizeInput } from './sim/bitTrueKernel.ts';
 export { checksumRecord, CHECKSUM_BASIS } from './sim/checksum.ts';
 export { mulberry32, gaussianSource } from './sim/prng.ts';

@@ -66,3 +66,31 @@ export function planBitTrue(spec: BitTrueSpec, quantized: QuantizedFilter): BitT
     ncoFullScale: sineFullScale(nco.amplitudeBits),
   };
 }
+
+/** One signal of the bit-true data path: its word, fraction bits and signedness (README, "Number formats"). */
+export interface SignalFormat {
+  readonly signal: string;
+  readonly wordBits: number;
+  readonly fractionBits: number;
+  readonly signed: boolean;
+  readonly description: string;
+}
+
+/**
+ * The Q format of every signal and constant of the bit-true loop, for release notes and generated
+ * code comments. Word length and fraction bits are stated separately (Q notation is ambiguous).
+ */
+export function bitTrueFormats(plan: BitTruePlan): SignalFormat[] {
+  const d = plan.dataBits;
+  const fc = plan.coefficientFractionBits;
+  return [
+    { signal: 'input', wordBits: d, fractionBits: d - 1, signed: true, description: 'input sample x, full scale ±1' },
+    { signal: 'nco_output', wordBits: plan.amplitudeBits, fractionBits: plan.amplitudeBits - 1, signed: true, description: `sine-table code c, peak ${plan.ncoFullScale}` },
+    { signal: 'detector', wordBits: d, fractionBits: d - 1, signed: true, description: 'u = round(x·c / 2^(B−1))' },
+    { signal: 'coefficient', wordBits: plan.coefficientBits, fractionBits: fc, signed: true, description: 'b0, b1, b2, a1, a2 of every section' },
+    { signal: 'mac', wordBits: plan.macBits, fractionBits: fc + d - 1, signed: true, description: 'section sum of products before rounding by the coefficient fraction bits' },
+    { signal: 'section_output', wordBits: d, fractionBits: d - 1, signed: true, description: 'each section output; the last is the filter output y' },
+    { signal: 'gain', wordBits: plan.coefficientBits, fractionBits: plan.control.gainShift, signed: false, description: 'G: tuning increment Δ = round(y·G / 2^S)' },
+    { signal: 'phase', wordBits: plan.ncoAccumulatorBits, fractionBits: plan.ncoAccumulatorBits, signed: false, description: 'phase register φ, one turn = 2^N' },
+  ];
+}

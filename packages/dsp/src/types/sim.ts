@@ -177,3 +177,4 @@ export interface AcquisitionOptions {
 }
 export type { VectorComparison, VectorMismatch } from '../vectors/compareVectors.ts';
 export type { JsonSimResult, JsonSimRun, JsonTrace } from '../sim/simResultJson.ts';
+export type { SignalFormat } from '../sim/bitTruePlan.ts';

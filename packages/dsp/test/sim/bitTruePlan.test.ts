@@ -20,3 +20,14 @@ describe('planBitTrue', () => {
     expect(() => planBitTrue(amp, quantizeFilter(amp))).toThrow(/nco.amplitudeBits/);
   });
 });
+
+describe('bitTrueFormats', () => {
+  it('states word and fraction bits of each signal as the README defines them', async () => {
+    const { bitTrueFormats } = await import('../../src/sim/bitTruePlan.ts');
+    const plan = planBitTrue(spec, quantizeFilter(spec));
+    const f = Object.fromEntries(bitTrueFormats(plan).map((s) => [s.signal, s]));
+    expect(f['input']).toMatchObject({ wordBits: 16, fractionBits: 15, signed: true });
+    expect(f['mac']).toMatchObject({ wordBits: 40, fractionBits: plan.coefficientFractionBits + 15 });
+    expect(f['phase']).toMatchObject({ wordBits: 32, signed: false });
+  });
+});
