@@ -6,7 +6,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { exampleSpecs, mainsSyncSpec, type LoopSpec } from '@loopwright/dsp';
+import { exampleSpecs, mainsSyncSpec, ultrasonicLagLeadSpec, type LoopSpec } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
 import { artifactNames, renderArtifacts, type Manifest } from '../../src/render/artifacts.ts';
 import { computeRelease } from '../../src/render/compute.ts';
@@ -22,9 +22,17 @@ const wideSpec: LoopSpec = {
   fixedPoint: { ...mainsSyncSpec.fixedPoint, coefficientBits: 24, accumulatorBits: 64 },
 };
 
+/** A 32-bit accumulator puts the int32 minimum through the C and Verilog minimum-value rules. */
+const word32Spec: LoopSpec = {
+  ...ultrasonicLagLeadSpec,
+  name: 'acc32',
+  fixedPoint: { ...ultrasonicLagLeadSpec.fixedPoint, accumulatorBits: 32, rounding: 'truncate', overflow: 'wrap' },
+};
+
 const cases: { id: string; spec: LoopSpec }[] = [
   ...exampleSpecs.map((e) => ({ id: e.id, spec: e.spec })),
   { id: 'wide words, extended VHDL name', spec: wideSpec },
+  { id: '32-bit accumulator, truncate and wrap', spec: word32Spec },
 ];
 
 function render(spec: LoopSpec) {
@@ -47,6 +55,14 @@ describe.each(cases)('artifacts of $id', ({ spec }) => {
     const r = checkVerilog(dir, names.verilog, manifest);
     expect(r.ok, r.output).toBe(true);
     expect(r.output).toContain(`checked ${manifest.constants.length + manifest.counts.length} constants`);
+  });
+
+  it('states the minimum of every signed word without an out-of-range literal', () => {
+    const header = readFileSync(join(dir, names.cHeader), 'utf8');
+    for (const c of manifest.constants.filter((k) => k.name.endsWith('_MIN'))) {
+      const bits = c.widthBits > 32 ? 64 : c.widthBits > 16 ? 32 : c.widthBits > 8 ? 16 : 8;
+      if (BigInt(c.code) === -(2n ** BigInt(bits - 1))) expect(header).toContain(`#define ${c.name} (-INT${bits}_C(${2n ** BigInt(bits - 1) - 1n}) - 1)`);
+    }
   });
 
   it('C header compiles under gcc -std=c11 -Wall -Wextra -Werror and its constants equal the manifest', () => {
