@@ -5,6 +5,7 @@
  */
 import type { EChartsCoreOption } from 'echarts/core';
 import { CHART_COLORS, chartAnimation } from './echarts.ts';
+import { fmtHz } from '../lib/format.ts';
 
 export interface BodeTrace {
   readonly label: string;
@@ -40,16 +41,11 @@ function pairs(x: readonly number[], y: readonly number[]): [number, number][] {
   return out;
 }
 
-function fmtHz(hz: number): string {
-  if (hz >= 1e6) return `${(hz / 1e6).toPrecision(3)} MHz`;
-  if (hz >= 1e3) return `${(hz / 1e3).toPrecision(3)} kHz`;
-  return `${hz.toPrecision(3)} Hz`;
-}
 
 function markerLines(m: BodeMarkers, axis: 'mag' | 'phase'): object[] {
   const lines: object[] = [];
   if (m.crossoverHz !== null) {
-    const text = axis === 'phase' && m.phaseMarginDeg !== null ? `PM ${m.phaseMarginDeg.toFixed(1)}°` : `fc ${fmtHz(m.crossoverHz)}`;
+    const text = axis === 'phase' && m.phaseMarginDeg !== null ? `PM ${m.phaseMarginDeg.toFixed(1)}°` : `fc ${fmtHz(m.crossoverHz, 3)}`;
     lines.push({ xAxis: m.crossoverHz, label: { formatter: text, position: 'insideEndTop' }, lineStyle: { color: CHART_COLORS.marker } });
   }
   if (m.phaseCrossoverHz !== null) {
@@ -105,7 +101,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
     name,
     nameLocation: 'middle',
     nameGap: 22,
-    axisLabel: { formatter: (v: number) => fmtHz(v).replace(' ', '\u2009'), hideOverlap: true },
+    axisLabel: { formatter: (v: number) => fmtHz(v, 3), hideOverlap: true },
     splitLine: { show: true, lineStyle: { color: CHART_COLORS.grid } },
     minorSplitLine: { show: true, lineStyle: { color: '#f1eee7' } },
   });
@@ -120,7 +116,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
     ],
     xAxis: [xAxis(0, ''), xAxis(1, 'Frequency')],
     yAxis: [
-      { type: 'value', gridIndex: 0, name: 'Magnitude (dB)', nameLocation: 'middle', nameGap: 40, min: magnitudeAxisMin(traces), splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+      { type: 'value', gridIndex: 0, name: 'Magnitude (dB)', nameLocation: 'middle', nameGap: 40, min: magnitudeAxisMin(traces), axisLabel: { showMinLabel: false }, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
       { type: 'value', gridIndex: 1, name: 'Phase (°)', nameLocation: 'middle', nameGap: 40, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
     ],
     dataZoom: [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }],

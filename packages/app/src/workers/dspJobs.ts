@@ -8,6 +8,7 @@ import {
   ncoSpectralEstimates,
   ncoTuning,
   simulateAsync,
+  wordLengthSearch,
   type AnalysisResult,
   type LoopSpec,
   type NcoControlScaling,
@@ -15,6 +16,7 @@ import {
   type NcoTuning,
   type Scenario,
   type SimResult,
+  type WordLengthResult,
 } from '@loopwright/dsp';
 import { decimateMinMax } from '../charts/decimate.ts';
 
@@ -43,6 +45,14 @@ export interface SimulationOutput {
 interface Jobs {
   analyze: { input: null; output: DesignAnalysis };
   simulate: { input: Scenario; output: SimulationOutput };
+  wordLength: { input: WordLengthInput; output: WordLengthResult };
+}
+
+/** What the word-length panel lets the user set (the rest are the search's defaults). */
+export interface WordLengthInput {
+  readonly minCoefficientBits: number;
+  readonly maxCoefficientBits: number;
+  readonly searchData: boolean;
 }
 
 export type DspJobKind = keyof Jobs;
@@ -107,11 +117,23 @@ function withoutFullTraces(run: SimResult): SimResult {
   return { ...rest, ...(float ? { float } : {}), ...(bitTrue ? { bitTrue } : {}) };
 }
 
+/** Synchronous in packages/dsp: progress still reaches the page; cancelling restarts the worker. */
+export function wordLengthJob(spec: LoopSpec, input: WordLengthInput, ctx: JobContext): WordLengthResult {
+  return wordLengthSearch(spec, {
+    minCoefficientBits: input.minCoefficientBits,
+    maxCoefficientBits: input.maxCoefficientBits,
+    data: input.searchData,
+    onProgress: (fraction, stage) => ctx.onProgress(fraction, stage),
+  });
+}
+
 export async function runDspJob(kind: DspJobKind, spec: LoopSpec, input: unknown, ctx: JobContext): Promise<unknown> {
   switch (kind) {
     case 'analyze':
       return analyzeJob(spec);
     case 'simulate':
       return simulateJob(spec, input as Scenario, ctx);
+    case 'wordLength':
+      return wordLengthJob(spec, input as WordLengthInput, ctx);
   }
 }

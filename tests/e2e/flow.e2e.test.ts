@@ -1,0 +1,290 @@
+/**
+ * The product end to end in Debian's Chromium: each role signs in and sees its screens, a designer
+ * edits a loop and watches the margins move, simulates, cuts a release and asks for review; the
+ * reviewer approves from the e-mailed link; firmware downloads the approved bundle and files and
+ * uploads captures for the conformance check.
+ */
+import { createHash } from 'node:crypto';
+import fs from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildApp } from './harness/build.ts';
+import { launchBrowser, signIn, type Browser } from './harness/browser.ts';
+import { choose, degrees, screenshot, textOf, waitForChange } from './harness/pageHelpers.ts';
+import { startStack, type Stack } from './harness/stack.ts';
+
+let stack: Stack;
+let browser: Browser;
+let downloads: string;
+
+beforeAll(async () => {
+  buildApp();
+  stack = await startStack();
+  downloads = await fs.mkdtemp(path.join(os.tmpdir(), 'lw-downloads-'));
+  browser = await launchBrowser({ downloadsPath: downloads });
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await stack?.stop();
+  if (downloads) await fs.rm(downloads, { recursive: true, force: true });
+});
+
+async function freshPage(): Promise<Page> {
+  await browser.context.clearCookies();
+  return browser.newPage();
+}
+
+async function navLabels(page: Page): Promise<string[]> {
+  return (await page.locator('nav[aria-label="Main"] li a').allTextContents()).map((t) => t.trim());
+}
+
+async function openDesign(page: Page, title: string): Promise<void> {
+  await page.goto(`${stack.baseUrl}/projects`);
+  await page.click(`a.design:has-text("${title}")`);
+  await page.waitForSelector('[data-test="bode-chart"] canvas', { timeout: 20_000 });
+  await page.waitForSelector('[data-test="analysis-status"]:has-text("up to date")');
+}
+
+const state: { reviewLink: string; releaseSha: string; vectorsPath: string } = { reviewLink: '', releaseSha: '', vectorsPath: '' };
+
+describe('Loopwright in the browser', () => {
+  it('signs each role in to its own screens and keeps the others closed', async () => {
+    const page = await freshPage();
+    await page.goto(`${stack.baseUrl}/admin`);
+    await page.waitForSelector('input[data-test="email"]');
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+    await screenshot(page, '01-sign-in');
+
+    await page.fill('input[data-test="email"]', 'designer@example.test');
+    await page.fill('input[data-test="password"]', 'not-the-password');
+    await page.click('[data-test="sign-in"]');
+    await page.waitForSelector('[data-test="sign-in-error"]');
+    expect(await textOf(page, '[data-test="sign-in-error"]')).toMatch(/wrong e-mail or password/i);
+
+    const expected: Record<string, { nav: string[]; home: string }> = {
+      'designer@example.test': { nav: ['Projects', 'Downloads', 'Conformance'], home: '/projects' },
+      'reviewer@example.test': { nav: ['Projects', 'Downloads'], home: '/projects' },
+      'firmware@example.test': { nav: ['Downloads', 'Conformance'], home: '/downloads' },
+      'admin@example.test': { nav: ['Projects', 'Admin'], home: '/admin' },
+    };
+    for (const [email, want] of Object.entries(expected)) {
+      const p = await freshPage();
+      await signIn(p, stack.baseUrl, email);
+      await p.waitForURL((u) => u.pathname === want.home);
+      expect(await navLabels(p)).toEqual(want.nav);
+      await p.close();
+    }
+
+    const firmware = await freshPage();
+    await signIn(firmware, stack.baseUrl, 'firmware@example.test');
+    await firmware.goto(`${stack.baseUrl}/admin`);
+    await firmware.waitForURL((u) => u.pathname === '/downloads');
+    await firmware.close();
+    await page.close();
+  });
+
+  it('lets the admin see accounts and filter the audit trail', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'admin@example.test');
+    await page.waitForSelector('[data-test="accounts"] .el-table__row');
+    const emails = await page.locator('[data-test="accounts"] .el-table__row td:first-child').allTextContents();
+    expect(emails.map((e) => e.trim())).toEqual(expect.arrayContaining(['designer@example.test', 'reviewer@example.test', 'firmware@example.test', 'admin@example.test']));
+    await screenshot(page, '10-admin-accounts');
+    await page.click('#tab-audit');
+    await page.waitForSelector('[data-test="audit"] .el-table__row');
+    await page.fill('input[data-test="audit-search"]', 'firmware@example.test');
+    await page.waitForTimeout(300);
+    const actors = await page.locator('[data-test="audit"] .el-table__body .el-table__row td:nth-child(2)').allTextContents();
+    expect(actors.length).toBeGreaterThan(0);
+    for (const a of actors) expect(a.trim()).toBe('firmware@example.test');
+    await screenshot(page, '11-admin-audit');
+    await page.close();
+  });
+
+  it('re-analyses in the browser as the designer types, with schema messages on bad fields', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    await screenshot(page, '02-projects');
+    let analysisRequests = 0;
+    page.on('request', (r) => {
+      if (/\/api\/(designs\/\d+\/)?analysis/.test(r.url())) analysisRequests++;
+    });
+    await openDesign(page, 'Mains sync PI loop');
+    await screenshot(page, '03-editor-response');
+
+    const pmBeforeText = await textOf(page, '[data-test="row-phase-margin-discrete"]');
+    const pmBefore = degrees(pmBeforeText);
+    // Lower damping, lower phase margin: for the second-order type-2 loop PM = atan(2ζ/√(√(1+4ζ⁴)−2ζ²))
+    // falls monotonically with ζ (Gardner, Phaselock Techniques, 3rd ed., ch. 2; from memory).
+    await page.fill('input[data-test="filter-damping"]', '0.35');
+    const pmAfterText = await waitForChange(page, '[data-test="row-phase-margin-discrete"]', pmBeforeText);
+    const pmAfter = degrees(pmAfterText);
+    expect(pmAfter).toBeLessThan(pmBefore - 5);
+    expect(await textOf(page, '[data-test="verdict-phase-margin"]')).toBe(pmAfterText);
+    expect(analysisRequests).toBe(0);
+
+    await page.fill('input[data-test="clock-hz"]', 'fast');
+    const clockError = page.locator('.el-form-item:has(input[data-test="clock-hz"]) .el-form-item__error');
+    await clockError.waitFor();
+    expect(await clockError.textContent()).toMatch(/number/i);
+    expect(await page.isDisabled('[data-test="save-design"]')).toBe(true);
+    await page.fill('input[data-test="clock-hz"]', '100000000');
+    await clockError.waitFor({ state: 'detached' });
+
+    await page.click('#tab-quantisation');
+    await page.waitForSelector('[data-test="coefficients"] .el-table__row');
+    await screenshot(page, '04-editor-quantisation');
+
+    await page.click('[data-test="save-design"]');
+    await page.waitForSelector('[data-test="design-name"]');
+    await page.waitForFunction(() => !document.querySelector('[data-test="unsaved"]'));
+    expect(await textOf(page, '.head .lw-muted')).toMatch(/revision 2/);
+    await page.close();
+  });
+
+  it('runs a float and bit-true simulation to completion with progress', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    await openDesign(page, 'Mains sync PI loop');
+    await page.click('#tab-simulation');
+    await choose(page, 'scenario-kind', 'FM, sine modulation');
+    await page.click('[data-test="run-simulation"]');
+    await page.waitForSelector('[data-test="trace-chart"] canvas', { timeout: 120_000 });
+    expect(await textOf(page, '[data-test="simulation-progress"]')).toContain('100%');
+    expect(await textOf(page, '[data-test="metric-locked"] td:nth-child(2)')).toBe('yes');
+    expect(await textOf(page, '[data-test="metric-locked"] td:nth-child(3)')).toBe('yes');
+    expect(await textOf(page, '[data-test="simulation-summary"]')).toMatch(/samples at .*bit-true checksum 0x[0-9a-f]{8}/);
+    await screenshot(page, '05-editor-simulation');
+
+    await page.click('#tab-word-length');
+    await page.click('[data-test="run-word-length"]');
+    await page.waitForSelector('[data-test="word-length-result"]', { timeout: 120_000 });
+    const cheapest = await textOf(page, '[data-test="word-length-cheapest"]');
+    expect(cheapest).toMatch(/coefficientBits = \d+/);
+    await screenshot(page, '06-editor-word-length');
+    await page.close();
+  });
+
+  it('cuts a release and asks the reviewer, who gets an e-mailed link', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    await openDesign(page, 'Mains sync PI loop');
+    await page.click('text=Releases');
+    await page.waitForSelector('[data-test="cut-release"]');
+    await page.click('[data-test="cut-release"]');
+    await page.waitForSelector('[data-test="state-v1"]', { timeout: 60_000 });
+    expect(await textOf(page, '[data-test="state-v1"]')).toBe('draft');
+    expect(await page.isVisible('[data-test="safety-notice"]')).toBe(true);
+    state.releaseSha = (await textOf(page, '[data-test="selected-sha"]')).replace('SHA-256 ', '');
+    expect(state.releaseSha).toMatch(/^[0-9a-f]{64}$/);
+
+    await page.click('[data-test="request-review"]');
+    await choose(page, 'reviewers', 'Robin Reviewer');
+    await page.keyboard.press('Escape');
+    await page.click('[data-test="send-review"]');
+    await page.waitForSelector('[data-test="state-v1"]:has-text("in review")');
+    await page.waitForSelector('[data-test="release-detail"] [data-test="bode-chart"] canvas');
+    await screenshot(page, '07-releases');
+
+    const mail = await stack.mail.waitFor((m) => m.to.includes('reviewer@example.test'));
+    const link = new RegExp(`${stack.baseUrl.replace(/[.:/]/g, '\\$&')}/review/[^\\s"'<>]+`).exec(mail.text);
+    expect(link).not.toBeNull();
+    state.reviewLink = link![0];
+    await page.close();
+  });
+
+  it('approves the release from the review link with a deliberate POST', async () => {
+    const page = await freshPage();
+    const posts: string[] = [];
+    page.on('request', (r) => {
+      if (r.url().includes('/api/review-links/')) posts.push(r.method());
+    });
+    await page.goto(state.reviewLink);
+    await page.waitForSelector('[data-test="submit-decision"]');
+    await page.waitForSelector('[data-test="bode-chart"] canvas');
+    expect(await page.isVisible('[data-test="safety-notice"]')).toBe(true);
+    expect(await textOf(page, '[data-test="review-title"]')).toContain('v1');
+    expect(posts).toEqual(['GET']);
+    await screenshot(page, '08-review');
+    await page.fill('textarea[data-test="review-comment"]', 'Margins and codes checked against the bench plan.');
+    await page.click('[data-test="submit-decision"]');
+    await page.waitForSelector('[data-test="review-outcome"]');
+    expect(await textOf(page, '[data-test="review-outcome"]')).toMatch(/approved/);
+    expect(posts).toEqual(['GET', 'POST']);
+
+    // The link is single-use: opening it again shows the server's refusal, not the form.
+    const again = await freshPage();
+    await again.goto(state.reviewLink);
+    await again.waitForSelector('[data-test="review-error"], [data-test="submit-decision"]');
+    expect(await again.isVisible('[data-test="submit-decision"]')).toBe(false);
+    await again.close();
+    await page.close();
+  });
+
+  it('gives firmware the approved release, whose downloads match their SHA-256', async () => {
+    await stack.mail.waitFor((m) => m.to.includes('firmware@example.test'));
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'firmware@example.test');
+    await page.waitForSelector('[data-test="downloads-table"] .el-table__row');
+    const firstRow = page.locator('[data-test="downloads-table"] .el-table__body > tbody > tr.el-table__row').first();
+    expect(await firstRow.textContent()).toContain('Mains sync PI loop');
+    await screenshot(page, '09-downloads');
+
+    const bundleDownload = page.waitForEvent('download');
+    await firstRow.locator('a:has-text("Bundle")').click();
+    const bundle = await bundleDownload;
+    const bundleBytes = await fs.readFile((await bundle.path())!);
+    // A zip file starts with the local file header signature PK\x03\x04 (APPNOTE.TXT 4.3.7).
+    expect(bundleBytes.subarray(0, 4)).toEqual(Buffer.from([0x50, 0x4b, 0x03, 0x04]));
+
+    await firstRow.locator('.el-table__expand-icon').click();
+    const vectorsLink = page.locator('a[data-test$="_vectors.csv"]').first();
+    await vectorsLink.waitFor();
+    const row = page.locator('tr', { has: vectorsLink }).last();
+    const shownSha = ((await row.locator('td').nth(2).textContent()) ?? '').trim();
+    const fileDownload = page.waitForEvent('download');
+    await vectorsLink.click();
+    const file = await fileDownload;
+    const vectors = await fs.readFile((await file.path())!);
+    expect(createHash('sha256').update(vectors).digest('hex')).toBe(shownSha);
+    const vectorsPath = path.join(downloads, 'golden.csv');
+    await fs.writeFile(vectorsPath, vectors);
+    state.vectorsPath = vectorsPath;
+    await page.close();
+  });
+
+  it('checks uploaded captures: the golden vectors are bit-exact, an altered one is not', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'firmware@example.test');
+    await page.waitForSelector('[data-test="downloads-table"] .el-table__row');
+    await page.click('a:has-text("Check conformance")');
+    await page.waitForSelector('input[data-test="capture-file"]');
+
+    await page.setInputFiles('input[data-test="capture-file"]', state.vectorsPath);
+    await page.click('[data-test="upload-capture"]');
+    await page.waitForSelector('[data-test="conformance-verdict"]');
+    expect(await textOf(page, '[data-test="conformance-verdict"] h2')).toBe('Bit-exact');
+
+    const lines = (await fs.readFile(state.vectorsPath, 'utf8')).trimEnd().split('\n');
+    const header = lines[0]!.split(',');
+    const cells = lines[6]!.split(',');
+    const column = header.length - 1;
+    const original = cells[column]!;
+    cells[column] = String(Number(original) + 1);
+    lines[6] = cells.join(',');
+    const altered = path.join(downloads, 'altered.csv');
+    await fs.writeFile(altered, `${lines.join('\n')}\n`);
+    await page.setInputFiles('input[data-test="capture-file"]', altered);
+    await page.click('[data-test="upload-capture"]');
+    await page.waitForSelector('[data-test="conformance-verdict"] h2:has-text("Not bit-exact")');
+    const first = page.locator('[data-test="mismatches"] .el-table__row').first();
+    const firstCells = (await first.locator('td').allTextContents()).map((t) => t.trim());
+    // Row 6 of the file is sample 5 (the header is line 0); expected = golden, got = ours.
+    expect(firstCells).toEqual(['5', header[column], original, String(Number(original) + 1)]);
+    await screenshot(page, '12-conformance');
+    await page.close();
+  });
+});
