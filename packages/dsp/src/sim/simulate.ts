@@ -15,7 +15,7 @@ import { allocInputChunk, inputGenerator } from './inputSignal.ts';
 import { planBitTrue, type BitTrueSpec } from './bitTruePlan.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut } from './bitTrueKernel.ts';
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
-import { RunAccumulator } from './runAccumulator.ts';
+import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
 
 export const CHUNK_SAMPLES = 8192;
 export const MAX_SIM_SAMPLES = 50_000_000;
@@ -116,6 +116,68 @@ export function bitTrueNcoHzOf(plan: BitTruePlan): (y: number) => number {
   };
 }
 
+type InputChunk = ReturnType<typeof allocInputChunk>;
+
+/** One loop under simulation: consumes input chunks, then returns its run. */
+interface LoopRunner<R> {
+  chunk(input: InputChunk, n0: number, count: number): void;
+  finish(): R;
+}
+
+function floatRunner(spec: SimSpec, sections: readonly Sos[], acc: RunAccumulator): LoopRunner<SimRun> {
+  const cfg = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections };
+  const state = initialFloatState(cfg);
+  const out = { ncoPhaseCycles: new Float64Array(CHUNK_SAMPLES), filterOutput: new Float64Array(CHUNK_SAMPLES) };
+  return {
+    chunk(input, n0, count) {
+      runFloatChunk(cfg, state, input.x, count, out);
+      for (let i = 0; i < count; i++) {
+        const y = out.filterOutput[i] as number;
+        const ncoHz = cfg.centerHz + cfg.gainHzPerUnit * y;
+        acc.push(n0 + i, input.phaseCycles[i] as number, out.ncoPhaseCycles[i] as number, input.x[i] as number, y, ncoHz, input.offsetHz[i] as number);
+      }
+    },
+    finish: () => acc.finish(),
+  };
+}
+
+function bitTrueRunner(plan: BitTruePlan, total: number, keepRecord: boolean, acc: RunAccumulator): LoopRunner<BitTrueRun> {
+  const state = initialBitTrueState(plan);
+  const record = keepRecord ? allocRecord(total) : null;
+  const scratch = record ? null : allocRecord(CHUNK_SAMPLES);
+  const toCycles = 2 ** -plan.ncoAccumulatorBits;
+  const hiWeight = 2 ** 32 * toCycles;
+  const yScale = 2 ** -(plan.dataBits - 1);
+  const ncoHz = bitTrueNcoHzOf(plan);
+  return {
+    chunk(input, n0, count) {
+      const out = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
+      quantizeInput(plan, input.x, count, out.inputCode);
+      runBitTrueChunk(plan, state, out.inputCode, count, out as BitTrueChunkOut);
+      for (let i = 0; i < count; i++) {
+        const phase = (out.phaseHi[i] as number) * hiWeight + (out.phaseLo[i] as number) * toCycles;
+        const y = out.filterCode[i] as number;
+        acc.push(n0 + i, input.phaseCycles[i] as number, phase, input.x[i] as number, y * yScale, ncoHz(y), input.offsetHz[i] as number);
+      }
+    },
+    finish: () => ({ ...acc.finish(), checksum: state.checksum, ...(record ? { record } : {}) }),
+  };
+}
+
+function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total: number): RunSetup {
+  return {
+    total,
+    buckets: options.buckets ?? DEFAULT_BUCKETS,
+    sampleRateHz: spec.sampleRateHz,
+    centerHz: spec.centerHz,
+    gainHzPerUnit: spec.nco.gainHzPerUnit,
+    amplitude: spec.input.amplitude,
+    lockToleranceRad: options.lockToleranceRad ?? DEFAULT_LOCK_TOLERANCE_RAD,
+    deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
+    fullTraces: options.fullTraces === true,
+  };
+}
+
 /** The chunked simulation as a generator: yields the fraction done after each chunk. */
 export function* simulationSteps(
   spec: SimSpec,
@@ -126,70 +188,34 @@ export function* simulationSteps(
 ): Generator<number, SimResult, void> {
   const total = sampleCount(spec, scenario);
   const mode = options.mode ?? 'both';
-  const runFloat = mode !== 'bit-true';
-  const runBit = mode !== 'float';
-  const keep = runBit && options.keepRecord === true;
+  const keep = mode !== 'float' && options.keepRecord === true;
   if (keep && total > MAX_RECORD_SAMPLES) {
     throw new FieldError('durationS', `a per-sample record is limited to ${MAX_RECORD_SAMPLES} samples, the scenario has ${total}`);
   }
-  const plan = runBit ? planBitTrue(spec, quantized) : undefined;
-  const amplitude = spec.input.amplitude;
-  const setup = {
-    total,
-    buckets: options.buckets ?? DEFAULT_BUCKETS,
-    sampleRateHz: spec.sampleRateHz,
-    centerHz: spec.centerHz,
-    gainHzPerUnit: spec.nco.gainHzPerUnit,
-    amplitude,
-    lockToleranceRad: options.lockToleranceRad ?? DEFAULT_LOCK_TOLERANCE_RAD,
-    deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
-    fullTraces: options.fullTraces === true,
-  };
-  const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, amplitude);
+  const plan = mode !== 'float' ? planBitTrue(spec, quantized) : undefined;
+  const setup = runSetup(spec, scenario, options, total);
+  const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup)) : null;
+  const bitLoop = plan ? bitTrueRunner(plan, total, keep, new RunAccumulator(setup)) : null;
+  const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, spec.input.amplitude);
   const input = allocInputChunk(CHUNK_SAMPLES);
-  const floatCfg = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections };
-  const fState = initialFloatState(floatCfg);
-  const fOut = { ncoPhaseCycles: new Float64Array(CHUNK_SAMPLES), filterOutput: new Float64Array(CHUNK_SAMPLES) };
-  const fAcc = runFloat ? new RunAccumulator(setup) : null;
-  const bState = plan ? initialBitTrueState(plan) : null;
-  const record = keep ? allocRecord(total) : null;
-  const scratch = plan && !record ? allocRecord(CHUNK_SAMPLES) : null;
-  const bAcc = plan ? new RunAccumulator(setup) : null;
   for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {
     if (options.signal?.aborted) throw new SimulationAbortedError();
     const count = Math.min(CHUNK_SAMPLES, total - n0);
     gen.next(input, n0, count);
-    if (fAcc) {
-      runFloatChunk(floatCfg, fState, input.x, count, fOut);
-      for (let i = 0; i < count; i++) {
-        const y = fOut.filterOutput[i] as number;
-        fAcc.push(n0 + i, input.phaseCycles[i] as number, fOut.ncoPhaseCycles[i] as number, input.x[i] as number, y, spec.centerHz + spec.nco.gainHzPerUnit * y, input.offsetHz[i] as number);
-      }
-    }
-    if (plan && bState && bAcc) {
-      const out: BitTrueRecord = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
-      quantizeInput(plan, input.x, count, out.inputCode);
-      runBitTrueChunk(plan, bState, out.inputCode, count, out as BitTrueChunkOut);
-      pushBitTrue(bAcc, plan, out, input, n0, count);
-    }
+    floatLoop?.chunk(input, n0, count);
+    bitLoop?.chunk(input, n0, count);
     const fraction = (n0 + count) / total;
     options.onProgress?.(fraction);
     yield fraction;
   }
-  const result: SimResult = { sampleCount: total, sampleRateHz: spec.sampleRateHz, durationS: total / spec.sampleRateHz };
-  const floatRun: SimRun | undefined = fAcc?.finish();
-  const bitRun: BitTrueRun | undefined = bAcc && bState ? { ...bAcc.finish(), checksum: bState.checksum, ...(record ? { record } : {}) } : undefined;
-  return { ...result, ...(floatRun ? { float: floatRun } : {}), ...(bitRun ? { bitTrue: bitRun } : {}), ...(plan ? { plan } : {}) };
-}
-
-function pushBitTrue(acc: RunAccumulator, plan: BitTruePlan, out: BitTrueRecord, input: ReturnType<typeof allocInputChunk>, n0: number, count: number): void {
-  const toCycles = 2 ** -plan.ncoAccumulatorBits;
-  const hiWeight = 2 ** 32 * toCycles;
-  const yScale = 2 ** -(plan.dataBits - 1);
-  const ncoHz = bitTrueNcoHzOf(plan);
-  for (let i = 0; i < count; i++) {
-    const phase = (out.phaseHi[i] as number) * hiWeight + (out.phaseLo[i] as number) * toCycles;
-    const y = out.filterCode[i] as number;
-    acc.push(n0 + i, input.phaseCycles[i] as number, phase, input.x[i] as number, y * yScale, ncoHz(y), input.offsetHz[i] as number);
-  }
+  const floatRun = floatLoop?.finish();
+  const bitRun = bitLoop?.finish();
+  return {
+    sampleCount: total,
+    sampleRateHz: spec.sampleRateHz,
+    durationS: total / spec.sampleRateHz,
+    ...(floatRun ? { float: floatRun } : {}),
+    ...(bitRun ? { bitTrue: bitRun } : {}),
+    ...(plan ? { plan } : {}),
+  };
 }
