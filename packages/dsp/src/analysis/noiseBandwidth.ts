@@ -9,8 +9,10 @@ import type { LoopFilterDesign } from '../design.ts';
 import { type ResponseFn, analogLoopResponse, closedLoop, discreteLoopResponse } from './response.ts';
 import { analogClosedLoop } from './loopPolynomials.ts';
 
-/** Simpson intervals in ln f; ample for the smooth, low-Q responses of a loop (checked against quad). */
-export const DEFAULT_INTERVALS = 1200;
+/** Simpson intervals in ln f to start from; doubled until converged (checked against SciPy's quad). */
+export const DEFAULT_INTERVALS = 300;
+export const MAX_INTERVALS = 1 << 18;
+export const RELATIVE_TOL = 1e-9;
 
 /** Closed form for a second-order H = (b1 s + b0)/(s² + a1 s + a0), Hz. */
 export function secondOrderNoiseBandwidthHz(b1: number, b0: number, a1: number, a0: number): number {
@@ -23,9 +25,11 @@ export function highGainNoiseBandwidthHz(wnRadPerS: number, damping: number): nu
 }
 
 /**
- * ∫ |H|² df from 0 to fMaxHz by composite Simpson in u = ln f over [fMinHz, fMaxHz] (|H|² f du = |H|² df),
- * plus the part below fMinHz taken as fMinHz·|H(fMinHz)|² (|H| is flat there) and, for an analog loop,
- * the tail above fMaxHz assuming |H|² ∝ f^−p with p from the last decade.
+ * ∫ |H|² df from 0 to fMaxHz in u = ln f over [fMinHz, fMaxHz] (|H|² df = |H|²·f du) by Simpson's rule
+ * with interval doubling until two successive values agree to RELATIVE_TOL (Romberg's first step,
+ * reusing every evaluation), so a sharply peaked closed loop gets as many points as it needs. The part
+ * below fMinHz is taken as fMinHz·|H(fMinHz)|² (|H| is flat there) and, for an analog loop, the tail above
+ * fMaxHz assuming |H|² ∝ f^−p with p from the last decade.
  */
 export function numericNoiseBandwidthHz(
   h: ResponseFn,
@@ -33,24 +37,34 @@ export function numericNoiseBandwidthHz(
   fMaxHz: number,
   options: { readonly intervals?: number; readonly tail?: boolean } = {},
 ): number {
-  const n = 2 * Math.ceil((options.intervals ?? DEFAULT_INTERVALS) / 2);
-  const u0 = Math.log(fMinHz);
-  const du = (Math.log(fMaxHz) - u0) / n;
-  const g = (u: number) => {
-    const f = Math.exp(u);
+  const m2 = (f: number) => {
     const v = h(f);
-    return (v.re * v.re + v.im * v.im) * f;
+    return v.re * v.re + v.im * v.im;
   };
-  let sum = g(u0) + g(u0 + n * du);
-  for (let i = 1; i < n; i++) sum += (i % 2 === 1 ? 4 : 2) * g(u0 + i * du);
-  let total = (sum * du) / 3;
-  const h0 = h(fMinHz);
-  total += fMinHz * (h0.re * h0.re + h0.im * h0.im);
+  const u0 = Math.log(fMinHz);
+  const span = Math.log(fMaxHz) - u0;
+  const g = (u: number) => m2(Math.exp(u)) * Math.exp(u);
+  let n = Math.max(2, options.intervals ?? DEFAULT_INTERVALS);
+  // Trapezoid sum T(n) and Simpson S(2n) = (4·T(2n) − T(n))/3; each doubling evaluates only the new midpoints.
+  let sumEnds = 0.5 * (g(u0) + g(u0 + span));
+  let sumInner = 0;
+  for (let i = 1; i < n; i++) sumInner += g(u0 + (i * span) / n);
+  let trap = ((sumEnds + sumInner) * span) / n;
+  let simpson = Number.NaN;
+  for (;;) {
+    let mids = 0;
+    for (let i = 0; i < n; i++) mids += g(u0 + ((i + 0.5) * span) / n);
+    sumInner += mids;
+    n *= 2;
+    const trap2 = ((sumEnds + sumInner) * span) / n;
+    const next = (4 * trap2 - trap) / 3;
+    const converged = Math.abs(next - simpson) <= RELATIVE_TOL * Math.abs(next);
+    simpson = next;
+    trap = trap2;
+    if (converged || n >= MAX_INTERVALS) break;
+  }
+  let total = simpson + fMinHz * m2(fMinHz);
   if (options.tail) {
-    const m2 = (f: number) => {
-      const v = h(f);
-      return v.re * v.re + v.im * v.im;
-    };
     const end = m2(fMaxHz);
     const p = Math.log10(m2(fMaxHz / 10) / end);
     if (p > 1.01 && Number.isFinite(p)) total += (end * fMaxHz) / (p - 1);

@@ -35,8 +35,13 @@ interface RefLoop {
   discretePhaseDeg: number[];
 }
 
-const CASES = 120;
-const specs = randomValidSpecs(20261202, CASES);
+const RANDOM_CASES = 120;
+const BOOSTED_CASES = 40;
+const random = randomValidSpecs(20261202, RANDOM_CASES);
+// The same loops with 30x the loop gain: many become unstable, so stability is exercised both ways.
+const boosted = random.slice(0, BOOSTED_CASES).map((s) => ({ ...s, name: `${s.name}_boosted`, nco: { ...s.nco, gainHzPerUnit: s.nco.gainHzPerUnit * 30 } }));
+const specs = [...random, ...boosted];
+const CASES = specs.length;
 let results: AnalysisResult[] = [];
 let ref: RefLoop[] = [];
 
@@ -84,7 +89,7 @@ function expectAbsClose(actual: number | null, expected: number | null, tol: num
 
 const wrap180 = (d: number) => ((((d + 180) % 360) + 360) % 360) - 180;
 
-describe(`loop analysis agrees with SciPy on ${CASES} seeded random specs`, () => {
+describe(`loop analysis agrees with SciPy on ${CASES} seeded random specs (${BOOSTED_CASES} with boosted gain)`, () => {
   it.each(specs.map((s, i) => [i, s.filter.kind, s.rippleFilter ? 'ripple' : 'no ripple'] as const))(
     'case %i (%s, %s): analog and discrete margins',
     (i) => {
@@ -108,6 +113,28 @@ describe(`loop analysis agrees with SciPy on ${CASES} seeded random specs`, () =
     expectHzClose(r.closedLoop.discrete.bandwidth3dbHz, p.discreteClosed.bandwidth3dbHz, 1e-7, 'discrete bandwidth3dbHz');
     expectAbsClose(r.closedLoop.analog.peakingDb, p.analogClosed.peakingDb, 1e-6, 'analog peakingDb');
     expectAbsClose(r.closedLoop.discrete.peakingDb, p.discreteClosed.peakingDb, 1e-6, 'discrete peakingDb');
+  });
+
+  it('closed-loop stability agrees with the simplified Nyquist criterion on SciPy\'s margins (Og5 Sec. 7-5 (memory))', () => {
+    // Open loop stable apart from the integrators and minimum phase: with one gain crossover and at most
+    // one phase crossover, the closed loop is stable iff PM > 0 and GM > 0. Checked for both loops.
+    let checked = 0;
+    let unstable = 0;
+    specs.forEach((_, i) => {
+      const r = results[i]!;
+      for (const which of ['analog', 'discrete'] as const) {
+        const m = r.margins[which];
+        const q = ref[i]![which];
+        if (m.gainCrossingsHz.length !== 1 || m.phaseCrossings.length > 1 || q.phaseMarginDeg === null) continue;
+        const expected = q.phaseMarginDeg > 0 && (q.gainMarginDb === null || q.gainMarginDb > 0);
+        const actual = which === 'analog' ? r.stability.analogStable : r.stability.discreteStable;
+        expect(actual, `case ${i} ${which}`).toBe(expected);
+        checked++;
+        if (!expected) unstable++;
+      }
+    });
+    expect(checked).toBeGreaterThan(150);
+    expect(unstable).toBeGreaterThan(0); // the random set includes unstable loops, so both answers are exercised
   });
 
   it.each(specs.map((_, i) => [i] as const).filter(([i]) => i % 3 === 0))('case %i: noise bandwidth (quad)', (i) => {
