@@ -24,22 +24,24 @@ export function analysisVerdict(
   minPm: number,
   minGm: number,
 ): AnalysisVerdict {
-  const reasons: string[] = [];
-  if (!analogStable) reasons.push('the analog prototype loop is unstable');
-  if (!discrete.stable) reasons.push('the discrete loop is unstable (a closed-loop pole on or outside the unit circle)');
-  if (q.error) reasons.push(`quantisation failed: ${q.error.message}`);
-  if (nco.controlError) reasons.push(`NCO control scaling failed: ${nco.controlError.message}`);
-  else if (q.loop && !q.loop.stable) reasons.push('the loop with quantised coefficients is unstable');
+  const stabilityReasons: string[] = [];
+  if (!analogStable) stabilityReasons.push('the analog prototype loop is unstable');
+  if (!discrete.stable) stabilityReasons.push('the discrete loop is unstable (a closed-loop pole on or outside the unit circle)');
+  if (q.error) stabilityReasons.push(`quantisation failed: ${q.error.message}`);
+  else if (q.loop && !q.loop.stable) stabilityReasons.push('the loop with quantised coefficients is unstable');
+  const marginReasons: string[] = [];
   const check = (label: string, m: LoopMargins) => {
     if (m.phaseMarginDeg === null || m.phaseMarginDeg < minPm) {
-      reasons.push(`${label} phase margin ${m.phaseMarginDeg === null ? 'undefined' : m.phaseMarginDeg.toFixed(1) + '°'} is below ${minPm}°`);
+      marginReasons.push(`${label} phase margin ${m.phaseMarginDeg === null ? 'undefined' : m.phaseMarginDeg.toFixed(1) + '°'} is below ${minPm}°`);
     }
-    if (m.gainMarginDb !== null && m.gainMarginDb < minGm) reasons.push(`${label} gain margin ${m.gainMarginDb.toFixed(1)} dB is below ${minGm} dB`);
+    if (m.gainMarginDb !== null && m.gainMarginDb < minGm) marginReasons.push(`${label} gain margin ${m.gainMarginDb.toFixed(1)} dB is below ${minGm} dB`);
   };
   check('discrete', discrete.margins);
   if (q.loop) check('quantised', q.loop.margins);
-  const stable = analogStable && discrete.stable && q.error === null && (q.loop?.stable ?? false);
-  const marginsMet = !reasons.some((r) => r.includes('margin'));
+  const ncoReasons = nco.controlError ? [`NCO control scaling failed: ${nco.controlError.message}`] : [];
+  const stable = stabilityReasons.length === 0;
+  const marginsMet = marginReasons.length === 0;
+  const reasons = [...stabilityReasons, ...marginReasons, ...ncoReasons];
   return { stable, marginsMet, minPhaseMarginDeg: minPm, minGainMarginDb: minGm, reasons };
 }
 
