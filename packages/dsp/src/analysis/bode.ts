@@ -27,6 +27,7 @@ export interface SampledResponse extends BodeData {
   readonly values: readonly Complex[];
 }
 
+/** Sample a response on the grid: values, dB and unwrapped phase (anchored at −90°·loopType). */
 export function sampleResponse(fn: ResponseFn, grid: readonly number[], loopType: number): SampledResponse {
   const values = grid.map(fn);
   const magnitudeDb = values.map(toDb);

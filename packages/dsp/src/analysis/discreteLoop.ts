@@ -62,6 +62,11 @@ export function integratorCount(filter: DigitalFilter): number {
   return count;
 }
 
+/**
+ * Margins, stability and closed-loop figures of the discrete loop with the given digital filter F(z).
+ * Frequencies in Hz; the grid is log-spaced from fMinHz to exactly fs/2. Sections are preferred: for a
+ * b/a above second order the stability test is Schur–Cohn on the b/a, unreliable for narrow loops.
+ */
 export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, options: DiscreteLoopOptions = {}): DiscreteLoopAnalysis {
   const fs = spec.sampleRateHz;
   const nyquistHz = fs / 2;

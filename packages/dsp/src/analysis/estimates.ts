@@ -9,6 +9,7 @@
  */
 import type { AcquisitionEstimates } from '../types/analysis.ts';
 
+/** Textbook acquisition estimates from ωn, ζ (null when they do not apply), K and F(0) (null for PI). */
 export function acquisitionEstimates(
   second: { readonly wnRadPerS: number; readonly damping: number } | null,
   kRadPerS: number,

@@ -20,6 +20,7 @@ export function cornerFrequenciesHz(sections: readonly AnalogTf[]): number[] {
   return out;
 }
 
+/** Grid limits (Hz) for the analog and the discrete loop. */
 export function analysisRange(
   sections: readonly AnalogTf[],
   kRadPerS: number,

@@ -7,6 +7,7 @@
 import type { AnalogTf, DigitalTf } from '../types/filter.ts';
 import { polyAddAscending, polyAddDescending, polyMul } from '../filters/polynomial.ts';
 
+/** Closed-loop H(s) and E(s) of the analog loop with filter F(s) and loop gain K (1/s). */
 export function analogClosedLoop(f: AnalogTf, kRadPerS: number): { h: AnalogTf; e: AnalogTf } {
   const sD = polyMul(f.den, [1, 0]);
   const kN = f.num.map((x) => x * kRadPerS);
@@ -14,6 +15,7 @@ export function analogClosedLoop(f: AnalogTf, kRadPerS: number): { h: AnalogTf; 
   return { h: { num: kN, den }, e: { num: sD, den } };
 }
 
+/** Closed-loop H(z) and E(z) (b/a, a[0] = 1) of the discrete loop with filter F(z) at sampleRateHz. */
 export function discreteClosedLoop(f: DigitalTf, kRadPerS: number, sampleRateHz: number): { h: DigitalTf; e: DigitalTf } {
   const kt = kRadPerS / sampleRateHz;
   const eNum = polyMul([1, -1], f.a);

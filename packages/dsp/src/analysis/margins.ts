@@ -36,6 +36,7 @@ const END_TOUCH_DEG = 1e-7;
 /** |L| below this (≈ −240 dB) is a transmission zero, not a finite gain margin. */
 const ZERO_MAGNITUDE_DB = -240;
 
+/** Margins of the open loop `fn` from its samples `s` (which fix the search interval, closed at both ends). */
 export function loopMargins(fn: ResponseFn, s: SampledResponse): LoopMargins {
   const notes: string[] = [];
   const gains = gainCrossings(fn, s);

@@ -26,6 +26,7 @@ export interface RippleFigures {
   readonly discretePhaseRippleDeg: number;
 }
 
+/** The 2·centerHz ripple figures of a designed loop filter. */
 export function rippleFigures(spec: LoopSpec, design: LoopFilterDesign, gain: LoopGain): RippleFigures {
   const fs = spec.sampleRateHz;
   const rippleHz = 2 * spec.centerHz;

@@ -15,6 +15,7 @@ export interface SecondOrderParameters {
   readonly wnRadPerS: number;
 }
 
+/** ωn (rad/s and Hz) and ζ of the second-order loop, or null when the loop is not second order. */
 export function secondOrderParameters(
   spec: LoopSpec,
   kRadPerS: number,

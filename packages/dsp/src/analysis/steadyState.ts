@@ -7,6 +7,7 @@
  */
 import type { SteadyStateErrors } from '../types/analysis.ts';
 
+/** Steady-state phase errors of a loop of the given type; dcGain = F(0) (null: infinite), tau1S for PI. */
 export function steadyStateErrors(loopType: number, kRadPerS: number, dcGain: number | null, tau1S: number | null): SteadyStateErrors {
   if (loopType >= 2 || dcGain === null) {
     return {

@@ -15,6 +15,7 @@ export const PLOT_POINTS = 400;
 /** Phase errors beyond this (rad) end the traces of an unstable loop (flagged `diverged`). */
 export const DIVERGED_RAD = 1e6;
 
+/** Step responses over durationS seconds from the error transfer functions E(z) and E(s). */
 export function stepResponses(
   discreteE: DigitalTf,
   analogE: AnalogTf,

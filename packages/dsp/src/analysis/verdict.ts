@@ -16,6 +16,7 @@ export interface AnalysisVerdict {
   readonly reasons: readonly string[];
 }
 
+/** Stable / margins met, with every failure in words; the quantised loop counts as much as the designed one. */
 export function analysisVerdict(
   discrete: DiscreteLoopAnalysis,
   q: QuantizationSummary,
@@ -45,6 +46,7 @@ export function analysisVerdict(
   return { stable, marginsMet, minPhaseMarginDeg: minPm, minGainMarginDb: minGm, reasons };
 }
 
+/** Non-fatal observations about the discrete loop against its analog prototype. */
 export function analysisWarnings(spec: LoopSpec, discrete: DiscreteLoopAnalysis, analog: LoopMargins): SpecWarning[] {
   const w: SpecWarning[] = [];
   const fc = discrete.margins.crossoverHz ?? analog.crossoverHz;

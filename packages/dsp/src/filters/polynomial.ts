@@ -5,6 +5,7 @@
  */
 import type { Complex } from './complex.ts';
 
+/** Product of two polynomials (convolution of their coefficients; either ordering). */
 export function polyMul(p: readonly number[], q: readonly number[]): number[] {
   const out = new Array<number>(p.length + q.length - 1).fill(0);
   for (let i = 0; i < p.length; i++) for (let j = 0; j < q.length; j++) out[i + j]! += p[i]! * q[j]!;
