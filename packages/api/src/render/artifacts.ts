@@ -50,6 +50,8 @@ export interface Manifest {
   readonly results: Readonly<Record<string, unknown>>;
   readonly constants: readonly ManifestConstant[];
   readonly counts: readonly { name: string; value: number }[];
+  /** ROMs (the sine table), every entry as a plain integer code. */
+  readonly tables: readonly { name: string; signedness: 'signed'; widthBits: number; codes: readonly number[] }[];
   readonly files: readonly { name: string; bytes: number; sha256: string }[];
   readonly caution: string;
 }
@@ -109,6 +111,7 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
         readmeView({
           spec,
           quantized: computation.quantized,
+          plan: computation.plan,
           model,
           toolVersion: versions.loopwright,
           specSha256,
@@ -146,6 +149,7 @@ function buildManifest(
       code: c.code.toString(),
     })),
     counts: model.counts.map((c) => ({ name: names.constant(c.suffix), value: c.value })),
+    tables: model.tables.map((t) => ({ name: names.constant(t.suffix), signedness: t.signedness, widthBits: t.widthBits, codes: t.codes })),
     files: files.map((f) => ({ name: f.name, bytes: f.bytes.length, sha256: f.sha256 })),
     caution: CAUTION,
   };

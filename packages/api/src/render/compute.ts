@@ -6,13 +6,11 @@
 import {
   analyzeDesign,
   FieldError,
-  ncoControlScaling,
-  ncoTuning,
   parseLoopSpec,
+  planBitTrue,
   type AnalysisResult,
   type LoopSpec,
-  type NcoControlScaling,
-  type NcoTuning,
+  type BitTruePlan,
   type QuantizedFilter,
 } from '@loopwright/dsp';
 import type { ReleaseComputation } from './artifacts.ts';
@@ -48,8 +46,8 @@ export interface DesignComputation {
   readonly spec: LoopSpec;
   readonly analysis: AnalysisResult;
   readonly quantized: QuantizedFilter;
-  readonly tuning: NcoTuning;
-  readonly control: NcoControlScaling;
+  /** Every integer constant of the bit-true loop (dsp README, "Bit-true arithmetic"). */
+  readonly plan: BitTruePlan;
 }
 
 export function computeDesign(spec: LoopSpec): DesignComputation {
@@ -59,25 +57,22 @@ export function computeDesign(spec: LoopSpec): DesignComputation {
     const e = analysis.quantization.error;
     throw new RenderInputError(e?.field ?? 'fixedPoint', `the loop filter cannot be quantised: ${e?.message ?? 'unknown reason'}`);
   }
-  const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, spec.nco.accumulatorBits);
-  const control = ncoControlScaling({
-    gainHzPerUnit: spec.nco.gainHzPerUnit,
-    sampleRateHz: spec.sampleRateHz,
-    accumulatorBits: spec.nco.accumulatorBits,
-    dataBits: spec.fixedPoint.dataBits,
-    coefficientBits: spec.fixedPoint.coefficientBits,
-    rounding: spec.fixedPoint.rounding,
-  });
-  return { spec, analysis, quantized, tuning, control };
+  let plan: BitTruePlan;
+  try {
+    plan = planBitTrue(spec, quantized);
+  } catch (err) {
+    if (err instanceof FieldError) throw new RenderInputError(err.field, err.message);
+    throw err;
+  }
+  return { spec, analysis, quantized, plan };
 }
 
 export function withVectors(d: DesignComputation, vectors: ReleaseVectors): ReleaseComputation {
   return {
     spec: d.spec,
     quantized: d.quantized,
-    tuning: d.tuning,
-    control: d.control,
-    results: manifestResults(d.analysis, { nco: { tuning: d.tuning, control: d.control }, vectors: vectors.summary }),
+    plan: d.plan,
+    results: manifestResults(d.analysis, { nco: { tuning: d.plan.tuning, control: d.plan.control, fullScale: d.plan.ncoFullScale }, vectors: vectors.summary }),
     vectorsCsv: vectors.csv,
     vectorColumns: vectors.columns,
   };

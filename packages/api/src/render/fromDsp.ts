@@ -2,22 +2,21 @@
  * Builds the language-neutral constants (./handoff.ts) from the server's dsp results.
  * Only numbers and fixed wording enter; the design name is the sole identifier source.
  */
-import type { LoopSpec, NcoControlScaling, NcoTuning, QuantizedFilter } from '@loopwright/dsp';
-import type { CodeConstant, CountConstant, HandoffModel, WordType } from './handoff.ts';
+import type { BitTruePlan, LoopSpec, QuantizedFilter } from '@loopwright/dsp';
+import type { CodeConstant, CountConstant, HandoffModel, TableConstant, WordType } from './handoff.ts';
 import { codeRange, toCode } from './literals.ts';
 
 export interface HandoffInput {
   readonly spec: LoopSpec;
   readonly quantized: QuantizedFilter;
-  /** NCO tuning word M = round(centerHz·2^N/fs) (TRG71), from dsp. */
-  readonly tuning: NcoTuning;
-  /** Filter output to tuning increment: Δ = roundShift(y·gainCode, gainShift), from dsp. */
-  readonly control: NcoControlScaling;
+  /** The bit-true loop's constants: tuning word, control scaling, sine table (dsp's planBitTrue). */
+  readonly plan: BitTruePlan;
 }
 
 const COEFFICIENT_NAMES = ['b0', 'b1', 'b2', 'a1', 'a2'] as const;
 
-export function handoffModel({ spec, quantized, tuning, control }: HandoffInput): HandoffModel {
+export function handoffModel({ spec, quantized, plan }: HandoffInput): HandoffModel {
+  const { tuning, control } = plan;
   const fp = spec.fixedPoint;
   const q = quantized.format;
   const qText = `Q${q.wordBits - q.fractionBits}.${q.fractionBits} (${q.wordBits} bits, ${q.fractionBits} fraction bits)`;
@@ -30,6 +29,8 @@ export function handoffModel({ spec, quantized, tuning, control }: HandoffInput)
     { suffix: 'NCO_ACC_BITS', value: spec.nco.accumulatorBits, meaning: 'width of the NCO phase accumulator, unsigned' },
     { suffix: 'NCO_PHASE_BITS', value: spec.nco.phaseBits, meaning: 'sine table address bits: the top bits of the phase accumulator' },
     { suffix: 'NCO_AMPLITUDE_BITS', value: spec.nco.amplitudeBits, meaning: 'width of NCO output samples, signed' },
+    { suffix: 'NCO_FULL_SCALE', value: plan.ncoFullScale, meaning: 'NCO peak code 2^(B-1) - 1: the sine table is symmetric' },
+    { suffix: 'SINE_LENGTH', value: plan.sineTable.length, meaning: 'entries of the sine table, 2^NCO_PHASE_BITS' },
     {
       suffix: 'NCO_GAIN_SHIFT',
       value: control.gainShift,
@@ -77,7 +78,16 @@ export function handoffModel({ spec, quantized, tuning, control }: HandoffInput)
     { suffix: 'acc', signedness: 'signed', widthBits: fp.accumulatorBits, meaning: 'filter accumulator' },
     { suffix: 'phase', signedness: 'unsigned', widthBits: spec.nco.accumulatorBits, meaning: 'NCO phase accumulator' },
   ];
-  return { name: spec.name, counts, codes, types };
+  const tables: TableConstant[] = [
+    {
+      suffix: 'SINE',
+      signedness: 'signed',
+      widthBits: spec.nco.amplitudeBits,
+      codes: Array.from(plan.sineTable),
+      meaning: `sine table: entry k = round((2^(B-1) - 1) sin(2 pi k / 2^P)), B = ${spec.nco.amplitudeBits}, P = ${spec.nco.phaseBits}; address (phase >> (N - P)) + 2^(P-2) mod 2^P gives cos`,
+    },
+  ];
+  return { name: spec.name, counts, codes, types, tables };
 }
 
 function limits(prefix: string, widthBits: number, what: string): CodeConstant[] {

@@ -32,10 +32,20 @@ export interface WordType {
   readonly meaning: string;
 }
 
+/** A ROM of small signed codes (|code| < 2^31, so every language holds them as plain integers). */
+export interface TableConstant {
+  readonly suffix: string;
+  readonly signedness: 'signed';
+  readonly widthBits: number;
+  readonly codes: readonly number[];
+  readonly meaning: string;
+}
+
 export interface HandoffModel {
   /** The validated design name. */
   readonly name: string;
   readonly counts: readonly CountConstant[];
   readonly codes: readonly CodeConstant[];
   readonly types: readonly WordType[];
+  readonly tables: readonly TableConstant[];
 }

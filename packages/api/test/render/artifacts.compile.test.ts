@@ -71,6 +71,22 @@ describe.each(cases)('artifacts of $id', ({ spec }) => {
   });
 });
 
+describe('the sine table', () => {
+  it('holds round((2^(B-1) - 1) sin(2 pi k / 2^P)) for every address (full scale 2^(B-1) - 1)', () => {
+    // The table definition of TRG71 with the symmetric full scale the dsp README states; sin from Math.
+    const { manifest } = render(mainsSyncSpec);
+    const table = manifest.tables.find((t) => t.name === 'MAINS_SYNC_50HZ_SINE')!;
+    const { phaseBits: p, amplitudeBits: b } = mainsSyncSpec.nco;
+    expect(table.codes).toHaveLength(2 ** p);
+    expect(table.widthBits).toBe(b);
+    const fullScale = 2 ** (b - 1) - 1;
+    table.codes.forEach((code, k) => {
+      const exact = fullScale * Math.sin((2 * Math.PI * k) / 2 ** p);
+      expect(Math.abs(code - exact), `entry ${k}`).toBeLessThanOrEqual(0.5 + 1e-9);
+    });
+  });
+});
+
 describe('the checkers can fail', () => {
   // A checker that cannot fail proves nothing: change one code in the manifest and each language must object.
   const { dir, manifest, names, vhdlPackage } = render(mainsSyncSpec);
@@ -79,6 +95,19 @@ describe('the checkers can fail', () => {
     ...manifest,
     constants: manifest.constants.map((c) => (c === target ? { ...c, code: String(BigInt(c.code) + 1n) } : c)),
   };
+
+  const tamperedTable: Manifest = {
+    ...manifest,
+    tables: manifest.tables.map((t) => ({ ...t, codes: t.codes.map((c, k) => (k === 7 ? c - 1 : c)) })),
+  };
+
+  it('each language reports a changed sine-table entry', () => {
+    const runs = [checkVhdl(dir, names.vhdl, vhdlPackage, tamperedTable), checkVerilog(dir, names.verilog, tamperedTable), checkC(dir, names.cHeader, tamperedTable)];
+    for (const r of runs) {
+      expect(r.ok).toBe(false);
+      expect(r.output).toMatch(/MAINS_SYNC_50HZ_SINE value at 7/);
+    }
+  });
 
   it('GHDL reports the changed constant', () => {
     const r = checkVhdl(dir, names.vhdl, vhdlPackage, tampered);

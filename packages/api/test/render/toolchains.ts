@@ -57,6 +57,17 @@ function vhdlChecker(manifest: Manifest, vhdlPackage: string): string {
       (c) => `    assert ${vhdlIdentifier(c.name)} = ${c.value} report "${c.name} value" severity error;`,
     ),
   ];
+  const tableDecls = manifest.tables.map((t, i) => `  constant E_TABLE_${i} : expected_table(0 to ${t.codes.length - 1}) := (${t.codes.join(', ')});`);
+  const tableChecks = manifest.tables.map((t, i) => {
+    const n = vhdlIdentifier(t.name);
+    return [
+      `    assert ${n}'length = ${t.codes.length} report "${t.name} length" severity error;`,
+      `    assert ${n}(0)'length = ${t.widthBits} report "${t.name} width" severity error;`,
+      `    for k in E_TABLE_${i}'range loop`,
+      `      assert to_integer(${n}(k)) = E_TABLE_${i}(k) report "${t.name} value at " & integer'image(k) severity error;`,
+      '    end loop;',
+    ].join('\n');
+  });
   return `library ieee;
 use ieee.std_logic_1164.all;
 use ieee.numeric_std.all;
@@ -83,10 +94,13 @@ architecture sim of lw_check is
     end if;
     return std_logic_vector(acc(w - 1 downto 0));
   end function;
+  type expected_table is array (natural range <>) of integer;
+${tableDecls.join('\n')}
 begin
   process
   begin
 ${asserts.join('\n')}
+${tableChecks.join('\n')}
     report "checked ${manifest.constants.length + manifest.counts.length} constants";
     wait;
   end process;
@@ -124,13 +138,31 @@ function verilogChecker(manifest: Manifest, include: string): string {
     };
   });
   const counts = manifest.counts.map((c) => `    if (${c.name} != ${c.value}) $fatal(1, "${c.name} value");`);
+  const tables = manifest.tables.map((t, i) => {
+    const bits = Math.max(1, Math.ceil(Math.log2(t.codes.length)));
+    return {
+      decl: `  integer e_table_${i} [0:${t.codes.length - 1}];\n  reg [${bits - 1}:0] address_${i};`,
+      fill: t.codes.map((c, k) => `    e_table_${i}[${k}] = ${c};`).join('\n'),
+      check: [
+        `    for (k = 0; k < ${t.codes.length}; k = k + 1) begin`,
+        `      address_${i} = k;`,
+        `      if ($bits(${t.name}(address_${i})) != ${t.widthBits}) $fatal(1, "${t.name} width");`,
+        `      if ($signed(${t.name}(address_${i})) != e_table_${i}[k]) $fatal(1, "${t.name} value at %0d", k);`,
+        '    end',
+      ].join('\n'),
+    };
+  });
   return `\`timescale 1ns / 1ps
 module lw_check;
 \`include "${include}"
 ${lines.map((l) => l.decl).join('\n')}
+  integer k;
+${tables.map((t) => t.decl).join('\n')}
   initial begin
+${tables.map((t) => t.fill).join('\n')}
 ${lines.map((l) => l.check).join('\n')}
 ${counts.join('\n')}
+${tables.map((t) => t.check).join('\n')}
     $display("checked ${manifest.constants.length + manifest.counts.length} constants");
     $finish;
   end
@@ -158,15 +190,27 @@ function cChecker(manifest: Manifest, header: string): string {
     return `${width}  if (${parse}) { fprintf(stderr, "${c.name}\\n"); failures++; }`;
   });
   const counts = manifest.counts.map((c) => `  if (${c.name} != ${c.value}) { fprintf(stderr, "${c.name}\\n"); failures++; }`);
+  const tableDecls = manifest.tables.map((t, i) => `static const long long e_table_${i}[] = { ${t.codes.join(', ')} };`);
+  const tableChecks = manifest.tables.map((t, i) =>
+    [
+      `  _Static_assert(sizeof ${t.name} / sizeof ${t.name}[0] == ${t.codes.length}, "${t.name} length");`,
+      `  for (size_t k = 0; k < ${t.codes.length}; k++) {`,
+      `    if ((long long)${t.name}[k] != e_table_${i}[k]) { fprintf(stderr, "${t.name} value at %zu\\n", k); failures++; }`,
+      '  }',
+    ].join('\n'),
+  );
   return `#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include "${header}"
 
+${tableDecls.join('\n')}
+
 int main(void) {
   int failures = 0;
 ${checks.join('\n')}
 ${counts.join('\n')}
+${tableChecks.join('\n')}
   printf("checked ${manifest.constants.length + manifest.counts.length} constants\\n");
   return failures == 0 ? 0 : 1;
 }

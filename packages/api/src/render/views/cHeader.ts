@@ -3,6 +3,7 @@ import type { HandoffModel } from '../handoff.ts';
 import { codeNames, commentText } from '../identifiers.ts';
 import { cLiteral, cType } from '../literals.ts';
 import type { ArtifactHeader } from './header.ts';
+import { groupLines } from './tables.ts';
 
 export interface CHeaderView {
   readonly header: ArtifactHeader;
@@ -10,6 +11,7 @@ export interface CHeaderView {
   readonly counts: readonly { name: string; value: string; comment: string }[];
   readonly codes: readonly { name: string; literal: string; comment: string }[];
   readonly types: readonly { name: string; type: string; comment: string }[];
+  readonly tables: readonly { name: string; type: string; length: string; comment: string; lines: { text: string }[] }[];
 }
 
 export function cHeaderView(model: HandoffModel, header: ArtifactHeader): CHeaderView {
@@ -31,6 +33,14 @@ export function cHeaderView(model: HandoffModel, header: ArtifactHeader): CHeade
       name: `${model.name}_${t.suffix.toLowerCase()}_t`,
       type: cType(t.signedness, t.widthBits),
       comment: commentText(t.meaning),
+    })),
+    // Table codes are below 2^31 in magnitude: plain int constants, converted exactly to the element type.
+    tables: model.tables.map((t) => ({
+      name: names.constant(t.suffix),
+      type: cType(t.signedness, t.widthBits),
+      length: String(t.codes.length),
+      comment: commentText(t.meaning),
+      lines: groupLines(t.codes.map(String), 12, ',', ','),
     })),
   };
 }

@@ -1,5 +1,5 @@
 /** View-model of templates/readme.txt.hbs: the Q formats and conventions of one release. */
-import type { LoopSpec, QuantizedFilter } from '@loopwright/dsp';
+import { bitTrueFormats, type BitTruePlan, type LoopSpec, type QuantizedFilter } from '@loopwright/dsp';
 import type { HandoffModel } from '../handoff.ts';
 import { codeNames, commentText } from '../identifiers.ts';
 import { CAUTION_LINES } from '../caution.ts';
@@ -22,6 +22,7 @@ export interface ReadmeView {
 export interface ReadmeInput {
   readonly spec: LoopSpec;
   readonly quantized: QuantizedFilter;
+  readonly plan: BitTruePlan;
   readonly model: HandoffModel;
   readonly toolVersion: string;
   readonly specSha256: string;
@@ -41,6 +42,29 @@ const OVERFLOW_TEXT: Record<LoopSpec['fixedPoint']['overflow'], string> = {
   wrap: "wrap: a result outside the word keeps its low bits (two's-complement wrap-around)",
 };
 
+/**
+ * The per-sample arithmetic of dsp's bit-true loop (packages/dsp/README.md, "Bit-true arithmetic"),
+ * restated with the generated constant names; the golden vectors follow it bit for bit.
+ */
+function arithmeticSteps(prefix: string, rounding: string, overflow: string): string[] {
+  const c = (s: string) => `${prefix}_${s}`;
+  return [
+    `Symbols: D = ${c('DATA_BITS')}, Wc = ${c('COEF_BITS')}, Fc = ${c('COEF_FRACTION_BITS')}, Wa = ${c('ACC_BITS')}, N = ${c('NCO_ACC_BITS')}, P = ${c('NCO_PHASE_BITS')}, B = ${c('NCO_AMPLITUDE_BITS')}, FS = ${c('NCO_FULL_SCALE')}, M = ${c('NCO_TUNING_WORD')}, G = ${c('NCO_GAIN_CODE')}, S = ${c('NCO_GAIN_SHIFT')}.`,
+    `round_s(p), s >= 1 (this release rounds "${rounding}"): q = p >> s (arithmetic shift, floor), r = p - q*2^s, h = 2^(s-1); truncate gives q; nearest gives q + 1 if r > h or (r = h and p >= 0); half-even gives q + 1 if r > h or (r = h and q odd); round_0(p) = p.`,
+    `reduce_W(v) (this release uses "${overflow}"): saturate clamps to [-2^(W-1), 2^(W-1) - 1]; wrap keeps the low W bits, sign-extended.`,
+    'Per sample n (state: phase register; per section x1, x2, y1, y2; all start at 0):',
+    '1. x = input code (D bits; the golden vectors give it).',
+    '2. a = ((phase >> (N - P)) + 2^(P-2)) mod 2^P: the top P phase bits plus a quarter turn, so the table gives cos.',
+    `3. c = ${c('SINE')}[a] for the sine waveform; for the square waveform c = +FS if a < 2^(P-1), else -FS.`,
+    '4. detector u = reduce_D(round_(B-1)(x*c)).',
+    '5. each section in index order, v = u into the first: acc = b0*v + b1*x1 + b2*x2 - a1*y1 - a2*y2, exact;',
+    '   if Wa < Wc + D + 1 then acc = reduce_Wa(acc); y = reduce_D(round_Fc(acc)); x2 = x1, x1 = v, y2 = y1, y1 = y; v = y.',
+    '6. filter output y = v of the last section.',
+    '7. tuning increment d = round_S(y*G) if S > 0, else y*G*2^(-S).',
+    '8. phase = (phase + M + d) mod 2^N.',
+  ];
+}
+
 /** DESIGN.md "Conventions the numbers follow", restated for the firmware engineer. */
 const CONVENTIONS: readonly string[] = [
   'Open loop L(s) = Kd*Ko*F(s)/s, Ko = 2*pi*gainHzPerUnit rad/s per unit of control, Kd = A_in*A_nco/2 per radian (multiplier detector, A_nco = 1 at full scale).',
@@ -53,7 +77,6 @@ const CONVENTIONS: readonly string[] = [
 export function readmeView(input: ReadmeInput): ReadmeView {
   const { spec, quantized, model } = input;
   const fp = spec.fixedPoint;
-  const q = quantized.format;
   const names = codeNames(model.name);
   const qm = (w: number, f: number) => `Q${w - f}.${f}, ${w} bits signed, ${f} fraction bits`;
   return {
@@ -62,17 +85,15 @@ export function readmeView(input: ReadmeInput): ReadmeView {
     specSha256: input.specSha256,
     caution: CAUTION_LINES,
     files: input.files,
-    formats: [
-      { what: 'loop filter coefficients', format: `${qm(q.wordBits, q.fractionBits)}${quantized.fractionBitsAuto ? ' (fraction bits chosen automatically)' : ''}` },
-      { what: 'detector and filter data', format: `${fp.dataBits} bits signed, full scale 1.0 = 2^${fp.dataBits - 1}` },
-      { what: 'filter accumulator', format: `${fp.accumulatorBits} bits signed` },
-      { what: 'NCO phase accumulator', format: `${spec.nco.accumulatorBits} bits unsigned, one full turn = 2^${spec.nco.accumulatorBits}` },
-      { what: 'NCO output', format: `${spec.nco.amplitudeBits} bits signed, ${spec.nco.waveform} waveform` },
-    ],
+    formats: bitTrueFormats(input.plan).map((f) => ({
+      what: `${f.signal} (${f.description})`,
+      format: f.signed ? `${qm(f.wordBits, f.fractionBits)}` : `${f.wordBits} bits unsigned, ${f.fractionBits} fraction bits`,
+    })),
     arithmetic: [
-      `Rounding: ${ROUNDING_TEXT[fp.rounding]}.`,
-      `Overflow: ${OVERFLOW_TEXT[fp.overflow]}.`,
+      `Rounding: ${ROUNDING_TEXT[fp.rounding]}${quantized.fractionBitsAuto ? '; coefficient fraction bits chosen automatically (the most that hold every coefficient)' : ''}.`,
+      `Overflow: ${OVERFLOW_TEXT[fp.overflow]}; the input always saturates, as an ADC clips.`,
       `Loop update rate ${spec.sampleRateHz} Hz on a ${spec.clockHz} Hz fabric clock; NCO centre ${spec.centerHz} Hz.`,
+      ...arithmeticSteps(names.prefix, fp.rounding, fp.overflow),
     ],
     conventions: CONVENTIONS,
     vectorsFile: input.vectorsFile,

@@ -3,6 +3,7 @@ import type { HandoffModel } from '../handoff.ts';
 import { codeNames, commentText, vhdlIdentifier } from '../identifiers.ts';
 import { vhdlLiteral, vhdlType } from '../literals.ts';
 import type { ArtifactHeader } from './header.ts';
+import { groupLines } from './tables.ts';
 
 export interface VhdlView {
   readonly header: ArtifactHeader;
@@ -10,6 +11,7 @@ export interface VhdlView {
   readonly counts: readonly { name: string; type: string; value: string; comment: string }[];
   readonly codes: readonly { name: string; type: string; literal: string; comment: string }[];
   readonly types: readonly { name: string; type: string; comment: string }[];
+  readonly tables: readonly { typeName: string; name: string; last: string; elementType: string; comment: string; lines: { text: string }[] }[];
 }
 
 export function vhdlView(model: HandoffModel, header: ArtifactHeader): VhdlView {
@@ -33,6 +35,15 @@ export function vhdlView(model: HandoffModel, header: ArtifactHeader): VhdlView 
       name: vhdlIdentifier(`${model.name}_${t.suffix.toLowerCase()}_t`),
       type: vhdlType(t.signedness, t.widthBits),
       comment: commentText(t.meaning),
+    })),
+    // Table codes are below 2^31 in magnitude, inside VHDL's guaranteed integer range, so to_signed is exact.
+    tables: model.tables.map((t) => ({
+      typeName: vhdlIdentifier(`${model.name}_${t.suffix.toLowerCase()}_table_t`),
+      name: names.vhdlConstant(t.suffix),
+      last: String(t.codes.length - 1),
+      elementType: vhdlType(t.signedness, t.widthBits),
+      comment: commentText(t.meaning),
+      lines: groupLines(t.codes.map((c) => `to_signed(${c}, ${t.widthBits})`), 6, ',', ''),
     })),
   };
 }
