@@ -1,5 +1,6 @@
 /** Conformance uploads of a release: compare with its golden vectors, store the verdict, list them. */
 import { createHash } from 'node:crypto';
+import type { GoldenVectors } from '@loopwright/dsp';
 import type { DataSource } from 'typeorm';
 import type { SessionUser } from '../contract.ts';
 import { AppError, invalidInput } from '../errors.ts';
@@ -8,7 +9,7 @@ import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from './contract.ts'
 import { ConformanceRun } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
 import { fileContents } from './repository.ts';
-import { compareVectors, MalformedCapture, parseVectorCsv } from './vectorCompare.ts';
+import { compareWithGolden, goldenFromRows, MalformedCapture, parseVectorCsv } from './vectorCompare.ts';
 
 interface RunRow {
   id: number;
@@ -61,7 +62,12 @@ export class ConformanceService {
       if (err instanceof MalformedCapture) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${file.originalname.slice(0, 120)}: ${err.message}`);
       throw err;
     }
-    const result = compareVectors(parseVectorCsv(Buffer.from(goldenFile.content).toString('utf8')), got);
+    const manifest = await this.releases.manifestOf(row.id);
+    const stored = manifest.results as { vectors?: { scenario?: GoldenVectors['scenario'] } };
+    const spec = manifest.spec;
+    if (!stored.vectors?.scenario) throw new AppError('internal', 'the release records no golden-vector scenario', 500);
+    const golden = goldenFromRows(parseVectorCsv(Buffer.from(goldenFile.content).toString('utf8')), stored.vectors.scenario, spec.nco.accumulatorBits);
+    const result = compareWithGolden(golden, got);
     const id = await this.dataSource.transaction(async (manager) => {
       const inserted = await manager.insert(ConformanceRun, {
         releaseId: row.id,

@@ -1,10 +1,11 @@
 /**
  * Conformance: an uploaded capture in the golden-vector CSV layout (dsp's VECTOR_CSV_COLUMNS, one
  * header line, one row of decimal integers per sample) compared value by value with the release's
- * golden vectors. Parsing is csv-parse's; a malformed file is refused with the line that is wrong.
+ * golden vectors. Parsing is csv-parse's, and a malformed file is refused with the line that is wrong;
+ * the comparison is dsp's compareVectors against the release's stored golden CSV.
  */
 import { parse } from 'csv-parse/sync';
-import { VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
+import { compareVectors, VECTOR_CSV_COLUMNS, type GoldenVectors } from '@loopwright/dsp';
 
 export const MAX_REPORTED_MISMATCHES = 10;
 
@@ -61,41 +62,48 @@ export function parseVectorCsv(text: string): string[][] {
   });
 }
 
-/** Integers compared as text after normalising (-0, leading zeros), so 64-bit values stay exact. */
-function normal(v: string): string {
-  const n = BigInt(v);
-  return n.toString();
+/** The stored golden CSV of a release as dsp's GoldenVectors (the stored bytes are the reference, not a recomputation). */
+export function goldenFromRows(rows: readonly string[][], scenario: GoldenVectors['scenario'], accumulatorBits: number): GoldenVectors {
+  const n = rows.length;
+  const record = {
+    length: n,
+    inputCode: new Int32Array(n),
+    phaseHi: new Uint32Array(n),
+    phaseLo: new Uint32Array(n),
+    tableAddress: new Int32Array(n),
+    ncoCode: new Int32Array(n),
+    detectorCode: new Int32Array(n),
+    filterCode: new Int32Array(n),
+  };
+  rows.forEach((r, i) => {
+    const phase = BigInt(r[2] ?? '0');
+    record.inputCode[i] = Number(r[1]);
+    record.phaseHi[i] = Number(phase >> 32n);
+    record.phaseLo[i] = Number(phase & 0xffffffffn);
+    record.tableAddress[i] = Number(r[3]);
+    record.ncoCode[i] = Number(r[4]);
+    record.detectorCode[i] = Number(r[5]);
+    record.filterCode[i] = Number(r[6]);
+  });
+  return { scenario, accumulatorBits, record, checksum: 0 };
 }
 
-export function compareVectors(golden: readonly string[][], got: readonly string[][]): Comparison {
-  const mismatches: Mismatch[] = [];
-  let count = 0;
-  const add = (m: Mismatch) => {
-    count++;
-    if (mismatches.length < MAX_REPORTED_MISMATCHES) mismatches.push(m);
-  };
-  const n = Math.max(golden.length, got.length);
-  for (let i = 0; i < n; i++) {
-    const e = golden[i];
-    const g = got[i];
-    if (!e) {
-      add({ sampleIndex: i, column: 'sample', expected: '(no sample)', got: g?.[0] ?? '' });
-      continue;
-    }
-    if (!g) {
-      add({ sampleIndex: i, column: 'sample', expected: e[0] ?? String(i), got: '(missing)' });
-      continue;
-    }
-    VECTOR_CSV_COLUMNS.forEach((column, c) => {
-      const ev = e[c] ?? '';
-      const gv = g[c] ?? '';
-      if (normal(ev) !== normal(gv)) add({ sampleIndex: i, column, expected: ev, got: gv });
-    });
+/**
+ * dsp's compareVectors on the parsed rows; a missing or extra sample counts as one more mismatch
+ * (dsp reports the row counts apart), listed in column "sample" when there is room.
+ */
+export function compareWithGolden(golden: GoldenVectors, got: readonly string[][]): Comparison {
+  const rows = got.map((r) => Object.fromEntries(VECTOR_CSV_COLUMNS.map((c, i) => [c, r[i]])));
+  const r = compareVectors(golden, rows, MAX_REPORTED_MISMATCHES);
+  const mismatches: Mismatch[] = r.mismatches.map((m) => ({ sampleIndex: m.sample, column: m.column, expected: m.expected, got: m.actual }));
+  const rowDifference = Math.abs(r.uploadedSamples - r.expectedSamples);
+  for (let i = Math.min(r.uploadedSamples, r.expectedSamples); i < Math.max(r.uploadedSamples, r.expectedSamples) && mismatches.length < MAX_REPORTED_MISMATCHES; i++) {
+    mismatches.push(i < r.expectedSamples ? { sampleIndex: i, column: 'sample', expected: String(i), got: '(missing)' } : { sampleIndex: i, column: 'sample', expected: '(no sample)', got: got[i]?.[0] ?? '' });
   }
   return {
-    verdict: count === 0 ? 'bit-exact' : 'mismatch',
-    samplesCompared: Math.min(golden.length, got.length),
-    mismatchCount: count,
+    verdict: r.bitExact ? 'bit-exact' : 'mismatch',
+    samplesCompared: Math.min(r.uploadedSamples, r.expectedSamples),
+    mismatchCount: r.mismatchCount + rowDifference,
     firstMismatches: mismatches,
   };
 }

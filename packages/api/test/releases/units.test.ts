@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { valueChanges } from '../../src/releases/diff.ts';
 import { issueToken, parseToken, tokenHash, tokenMatches } from '../../src/releases/reviewToken.ts';
 import { allowedEvents, RELEASE_EVENTS, RELEASE_STATES, transition } from '../../src/releases/stateMachine.ts';
-import { compareVectors, parseVectorCsv } from '../../src/releases/vectorCompare.ts';
+import { compareWithGolden, goldenFromRows, parseVectorCsv } from '../../src/releases/vectorCompare.ts';
 
 describe('release state machine', () => {
   it('allows exactly the documented transitions', () => {
@@ -63,9 +63,11 @@ describe('review tokens', () => {
   });
 });
 
-describe('golden vector comparison', () => {
+describe('golden vector comparison (dsp compareVectors on the stored CSV)', () => {
   const header = VECTOR_CSV_COLUMNS.join(',');
   const row = (n: number, f = 0) => [n, 10, 4294967295, 3, -7, 5, f].join(',');
+  const scenario = { kind: 'tone', offsetHz: 0, durationS: 1 } as const;
+  const compareVectors = (g: string[][], got: string[][]) => compareWithGolden(goldenFromRows(g, scenario, 32), got);
   const golden = parseVectorCsv([header, row(0), row(1), row(2)].join('\n') + '\n');
 
   it('is bit-exact for the same numbers, however they are spaced or zero-padded', () => {
@@ -80,6 +82,13 @@ describe('golden vector comparison', () => {
     expect(r.mismatchCount).toBe(15);
     expect(r.firstMismatches).toHaveLength(10);
     expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'filter_code', expected: '0', got: '1' });
+  });
+
+  it('keeps 64-bit phase words exact through the stored-CSV record', () => {
+    const wide = parseVectorCsv(`${header}\n0,1,18446744073709551615,2,3,4,5\n`);
+    expect(compareVectors(wide, wide).verdict).toBe('bit-exact');
+    const off = parseVectorCsv(`${header}\n0,1,18446744073709551614,2,3,4,5\n`);
+    expect(compareVectors(wide, off).firstMismatches).toEqual([{ sampleIndex: 0, column: 'nco_phase', expected: '18446744073709551615', got: '18446744073709551614' }]);
   });
 
   it('counts missing samples as mismatches', () => {
