@@ -1,0 +1,324 @@
+#!/usr/bin/python3
+"""Independent reference figures for the numerical audit of packages/dsp.
+
+Reads {"cases": [spec, ...], "nco": [...], "bilinear": [...], "openLoop": [...]} (JSON) on stdin and
+writes the answers as JSON on stdout. Nothing here reads or mirrors the TypeScript code: every figure is
+built from DESIGN.md's conventions with numpy/scipy.signal (Debian python3-scipy):
+
+* F(s) from the spec's filter formulas (DESIGN.md; REFERENCES.md G3/B6 for targets -> time constants),
+  Butterworth from scipy.signal.butter(analog=True); the ripple filter multiplies in.
+* Discrete F(z): scipy.signal.bilinear_zpk with fs' = c/2, c = 2 fs or wp/tan(wp/(2 fs)) (OS3, PM4).
+* L(s) = K F(s)/s, K = (A/2)(2 pi g); L(z) = K T F(z) z^-1/(1 - z^-1) (DESIGN.md conventions).
+* Phase from the sum of factor angles (continuous, so no unwrapping), margins on a 40 000-point log
+  grid refined with brentq (no control library in Debian; REFERENCES.md).
+* Noise bandwidth = integral of |H|^2 df with scipy.integrate.quad in ln f (exact integral, G3).
+* NCO tuning word with Python's exact integers / Fraction (TRG71), worked without floating point.
+"""
+import json
+import math
+import sys
+import warnings
+from fractions import Fraction
+
+import numpy as np
+from scipy import integrate, optimize, signal
+
+GRID = 40000
+
+
+def bilinear_c(fs, prewarp_hz):
+    if prewarp_hz is None:
+        return 2.0 * fs
+    wp = 2 * math.pi * prewarp_hz
+    return wp / math.tan(wp / (2 * fs))
+
+
+def loop_gain(spec):
+    kd = spec["input"]["amplitude"] / 2.0
+    ko = 2 * math.pi * spec["nco"]["gainHzPerUnit"]
+    return kd * ko
+
+
+def time_constants(kind, f, k):
+    if "tau1S" in f and f.get("tau1S") is not None:
+        return f["tau1S"], f["tau2S"]
+    wn = 2 * math.pi * f["naturalHz"]
+    z = f["damping"]
+    if kind == "pi":  # tau1 = K/wn^2, tau2 = 2 zeta/wn (G3 Ch. 2, B6)
+        return k / wn ** 2, 2 * z / wn
+    t2 = 2 * z / wn - 1 / k  # lag-lead: tau1+tau2 = K/wn^2, tau2 = 2 zeta/wn - 1/K
+    return k / wn ** 2 - t2, t2
+
+
+def filter_zpk(spec, k):
+    f = spec["filter"]
+    kind = f["kind"]
+    z, p, g = [], [], 1.0
+    taus = None
+    if kind == "single-pole":
+        tau = 1 / (2 * math.pi * f["cutoffHz"])
+        p, g = [-1 / tau], 1 / tau
+        taus = {"tau": tau}
+    elif kind == "lag-lead":
+        t1, t2 = time_constants(kind, f, k)
+        z, p, g = [-1 / t2], [-1 / (t1 + t2)], t2 / (t1 + t2)
+        taus = {"tau1": t1, "tau2": t2}
+    elif kind == "pi":
+        t1, t2 = time_constants(kind, f, k)
+        z, p, g = [-1 / t2], [0.0], t2 / t1
+        taus = {"tau1": t1, "tau2": t2}
+    else:
+        z, p, g = signal.butter(f["order"], 2 * math.pi * f["cutoffHz"], analog=True, output="zpk")
+        z, p = list(z), list(p)
+    loop_z, loop_p, loop_g = list(z), list(p), g
+    rf = spec.get("rippleFilter")
+    if rf:
+        z2, p2, g2 = signal.butter(rf["order"], 2 * math.pi * rf["cutoffHz"], analog=True, output="zpk")
+        z, p, g = list(z) + list(z2), list(p) + list(p2), g * g2
+    return np.array(z, dtype=complex), np.array(p, dtype=complex), float(np.real(g)), taus, (loop_z, loop_p, loop_g)
+
+
+def second_order(spec, k, taus):
+    """wn, zeta per kind (REFERENCES.md, G3 Ch. 2 / B6)."""
+    kind = spec["filter"]["kind"]
+    if kind == "single-pole" or (kind == "butterworth" and spec["filter"]["order"] == 1):
+        tau = 1 / (2 * math.pi * spec["filter"]["cutoffHz"])
+        wn = math.sqrt(k / tau)
+        return wn / (2 * math.pi), 1 / (2 * math.sqrt(k * tau))
+    if kind == "lag-lead":
+        t1, t2 = taus["tau1"], taus["tau2"]
+        wn = math.sqrt(k / (t1 + t2))
+        return wn / (2 * math.pi), (wn / 2) * (t2 + 1 / k)
+    if kind == "pi":
+        t1, t2 = taus["tau1"], taus["tau2"]
+        wn = math.sqrt(k / t1)
+        return wn / (2 * math.pi), wn * t2 / 2
+    return None, None
+
+
+class Loop:
+    """Open loop L on the jw axis (analog) or the unit circle (discrete), magnitude and continuous phase."""
+
+    def __init__(self, zeros, poles, gain, discrete, fs):
+        self.z, self.p, self.g, self.discrete, self.fs = zeros, poles, gain, discrete, fs
+
+    def point(self, f):
+        f = np.asarray(f, dtype=float)
+        if self.discrete:
+            x = np.exp(1j * 2 * np.pi * f / self.fs)
+        else:
+            x = 1j * 2 * np.pi * f
+        logmag = np.full(f.shape, math.log(abs(self.g)))
+        ph = np.full(f.shape, 0.0 if self.g > 0 else math.pi)
+        for zz in self.z:
+            d = x - zz
+            logmag = logmag + np.log(np.abs(d))
+            ph = ph + np.angle(d)
+        for pp in self.p:
+            d = x - pp
+            logmag = logmag - np.log(np.abs(d))
+            ph = ph - np.angle(d)
+        return logmag, np.degrees(ph)
+
+    def complex(self, f):
+        lm, ph = self.point(f)
+        return np.exp(lm) * np.exp(1j * np.radians(ph))
+
+
+def open_loops(spec):
+    k = loop_gain(spec)
+    fs = spec["sampleRateHz"]
+    z, p, g, taus, loopf = filter_zpk(spec, k)
+    c = bilinear_c(fs, spec["discretization"].get("prewarpHz"))
+    zd, pd, gd = signal.bilinear_zpk(z, p, g, c / 2)
+    analog = Loop(z, np.append(p, 0.0), k * g, False, fs)
+    # L(z) = K T F(z) z^-1/(1 - z^-1) = K T F(z)/(z - 1)
+    discrete = Loop(zd, np.append(pd, 1.0), k * gd / fs, True, fs)
+    return k, (z, p, g), (zd, pd, gd), analog, discrete, taus, c
+
+
+def brent(fun, a, b):
+    fa, fb = fun(a), fun(b)
+    if fa == 0:
+        return a
+    if fb == 0:
+        return b
+    if np.sign(fa) == np.sign(fb):
+        return a if abs(fa) < abs(fb) else b
+    return optimize.brentq(fun, a, b, xtol=1e-15, rtol=1e-15, maxiter=500)
+
+
+def phase_near(loop, t, ref):
+    """Phase at f = e^t shifted by whole turns to the branch nearest ref (the unwrapped grid value)."""
+    v = float(loop.point(np.array([math.exp(t)]))[1][0])
+    return v + 360 * round((ref - v) / 360)
+
+
+def margins(loop, f_lo, f_hi, closed_end):
+    u = np.linspace(math.log(f_lo), math.log(f_hi), GRID)
+    lm, ph = loop.point(np.exp(u))
+    # Factor angles are principal values: a discrete pole with positive imaginary part wraps near
+    # Nyquist, so unwrap along the dense grid (start on the low-frequency branch -90 deg per integrator).
+    ph = np.degrees(np.unwrap(np.radians(ph)))
+    gain_x = []
+    for i in np.nonzero(np.sign(lm[:-1]) != np.sign(lm[1:]))[0]:
+        x = brent(lambda t: float(loop.point(np.array([math.exp(t)]))[0][0]), u[i], u[i + 1])
+        f = math.exp(x)
+        gain_x.append((f, 180 + phase_near(loop, x, ph[i])))
+    phase_x = []
+    kmin = math.floor((ph.min() + 180) / 360) - 1
+    kmax = math.ceil((ph.max() + 180) / 360) + 1
+    for kk in range(kmin, kmax + 1):
+        target = -180 + 360 * kk
+        d = ph - target
+        for i in np.nonzero(np.sign(d[:-1]) * np.sign(d[1:]) < 0)[0]:
+            x = brent(lambda t, r=ph[i]: phase_near(loop, t, r) - target, u[i], u[i + 1])
+            phase_x.append(math.exp(x))
+        if closed_end and abs(d[-1]) < 1e-6:
+            phase_x.append(f_hi)
+    pcs = []
+    for f in phase_x:
+        lmf = float(loop.point(np.array([f]))[0][0])
+        db = 20 * lmf / math.log(10)
+        # |L| below -240 dB: a transmission zero (at Nyquist), no finite gain margin (DESIGN.md is silent;
+        # README states this rule, and any finite figure there would be meaningless)
+        if db < -240 or any(abs(f - q) <= 1e-12 * f for q, _ in pcs):
+            continue
+        pcs.append((f, -db))
+    pm = min(gain_x, key=lambda t: t[1]) if gain_x else None
+    gm = min(pcs, key=lambda t: abs(t[1])) if pcs else None
+    return {
+        "crossoverHz": pm[0] if pm else None,
+        "phaseMarginDeg": pm[1] if pm else None,
+        "gainCrossingsHz": sorted(t[0] for t in gain_x),
+        "phaseCrossoverHz": gm[0] if gm else None,
+        "gainMarginDb": gm[1] if gm else None,
+        "phaseCrossingsHz": sorted(t[0] for t in pcs),
+    }
+
+
+def h_abs2(loop, f):
+    lc = loop.complex(np.atleast_1d(f))
+    return np.abs(lc / (1 + lc)) ** 2
+
+
+def closed_loop(loop, f_lo, f_hi):
+    u = np.linspace(math.log(f_lo), math.log(f_hi), GRID)
+    db = 10 * np.log10(h_abs2(loop, np.exp(u)))
+    i = int(np.argmax(db))
+    peak = max(0.0, float(db[i]))
+    if 0 < i < len(u) - 1 and db[i] > 0:
+        r = optimize.minimize_scalar(lambda t: -10 * math.log10(h_abs2(loop, math.exp(t))[0]),
+                                     bounds=(u[i - 1], u[i + 1]), method="bounded", options={"xatol": 1e-12})
+        peak = max(peak, -float(r.fun))
+    m3 = 10 * math.log10(0.5)
+    bw = None
+    for j in range(i, len(u) - 1):
+        if db[j] >= m3 and db[j + 1] < m3:
+            x = brent(lambda t: 10 * math.log10(h_abs2(loop, math.exp(t))[0]) - m3, u[j], u[j + 1])
+            bw = math.exp(x)
+            break
+    return {"bandwidth3dbHz": bw, "peakingDb": peak}
+
+
+def noise_bw(loop, f_lo, f_hi):
+    """Integral of |H|^2 df from 0 to f_hi in ln f, per decade with quad; below f_lo |H| = 1."""
+    edges = np.exp(np.linspace(math.log(f_lo), math.log(f_hi), int(math.ceil(math.log10(f_hi / f_lo) * 4)) + 1))
+    total = f_lo * float(h_abs2(loop, f_lo)[0])
+    for a, b in zip(edges[:-1], edges[1:]):
+        v, _ = integrate.quad(lambda t: float(h_abs2(loop, math.exp(t))[0]) * math.exp(t), math.log(a), math.log(b),
+                              epsabs=0, epsrel=1e-12, limit=400)
+        total += v
+    return total
+
+
+def chars_hz(k, z, p):
+    vals = [k / (2 * math.pi)] + [abs(x) / (2 * math.pi) for x in list(z) + list(p) if abs(x) > 0]
+    return min(vals), max(vals)
+
+
+def case(spec):
+    k, (z, p, g), (zd, pd, gd), analog, discrete, taus, c = open_loops(spec)
+    fs = spec["sampleRateHz"]
+    lo, hi = chars_hz(k, z, p)
+    f_lo = min(lo, fs / 2) * 1e-4
+    f_hi_a = max(hi, fs / 2) * 1e4
+    nyq = fs / 2
+    out = {"kRadPerS": k}
+    out["analogMargins"] = margins(analog, f_lo, f_hi_a, False)
+    out["discreteMargins"] = margins(discrete, f_lo, nyq, True)
+    out["analogClosed"] = closed_loop(analog, f_lo, f_hi_a)
+    out["discreteClosed"] = closed_loop(discrete, f_lo, nyq)
+    # Analog tail beyond f_hi_a: |H|^2 falls at least as 1/f^2, so the rest is at most |H|^2 f there.
+    out["analogNoiseHz"] = noise_bw(analog, f_lo, f_hi_a) + float(h_abs2(analog, f_hi_a)[0]) * f_hi_a
+    out["discreteNoiseHz"] = noise_bw(discrete, f_lo, nyq)
+    fn, zeta = second_order(spec, k, taus)
+    out["naturalHz"], out["damping"] = fn, zeta
+    out["taus"] = taus
+    # Ripple at 2 centerHz: analog |F(j 2 pi 2fc)|; discrete |F(e^{j 2 pi 2fc / fs})| (periodic in fs, so the
+    # alias lands where it should without any special case).
+    fr = 2 * spec["centerHz"]
+    fa = Loop(z, p, g, False, fs).complex(np.array([fr]))[0]
+    fd = Loop(zd, pd, gd, True, fs).complex(np.array([fr]))[0]
+    out["ripple"] = {"rippleHz": fr, "aliasedRippleHz": abs(fr - fs * round(fr / fs)),
+                     "analogAttenuationDb": -20 * math.log10(abs(fa)), "discreteAttenuationDb": -20 * math.log10(abs(fd))}
+    # Coefficients: scipy.signal.bilinear on the whole F(s) (b/a with a[0] = 1).
+    num = np.real(np.poly(z)) * g if len(z) else np.array([g])
+    den = np.real(np.poly(p))
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")  # BadCoefficients: see the length check below
+        b, a = signal.bilinear(num, den, fs=c / 2)
+    out["bTf"], out["aTf"] = (b / a[0]).tolist(), (a / a[0]).tolist()
+    # signal.bilinear's normalize() strips leading numerator coefficients below 1e-14 (a narrow
+    # high-order low-pass has all of them that small), so the zpk route is the reference for b/a.
+    bz, az = signal.zpk2tf(zd, pd, gd)
+    out["b"], out["a"] = np.real(bz / az[0]).tolist(), np.real(az / az[0]).tolist()
+    out["analogNum"], out["analogDen"] = num.tolist(), den.tolist()
+    return out
+
+
+def round_half_away(fr):
+    q = math.floor(abs(fr) + Fraction(1, 2))
+    return q if fr >= 0 else -q
+
+
+def nco_case(c):
+    n = c["accumulatorBits"]
+    f, fs = Fraction(c["frequencyHz"]), Fraction(c["sampleRateHz"])
+    m = round_half_away(f * 2 ** n / fs)
+    actual = Fraction(m) * fs / 2 ** n
+    return {"tuningWordDecimal": str(m), "hi": str(m >> 32), "lo": str(m & 0xFFFFFFFF),
+            "actualHz": float(actual), "errorHz": float(actual - f), "errorPpm": float((actual - f) / f * 10 ** 6),
+            "resolutionHz": float(fs / 2 ** n)}
+
+
+def bilinear_only(c):
+    b, a = signal.bilinear(c["num"], c["den"], fs=bilinear_c(c["sampleRateHz"], c.get("prewarpHz")) / 2)
+    return {"b": (b / a[0]).tolist(), "a": (a / a[0]).tolist()}
+
+
+def open_loop_points(c):
+    """L(z) = K F(z) T z^-1/(1 - z^-1) evaluated by hand from b/a given (the filter's own coefficients)."""
+    k, fs = c["kRadPerS"], c["sampleRateHz"]
+    out = []
+    for f in c["freqHz"]:
+        zi = np.exp(-1j * 2 * np.pi * f / fs)
+        fz = np.polyval(c["b"][::-1], zi) / np.polyval(c["a"][::-1], zi)
+        lz = k * fz * (1 / fs) * zi / (1 - zi)
+        out.append({"re": float(lz.real), "im": float(lz.imag)})
+    return out
+
+
+def main():
+    doc = json.load(sys.stdin)
+    res = {
+        "cases": [case(s) for s in doc.get("cases", [])],
+        "nco": [nco_case(c) for c in doc.get("nco", [])],
+        "bilinear": [bilinear_only(c) for c in doc.get("bilinear", [])],
+        "openLoop": [open_loop_points(c) for c in doc.get("openLoop", [])],
+    }
+    json.dump(res, sys.stdout, allow_nan=True)
+
+
+if __name__ == "__main__":
+    main()
