@@ -43,7 +43,17 @@ export function createApp(options: AppOptions): BuiltApp {
   app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
   app.disable('x-powered-by');
-  app.use(helmet());
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Helmet's default asks browsers to fetch every subresource over HTTPS, which breaks a team
+          // server reached over plain HTTP; ask for it only when the deployment says it has HTTPS.
+          upgradeInsecureRequests: config.session.cookieSecure ? [] : null,
+        },
+      },
+    }),
+  );
 
   const apiRouter = express.Router();
   mountRoutes(apiRouter, routes, services, { uploadLimitBytes: config.uploadLimitBytes });

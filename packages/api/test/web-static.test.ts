@@ -46,6 +46,12 @@ describe('serving the built web app', () => {
     await request(built.app).get('/api').expect(404);
   });
 
+  it('sends a CSP that keeps scripts same-origin and does not force HTTPS on a plain-HTTP deployment', async () => {
+    const csp = String((await request(built.app).get('/projects')).headers['content-security-policy']);
+    expect(csp).toMatch(/script-src 'self'/);
+    expect(csp).not.toMatch(/upgrade-insecure-requests/);
+  });
+
   it('reports false when there is no build', () => {
     expect(serveWebApp(built.app, path.join(distDir, 'missing'))).toBe(false);
   });

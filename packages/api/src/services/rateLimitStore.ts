@@ -5,6 +5,8 @@ import type { DataSource } from 'typeorm';
  * An express-rate-limit store in MariaDB, so every API process behind a load balancer counts the same
  * attempts (DESIGN.md, "Scale": no in-memory counters). Fixed windows; the database clock decides.
  */
+const SWEEP_INTERVAL_MS = 60 * 60 * 1000;
+
 export class MariaDbRateLimitStore implements Store {
   windowMs = 60_000;
   readonly localKeys = false;
@@ -16,6 +18,11 @@ export class MariaDbRateLimitStore implements Store {
 
   init(options: Options): void {
     this.windowMs = options.windowMs;
+    // Buckets of addresses that never came back would pile up; sweep the long-expired ones.
+    setInterval(() => {
+      // A failed sweep (database away) is simply retried at the next one.
+      this.dataSource.query('DELETE FROM rate_limit_hits WHERE resetAt < UTC_TIMESTAMP(3) - INTERVAL 1 DAY').catch(() => {});
+    }, SWEEP_INTERVAL_MS).unref();
   }
 
   private bucket(key: string): string {
