@@ -17,7 +17,7 @@ import { logGrid } from './grid.ts';
 import { sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
 import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
-import { analogClosedLoop, discreteClosedLoop } from './loopPolynomials.ts';
+import { analogClosedLoop } from './loopPolynomials.ts';
 import { routhHurwitzStable } from './stability.ts';
 import { type NoiseBandwidth, loopNoiseBandwidth } from './noiseBandwidth.ts';
 import { secondOrderParameters, phaseMarginFromDampingDeg } from './secondOrder.ts';
@@ -166,7 +166,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
     estimates: acquisitionEstimates(second, k, dcGain),
     ripple: rippleFigures(spec, design, gain),
     steadyState: steadyStateErrors(loopType, k, dcGain, spec.filter.kind === 'pi' ? (design.tau?.tau1S ?? null) : null),
-    stepResponses: stepResponses(discreteClosedLoop(design.digital, k, fs).e, analogPolys.e, fs, durationS),
+    stepResponses: stepResponses(design.sections, analogPolys.e, k, fs, durationS),
     quantization: quantization.summary,
     nco,
     verdict,

@@ -1,11 +1,13 @@
 /**
  * Closed-loop step responses of the linearised loop for plotting: the phase error θi − θo after a
- * 1 rad phase step and after a 1 Hz frequency step (input phase 2π·t), from E = 1/(1 + L).
- * The discrete loop is run sample by sample when the plot spans at most MAX_SAMPLES loop samples;
- * otherwise the analog prototype's E(s) is discretised by the bilinear transform at a rate giving
- * MAX_SAMPLES samples over the span (source: "analog").
+ * 1 rad phase step and after a 1 Hz frequency step (input phase 2π·t), both at t = 0.
+ * When the plot spans at most MAX_SAMPLES loop samples, the discrete loop runs sample by sample as
+ * firmware does — e = θi − θo, u = F(z)·e through the second-order sections, θo ← θo + K·T·u (the NCO
+ * accumulator with its sample of delay, DESIGN.md) — which stays exact where a closed-loop b/a would
+ * lose digits. Longer spans use the analog prototype's E(s) = 1/(1 + L(s)), discretised by the
+ * bilinear transform at a rate giving MAX_SAMPLES samples (source: "analog").
  */
-import type { AnalogTf, DigitalTf } from '../types/filter.ts';
+import type { AnalogTf, Sos } from '../types/filter.ts';
 import type { StepResponses } from '../types/analysis.ts';
 import { bilinearTf } from '../filters/bilinear.ts';
 import { runFilter } from './filterRun.ts';
@@ -15,38 +17,64 @@ export const PLOT_POINTS = 400;
 /** Phase errors beyond this (rad) end the traces of an unstable loop (flagged `diverged`). */
 export const DIVERGED_RAD = 1e6;
 
-/** Step responses over durationS seconds from the error transfer functions E(z) and E(s). */
+/** Phase error of the discrete loop for a 1 rad phase step, every sample (DF2T sections). */
+function discreteLoopPhaseStep(sections: readonly Sos[], kRadPerS: number, sampleRateHz: number, n: number): Float64Array {
+  const kt = kRadPerS / sampleRateHz;
+  const state = new Float64Array(2 * sections.length);
+  const out = new Float64Array(n);
+  let thetaO = 0;
+  for (let i = 0; i < n; i++) {
+    const e = 1 - thetaO;
+    out[i] = e;
+    let x = e;
+    for (let k = 0; k < sections.length; k++) {
+      const { b, a } = sections[k]!;
+      const y = b[0] * x + state[2 * k]!;
+      state[2 * k] = b[1] * x - a[1] * y + state[2 * k + 1]!;
+      state[2 * k + 1] = b[2] * x - a[2] * y;
+      x = y;
+    }
+    thetaO += kt * x;
+  }
+  return out;
+}
+
+/** Step responses over durationS seconds: the discrete loop with `sections`, or E(s) for long spans. */
 export function stepResponses(
-  discreteE: DigitalTf,
+  sections: readonly Sos[],
   analogE: AnalogTf,
+  kRadPerS: number,
   sampleRateHz: number,
   durationS: number,
 ): StepResponses {
   const loopSamples = Math.ceil(durationS * sampleRateHz);
   const useDiscrete = loopSamples <= MAX_SAMPLES;
   const rateHz = useDiscrete ? sampleRateHz : MAX_SAMPLES / durationS;
-  const e = useDiscrete ? discreteE : bilinearTf(analogE, rateHz, null);
   const n = useDiscrete ? loopSamples : MAX_SAMPLES;
+  const phase = useDiscrete
+    ? discreteLoopPhaseStep(sections, kRadPerS, sampleRateHz, n)
+    : runFilter(bilinearTf(analogE, rateHz, null), n, () => 1, 1);
   const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
   const t = 1 / rateHz;
-  // E is linear and the 1 Hz frequency step's phase 2π·t is the running sum of 2π·T-high steps, so
-  // its response is the running sum of the phase-step response scaled by 2π·T: one filter run for both.
-  const phase = runFilter(e, n, () => 1, 1);
+  // The loop is linear and the 1 Hz step's input phase 2π·i·T is a sum of i steps of 2π·T, so its
+  // error is 2π·T times the running sum of the phase-step error over the earlier samples.
   const phaseStepErrorRad: number[] = [];
   const frequencyStepErrorRad: number[] = [];
   const timeS: number[] = [];
-  let acc = 0;
+  let before = 0;
   let diverged = false;
   for (let i = 0; i < n; i++) {
-    acc += phase[i]! * 2 * Math.PI * t;
-    if (!(Math.abs(acc) < DIVERGED_RAD && Math.abs(phase[i]!) < DIVERGED_RAD)) {
+    const p = phase[i]!;
+    const f = 2 * Math.PI * t * before;
+    before += p;
+    if (!(Math.abs(f) < DIVERGED_RAD && Math.abs(p) < DIVERGED_RAD)) {
       diverged = true; // an unstable loop: the linear model means nothing past here
       break;
     }
     if (i % stride !== 0) continue;
     timeS.push(i * t);
-    phaseStepErrorRad.push(phase[i]!);
-    frequencyStepErrorRad.push(acc - phase[i]! * 2 * Math.PI * t);
+    phaseStepErrorRad.push(p);
+    frequencyStepErrorRad.push(f);
   }
   return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
 }

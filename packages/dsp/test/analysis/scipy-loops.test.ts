@@ -33,6 +33,7 @@ interface RefLoop {
   discreteMagDb: number[];
   analogPhaseDeg: number[];
   discretePhaseDeg: number[];
+  step?: { phase: number[]; frequency: number[] };
 }
 
 const RANDOM_CASES = 120;
@@ -50,6 +51,9 @@ function probeFrequencies(spec: LoopSpec, r: AnalysisResult): number[] {
   return [fc / 10, fc, fc * 3, spec.sampleRateHz * 0.3];
 }
 
+/** Step responses are checked on a few stable random loops run sample by sample (the Python loop is slow). */
+const stepCase = (i: number) => i % 10 === 1 && results[i]!.stepResponses.source === 'discrete' && results[i]!.stability.discreteStable;
+
 beforeAll(() => {
   results = specs.map((s) => analyzeDesign(s));
   const loops = specs.map((s, i) => {
@@ -64,6 +68,7 @@ beforeAll(() => {
       fMinHz: range.fMinHz,
       fMaxAnalogHz: range.fMaxAnalogHz,
       noiseBandwidth: i % 3 === 0,
+      stepSamples: stepCase(i) ? Math.round(r.stepResponses.timeS.at(-1)! * s.sampleRateHz) + 1 : 0,
       freqHz: probeFrequencies(s, r),
     };
   });
@@ -142,6 +147,23 @@ describe(`loop analysis agrees with SciPy on ${CASES} seeded random specs (${BOO
     const p = ref[i]!;
     expectHzClose(r.noiseBandwidth.analogHz, p.analogNoiseHz!, 1e-5, 'analog noise bandwidth');
     expectHzClose(r.noiseBandwidth.discreteHz, p.discreteNoiseHz!, 1e-5, 'discrete noise bandwidth');
+  });
+
+  it('step responses of the discrete loop agree with the loop run sample by sample in Python (sosfilt)', () => {
+    let checked = 0;
+    specs.forEach((s, i) => {
+      if (!stepCase(i)) return;
+      const r = results[i]!.stepResponses;
+      const p = ref[i]!.step!;
+      r.timeS.forEach((t, j) => {
+        const n = Math.round(t * s.sampleRateHz);
+        expect(Math.abs(r.phaseStepErrorRad[j]! - p.phase[n]!), `case ${i} phase step at n=${n}`).toBeLessThan(1e-9);
+        const scale = Math.max(1e-12, Math.max(...p.frequency.map(Math.abs)));
+        expect(Math.abs(r.frequencyStepErrorRad[j]! - p.frequency[n]!) / scale, `case ${i} frequency step at n=${n}`).toBeLessThan(1e-9);
+      });
+      checked++;
+    });
+    expect(checked).toBeGreaterThan(5);
   });
 
   it('open-loop responses agree at probe frequencies (freqs_zpk, freqz_zpk)', async () => {

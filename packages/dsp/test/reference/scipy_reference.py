@@ -182,6 +182,27 @@ def noise_bandwidth(resp, f_lo, f_hi):
     return total
 
 
+def loop_step_errors(zd, pd, kd, k, fs, n):
+    """The discrete loop run sample by sample: e = theta_i - theta_o, u = F(z) e (zpk2sos sections),
+    theta_o[n+1] = theta_o[n] + K*T*u[n] (the NCO accumulator with one sample of delay, DESIGN.md).
+    Inputs: a 1 rad phase step and a 1 Hz frequency step (theta_i = 2*pi*n*T), both at n = 0."""
+    sos = signal.zpk2sos(zd, pd, kd)
+    kt, t = k / fs, 1 / fs
+    out = {}
+    for name in ("phase", "frequency"):
+        zi = np.zeros((sos.shape[0], 2))
+        theta_o = 0.0
+        errs = np.empty(n)
+        for i in range(n):
+            theta_i = 1.0 if name == "phase" else 2 * np.pi * i * t
+            e = theta_i - theta_o
+            u, zi = signal.sosfilt(sos, [e], zi=zi)
+            errs[i] = e
+            theta_o += kt * u[0]
+        out[name] = errs.tolist()
+    return out
+
+
 def loop_case(case):
     fs = case["sampleRateHz"]
     k = case["kRadPerS"]
@@ -209,6 +230,8 @@ def loop_case(case):
     if case.get("noiseBandwidth"):
         out["analogNoiseHz"] = noise_bandwidth(analog, f_lo, f_hi_analog * 1e3)
         out["discreteNoiseHz"] = noise_bandwidth(discrete, f_lo, nyq)
+    if case.get("stepSamples"):
+        out["step"] = loop_step_errors(zd, pd, kd, k, fs, case["stepSamples"])
     f = np.asarray(case.get("freqHz", []), dtype=float)
     if f.size:
         ha, hd = analog(f), discrete(f)
