@@ -7,6 +7,9 @@ export default mergeConfig(
     test: {
       environment: 'happy-dom',
       include: ['test/**/*.test.ts'],
+      testTimeout: 30_000,
+      // Element Plus components import their CSS; let vite handle it instead of Node.
+      server: { deps: { inline: ['element-plus'] } },
     },
   }),
 );

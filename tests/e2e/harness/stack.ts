@@ -7,8 +7,8 @@ import { existsSync } from 'node:fs';
 import fs from 'node:fs/promises';
 import path from 'node:path';
 import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { createRequire } from 'node:module';
+import { pathToFileURL } from 'node:url';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { APP_DIST, ROOT } from './paths.ts';
@@ -21,6 +21,30 @@ export interface Stack {
 }
 
 const requireFromApi = createRequire(path.join(ROOT, 'packages', 'api', 'package.json'));
+
+/**
+ * The slice of the API package this harness calls. Loaded by path at run time so the app's tooling
+ * type-check does not pull in the server's sources (they have their own tsconfig and checks).
+ */
+interface ApiModule {
+  loadConfig(env: NodeJS.ProcessEnv): { db: unknown };
+  createDataSource(db: unknown): { initialize(): Promise<unknown>; destroy(): Promise<void> };
+  runMigrations(dataSource: unknown): Promise<unknown>;
+  seedDemo(dataSource: unknown, bcryptRounds: number): Promise<unknown>;
+  createApp(options: { config: unknown; dataSource: unknown; log: () => void }): { app: ExpressApp; close(): Promise<void> };
+}
+
+interface ExpressApp {
+  use(handler: unknown): void;
+  get(pattern: RegExp, handler: (req: unknown, res: { set(k: string, v: string): { sendFile(p: string): void } }) => void): void;
+  listen(port: number, host: string, cb: () => void): Server;
+}
+
+interface ExpressModule {
+  static(root: string, options: { index: false }): unknown;
+}
+
+const API_INDEX = path.join(ROOT, 'packages', 'api', 'src', 'index.ts');
 
 export async function startStack(options: { dataDir?: string } = {}): Promise<Stack> {
   if (!existsSync(path.join(APP_DIST, 'index.html'))) throw new Error(`no built app at ${APP_DIST}: run vite build first`);
@@ -43,22 +67,21 @@ export async function startStack(options: { dataDir?: string } = {}): Promise<St
     LW_OUTBOX_INTERVAL_MS: '500',
     LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
   });
-  const api = await import('../../../packages/api/src/index.ts');
+  const api = (await import(pathToFileURL(API_INDEX).href)) as ApiModule;
   const config = api.loadConfig(process.env);
   const dataSource = api.createDataSource(config.db);
   await dataSource.initialize();
   await api.runMigrations(dataSource);
   await api.seedDemo(dataSource, 4);
   const built = api.createApp({ config, dataSource, log: () => {} });
-  const express = requireFromApi('express') as typeof import('express');
+  const express = requireFromApi('express') as ExpressModule;
   built.app.use(express.static(APP_DIST, { index: false }));
   built.app.get(/^(?!\/api(\/|$)).*/, (_req, res) => {
     res.set('Cache-Control', 'no-cache').sendFile(path.join(APP_DIST, 'index.html'));
   });
-  const server: Server = await new Promise((resolve) => {
+  const server = await new Promise<Server>((resolve) => {
     const s = built.app.listen(port, '127.0.0.1', () => resolve(s));
   });
-  void (server.address() as AddressInfo);
   return {
     baseUrl,
     mail,

@@ -1,0 +1,134 @@
+import { spawnSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { mainsSyncSpec, type WordLengthResult } from '@loopwright/dsp';
+import { decimateMinMax } from '../src/charts/decimate.ts';
+import { magnitudeAxisMin, type BodeTrace } from '../src/charts/bodeOption.ts';
+import { envelope } from '../src/charts/traceOption.ts';
+import { twosComplementHex } from '../src/components/reportView.ts';
+import { diffRows } from '../src/components/releaseView.ts';
+import { widthEdits } from '../src/components/wordLengthView.ts';
+import { auditRows, filterAudit } from '../src/views/adminView.ts';
+import { checkScenario, draftToScenario } from '../src/form/scenarioDraft.ts';
+import { fmtEng } from '../src/lib/format.ts';
+import { afterSignIn } from '../src/lib/redirect.ts';
+
+describe('min/max decimation', () => {
+  it('keeps every bucket extreme in order, so a one-sample glitch survives', () => {
+    const n = 100_000;
+    const x = Float64Array.from({ length: n }, (_, i) => i);
+    const y = Float64Array.from({ length: n }, (_, i) => Math.sin(i / 1000));
+    y[54_321] = 9;
+    const out = decimateMinMax(x, y, 1000);
+    expect(out.length).toBeLessThanOrEqual(1000);
+    expect(out).toContainEqual([54_321, 9]);
+    expect(Math.min(...out.map((p) => p[1]))).toBe(Math.min(...y));
+    for (let i = 1; i < out.length; i++) expect(out[i]![0]).toBeGreaterThan(out[i - 1]![0]);
+  });
+
+  it('returns short traces untouched', () => {
+    expect(decimateMinMax([0, 1, 2], [5, 6, 7], 10)).toEqual([[0, 5], [1, 6], [2, 7]]);
+  });
+
+  it('draws a decimated trace as min then max per bucket, scaled and shifted', () => {
+    const trace = { bucketStartS: Float64Array.of(0, 1), min: Float64Array.of(-1, 2), max: Float64Array.of(1, 3) };
+    expect(envelope(trace, 10, 5)).toEqual([[0, -15], [0, 5], [1, 15], [1, 25]]);
+  });
+});
+
+describe('Bode magnitude axis', () => {
+  it('ignores the dB floor of a zero at Nyquist but keeps real low values', () => {
+    const t = (mag: number[]): BodeTrace => ({ label: 'x', freqHz: mag.map((_, i) => i + 1), magnitudeDb: mag, phaseDeg: mag, style: 'discrete' });
+    expect(magnitudeAxisMin([t([40, 0, -63, -400])])).toBe(-80);
+    expect(magnitudeAxisMin([t([40, 0, -400])])).toBe(-20);
+  });
+});
+
+describe("two's-complement codes", () => {
+  it('matches Python masking the code to the word width', () => {
+    const cases: [number, number][] = [[-1, 8], [-126415, 18], [61039, 18], [-(2 ** 17), 18], [40, 18], [-5, 32]];
+    // A JSON array of pairs is also a Python list literal. Reference: Python's unbounded ints, x & (2**bits - 1) (general-purpose reference, /usr/bin/python3).
+    const script = `for c,b in ${JSON.stringify(cases)}: print(format(c & ((1<<b)-1), 'X'))`;
+    const py = spawnSync('/usr/bin/python3', ['-c', script], { encoding: 'utf8' });
+    expect(py.status).toBe(0);
+    const expected = py.stdout.trim().split('\n');
+    cases.forEach(([code, bits], i) => expect(twosComplementHex(code, bits).replace(/^0x0*/, '') || '0').toBe(expected[i]));
+  });
+});
+
+describe('engineering format', () => {
+  it('uses SI prefixes (BIPM SI Brochure, prefixes)', () => {
+    expect(fmtEng(10.7e6, 'Hz')).toBe('10.7 MHz');
+    expect(fmtEng(2.5e-4, 's')).toBe('250 µs');
+    expect(fmtEng(null, 'Hz')).toBe('—');
+  });
+});
+
+describe('release diff rows', () => {
+  it('lists spec changes, code changes and only the headline margins', () => {
+    const rows = diffRows({
+      from: { id: 1, label: 'v1' },
+      to: { id: 2, label: 'v2' },
+      spec: [{ path: 'filter.damping', before: 0.707, after: 0.5 }],
+      codes: [{ name: 'S1_B0', before: '40', after: '41' }],
+      margins: [
+        { path: 'discrete.phaseMarginDeg', before: 65.51234, after: 52.1 },
+        { path: 'discrete.notes.0', before: 'a', after: 'b' },
+      ],
+    });
+    expect(rows.map((r) => `${r.group}|${r.path}|${r.before}|${r.after}`)).toEqual([
+      'Spec|filter.damping|0.707|0.5',
+      'Integer codes|S1_B0|40|41',
+      'Margins|discrete.phaseMarginDeg|65.51234|52.1',
+    ]);
+  });
+});
+
+describe('word-length apply', () => {
+  const result = {
+    coefficients: { minBits: 12, curve: [{ coefficientBits: 12, fractionBits: 10 }], note: null },
+    data: { minBits: 9 },
+  } as unknown as WordLengthResult;
+
+  it('applies coefficient and data widths; "auto" fraction bits stay auto', () => {
+    expect(widthEdits(result, mainsSyncSpec)).toEqual({ 'fixedPoint.coefficientBits': '12', 'fixedPoint.dataBits': '9' });
+  });
+
+  it('carries the fraction bits the search used when the Q format is explicit', () => {
+    const spec = { ...mainsSyncSpec, fixedPoint: { ...mainsSyncSpec.fixedPoint, coefficientFractionBits: 14 } };
+    expect(widthEdits(result, spec)).toMatchObject({ 'fixedPoint.coefficientFractionBits': '10' });
+  });
+});
+
+describe('scenario form', () => {
+  it('turns the FM presets into the fm kind with that modulation', () => {
+    expect(draftToScenario('fm-square', { rateHz: '1', deviationHz: '2', durationS: '3' })).toEqual({ kind: 'fm', modulation: 'square', rateHz: 1, deviationHz: 2, durationS: 3 });
+    expect(draftToScenario('noise', { offsetHz: '', durationS: '1', snrDb: '' })).toMatchObject({ kind: 'tone', offsetHz: 0, snrDb: 10 });
+  });
+
+  it('names the field the scenario schema refuses', () => {
+    const check = checkScenario('phase-step', { stepDeg: '45', atS: '0.1', durationS: '-1' });
+    expect(check.scenario).toBeNull();
+    expect(Object.keys(check.errors)).toEqual(['durationS']);
+  });
+});
+
+describe('audit filter', () => {
+  const rows = auditRows([
+    { id: 1, at: '2026-01-01T10:00:00Z', actorId: 1, actorEmail: 'designer@example.test', action: 'release.cut', objectType: 'release', objectId: '4', ip: '127.0.0.1', detail: { label: 'v1' } },
+    { id: 2, at: '2026-01-01T11:00:00Z', actorId: null, actorEmail: null, action: 'demo.seed', objectType: 'organization', objectId: '1', ip: null, detail: null },
+  ]);
+
+  it('matches text in actor, object and detail, and the action exactly', () => {
+    expect(filterAudit(rows, { text: 'v1', action: '', objectType: '' }).map((r) => r.id)).toEqual([1]);
+    expect(filterAudit(rows, { text: '', action: 'demo.seed', objectType: '' }).map((r) => r.id)).toEqual([2]);
+    expect(filterAudit(rows, { text: 'system', action: '', objectType: 'organization' }).map((r) => r.id)).toEqual([2]);
+  });
+});
+
+describe('redirect after sign-in', () => {
+  it('goes back to a local path but never to another site', () => {
+    expect(afterSignIn('/designs/3', ['designer'])).toBe('/designs/3');
+    expect(afterSignIn('//evil.example/x', ['designer'])).toEqual({ name: 'projects' });
+    expect(afterSignIn('https://evil.example', ['firmware'])).toEqual({ name: 'downloads' });
+  });
+});
