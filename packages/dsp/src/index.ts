@@ -39,6 +39,6 @@ export { mulberry32, gaussianSource } from './sim/prng.ts';
 export { goldenVectors, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from './vectors/goldenVectors.ts';
 export { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from './vectors/vectorsCsv.ts';
 export { measureAcquisition, cascadeDcGain } from './analysis/acquisitionSim.ts';
-export { wordLengthSearch } from './wordlength/wordLengthSearch.ts';
+export { wordLengthSearch, wordLengthSearchAsync, wordLengthSteps } from './wordlength/wordLengthSearch.ts';
 export { compareVectors } from './vectors/compareVectors.ts';
 export { simResultToJson } from './sim/simResultJson.ts';

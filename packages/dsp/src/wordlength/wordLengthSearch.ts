@@ -17,7 +17,8 @@ import { designLoopFilter } from '../design.ts';
 import { discreteLoopMargins } from '../analysis/discreteLoop.ts';
 import { quantizeSections, MAX_COEFFICIENT_BITS } from '../fixed/quantizeSections.ts';
 import { FieldError } from '../fixed/fieldError.ts';
-import { simulateSections } from '../sim/simulate.ts';
+import { SimulationAbortedError, simulateSections } from '../sim/simulate.ts';
+import type { AbortFlag } from '../types/sim.ts';
 import { acquisitionEstimates } from '../analysis/estimates.ts';
 import { secondOrderParameters } from '../analysis/secondOrder.ts';
 import { loopGain } from '../analysis/loopGain.ts';
@@ -88,6 +89,32 @@ export interface WordLengthResult {
 
 /** Run the search for a validated spec. */
 export function wordLengthSearch(spec: LoopSpec, options: WordLengthOptions = {}): WordLengthResult {
+  const steps = wordLengthSteps(spec, options);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+/**
+ * As wordLengthSearch, yielding to the event loop after each width so that a Web Worker can take a
+ * cancel message; throws SimulationAbortedError (name "AbortError") once `signal.aborted` is seen.
+ */
+export async function wordLengthSearchAsync(
+  spec: LoopSpec,
+  options: WordLengthOptions & { readonly signal?: AbortFlag } = {},
+): Promise<WordLengthResult> {
+  const steps = wordLengthSteps(spec, options);
+  for (;;) {
+    if (options.signal?.aborted) throw new SimulationAbortedError();
+    const r = steps.next();
+    if (r.done) return r.value;
+    await new Promise<void>((resolve) => setTimeout(resolve, 0));
+  }
+}
+
+/** The search as a generator: one step per width evaluated. */
+export function* wordLengthSteps(spec: LoopSpec, options: WordLengthOptions = {}): Generator<void, WordLengthResult> {
   const pmTol = options.phaseMarginToleranceDeg ?? 2;
   const dbTol = options.responseToleranceDb ?? 0.5;
   const errTol = options.phaseErrorToleranceDeg ?? 0.5;
@@ -97,10 +124,10 @@ export function wordLengthSearch(spec: LoopSpec, options: WordLengthOptions = {}
   const wantData = options.data ?? true;
   const coefficientShare = wantData ? 0.3 : 1;
   const progress = options.onProgress;
-  const coefficients = searchCoefficients(spec, sections, ref.phaseMarginDeg, { pmTol, dbTol, points, options }, (f) =>
+  const coefficients = yield* searchCoefficients(spec, sections, ref.phaseMarginDeg, { pmTol, dbTol, points, options }, (f) =>
     progress?.(f * coefficientShare, 'coefficients'),
   );
-  const dataSearch = wantData ? searchDataSafely(spec, sections, errTol, options, (f) => progress?.(coefficientShare + f * (1 - coefficientShare), 'data')) : { data: null, note: null };
+  const dataSearch = wantData ? yield* searchDataSafely(spec, sections, errTol, options, (f) => progress?.(coefficientShare + f * (1 - coefficientShare), 'data')) : { data: null, note: null };
   return {
     reference: { phaseMarginDeg: ref.phaseMarginDeg, gainMarginDb: ref.gainMarginDb, crossoverHz: ref.crossoverHz },
     tolerances: { phaseMarginDeg: pmTol, responseDb: dbTol, phaseErrorDeg: errTol },
@@ -124,19 +151,20 @@ function coefficientFormatAt(spec: LoopSpec, bits: number): CoefficientFormat {
   return { coefficientBits: bits, coefficientFractionBits: fractionBits, rounding: fp.rounding, overflow: fp.overflow };
 }
 
-function searchCoefficients(
+function* searchCoefficients(
   spec: LoopSpec,
   sections: readonly Sos[],
   refPm: number | null,
   cfg: { pmTol: number; dbTol: number; points: number; options: WordLengthOptions },
   progress: (f: number) => void,
-): WordLengthResult['coefficients'] {
+): Generator<void, WordLengthResult['coefficients']> {
   const lo = Math.max(2, cfg.options.minCoefficientBits ?? 4);
   const hi = Math.min(MAX_COEFFICIENT_BITS, cfg.options.maxCoefficientBits ?? 32);
   const curve: CoefficientWidthPoint[] = [];
   for (let bits = lo; bits <= hi; bits++) {
     curve.push(coefficientPoint(spec, sections, bits, refPm, cfg));
     progress((bits - lo + 1) / (hi - lo + 1));
+    yield;
   }
   const minBits = minimumPassing(curve, (p) => p.coefficientBits);
   return { curve, minBits, note: minBits === null ? `no width up to ${hi} bits meets every criterion` : null };
@@ -198,22 +226,24 @@ function dataScenario(spec: LoopSpec, crossoverHz: number, maxSamples: number): 
 }
 
 /** The data search, or no data search with the reason when the spec cannot be simulated bit-true. */
-function searchDataSafely(...args: Parameters<typeof searchData>): { data: WordLengthResult['data']; note: string | null } {
+function* searchDataSafely(
+  ...args: Parameters<typeof searchData>
+): Generator<void, { data: WordLengthResult['data']; note: string | null }> {
   try {
-    return { data: searchData(...args), note: null };
+    return { data: yield* searchData(...args), note: null };
   } catch (err) {
     if (err instanceof FieldError) return { data: null, note: `data width not searched: ${err.message}` };
     throw err;
   }
 }
 
-function searchData(
+function* searchData(
   spec: LoopSpec,
   sections: readonly Sos[],
   errTol: number,
   options: WordLengthOptions,
   progress: (f: number) => void,
-): WordLengthResult['data'] {
+): Generator<void, WordLengthResult['data']> {
   const fp = spec.fixedPoint;
   const crossoverHz = discreteLoopMargins(spec, sections, { points: 200, closedLoop: false }).margins.crossoverHz ?? loopGain(spec).kRadPerS / (2 * Math.PI);
   const { scenario, cut } = dataScenario(spec, crossoverHz, options.maxSamplesPerRun ?? 200_000);
@@ -244,6 +274,7 @@ function searchData(
       reasons,
     });
     progress((bits - lo + 1) / (hi - lo + 1));
+    yield;
   }
   const minBits = minimumPassing(curve, (p) => p.dataBits);
   const notes = [

@@ -111,3 +111,19 @@ describe('word-length search over random valid specs', () => {
     );
   });
 });
+
+describe('wordLengthSearchAsync (for a Web Worker)', () => {
+  it('gives the same result as the synchronous search', async () => {
+    const { wordLengthSearchAsync } = await import('../../src/wordlength/wordLengthSearch.ts');
+    const opts = { minCoefficientBits: 10, maxCoefficientBits: 16, minDataBits: 8, maxDataBits: 12 };
+    const a = await wordLengthSearchAsync(ultrasonicSinglePoleSpec, opts);
+    expect(a).toEqual(wordLengthSearch(ultrasonicSinglePoleSpec, opts));
+  });
+
+  it('stops with an AbortError once the signal is aborted', async () => {
+    const { wordLengthSearchAsync } = await import('../../src/wordlength/wordLengthSearch.ts');
+    const signal = { aborted: false };
+    const run = wordLengthSearchAsync(ultrasonicSinglePoleSpec, { signal, onProgress: () => (signal.aborted = true) });
+    await expect(run).rejects.toMatchObject({ name: 'AbortError' });
+  });
+});
