@@ -56,7 +56,7 @@ export async function seedDemo(dataSource: DataSource, bcryptRounds = 12): Promi
       const project = await manager.save(Project, { organizationId: org.id, name: demo.name, description: demo.description, createdById: designer.id, archivedAt: null });
       await manager.save(Design, { projectId: project.id, name: demo.designName, specJson: JSON.stringify(demo.spec), ownerId: designer.id, revision: 1 });
     }
-    await manager.insert(AuditEntry, { actorId: null, actorEmail: null, ip: null, action: 'demo.seed', objectType: 'organization', objectId: String(org.id), detailJson: null });
+    await manager.insert(AuditEntry, { organizationId: org.id, actorId: null, actorEmail: null, ip: null, action: 'demo.seed', objectType: 'organization', objectId: String(org.id), detailJson: null });
     return { seeded: true, organizationId: org.id };
   });
 }

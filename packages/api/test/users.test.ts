@@ -145,3 +145,17 @@ describe('sign-in rate limit', () => {
     }
   });
 });
+
+describe('audit trail per organisation', () => {
+  it("shows an admin their organisation's entries, including failed sign-ins on its accounts, and not another's", async () => {
+    const other = await createTestOrg(dataSource);
+    const otherAdmin = await signedInAgent(built.app, other.emails.admin);
+    await request(built.app).post('/api/session').set(csrf).send({ email: org.emails.firmware, password: 'not-the-password' }).expect(401);
+    const mine = (await admin.get('/api/audit?limit=500').expect(200)).body.entries as { action: string; objectId: string | null; detail: { email?: string } | null }[];
+    expect(mine.some((e) => e.action === 'session.sign-in-failed' && e.detail?.email === org.emails.firmware && e.objectId === String(org.ids.firmware))).toBe(true);
+    const theirs = (await otherAdmin.get('/api/audit?limit=500').expect(200)).body.entries as { actorEmail: string | null; detail: { email?: string } | null }[];
+    expect(theirs.length).toBeGreaterThan(0);
+    const mineEmails = new Set<string>(Object.values(org.emails));
+    expect(theirs.filter((e) => mineEmails.has(e.actorEmail ?? '') || mineEmails.has(e.detail?.email ?? ''))).toEqual([]);
+  });
+});

@@ -7,12 +7,17 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 
 @Entity({ name: 'audit_entries' })
 @Index('IDX_audit_object', ['objectType', 'objectId'])
 @Index('IDX_audit_actor', ['actorId'])
+@Index('IDX_audit_org', ['organizationId', 'id'])
 export class AuditEntry {
   @PrimaryGeneratedColumn({ type: 'bigint', unsigned: true })
   id: string;
 
   @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   at: Date;
+
+  /** The organisation whose admins see the entry; null for events of no organisation (unknown e-mail). */
+  @Column({ type: 'int', unsigned: true, nullable: true })
+  organizationId: number | null;
 
   @Column({ type: 'int', unsigned: true, nullable: true })
   actorId: number | null;

@@ -6,8 +6,8 @@ export const auditRoutes = [
     method: 'get',
     path: '/audit',
     access: ['admin'],
-    summary: 'the audit trail, newest first (?objectType, objectId, actorId, beforeId, limit ≤ 500)',
+    summary: 'the audit trail of my organisation, newest first (?objectType, objectId, actorId, beforeId, limit ≤ 500)',
     query: auditQuerySchema,
-    handler: async ({ services, query }): Promise<AuditListResponse> => ({ entries: await services.audit.list(query) }),
+    handler: async ({ services, user, query }): Promise<AuditListResponse> => ({ entries: await services.audit.list(user.organizationId, query) }),
   }),
 ];

@@ -23,10 +23,15 @@ export function sessionRoutes(auth: Authenticator, signInLimiter: RequestHandler
       handler: async ({ req, res, services, actor, body }): Promise<SessionResponse> => {
         const user: SessionUser | null = await auth.signIn(req, res);
         if (!user) {
-          await services.audit.record(actor, { action: 'session.sign-in-failed', objectType: 'user', objectId: null, detail: { email: body.email } });
+          // Filed under the named account's organisation, so its admins see attempts on their accounts.
+          const named = await services.users.findByEmail(body.email);
+          await services.audit.record(
+            { ...actor, organizationId: named?.organizationId ?? null },
+            { action: 'session.sign-in-failed', objectType: 'user', objectId: named?.id ?? null, detail: { email: body.email } },
+          );
           throw unauthenticated('wrong e-mail or password, or the account is disabled');
         }
-        await services.audit.record({ ...actor, id: user.id, email: user.email }, { action: 'session.sign-in', objectType: 'user', objectId: user.id });
+        await services.audit.record({ ...actor, id: user.id, email: user.email, organizationId: user.organizationId }, { action: 'session.sign-in', objectType: 'user', objectId: user.id });
         return { user };
       },
     }),

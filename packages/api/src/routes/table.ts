@@ -93,7 +93,7 @@ function parsePart(schema: z.ZodType | undefined, value: unknown, prefix: string
 const EMPTY = z.strictObject({});
 
 function actorOf(req: Request): AuditActor {
-  return { id: req.user?.id ?? null, email: req.user?.email ?? null, ip: req.ip ?? null };
+  return { id: req.user?.id ?? null, email: req.user?.email ?? null, ip: req.ip ?? null, organizationId: req.user?.organizationId ?? null };
 }
 
 function run(spec: RouteSpec, services: Services): RequestHandler {

@@ -61,6 +61,12 @@ export class UserService {
     return toSessionUser(user);
   }
 
+  /** Which account an e-mail names, if any (to file a failed sign-in under its organisation). */
+  async findByEmail(email: string): Promise<{ id: number; organizationId: number } | null> {
+    const user = await this.repo.findOne({ where: { email: email.toLowerCase() }, select: { id: true, organizationId: true } });
+    return user ? { id: user.id, organizationId: user.organizationId } : null;
+  }
+
   async list(organizationId: number): Promise<UserRecord[]> {
     return (await this.repo.find({ where: { organizationId }, order: { email: 'ASC' } })).map(toRecord);
   }
