@@ -29,18 +29,6 @@ export function polyAddAscending(p: readonly number[], q: readonly number[]): nu
   return out;
 }
 
-/** Horner evaluation of a descending-power polynomial at the complex point x. */
-export function polyvalDescending(p: readonly number[], x: Complex): Complex {
-  let re = 0;
-  let im = 0;
-  for (const c of p) {
-    const r = re * x.re - im * x.im + c;
-    im = re * x.im + im * x.re;
-    re = r;
-  }
-  return { re, im };
-}
-
 /** Evaluation of an ascending-power polynomial c0 + c1·w + c2·w² + … at the complex point w. */
 export function polyvalAscending(p: readonly number[], w: Complex): Complex {
   let re = 0;
