@@ -43,6 +43,8 @@ export function createApp(options: AppOptions): BuiltApp {
   app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
   app.disable('x-powered-by');
+  // API answers are no-store, so an ETag (a SHA-1 of every body) would be computed for nothing.
+  app.set('etag', false);
   app.use(
     helmet({
       contentSecurityPolicy: {
