@@ -14,6 +14,7 @@ built from DESIGN.md's conventions with numpy/scipy.signal (Debian python3-scipy
 * Noise bandwidth = integral of |H|^2 df with scipy.integrate.quad in ln f (exact integral, G3).
 * NCO tuning word with Python's exact integers / Fraction (TRG71), worked without floating point.
 """
+import decimal
 import json
 import math
 import sys
@@ -298,14 +299,36 @@ def bilinear_only(c):
 
 
 def open_loop_points(c):
-    """L(z) = K F(z) T z^-1/(1 - z^-1) evaluated by hand from b/a given (the filter's own coefficients)."""
+    """L(z) = K F(z) T z^-1/(1 - z^-1) evaluated by hand on the given sections (the filter's own coefficients)."""
     k, fs = c["kRadPerS"], c["sampleRateHz"]
     out = []
     for f in c["freqHz"]:
         zi = np.exp(-1j * 2 * np.pi * f / fs)
-        fz = np.polyval(c["b"][::-1], zi) / np.polyval(c["a"][::-1], zi)
+        fz = 1.0
+        for sec in c["sections"]:  # cascade of second-order sections, each b/a in powers of z^-1
+            fz = fz * np.polyval(sec["b"][::-1], zi) / np.polyval(sec["a"][::-1], zi)
         lz = k * fz * (1 / fs) * zi / (1 - zi)
         out.append({"re": float(lz.real), "im": float(lz.imag)})
+    return out
+
+
+def rounding_case(c):
+    """Integer rounding of x = p/2^s by Python's decimal module (IEEE754 cl. 4.3 attributes):
+    ROUND_HALF_UP = ties away from zero, ROUND_HALF_EVEN = ties to even, ROUND_FLOOR = toward -inf."""
+    x = decimal.Decimal(c["p"]) / (decimal.Decimal(2) ** c["s"])
+    modes = {"nearest": decimal.ROUND_HALF_UP, "half-even": decimal.ROUND_HALF_EVEN, "truncate": decimal.ROUND_FLOOR}
+    return {m: int(x.to_integral_value(rounding=r)) for m, r in modes.items()}
+
+
+def bode_case(c):
+    """|L| in dB and the phase of L (degrees) of the analog and the discrete loop at given frequencies."""
+    _, _, _, analog, discrete, _, _ = open_loops(c["spec"])
+    f = np.asarray(c["freqHz"], dtype=float)
+    out = {}
+    for name, loop in (("analog", analog), ("discrete", discrete)):
+        lm, ph = loop.point(f)
+        out[name + "Db"] = (20 * lm / math.log(10)).tolist()
+        out[name + "PhaseDeg"] = ph.tolist()
     return out
 
 
@@ -316,6 +339,8 @@ def main():
         "nco": [nco_case(c) for c in doc.get("nco", [])],
         "bilinear": [bilinear_only(c) for c in doc.get("bilinear", [])],
         "openLoop": [open_loop_points(c) for c in doc.get("openLoop", [])],
+        "rounding": [rounding_case(c) for c in doc.get("rounding", [])],
+        "bode": [bode_case(c) for c in doc.get("bode", [])],
     }
     json.dump(res, sys.stdout, allow_nan=True)
 
