@@ -87,6 +87,13 @@ const CASES: Record<string, Case> = {
     allowed: DESIGNER,
     call: async (a, f) => a.post(`/api/releases/${await f.releases.freshDraft()}/reviews`).set(csrf).send({ reviewerIds: [org.ids.reviewer], approvalsRequired: 1 }),
   },
+  'POST /releases/:id/reviews/decision': {
+    allowed: ['reviewer'],
+    call: async (a, f) => {
+      const link = await f.releases.freshToken();
+      return a.post(`/api/releases/${link.releaseId}/reviews/decision`).set(csrf).send({ decision: 'approve', manifestSha256: link.manifestSha256 });
+    },
+  },
   'GET /releases/:id/reviews': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/reviews`) },
   // The token is the authority on review links: called without a session, whoever holds the role.
   'GET /review-links/:token': { allowed: 'public', call: async (_a, f) => request(built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}`) },

@@ -53,6 +53,11 @@ interface LinkRow {
   usedAt: Date | string | null;
 }
 
+interface Decided {
+  response: ReviewDecisionResponse;
+  mailIds: string[];
+}
+
 interface FirmwareRecipient {
   email: string;
   displayName: string;
@@ -202,33 +207,58 @@ export class ReviewService {
   }
 
   async decide(token: string, body: ReviewDecisionRequest, ip: string | null, sessionUser: SessionUser | undefined): Promise<ReviewDecisionResponse> {
-    let outcome: { response: ReviewDecisionResponse; mailIds: string[] };
+    let outcome: Decided;
     try {
       outcome = await this.dataSource.transaction(async (manager) => {
         const { link, release, organizationId } = await this.verify(manager, token, true);
         if (body.manifestSha256 !== link.manifestSha256) throw new ReviewLinkRefused('foreign', 'the decision is about other release content than this link is for');
         if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw new ReviewLinkRefused('foreign', 'it was sent to another reviewer');
-        if (release.state !== 'in-review') throw conflict(`the release is ${release.state}; it no longer takes review decisions`, 'state');
-        await manager.update(ReleaseReview, { id: link.id }, { usedAt: new Date(), decision: body.decision, comment: body.comment ?? null });
-        const [{ approvals }] = (await manager.query("SELECT COUNT(*) AS approvals FROM `release_reviews` WHERE `releaseId` = ? AND `decision` = 'approve'", [release.id])) as [{ approvals: number | string }];
-        const required = Number(release.approvalsRequired ?? 1);
-        let state: ReleaseState = release.state;
-        let mails: MailMessage[] = [];
-        if (body.decision === 'request-changes') state = await this.releases.applyEvent(manager, release, 'request-changes');
-        else if (Number(approvals) >= required) {
-          state = await this.releases.applyEvent(manager, release, 'approve');
-          mails = await this.approvedMails(manager, organizationId, release);
-        }
-        const actor: AuditActor = { id: Number(link.reviewerId), email: link.reviewerEmail, ip };
-        await this.audit.record(actor, { action: `review.${body.decision}`, objectType: 'release', objectId: release.id, detail: { reviewId: link.id, state, approvals: Number(approvals), required, via: 'link' } }, manager);
-        const mailIds = await this.outbox.enqueue(manager, mails);
-        return { response: { decision: body.decision, state, approvals: Number(approvals), approvalsRequired: required }, mailIds };
+        return this.record(manager, link, release, organizationId, body, ip, 'link');
       });
     } catch (err) {
       return this.refused(err, token, ip, 'decide');
     }
     await this.outbox.deliverPending(outcome.mailIds);
     return outcome.response;
+  }
+
+  /**
+   * The same decision in the app, by a signed-in reviewer named on the release: their review row is
+   * found by release and person instead of by token, and its link is used up with it.
+   */
+  async decideSignedIn(organizationId: number, releaseId: number, body: ReviewDecisionRequest, reviewer: SessionUser, ip: string | null): Promise<ReviewDecisionResponse> {
+    const outcome = await this.dataSource.transaction(async (manager) => {
+      const release = await findRelease(manager, organizationId, releaseId, true, true);
+      if (!release) throw notFound('release');
+      const rows = (await manager.query('SELECT `selector` FROM `release_reviews` WHERE `releaseId` = ? AND `reviewerId` = ? FOR UPDATE', [release.id, reviewer.id])) as { selector: string }[];
+      const link = rows[0] ? await this.linkRow(manager, rows[0].selector, false) : undefined;
+      if (!link) throw new AppError('forbidden', 'you are not a named reviewer of this release', 403);
+      if (link.usedAt !== null) throw conflict('you have already decided on this release', 'decision');
+      if (new Date(link.expiresAt).getTime() <= Date.now()) throw new AppError('forbidden', 'your review request has expired; ask the designer for a new one', 403);
+      if (body.manifestSha256 !== release.manifestSha256) throw invalidInput('manifestSha256', 'the decision is about other content than this release (reload it)');
+      return this.record(manager, link, release, organizationId, body, ip, 'app');
+    });
+    await this.outbox.deliverPending(outcome.mailIds);
+    return outcome.response;
+  }
+
+  /** Marks the review decided and moves the release on; the caller has locked and verified both rows. */
+  private async record(manager: EntityManager, link: LinkRow, release: ReleaseRow, organizationId: number, body: ReviewDecisionRequest, ip: string | null, via: 'link' | 'app'): Promise<Decided> {
+    if (release.state !== 'in-review') throw conflict(`the release is ${release.state}; it no longer takes review decisions`, 'state');
+    await manager.update(ReleaseReview, { id: link.id }, { usedAt: new Date(), decision: body.decision, comment: body.comment ?? null });
+    const [{ approvals }] = (await manager.query("SELECT COUNT(*) AS approvals FROM `release_reviews` WHERE `releaseId` = ? AND `decision` = 'approve'", [release.id])) as [{ approvals: number | string }];
+    const required = Number(release.approvalsRequired ?? 1);
+    let state: ReleaseState = release.state;
+    let mails: MailMessage[] = [];
+    if (body.decision === 'request-changes') state = await this.releases.applyEvent(manager, release, 'request-changes');
+    else if (Number(approvals) >= required) {
+      state = await this.releases.applyEvent(manager, release, 'approve');
+      mails = await this.approvedMails(manager, organizationId, release);
+    }
+    const actor: AuditActor = { id: Number(link.reviewerId), email: link.reviewerEmail, ip };
+    await this.audit.record(actor, { action: `review.${body.decision}`, objectType: 'release', objectId: release.id, detail: { reviewId: link.id, state, approvals: Number(approvals), required, via } }, manager);
+    const mailIds = await this.outbox.enqueue(manager, mails);
+    return { response: { decision: body.decision, state, approvals: Number(approvals), approvalsRequired: required }, mailIds };
   }
 
   private async approvedMails(manager: EntityManager, organizationId: number, release: ReleaseRow): Promise<MailMessage[]> {

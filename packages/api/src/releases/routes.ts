@@ -116,6 +116,15 @@ export const releaseRoutes = [
     },
   }),
   route({
+    method: 'post',
+    path: '/releases/:id/reviews/decision',
+    access: ['reviewer'],
+    summary: 'decide in the app as a named reviewer: {decision, comment?, manifestSha256} (uses up your e-mailed link)',
+    params: releaseParamsSchema,
+    body: reviewDecisionSchema,
+    handler: ({ services, user, params, body, req }) => services.handoff.reviews.decideSignedIn(user.organizationId, params.id, body, user, req.ip ?? null),
+  }),
+  route({
     method: 'get',
     path: '/review-links/:token',
     access: 'public',

@@ -112,6 +112,29 @@ describe('review links refuse', () => {
   });
 });
 
+describe('deciding in the app', () => {
+  it('lets the named reviewer decide signed in, once, on the content they read', async () => {
+    const r = await releaseInReview();
+    const reviewer = await signedInAgent(h.built.app, h.org.emails.reviewer);
+    const stale = await reviewer.post(`/api/releases/${r.id}/reviews/decision`).set(csrf).send({ decision: 'approve', manifestSha256: 'f'.repeat(64) }).expect(400);
+    expect(stale.body.error.field).toBe('manifestSha256');
+    const ok = await reviewer.post(`/api/releases/${r.id}/reviews/decision`).set(csrf).send({ decision: 'approve', manifestSha256: r.manifestSha256 }).expect(200);
+    expect(ok.body.state).toBe('approved');
+    const again = await reviewer.post(`/api/releases/${r.id}/reviews/decision`).set(csrf).send({ decision: 'approve', manifestSha256: r.manifestSha256 }).expect(409);
+    expect(again.body.error.message).toMatch(/already decided/);
+    // The e-mailed link of the same review is used up with it.
+    const link = await anonymous().post(`/api/review-links/${r.token}`).send({ decision: 'approve', manifestSha256: r.manifestSha256 }).expect(403);
+    expect(link.body.error.message).toMatch(/already used/);
+  });
+
+  it('refuses a reviewer who was not named on the release', async () => {
+    const r = await releaseInReview();
+    const other = await signedInAgent(h.built.app, h.org.emails.multi);
+    const res = await other.post(`/api/releases/${r.id}/reviews/decision`).set(csrf).send({ decision: 'approve', manifestSha256: r.manifestSha256 }).expect(403);
+    expect(res.body.error.message).toMatch(/not a named reviewer/);
+  });
+});
+
 describe('review requests refuse', () => {
   it('a reviewer without the reviewer role, naming the field', async () => {
     const cut = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
