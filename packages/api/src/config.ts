@@ -1,3 +1,4 @@
+import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
 /**
@@ -28,7 +29,8 @@ const envSchema = z.object({
   LW_UPLOAD_LIMIT_BYTES: int(1_024, 50_000_000).default(256 * 1024),
   LW_SIGNIN_LIMIT_PER_WINDOW: int(1, 10_000).default(10),
   LW_SIGNIN_WINDOW_S: int(1, 24 * 3600).default(15 * 60),
-  LW_SIM_THREADS: int(1, 64).default(2),
+  /** Worker threads for analyses and simulations; one core is left to the event loop and MariaDB. */
+  LW_SIM_THREADS: int(1, 64).default(Math.max(1, availableParallelism() - 1)),
   LW_COMPUTE_TIMEOUT_S: int(1, 3600).default(60),
   LW_COMPUTE_MAX_QUEUE: int(1, 10_000).default(64),
   /** Largest simulation one request may ask for: durationS × sampleRateHz loop samples. */
