@@ -128,6 +128,10 @@ describe('CSRF, unknown routes and headers', () => {
     expect(response.body.error.code).toBe('csrf_rejected');
   });
 
+  it('accepts a same-origin state-changing request that sends Origin', async () => {
+    await designer.post('/api/projects').set(csrf).set('Host', 'loopwright.example.test:8080').set('Origin', 'http://loopwright.example.test:8080').send({ name: 'same origin' }).expect(201);
+  });
+
   it('answers unknown /api routes with 404 JSON', async () => {
     const response = await designer.get('/api/no-such-thing').expect(404);
     expect(response.body.error.code).toBe('not_found');

@@ -15,7 +15,8 @@ export const requireCsrfHeader: RequestHandler = (req, _res, next) => {
   if (req.get(CSRF_HEADER)?.toLowerCase() !== CSRF_HEADER_VALUE) {
     return next(new AppError('csrf_rejected', `state-changing requests must send the header ${CSRF_HEADER}: ${CSRF_HEADER_VALUE}`, 403));
   }
-  return next(originMismatch(req.get('origin'), req.get('host')) ? new AppError('csrf_rejected', 'cross-origin request refused', 403) : undefined);
+  // req.host honours X-Forwarded-Host when LW_TRUST_PROXY is on, so a proxy that rewrites Host still matches.
+  return next(originMismatch(req.get('origin'), req.host) ? new AppError('csrf_rejected', 'cross-origin request refused', 403) : undefined);
 };
 
 export function originMismatch(origin: string | undefined, host: string | undefined): boolean {
