@@ -108,46 +108,64 @@ const baseLoopSpecSchema = z.strictObject({
 });
 
 type BaseSpec = z.output<typeof baseLoopSpecSchema>;
+type Shape = typeof baseLoopSpecSchema.shape;
+/** The top-level parts of a spec that are valid on their own (the rest are reported by their schemas). */
+type ValidParts = { [K in keyof BaseSpec]?: BaseSpec[K] };
+type AddIssue = (path: (string | number)[], message: string) => void;
+
+/** Each top-level part of `value` that passes its own schema; so cross-field checks can run (and name
+ * their fields) even while an unrelated field is still wrong. */
+function validParts(value: unknown): ValidParts {
+  const v = value !== null && typeof value === 'object' ? (value as Record<string, unknown>) : {};
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(baseLoopSpecSchema.shape) as (keyof Shape)[]) {
+    const r = baseLoopSpecSchema.shape[key].safeParse(v[key]);
+    if (r.success) out[key] = r.data;
+  }
+  return out as ValidParts;
+}
 
 /** Cross-field constraints; each issue names the field a designer should change. */
-function checkCrossFields(spec: BaseSpec, ctx: z.RefinementCtx): void {
-  const add = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
-  const nyquistHz = spec.sampleRateHz / 2;
-  if (spec.sampleRateHz > spec.clockHz) {
-    add(['sampleRateHz'], `sampleRateHz ${spec.sampleRateHz} exceeds clockHz ${spec.clockHz}: the loop cannot update faster than the fabric clock`);
+function checkCrossFields(value: unknown, ctx: z.RefinementCtx): void {
+  const add: AddIssue = (path, message) => ctx.addIssue({ code: 'custom', path, message });
+  const p = validParts(value);
+  checkRates(p, add);
+  if (p.nco && p.nco.phaseBits > p.nco.accumulatorBits) {
+    add(['nco', 'phaseBits'], `nco.phaseBits ${p.nco.phaseBits} cannot exceed nco.accumulatorBits ${p.nco.accumulatorBits}`);
   }
-  if (spec.centerHz >= nyquistHz) {
-    add(['centerHz'], `centerHz ${spec.centerHz} must be below the Nyquist frequency of the loop rate (sampleRateHz/2 = ${nyquistHz})`);
-  }
-  const belowNyquist = (path: (string | number)[], valueHz: number | undefined | null) => {
-    if (valueHz != null && valueHz >= nyquistHz) {
-      add(path, `${path.join('.')} ${valueHz} must be below sampleRateHz/2 = ${nyquistHz}`);
-    }
-  };
-  const f = spec.filter;
-  if (f.kind === 'single-pole' || f.kind === 'butterworth') belowNyquist(['filter', 'cutoffHz'], f.cutoffHz);
-  if (spec.rippleFilter) belowNyquist(['rippleFilter', 'cutoffHz'], spec.rippleFilter.cutoffHz);
-  belowNyquist(['discretization', 'prewarpHz'], spec.discretization.prewarpHz);
-  if (f.kind === 'lag-lead' || f.kind === 'pi') checkSecondOrder(spec, f, add);
-  if (spec.nco.phaseBits > spec.nco.accumulatorBits) {
-    add(['nco', 'phaseBits'], `nco.phaseBits ${spec.nco.phaseBits} cannot exceed nco.accumulatorBits ${spec.nco.accumulatorBits}`);
-  }
-  const fp = spec.fixedPoint;
-  if (fp.coefficientFractionBits !== 'auto' && fp.coefficientFractionBits > fp.coefficientBits) {
+  const fp = p.fixedPoint;
+  if (fp && fp.coefficientFractionBits !== 'auto' && fp.coefficientFractionBits > fp.coefficientBits) {
     add(['fixedPoint', 'coefficientFractionBits'], `fixedPoint.coefficientFractionBits ${fp.coefficientFractionBits} cannot exceed fixedPoint.coefficientBits ${fp.coefficientBits}`);
   }
-  if (fp.accumulatorBits < Math.max(fp.dataBits, fp.coefficientBits)) {
+  if (fp && fp.accumulatorBits < Math.max(fp.dataBits, fp.coefficientBits)) {
     add(['fixedPoint', 'accumulatorBits'], `fixedPoint.accumulatorBits ${fp.accumulatorBits} must be at least max(dataBits, coefficientBits) = ${Math.max(fp.dataBits, fp.coefficientBits)}`);
   }
+  if (p.filter && (p.filter.kind === 'lag-lead' || p.filter.kind === 'pi')) checkSecondOrder(p, p.filter, add);
+}
+
+/** Loop rate against the clock, and every frequency against the loop rate's Nyquist frequency. */
+function checkRates(p: ValidParts, add: AddIssue): void {
+  if (p.sampleRateHz !== undefined && p.clockHz !== undefined && p.sampleRateHz > p.clockHz) {
+    add(['sampleRateHz'], `sampleRateHz ${p.sampleRateHz} exceeds clockHz ${p.clockHz}: the loop cannot update faster than the fabric clock`);
+  }
+  if (p.sampleRateHz === undefined) return;
+  const nyquistHz = p.sampleRateHz / 2;
+  if (p.centerHz !== undefined && p.centerHz >= nyquistHz) {
+    add(['centerHz'], `centerHz ${p.centerHz} must be below the Nyquist frequency of the loop rate (sampleRateHz/2 = ${nyquistHz})`);
+  }
+  const belowNyquist = (path: (string | number)[], valueHz: number | undefined | null) => {
+    if (valueHz != null && valueHz >= nyquistHz) add(path, `${path.join('.')} ${valueHz} must be below sampleRateHz/2 = ${nyquistHz}`);
+  };
+  const f = p.filter;
+  if (f && (f.kind === 'single-pole' || f.kind === 'butterworth')) belowNyquist(['filter', 'cutoffHz'], f.cutoffHz);
+  if (f && (f.kind === 'lag-lead' || f.kind === 'pi')) belowNyquist(['filter', 'naturalHz'], f.naturalHz);
+  if (p.rippleFilter) belowNyquist(['rippleFilter', 'cutoffHz'], p.rippleFilter.cutoffHz);
+  if (p.discretization) belowNyquist(['discretization', 'prewarpHz'], p.discretization.prewarpHz);
 }
 
 type SecondOrderFilter = Extract<BaseSpec['filter'], { kind: 'lag-lead' | 'pi' }>;
 
-function checkSecondOrder(
-  spec: BaseSpec,
-  f: SecondOrderFilter,
-  add: (path: (string | number)[], message: string) => void,
-): void {
+function checkSecondOrder(p: ValidParts, f: SecondOrderFilter, add: AddIssue): void {
   const hasTau = f.tau1S !== undefined || f.tau2S !== undefined;
   const hasTargets = f.naturalHz !== undefined || f.damping !== undefined;
   if (hasTau && hasTargets) {
@@ -163,18 +181,17 @@ function checkSecondOrder(
     : (['naturalHz', 'damping'] as const).filter((k) => f[k] === undefined);
   for (const k of missing) add(['filter', k], `filter of kind ${f.kind} needs ${k} together with ${hasTau ? 'tau1S/tau2S' : 'naturalHz/damping'}`);
   if (missing.length > 0 || f.naturalHz === undefined || f.damping === undefined) return;
-  if (f.naturalHz >= spec.sampleRateHz / 2) {
-    add(['filter', 'naturalHz'], `filter.naturalHz ${f.naturalHz} must be below sampleRateHz/2 = ${spec.sampleRateHz / 2}`);
-    return;
-  }
-  if (f.kind === 'lag-lead') {
-    const r = lagLeadFromTargets(loopGain(spec).kRadPerS, f.naturalHz, f.damping);
+  if (p.sampleRateHz !== undefined && f.naturalHz >= p.sampleRateHz / 2) return; // reported by checkRates
+  if (f.kind === 'lag-lead' && p.input && p.nco) {
+    const r = lagLeadFromTargets(loopGain({ input: p.input, nco: p.nco }).kRadPerS, f.naturalHz, f.damping);
     if (!r.ok) add(['filter', r.field], r.message);
   }
 }
 
 /** The raw zod schema of a loop design spec (DESIGN.md), with cross-field checks. */
-export const loopSpecSchema = baseLoopSpecSchema.superRefine(checkCrossFields);
+// `when: () => true` runs the cross-field checks even when some field failed its own schema, so a
+// form shows every problem at once; checkCrossFields only looks at parts that are valid on their own.
+export const loopSpecSchema = baseLoopSpecSchema.superRefine(checkCrossFields, { when: () => true });
 
 /** A validated loop design spec (defaults applied). */
 export type LoopSpec = z.output<typeof loopSpecSchema>;

@@ -98,6 +98,14 @@ describe('parseLoopSpec rejects bad fields by name', () => {
     expect(r.ok).toBe(false);
   });
 
+  it('reports a cross-field issue together with an unrelated bad field (all problems at once)', () => {
+    const spec = { ...mainsSyncSpec, name: 'Bad Name', sampleRateHz: 2e8, nco: { ...mainsSyncSpec.nco, waveform: 'triangle' } };
+    const fields = fieldsOf(spec);
+    expect(fields).toContain('name');
+    expect(fields).toContain('nco.waveform');
+    expect(fields).toContain('sampleRateHz');
+  });
+
   it('rejects taus and targets given together', () => {
     const spec = { ...mainsSyncSpec, filter: { kind: 'pi', tau1S: 1, tau2S: 0.01, naturalHz: 5, damping: 0.7 } };
     expect(fieldsOf(spec)).toContain('filter');
