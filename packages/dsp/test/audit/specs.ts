@@ -94,3 +94,15 @@ export function generatedCases(seed = 20261202): AuditCase[] {
 export function exampleCases(): AuditCase[] {
   return exampleSpecs.map((e) => ({ label: `example ${e.id}`, spec: e.spec }));
 }
+
+/**
+ * The generated loops with the NCO gain raised 10^2.5…10^5.5 times: crossovers near and past Nyquist,
+ * unstable discrete and analog loops, negative margins — the corners where margin searches go wrong.
+ */
+export function boostedCases(): AuditCase[] {
+  return [1, 2, 3].flatMap((seed) => generatedCases(seed)).map((c, i) => {
+    const boost = 10 ** (2.5 + 3 * ((i * 0.618) % 1));
+    const gainHzPerUnit = Math.min(c.spec.nco.gainHzPerUnit * boost, 1e12);
+    return { label: `${c.label} gain×${boost.toFixed(0)}`, spec: { ...c.spec, nco: { ...c.spec.nco, gainHzPerUnit } } };
+  });
+}
