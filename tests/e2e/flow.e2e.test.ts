@@ -12,7 +12,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from './harness/build.ts';
 import { launchBrowser, signIn, type Browser } from './harness/browser.ts';
-import { choose, degrees, screenshot, textOf, waitForChange } from './harness/pageHelpers.ts';
+import { choose, degrees, screenshot, tableRows, textOf, waitForChange } from './harness/pageHelpers.ts';
 import { startStack, type Stack } from './harness/stack.ts';
 
 let stack: Stack;
@@ -86,13 +86,45 @@ describe('Loopwright in the browser', () => {
     await page.close();
   });
 
-  it('lets the admin see accounts and filter the audit trail', async () => {
+  it('lets the admin create and disable accounts and filter the audit trail', async () => {
     const page = await freshPage();
     await signIn(page, stack.baseUrl, 'admin@example.test');
     await page.waitForSelector('[data-test="accounts"] .el-table__row');
     const emails = await page.locator('[data-test="accounts"] .el-table__row td:first-child').allTextContents();
     expect(emails.map((e) => e.trim())).toEqual(expect.arrayContaining(['designer@example.test', 'reviewer@example.test', 'firmware@example.test', 'admin@example.test']));
     await screenshot(page, '10-admin-accounts');
+
+    await page.click('[data-test="new-account"]');
+    await page.fill('input[data-test="new-email"]', 'casey@example.test');
+    await page.fill('input[data-test="new-name"]', 'Casey Bench');
+    await page.fill('input[data-test="new-password"]', 'short');
+    await page.click('.el-dialog .el-checkbox:has-text("firmware")');
+    await page.click('[data-test="create-account"]');
+    await page.waitForSelector('[data-test="account-error"]');
+    expect(await textOf(page, '[data-test="account-error"]')).toMatch(/password.*10 characters/);
+    await page.fill('input[data-test="new-password"]', 'casey-bench-password');
+    await page.click('[data-test="create-account"]');
+    const casey = page.locator('[data-test="accounts"] .el-table__row', { hasText: 'casey@example.test' });
+    await casey.waitFor();
+    const caseyPage = await browser.newPage();
+    await browser.context.clearCookies();
+    await signIn(caseyPage, stack.baseUrl, 'casey@example.test', 'casey-bench-password');
+    await caseyPage.waitForURL((u) => u.pathname === '/downloads');
+    await caseyPage.close();
+    await browser.context.clearCookies();
+    await signIn(page, stack.baseUrl, 'admin@example.test');
+    await casey.locator('.el-switch').click();
+    await page.waitForSelector('.el-message--success');
+    const blocked = await freshPage();
+    await blocked.goto(`${stack.baseUrl}/sign-in`);
+    await blocked.fill('input[data-test="email"]', 'casey@example.test');
+    await blocked.fill('input[data-test="password"]', 'casey-bench-password');
+    await blocked.click('[data-test="sign-in"]');
+    await blocked.waitForSelector('[data-test="sign-in-error"]');
+    expect(await textOf(blocked, '[data-test="sign-in-error"]')).toMatch(/disabled/);
+    await blocked.close();
+    await signIn(page, stack.baseUrl, 'admin@example.test');
+    await page.waitForSelector('[data-test="accounts"] .el-table__row');
     await page.click('#tab-audit');
     await page.waitForSelector('[data-test="audit"] .el-table__row');
     await page.fill('input[data-test="audit-search"]', 'firmware@example.test');
@@ -145,11 +177,49 @@ describe('Loopwright in the browser', () => {
     await page.close();
   });
 
+  it('shows what changed when two designers save the same design, and merges on request', async () => {
+    await browser.context.clearCookies();
+    const a = await browser.newPage();
+    await signIn(a, stack.baseUrl, 'designer@example.test');
+    const b = await browser.newPage();
+    await openDesign(a, 'Carrier tracker');
+    await openDesign(b, 'Carrier tracker');
+    await a.fill('input[data-test="filter-cutoff-hz"]', '1500');
+    await a.click('[data-test="save-design"]');
+    await a.waitForFunction(() => !document.querySelector('[data-test="unsaved"]'));
+
+    await b.fill('input[data-test="center-hz"]', '41000');
+    await b.click('[data-test="save-design"]');
+    await b.waitForSelector('[data-test="conflict-dialog"] .el-table__row');
+    const rows = (await tableRows(b, '[data-test="conflict-dialog"]')).map((cells) => cells.join('|'));
+    // Columns: field, when you started, saved meanwhile, your edit, clash marker.
+    expect(rows).toEqual(expect.arrayContaining(['centerHz|40000|40000|41000|', 'filter.cutoffHz|1600|1500|1600|']));
+    await screenshot(b, '13-save-conflict');
+    await b.click('[data-test="conflict-keep-mine"]');
+    await b.waitForFunction(() => !document.querySelector('[data-test="unsaved"]'));
+    await b.reload();
+    await b.waitForSelector('input[data-test="center-hz"]');
+    expect(await b.inputValue('input[data-test="center-hz"]')).toBe('41000');
+    expect(await b.inputValue('input[data-test="filter-cutoff-hz"]')).toBe('1500');
+    expect(await textOf(b, '.head .lw-muted')).toMatch(/revision 3/);
+    await a.close();
+    await b.close();
+  });
+
   it('runs a float and bit-true simulation to completion with progress', async () => {
     const page = await freshPage();
     await signIn(page, stack.baseUrl, 'designer@example.test');
     await openDesign(page, 'Mains sync PI loop');
     await page.click('#tab-simulation');
+    // A long run (5 M samples) is cancelled part-way; the panel says so and offers to run again.
+    await page.fill('input[data-test="scenario-durationS"]', '500');
+    await page.click('[data-test="run-simulation"]');
+    await page.waitForSelector('[data-test="cancel-simulation"]');
+    await page.waitForFunction(() => /[1-9]\d*%/.test(document.querySelector('[data-test="simulation-progress"]')?.textContent ?? ''));
+    await page.click('[data-test="cancel-simulation"]');
+    await page.waitForSelector('[data-test="simulation-cancelled"]');
+    expect(await page.isVisible('[data-test="trace-chart"]')).toBe(false);
+    await page.fill('input[data-test="scenario-durationS"]', '5');
     await choose(page, 'scenario-kind', 'FM, sine modulation');
     await page.click('[data-test="run-simulation"]');
     await page.waitForSelector('[data-test="trace-chart"] canvas', { timeout: 120_000 });
@@ -285,6 +355,29 @@ describe('Loopwright in the browser', () => {
     // Row 6 of the file is sample 5 (the header is line 0); expected = golden, got = ours.
     expect(firstCells).toEqual(['5', header[column], original, String(Number(original) + 1)]);
     await screenshot(page, '12-conformance');
+    await page.close();
+  });
+
+  it('compares the next release with the approved one, field by field and code by code', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    await openDesign(page, 'Mains sync PI loop');
+    await page.fill('input[data-test="filter-damping"]', '0.6');
+    await page.click('[data-test="save-design"]');
+    await page.waitForFunction(() => !document.querySelector('[data-test="unsaved"]'));
+    await page.click('text=Releases');
+    await page.waitForSelector('[data-test="cut-release"]');
+    await page.click('[data-test="cut-release"]');
+    await page.waitForSelector('[data-test="state-v2"]', { timeout: 60_000 });
+    expect(await textOf(page, '[data-test="state-v1"]')).toBe('approved');
+    await choose(page, 'diff-from', 'v1');
+    await choose(page, 'diff-to', 'v2');
+    await page.click('[data-test="compare"]');
+    await page.waitForSelector('[data-test="release-diff"] .el-table__row');
+    const rows = (await tableRows(page, '[data-test="release-diff"]')).map((cells) => cells.join('|'));
+    expect(rows).toContain('Spec|filter.damping|0.35|0.6');
+    expect(rows.some((r) => r.startsWith('Integer codes'))).toBe(true);
+    await screenshot(page, '14-release-diff');
     await page.close();
   });
 });

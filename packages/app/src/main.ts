@@ -6,6 +6,9 @@ import './styles/theme.css';
 import App from './App.vue';
 import { createAppRouter } from './router/index.ts';
 
+// Browser tests take screenshots: without motion they never catch a half-finished transition.
+if (navigator.webdriver) document.documentElement.classList.add('lw-no-motion');
+
 const pinia = createPinia();
 const app = createApp(App);
 app.use(pinia);

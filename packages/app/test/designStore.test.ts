@@ -56,9 +56,9 @@ describe('design store', () => {
     expect(byPath['sampleRateHz']).toMatchObject({ mine: '10000', theirs: '12000', clash: false });
   });
 
-  it('"save mine" retries on their revision; "take theirs" drops my edit', async () => {
+  it('"save mine" puts my edits on their revision and keeps their other changes; "take theirs" drops mine', async () => {
     vi.spyOn(designsApi, 'get').mockResolvedValue(design(1));
-    const theirs = design(2, { ...mainsSyncSpec, centerHz: 60 });
+    const theirs = design(2, { ...mainsSyncSpec, centerHz: 60, sampleRateHz: 12_000 });
     const save = vi
       .spyOn(designsApi, 'save')
       .mockRejectedValueOnce(new ApiError(409, 'stale_revision', 'moved', undefined, { error: { current: theirs } }))
@@ -68,7 +68,7 @@ describe('design store', () => {
     store.setField('centerHz', '55');
     await store.save();
     expect(await store.keepMine()).toBe('saved');
-    expect(save.mock.calls[1]![1].baseRevision).toBe(2);
+    expect(save.mock.calls[1]![1]).toMatchObject({ baseRevision: 2, spec: { centerHz: 55, sampleRateHz: 12_000 } });
 
     const other = useDesignStore();
     other.conflict = { theirs, changes: [] };

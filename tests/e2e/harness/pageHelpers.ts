@@ -36,3 +36,13 @@ export function degrees(text: string): number {
   if (!match) throw new Error(`no number in "${text}"`);
   return Number(match[1]);
 }
+
+/** The cell texts of each body row of an Element Plus table, trimmed. */
+export async function tableRows(page: Page, tableSelector: string): Promise<string[][]> {
+  const rows = page.locator(`${tableSelector} .el-table__body tr.el-table__row`);
+  const out: string[][] = [];
+  for (let i = 0; i < (await rows.count()); i++) {
+    out.push((await rows.nth(i).locator('td').allTextContents()).map((t) => t.trim()));
+  }
+  return out;
+}

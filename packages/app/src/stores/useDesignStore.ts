@@ -70,10 +70,20 @@ export const useDesignStore = defineStore('design', () => {
     }
   }
 
-  /** Keep my edits on top of their revision (overwrite the fields they changed). */
+  /**
+   * Put my edits on top of their revision: fields only they changed keep their value, fields I
+   * changed take mine (on a clash, mine wins — the dialog showed both), then save against theirs.
+   */
   async function keepMine(): Promise<'saved' | 'conflict' | 'invalid'> {
     const theirs = conflict.value?.theirs;
     if (!theirs) return 'invalid';
+    const merged: SpecDraft = specToDraft(theirs.spec);
+    for (const [path, value] of Object.entries(draft.value)) {
+      if (value !== baseDraft.value[path]) merged[path] = value;
+    }
+    draft.value = merged;
+    baseDraft.value = specToDraft(theirs.spec);
+    design.value = theirs;
     return save(theirs.revision);
   }
 
