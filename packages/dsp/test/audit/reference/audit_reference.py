@@ -332,6 +332,47 @@ def bode_case(c):
     return out
 
 
+def section_loop_case(c):
+    """Margins and pole radii of a loop whose F(z) is given as second-order sections (quantised codes /
+    2^F): roots by numpy, L(z) = K T F(z)/(z - 1), margins as above; plus the filter's response deviation
+    from the reference sections with sosfreqz on a dense grid."""
+    fs, k = c["sampleRateHz"], c["kRadPerS"]
+    zs, ps, g = [], [], 1.0
+    radii = []
+    for sec in c["sections"]:
+        b = np.trim_zeros(np.asarray(sec["b"], dtype=float), "b")
+        a = np.trim_zeros(np.asarray(sec["a"], dtype=float), "b")
+        # b0 + b1 z^-1 + b2 z^-2 = z^-2 (b0 z^2 + b1 z + b2): zeros = roots(b); the leading b0 is the gain
+        radii.append(float(max(abs(np.roots(a)))) if len(a) > 1 else 0.0)
+        lead = np.nonzero(b)[0][0] if np.any(b) else None
+        if lead is None:
+            g = 0.0
+            continue
+        zs += list(np.roots(b[lead:]))
+        ps += list(np.roots(a))
+        g *= b[lead]
+        # the z^-lead delay: lead extra poles at z = 0; length mismatch of b and a adds poles/zeros at 0
+        nb, na = len(b) - 1 - lead, len(a) - 1
+        zs += [0.0] * max(0, na - nb)
+        ps += [0.0] * max(0, nb - na) + [0.0] * lead
+    out = {"margins": None, "poleRadius": radii}
+    if g != 0:  # an all-zero numerator (the numerator-zero trap) leaves no loop to measure
+        loop = Loop(np.array(zs, dtype=complex), np.array(ps + [1.0], dtype=complex), k * g / fs, True, fs)
+        out["margins"] = margins(loop, c["fMinHz"], fs / 2, True)
+    if "referenceSections" in c:
+        f = np.exp(np.linspace(math.log(1e-6 * fs / 2), math.log(fs / 2), 60000))
+        sos_q = np.array([list(s["b"]) + list(s["a"]) for s in c["sections"]], dtype=float)
+        sos_r = np.array([list(s["b"]) + list(s["a"]) for s in c["referenceSections"]], dtype=float)
+        _, hq = signal.sosfreqz(sos_q, worN=f, fs=fs)
+        _, hr = signal.sosfreqz(sos_r, worN=f, fs=fs)
+        with np.errstate(divide="ignore"):
+            dr = 20 * np.log10(np.abs(hr))
+            dq = 20 * np.log10(np.abs(hq))
+        band = dr >= dr.max() - 40
+        out["maxDeviationDb"] = float(np.max(np.abs(dq[band] - dr[band])))
+    return out
+
+
 def main():
     doc = json.load(sys.stdin)
     res = {
@@ -341,6 +382,7 @@ def main():
         "openLoop": [open_loop_points(c) for c in doc.get("openLoop", [])],
         "rounding": [rounding_case(c) for c in doc.get("rounding", [])],
         "bode": [bode_case(c) for c in doc.get("bode", [])],
+        "sectionLoops": [section_loop_case(c) for c in doc.get("sectionLoops", [])],
     }
     json.dump(res, sys.stdout, allow_nan=True)
 
