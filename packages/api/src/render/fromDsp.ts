@@ -14,6 +14,7 @@ export interface HandoffInput {
 }
 
 const COEFFICIENT_NAMES = ['b0', 'b1', 'b2', 'a1', 'a2'] as const;
+const ROUNDING_CODES: Readonly<Record<LoopSpec['fixedPoint']['rounding'], number>> = { truncate: 0, nearest: 1, 'half-even': 2 };
 
 export function handoffModel({ spec, quantized, plan }: HandoffInput): HandoffModel {
   const { tuning, control } = plan;
@@ -37,6 +38,12 @@ export function handoffModel({ spec, quantized, plan }: HandoffInput): HandoffMo
       meaning: 'tuning increment = round(filter output times NCO_GAIN_CODE / 2^NCO_GAIN_SHIFT); negative means a left shift',
     },
   ];
+  // Modes as numbers, so firmware can switch on them (the arithmetic itself: README.txt).
+  counts.push(
+    { suffix: 'ROUNDING', value: ROUNDING_CODES[fp.rounding], meaning: `rounding mode ${fp.rounding}: 0 = truncate (toward minus infinity), 1 = nearest (half away from zero), 2 = half-even` },
+    { suffix: 'OVERFLOW_SATURATE', value: fp.overflow === 'saturate' ? 1 : 0, meaning: `overflow mode ${fp.overflow}: 1 = saturate, 0 = wrap` },
+    { suffix: 'NCO_SQUARE', value: spec.nco.waveform === 'square' ? 1 : 0, meaning: `NCO waveform ${spec.nco.waveform}: 0 = sine table, 1 = square (plus or minus NCO_FULL_SCALE)` },
+  );
   const clocksPerSample = spec.clockHz / spec.sampleRateHz;
   if (Number.isSafeInteger(clocksPerSample)) {
     counts.push({ suffix: 'CLOCKS_PER_SAMPLE', value: clocksPerSample, meaning: `fabric clock cycles per loop update (${spec.clockHz} Hz / ${spec.sampleRateHz} Hz)` });
