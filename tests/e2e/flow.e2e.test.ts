@@ -78,6 +78,18 @@ describe('Loopwright in the browser', () => {
       await p.close();
     }
 
+    // Keyboard only: type, Tab to the password, Enter signs in.
+    const keys = await freshPage();
+    await keys.goto(`${stack.baseUrl}/sign-in`);
+    await keys.focus('input[data-test="email"]');
+    await keys.keyboard.type('reviewer@example.test');
+    await keys.keyboard.press('Tab');
+    expect(await keys.evaluate(() => document.activeElement?.getAttribute('data-test'))).toBe('password');
+    await keys.keyboard.type('loopwright-demo');
+    await keys.keyboard.press('Enter');
+    await keys.waitForURL((u) => u.pathname === '/projects');
+    await keys.close();
+
     const firmware = await freshPage();
     await signIn(firmware, stack.baseUrl, 'firmware@example.test');
     await firmware.goto(`${stack.baseUrl}/admin`);
