@@ -5,7 +5,7 @@
 
 const DESIGN_NAME = /^[a-z][a-z0-9_]{0,39}$/;
 
-/** VHDL basic identifier: letter first, no doubled or trailing underscore (IEEE 1076-2008 §15.4.2). */
+/** VHDL basic identifier: letter first, no doubled or trailing underscore (IEEE 1076-2008 §15.4.2, section number from memory). */
 const VHDL_BASIC = /^[A-Za-z](?:_?[A-Za-z0-9])*$/;
 
 export interface CodeNames {

@@ -3,10 +3,10 @@
  *
  * Codes are bigint so 64-bit NCO tuning words and accumulator limits survive (a JS number holds
  * integers exactly only up to 2^53). Rules per language:
- * - VHDL: `integer` is only guaranteed to 32 bits (IEEE 1076-2008 §5.2.3.1 asks for at least
+ * - VHDL: `integer` is only guaranteed to 32 bits (IEEE 1076-2008 §5.2.3.1, section number from memory, asks for at least
  *   −2^31+1 … 2^31−1), so every code is a `signed`/`unsigned` vector written as a binary bit-string
  *   literal of exactly its width; small widths and counts stay `natural`.
- * - Verilog: sized literals (IEEE 1800-2012 §5.7.1): `18'sd5`, `-18'sd5`; the most negative value has
+ * - Verilog: sized literals (IEEE 1800-2012 §5.7.1, memory): `18'sd5`, `-18'sd5`; the most negative value has
  *   no positive twin of the same width, so it is written as its bit pattern `18'sb100…0`.
  * - C: stdint types and the INTn_C/UINTn_C macros (C11 §7.20.4); those macros take an unsuffixed
  *   constant, so negatives are `(-INT32_C(5))` and the type minimum is `(-INT64_C(2^63−1) - 1)`.

@@ -16,7 +16,7 @@ describe('identifiers of generated code', () => {
   });
 
   it('uses a VHDL extended identifier where a basic one is illegal', () => {
-    // IEEE 1076-2008 §15.4.2: no doubled or trailing underscore in a basic identifier.
+    // IEEE 1076-2008 §15.4.2 (section number from memory): no doubled or trailing underscore in a basic identifier.
     expect(vhdlIdentifier('a_b')).toBe('a_b');
     expect(vhdlIdentifier('a__b')).toBe('\\a__b\\');
     expect(vhdlIdentifier('a_')).toBe('\\a_\\');

@@ -44,7 +44,7 @@ describe('integer literals per language', () => {
     expect(cType('signed', 18)).toBe('int32_t');
     expect(cType('unsigned', 33)).toBe('uint64_t');
     expect(cLiteral(-5n, 'signed', 18)).toBe('(-INT32_C(5))');
-    // 9223372036854775808 has no int64_t literal: the minimum is built as -(2^63 - 1) - 1 (C11 §6.4.4.1).
+    // 9223372036854775808 has no int64_t literal: the minimum is built as -(2^63 - 1) - 1 (C11 §6.4.4.1, memory; gcc warns "integer constant is so large that it is unsigned").
     expect(cLiteral(-(2n ** 63n), 'signed', 64)).toBe('(-INT64_C(9223372036854775807) - 1)');
     expect(cLiteral(7n, 'unsigned', 48)).toBe('UINT64_C(7)');
   });
