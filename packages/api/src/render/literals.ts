@@ -8,7 +8,7 @@
  *   literal of exactly its width; small widths and counts stay `natural`.
  * - Verilog: sized literals (IEEE 1800-2012 §5.7.1, memory): `18'sd5`, `-18'sd5`; the most negative value has
  *   no positive twin of the same width, so it is written as its bit pattern `18'sb100…0`.
- * - C: stdint types and the INTn_C/UINTn_C macros (C11 §7.20.4); those macros take an unsuffixed
+ * - C: stdint types and the INTn_C/UINTn_C macros (C11 §7.20.4, memory); those macros take an unsuffixed
  *   constant, so negatives are `(-INT32_C(5))` and the type minimum is `(-INT64_C(2^63−1) - 1)`.
  */
 
