@@ -75,6 +75,14 @@ describe('sign-in and sign-out', () => {
     }
   });
 
+  it('serves a signed-in request from the session alone, without reloading the account', async () => {
+    const agent = await signedInAgent(built.app, org.emails.reviewer);
+    // Changed behind the API's back: a request that reloaded the user would show the new name.
+    await dataSource.query('UPDATE users SET displayName = ? WHERE id = ?', ['Changed directly', org.ids.reviewer]);
+    const me = await agent.get('/api/session').expect(200);
+    expect(me.body.user.displayName).not.toBe('Changed directly');
+  });
+
   it('writes audit entries for sign-in, failed sign-in and sign-out', async () => {
     const agent = await signedInAgent(built.app, org.emails.designer);
     await agent.delete('/api/session').set(csrf).expect(204);
