@@ -5,7 +5,7 @@
  * noise bandwidth by quad of |H|², ripple at 2·centerHz, coefficients by scipy.signal.bilinear.
  */
 import { describe, expect, it } from 'vitest';
-import { analyzeDesign, type AnalysisResult } from '../../src/index.ts';
+import { analyzeDesign, digitalResponse, type AnalysisResult } from '../../src/index.ts';
 import { runAuditReference } from './reference/run.ts';
 import { exampleCases, generatedCases, type AuditCase } from './specs.ts';
 
@@ -20,7 +20,8 @@ interface RefCase {
   discreteClosed: { bandwidth3dbHz: number | null; peakingDb: number };
   analogNoiseHz: number; discreteNoiseHz: number;
   naturalHz: number | null; damping: number | null;
-  ripple: { rippleHz: number; aliasedRippleHz: number; analogAttenuationDb: number; discreteAttenuationDb: number };
+  ripple: Record<string, number>;
+  prewarp?: { analog: number; digital: number };
   b: number[]; a: number[]; bTf: number[]; aTf: number[];
 }
 
@@ -100,6 +101,17 @@ describe.each(cases.map((c, i) => ({ ...c, i })))('$label', ({ i }) => {
     expect(Math.abs(r.ripple.aliasedRippleHz - ref.ripple.aliasedRippleHz)).toBeLessThan(1e-9 * ref.ripple.rippleHz);
     expect(Math.abs(r.ripple.analogAttenuationDb - ref.ripple.analogAttenuationDb)).toBeLessThan(1e-6);
     expect(Math.abs(r.ripple.discreteAttenuationDb - ref.ripple.discreteAttenuationDb)).toBeLessThan(1e-6);
+    for (const k of ['analogFilterOutputAmplitude', 'discreteFilterOutputAmplitude', 'analogPhaseRippleDeg', 'discretePhaseRippleDeg'] as const) {
+      expect(rel(r.ripple[k], ref.ripple[k]!), k).toBeLessThan(1e-7);
+    }
+  });
+
+  it('prewarped: |F| of the digital filter equals the analog |F| at prewarpHz (OS3 Sec. 7.2, PM4)', () => {
+    if (!ref.prewarp) return expect(cases[i]!.spec.discretization.prewarpHz).toBeNull();
+    expect(rel(ref.prewarp.digital, ref.prewarp.analog)).toBeLessThan(1e-9); // the reference itself
+    const fp = cases[i]!.spec.discretization.prewarpHz!;
+    const d = digitalResponse(r.filter.sections, fp, cases[i]!.spec.sampleRateHz);
+    expect(rel(Math.hypot(d.re, d.im), ref.prewarp.analog)).toBeLessThan(1e-9);
   });
 
   it('digital F(z) b/a (a[0] = 1) equals scipy.signal.bilinear with fs or the prewarped fs′', () => {

@@ -136,6 +136,17 @@ describe('bad values name the field path (DESIGN.md: "a clear error naming the f
     }
   });
 
+  it('lag-lead targets that need τ2 ≤ 0 or τ1 ≤ 0 are rejected by name (README; G3: τ1+τ2 = K/ωn², τ2 = 2ζ/ωn − 1/K)', () => {
+    const sp = ultrasonicSinglePoleSpec; // K = 0.4·2π·2000 ≈ 5026.5 1/s
+    const k = 0.4 * 2 * Math.PI * 2000;
+    // τ2 = 2ζ/ωn − 1/K ≤ 0 ⇔ ζ ≤ ωn/(2K): ωn = 2π·500 ⇒ ζ ≤ 0.3125
+    expect(issueFields(mutate(sp, 'filter', { kind: 'lag-lead', naturalHz: 500, damping: 0.3 }))).toContain('filter.damping');
+    expect(parseLoopSpec(mutate(sp, 'filter', { kind: 'lag-lead', naturalHz: 500, damping: 0.32 })).ok).toBe(true);
+    // τ1 = K/ωn² − τ2 ≤ 0 ⇔ K/ωn² ≤ 2ζ/ωn − 1/K: at ζ = 5, ωn = 2π·1000, K/ωn² = 1.27e-4 < τ2 = 1.39e-3
+    expect(k / (2 * Math.PI * 1000) ** 2).toBeLessThan(10 / (2 * Math.PI * 1000) - 1 / k);
+    expect(issueFields(mutate(sp, 'filter', { kind: 'lag-lead', naturalHz: 1000, damping: 5 }))).toContain('filter.naturalHz');
+  });
+
   it('the clock/loop-rate ratio is reported exactly when it is not an integer (DESIGN.md: "say why not")', () => {
     const r = parseLoopSpec({ ...mainsSyncSpec, clockHz: 1e8 + 1 });
     expect(r.ok).toBe(true);

@@ -262,7 +262,17 @@ def case(spec):
     fa = Loop(z, p, g, False, fs).complex(np.array([fr]))[0]
     fd = Loop(zd, pd, gd, True, fs).complex(np.array([fr]))[0]
     out["ripple"] = {"rippleHz": fr, "aliasedRippleHz": abs(fr - fs * round(fr / fs)),
-                     "analogAttenuationDb": -20 * math.log10(abs(fa)), "discreteAttenuationDb": -20 * math.log10(abs(fd))}
+                     "analogAttenuationDb": -20 * math.log10(abs(fa)), "discreteAttenuationDb": -20 * math.log10(abs(fd)),
+                     # the 2f term has amplitude Kd at the detector, i.e. 1 rad of equivalent input phase:
+                     # NCO phase ripple = |H(2fc)| rad (common practice, no source)
+                     "analogFilterOutputAmplitude": spec["input"]["amplitude"] / 2 * abs(fa),
+                     "discreteFilterOutputAmplitude": spec["input"]["amplitude"] / 2 * abs(fd),
+                     "analogPhaseRippleDeg": math.degrees(math.sqrt(float(h_abs2(analog, fr)[0]))),
+                     "discretePhaseRippleDeg": math.degrees(math.sqrt(float(h_abs2(discrete, fr)[0])))}
+    pw = spec["discretization"].get("prewarpHz")
+    if pw is not None:  # analog and digital F agree exactly at the prewarp frequency (OS3, PM4)
+        out["prewarp"] = {"analog": abs(Loop(z, p, g, False, fs).complex(np.array([pw]))[0]),
+                          "digital": abs(Loop(zd, pd, gd, True, fs).complex(np.array([pw]))[0])}
     # Coefficients: scipy.signal.bilinear on the whole F(s) (b/a with a[0] = 1).
     num = np.real(np.poly(z)) * g if len(z) else np.array([g])
     den = np.real(np.poly(p))
@@ -373,6 +383,27 @@ def section_loop_case(c):
     return out
 
 
+def step_case(c):
+    """Phase error of the discrete loop after a 1 rad phase step and a 1 Hz frequency step (input phase
+    2 pi n T), by scipy.signal.lfilter of E(z) = 1/(1 + L(z)) = (1 - z^-1)A / ((1 - z^-1)A + K T z^-1 B)."""
+    spec, n = c["spec"], c["n"]
+    k, _, (zd, pd, gd), _, _, _, _ = open_loops(spec)
+    fs = spec["sampleRateHz"]
+    b, a = signal.zpk2tf(zd, pd, gd)
+    b, a = np.real(b), np.real(a)
+    m = max(len(a), len(b))
+    b = np.concatenate([np.zeros(m - len(b)), b])[::-1][::-1]  # align as polynomials in z (same degree)
+    a = np.concatenate([np.zeros(m - len(a)), a])
+    # in powers of z^-1 after dividing by z^(m-1): coefficient lists are unchanged (leading = z^(m-1))
+    one_minus = np.array([1.0, -1.0])
+    num = np.convolve(one_minus, a)
+    den = num + np.concatenate([[0.0], k / fs * b])
+    t = np.arange(n) / fs
+    e_phase = signal.lfilter(num, den, np.ones(n))
+    e_freq = signal.lfilter(num, den, 2 * np.pi * t)
+    return {"phase": e_phase.tolist(), "freq": e_freq.tolist()}
+
+
 def main():
     doc = json.load(sys.stdin)
     res = {
@@ -383,6 +414,7 @@ def main():
         "rounding": [rounding_case(c) for c in doc.get("rounding", [])],
         "bode": [bode_case(c) for c in doc.get("bode", [])],
         "sectionLoops": [section_loop_case(c) for c in doc.get("sectionLoops", [])],
+        "steps": [step_case(c) for c in doc.get("steps", [])],
     }
     json.dump(res, sys.stdout, allow_nan=True)
 
