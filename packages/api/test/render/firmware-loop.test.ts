@@ -3,7 +3,7 @@
  * README.txt's arithmetic, using nothing but the generated header's constants, reproduces the
  * release's golden vectors bit for bit from their input column (gcc -std=c11 -Wall -Wextra -Werror).
  */
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { exampleSpecs, mainsSyncSpec, type LoopSpec } from '@loopwright/dsp';
@@ -11,6 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { artifactNames, renderArtifacts, type Manifest } from '../../src/render/artifacts.ts';
 import { computeRelease } from '../../src/render/compute.ts';
 import { workDir } from './toolchains.ts';
+import { verilogLoopSource } from './verilogLoop.ts';
 
 function loopSource(header: string, prefix: string, sections: number): string {
   const c = (s: string) => `${prefix}_${s}`;
@@ -82,6 +83,14 @@ int main(void) {
 `;
 }
 
+function runVerilogLoop(dir: string, include: string, prefix: string, sections: number, vectors: string) {
+  writeFileSync(join(dir, 'lw_loop.v'), verilogLoopSource(include, prefix, sections, join(dir, vectors)));
+  // -Wall findings go to stderr without failing the compile: both streams are kept.
+  const compiled = spawnSync('iverilog', ['-g2012', '-Wall', '-I', dir, '-o', join(dir, 'lw_loop.vvp'), join(dir, 'lw_loop.v')], { encoding: 'utf8' });
+  const run = spawnSync('vvp', ['-n', join(dir, 'lw_loop.vvp')], { encoding: 'utf8' });
+  return { compileOutput: `${compiled.stdout}${compiled.stderr}`.trim(), status: run.status, output: `${run.stdout}${run.stderr}` };
+}
+
 const cases: { id: string; spec: LoopSpec }[] = [
   ...exampleSpecs.map((e) => ({ id: e.id, spec: e.spec })),
   {
@@ -113,6 +122,19 @@ describe.each(cases)('a C loop from the header of $id', ({ spec }) => {
     const firstDifference = outLines.findIndex((l, i) => l !== goldenLines[i]);
     expect(firstDifference, `first difference at line ${firstDifference + 1}: got ${outLines[firstDifference]} expected ${goldenLines[firstDifference]}`).toBe(-1);
   });
+
+  it('and so does the same loop in Verilog from the include (iverilog -g2012 -Wall, vvp)', () => {
+    const rendered = renderArtifacts(computeRelease(spec));
+    const dir = workDir(rendered.files);
+    const names = artifactNames(spec.name);
+    const manifest = JSON.parse(readFileSync(join(dir, 'manifest.json'), 'utf8')) as Manifest;
+    const sections = manifest.counts.find((c) => c.name.endsWith('_SECTION_COUNT'))!.value;
+    const r = runVerilogLoop(dir, names.verilog, spec.name.toUpperCase(), sections, names.vectors);
+    expect(r.compileOutput).toBe('');
+    expect(r.status, r.output).toBe(0);
+    const samples = readFileSync(join(dir, names.vectors), 'utf8').trimEnd().split('\n').length - 1;
+    expect(r.output).toContain(`matched ${samples} samples`);
+  });
 });
 
 describe('the C loop check', () => {
@@ -131,5 +153,20 @@ describe('the C loop check', () => {
     const golden = readFileSync(join(dir, names.vectors), 'utf8');
     const out = execFileSync(join(dir, 'loop'), [], { input: golden, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
     expect(out).not.toBe(golden);
+  });
+
+  it('fails in Verilog when a coefficient localparam loses its signed keyword', () => {
+    // The classic trap: an unsigned localparam zero-extends in a signed expression.
+    const spec = mainsSyncSpec;
+    const dir = workDir(renderArtifacts(computeRelease(spec)).files);
+    const names = artifactNames(spec.name);
+    const includePath = join(dir, names.verilog);
+    const include = readFileSync(includePath, 'utf8');
+    const tampered = include.replace('localparam signed [17:0] MAINS_SYNC_50HZ_S0_B1', 'localparam [17:0] MAINS_SYNC_50HZ_S0_B1');
+    expect(tampered).not.toBe(include);
+    writeFileSync(includePath, tampered);
+    const r = runVerilogLoop(dir, names.verilog, 'MAINS_SYNC_50HZ', 2, names.vectors);
+    expect(r.status).not.toBe(0);
+    expect(r.output).toMatch(/differs at sample/);
   });
 });
