@@ -404,6 +404,13 @@ def step_case(c):
     return {"phase": e_phase.tolist(), "freq": e_freq.tolist()}
 
 
+def butter_digital(c):
+    """scipy.signal.butter(N, fc, fs=fs, output='sos') response (SciPy prewarps the cutoff itself)."""
+    sos = signal.butter(c["order"], c["cutoffHz"], fs=c["sampleRateHz"], output="sos")
+    _, h = signal.sosfreqz(sos, worN=np.asarray(c["freqHz"], dtype=float), fs=c["sampleRateHz"])
+    return {"re": np.real(h).tolist(), "im": np.imag(h).tolist()}
+
+
 def main():
     doc = json.load(sys.stdin)
     res = {
@@ -415,6 +422,7 @@ def main():
         "bode": [bode_case(c) for c in doc.get("bode", [])],
         "sectionLoops": [section_loop_case(c) for c in doc.get("sectionLoops", [])],
         "steps": [step_case(c) for c in doc.get("steps", [])],
+        "butterDigital": [butter_digital(c) for c in doc.get("butterDigital", [])],
     }
     json.dump(res, sys.stdout, allow_nan=True)
 
