@@ -38,6 +38,8 @@ const envSchema = z.object({
   /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
   LW_BCRYPT_ROUNDS: int(4, 15).default(12),
   LW_TRUST_PROXY: flag.default(false),
+  /** API processes sharing the port (node:cluster); sessions and counters live in MariaDB. */
+  LW_API_PROCESSES: int(1, 64).default(1),
 });
 
 export type Env = z.infer<typeof envSchema>;
@@ -72,6 +74,7 @@ export interface Config {
   };
   readonly bcryptRounds: number;
   readonly trustProxy: boolean;
+  readonly processes: number;
   /** Keys that fell back to their development default, with the value used (printed at start-up). */
   readonly defaultsUsed: readonly (readonly [key: string, value: string])[];
 }
@@ -121,6 +124,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     },
     bcryptRounds: env.LW_BCRYPT_ROUNDS,
     trustProxy: env.LW_TRUST_PROXY,
+    processes: env.LW_API_PROCESSES,
     defaultsUsed,
   };
 }
