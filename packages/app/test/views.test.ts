@@ -132,3 +132,15 @@ describe('redirect after sign-in', () => {
     expect(afterSignIn('https://evil.example', ['firmware'])).toEqual({ name: 'downloads' });
   });
 });
+
+describe('readable values beside fields', () => {
+  it('adds an SI prefix to large and small Hz and s values only', async () => {
+    const { SPEC_SECTIONS, readableValue } = await import('../src/form/specFields.ts');
+    const field = (path: string) => SPEC_SECTIONS.flatMap((s) => s.fields).find((f) => f.path === path)!;
+    expect(readableValue(field('clockHz'), '100000000')).toBe('= 100 MHz');
+    expect(readableValue(field('filter.tau1S'), '0.00026')).toBe('= 260 µs');
+    expect(readableValue(field('centerHz'), '50')).toBe('');
+    expect(readableValue(field('nco.accumulatorBits'), '32000')).toBe('');
+    expect(readableValue(field('clockHz'), 'fast')).toBe('');
+  });
+});

@@ -4,6 +4,8 @@
  * the field that caused them.
  */
 
+import { fmtEng } from '../lib/format.ts';
+
 export type FieldKind = 'number' | 'integer' | 'text' | 'select' | 'auto-integer';
 
 export interface FieldDef {
@@ -171,6 +173,19 @@ export const SPEC_SECTIONS: readonly SectionDef[] = [
     ],
   },
 ];
+
+/**
+ * Big and small numbers read more easily with a prefix: "100000000" Hz is shown as "= 100 MHz"
+ * beside the field. Empty for values that read well as typed (or do not parse).
+ */
+export function readableValue(field: FieldDef, text: string | undefined): string {
+  if (field.unit !== 'Hz' && field.unit !== 's') return '';
+  const value = Number((text ?? '').trim());
+  if (!Number.isFinite(value) || value === 0 || (text ?? '').trim() === '') return '';
+  const abs = Math.abs(value);
+  if (abs >= 1e-2 && abs < 1e4) return '';
+  return `= ${fmtEng(value, field.unit, 6)}`;
+}
 
 export function visibleFields(section: SectionDef, draft: Readonly<Record<string, string>>): FieldDef[] {
   return section.fields.filter((field) => !field.when || field.when(draft));
