@@ -1,0 +1,78 @@
+import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises, mount } from '@vue/test-utils';
+import { createPinia, setActivePinia } from 'pinia';
+import { createMemoryHistory, createRouter } from 'vue-router';
+import { mainsSyncSpec } from '@loopwright/dsp';
+import { reviewLinksApi } from '../src/api/reviewLinksApi.ts';
+import { ApiError } from '../src/api/client.ts';
+import type { ReviewLinkView } from '../src/api/types.ts';
+
+// The release report draws plots through the worker; this test is about the decision.
+vi.mock('../src/components/ReleaseReport.vue', () => ({ default: { render: () => null } }));
+const { default: ReviewView } = await import('../src/views/ReviewView.vue');
+
+const SHA = 'f'.repeat(64);
+const view: ReviewLinkView = {
+  reviewerName: 'Robin Reviewer',
+  expiresAt: '2026-12-09T00:00:00Z',
+  diff: null,
+  release: {
+    id: 3, designId: 1, number: 1, label: 'v1', state: 'in-review', manifestSha256: SHA, specSha256: 'e'.repeat(64), designRevision: 2,
+    createdById: 1, createdByName: 'Dana Designer', createdAt: '', stateChangedAt: '', designName: 'Mains sync PI loop', projectId: 1,
+    spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 0, reviews: [], allowedEvents: ['approve', 'request-changes'],
+    caution: 'A release is a design aid.',
+  },
+};
+
+async function mountAt(token: string) {
+  const router = createRouter({ history: createMemoryHistory(), routes: [{ path: '/review/:token', name: 'review', component: ReviewView }] });
+  await router.push(`/review/${token}`);
+  const wrapper = mount(ReviewView, { global: { plugins: [router] } });
+  await flushPromises();
+  return wrapper;
+}
+
+async function settle(): Promise<void> {
+  await flushPromises();
+  await new Promise((r) => setTimeout(r, 250));
+  await flushPromises();
+}
+
+describe('review page', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia());
+    vi.restoreAllMocks();
+  });
+
+  it('shows the caution and decides with a POST bound to the manifest hash', async () => {
+    vi.spyOn(reviewLinksApi, 'read').mockResolvedValue(view);
+    const decide = vi.spyOn(reviewLinksApi, 'decide').mockResolvedValue({ decision: 'approve', state: 'approved', approvals: 1, approvalsRequired: 1 });
+    const wrapper = await mountAt('tok.en');
+    expect(wrapper.find('[data-test="safety-notice"]').text()).toBe('A release is a design aid.');
+    await wrapper.find('[data-test="submit-decision"]').trigger('click');
+    await flushPromises();
+    expect(decide).toHaveBeenCalledWith('tok.en', { decision: 'approve', manifestSha256: SHA });
+    expect(wrapper.find('[data-test="review-outcome"]').text()).toContain('approved');
+  });
+
+  it('asks for a comment before sending "ask for changes"', async () => {
+    vi.spyOn(reviewLinksApi, 'read').mockResolvedValue(view);
+    const decide = vi.spyOn(reviewLinksApi, 'decide').mockResolvedValue({ decision: 'request-changes', state: 'changes-requested', approvals: 0, approvalsRequired: 1 });
+    const wrapper = await mountAt('t');
+    await wrapper.find('input[value="request-changes"]').setValue(true);
+    await settle();
+    expect(wrapper.find('[data-test="submit-decision"]').attributes('disabled')).toBeDefined();
+    expect(wrapper.text()).toContain('Say what should change');
+    await wrapper.find('textarea[data-test="review-comment"]').setValue('  Raise the damping.  ');
+    await wrapper.find('[data-test="submit-decision"]').trigger('click');
+    await flushPromises();
+    expect(decide).toHaveBeenCalledWith('t', { decision: 'request-changes', manifestSha256: SHA, comment: 'Raise the damping.' });
+  });
+
+  it('shows why a used or expired link cannot open', async () => {
+    vi.spyOn(reviewLinksApi, 'read').mockRejectedValue(new ApiError(410, 'conflict', 'this review link was already used', 'token'));
+    const wrapper = await mountAt('used');
+    expect(wrapper.find('[data-test="review-error"]').text()).toContain('already used');
+    expect(wrapper.find('[data-test="submit-decision"]').exists()).toBe(false);
+  });
+});
