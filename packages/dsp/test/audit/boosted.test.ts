@@ -32,7 +32,7 @@ describe('margins of high-gain loops match SciPy', () => {
     }
     if (r.stability.discreteStable) {
       expect(close(r.closedLoop.discrete.bandwidth3dbHz, e.discreteClosed.bandwidth3dbHz, 1e-7)).toBe(true);
-      expect(Math.abs(r.closedLoop.discrete.peakingDb - e.discreteClosed.peakingDb)).toBeLessThan(1e-6);
+      expect(Math.abs(r.closedLoop.discrete.peakingDb! - e.discreteClosed.peakingDb)).toBeLessThan(1e-6);
       expect(Math.abs(r.noiseBandwidth.discreteHz! / e.discreteNoiseHz - 1)).toBeLessThan(1e-6);
     }
   });

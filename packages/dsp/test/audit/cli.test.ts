@@ -55,7 +55,7 @@ describe('loopwright CLI', () => {
     // M = round(50·2^32/10^4) = round(21474836.48) = 21474836 (TRG71, by hand)
     const m = 21474836;
     expect(rows[0]![2]).toBe(0);
-    expect(rows[1]![2] - rows[0]![2]).toBe(m + 0); // y[0] = 0 ⇒ Δ = 0: one sample of delay
+    expect(rows[1]![2]! - rows[0]![2]!).toBe(m + 0); // y[0] = 0 ⇒ Δ = 0: one sample of delay
     // input x[1] = round(sin(2π·50/10^4)·2^15) = round(1029.27) = 1029; address = top 12 bits + 1024
     expect(rows[1]![1]).toBe(1029);
     expect(rows[0]![3]).toBe(1024);
