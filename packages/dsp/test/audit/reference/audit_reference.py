@@ -411,6 +411,81 @@ def butter_digital(c):
     return {"re": np.real(h).tolist(), "im": np.imag(h).tolist()}
 
 
+def round_s(p, sh, mode):
+    """README primitive round_s: q = p >> s (floor), r = p - q 2^s, ties per mode (IEEE754 cl. 4.3)."""
+    if sh <= 0:
+        return p << -sh
+    q = p >> sh
+    r = p - (q << sh)
+    h = 1 << (sh - 1)
+    if mode == "truncate":
+        return q
+    if r > h:
+        return q + 1
+    if r < h:
+        return q
+    if mode == "nearest":
+        return q + 1 if p >= 0 else q
+    return q + 1 if q % 2 else q
+
+
+def reduce_w(v, w, mode):
+    lo, hi = -(1 << (w - 1)), (1 << (w - 1)) - 1
+    if lo <= v <= hi:
+        return v
+    if mode == "saturate":
+        return hi if v > hi else lo
+    v &= (1 << w) - 1
+    return v - (1 << w) if v > hi else v
+
+
+def bit_true_case(c):
+    """Re-run the README's bit-true arithmetic (steps 1-8) with Python integers on the given input codes;
+    the tuning word from Fraction and the sine table from numpy, both independent of the TypeScript."""
+    d, wc, fc, wa = c["dataBits"], c["coefficientBits"], c["fractionBits"], c["macBits"]
+    n_acc, p_bits, b_bits = c["ncoAccumulatorBits"], c["phaseBits"], c["amplitudeBits"]
+    mode, ovf = c["rounding"], c["overflow"]
+    fs_code = (1 << (b_bits - 1)) - 1
+    k = np.arange(1 << p_bits)
+    ideal = fs_code * np.sin(2 * np.pi * k / (1 << p_bits))
+    table = [int(math.copysign(math.floor(abs(v) + 0.5), v)) for v in ideal]
+    m = round_half_away(Fraction(c["centerHz"]) * 2 ** n_acc / Fraction(c["sampleRateHz"]))
+    g, sh = c["gainCode"], c["gainShift"]
+    codes = c["coefficientCodes"]
+    nsec = len(codes) // 5
+    st = [[0, 0, 0, 0] for _ in range(nsec)]
+    phi = 0
+    rows = []
+    for x in c["inputCode"]:
+        a = ((phi >> (n_acc - p_bits)) + (1 << (p_bits - 2))) % (1 << p_bits)
+        if c["waveform"] == "sine":
+            nco = table[a]
+        else:
+            nco = fs_code if a < (1 << (p_bits - 1)) else -fs_code
+        u = reduce_w(round_s(x * nco, b_bits - 1, mode), d, ovf)
+        v = u
+        for i in range(nsec):
+            b0, b1, b2, a1, a2 = codes[5 * i:5 * i + 5]
+            x1, x2, y1, y2 = st[i]
+            acc = b0 * v + b1 * x1 + b2 * x2 - a1 * y1 - a2 * y2
+            if wa < wc + d + 1:
+                acc = reduce_w(acc, wa, ovf)
+            y = reduce_w(round_s(acc, fc, mode), d, ovf)
+            st[i] = [v, x1, y, y1]
+            v = y
+        delta = round_s(v * g, sh, mode) if sh > 0 else v * g * (1 << -sh)
+        rows.append([x, str(phi), a, nco, u, v])
+        phi = (phi + m + delta) % (1 << n_acc)
+    # FNV-1a over 32-bit words (offset basis 2166136261, prime 16777619; README, memory), per sample:
+    # input_code, phase hi word, phase lo word, table_address, nco_code, detector_code, filter_code
+    h = 2166136261
+    for x, ph, a, nco, u, y in rows:
+        ph = int(ph)
+        for w in (x, ph >> 32, ph & 0xFFFFFFFF, a, nco, u, y):
+            h = ((h ^ (w & 0xFFFFFFFF)) * 16777619) & 0xFFFFFFFF
+    return {"rows": rows, "tuningWord": str(m), "table": table, "checksum": h}
+
+
 def main():
     doc = json.load(sys.stdin)
     res = {
@@ -423,6 +498,7 @@ def main():
         "sectionLoops": [section_loop_case(c) for c in doc.get("sectionLoops", [])],
         "steps": [step_case(c) for c in doc.get("steps", [])],
         "butterDigital": [butter_digital(c) for c in doc.get("butterDigital", [])],
+        "bitTrue": [bit_true_case(c) for c in doc.get("bitTrue", [])],
     }
     json.dump(res, sys.stdout, allow_nan=True)
 
