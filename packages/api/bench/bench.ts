@@ -45,6 +45,29 @@ async function signIn(baseUrl: string, email: string): Promise<string> {
   return cookie.split(';')[0] ?? '';
 }
 
+/**
+ * CPU time (user + system) a process has used, in µs, from /proc/<pid>/stat fields 14 and 15 (proc(5)),
+ * counted in clock ticks of 1/100 s (USER_HZ on Linux x86-64 and arm64). Unlike throughput, CPU per
+ * request barely changes when other work shares the machine.
+ */
+async function cpuTimeUs(pid: number): Promise<number | null> {
+  try {
+    const stat = await fs.readFile(`/proc/${pid}/stat`, 'utf8');
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    return (Number(fields[11]) + Number(fields[12])) * 10_000;
+  } catch {
+    return null;
+  }
+}
+
+async function mariaDbPid(dataDir: string): Promise<number | null> {
+  try {
+    return Number((await fs.readFile(path.join(dataDir, 'mariadbd.pid'), 'utf8')).trim());
+  } catch {
+    return null;
+  }
+}
+
 async function waitForHealth(baseUrl: string, server: ChildProcess): Promise<void> {
   const deadline = Date.now() + 60_000;
   while (Date.now() < deadline) {
@@ -115,7 +138,13 @@ export async function runApiBench(): Promise<object> {
     const cookie = headers.Cookie;
     // Other work on the machine skews the figures; report how busy it was.
     const loadAverage1m = os.loadavg()[0];
+    const dbPid = await mariaDbPid(dataDir);
+    const serverCpu0 = single.server.pid ? await cpuTimeUs(single.server.pid) : null;
+    const dbCpu0 = dbPid ? await cpuTimeUs(dbPid) : null;
     const list = await run({ url: `${baseUrl}/api/projects`, connections: CONNECTIONS, duration: DURATION_S, headers });
+    const serverCpu1 = single.server.pid ? await cpuTimeUs(single.server.pid) : null;
+    const dbCpu1 = dbPid ? await cpuTimeUs(dbPid) : null;
+    const perRequest = (a: number | null, b: number | null) => (a === null || b === null || list.requests.total === 0 ? null : Math.round((b - a) / list.requests.total));
 
     // The same read while a stream of simulations keeps the worker pool busy.
     const simBody = JSON.stringify({ spec: mainsSyncSpec, scenario: { kind: 'frequency-step', stepHz: 1, atS: 1, durationS: 20 }, mode: 'both', buckets: 200 });
@@ -151,6 +180,9 @@ export async function runApiBench(): Promise<object> {
       projectListP99Ms: p99,
       projectListNon2xx: list.non2xx,
       projectListErrors: list.errors,
+      /** CPU per authenticated project-list request: the API process and MariaDB. */
+      serverCpuUsPerRequest: perRequest(serverCpu0, serverCpu1),
+      mariadbCpuUsPerRequest: perRequest(dbCpu0, dbCpu1),
       projectListTarget: { reqPerS: TARGET_REQ_PER_S, p99Ms: TARGET_P99_MS, met: reqPerS >= TARGET_REQ_PER_S && p99 < TARGET_P99_MS && list.non2xx === 0 },
       duringSimulations: {
         projectListReqPerS: Math.round(underLoad.requests.average),
