@@ -45,18 +45,18 @@ describe('open loop, analog and discrete, at the Bode grid (DESIGN.md convention
   // On the sections (what firmware runs): a high-order b/a of a narrow filter is too ill-conditioned
   // near z = 1 for two evaluation orders to agree to 1e-6 (OS3 Sec. 6.8).
   it('discreteLoopResponse equals K·F(z)·T·z⁻¹/(1 − z⁻¹) on the returned sections, evaluated in numpy', () => {
-    for (const [i, r] of results.entries()) {
+    const points = results.map((r, i) => {
       const fs = specs[i]!.sampleRateHz;
-      const freqHz = [fs * 1e-4, fs * 0.013, fs * 0.21, fs * 0.4999];
-      const got = freqHz.map((f) => discreteLoopResponse(r.filter.sections, r.loopGain.kRadPerS, fs)(f));
-      const [e] = runAuditReference<{ openLoop: { re: number; im: number }[][] }>({
-        openLoop: [{ kRadPerS: r.loopGain.kRadPerS, sampleRateHz: fs, sections: r.filter.sections, freqHz }],
-      }).openLoop;
-      got.forEach((g, j) => {
-        const m = Math.hypot(e![j]!.re, e![j]!.im);
-        expect(Math.hypot(g.re - e![j]!.re, g.im - e![j]!.im) / m).toBeLessThan(1e-6);
+      return { kRadPerS: r.loopGain.kRadPerS, sampleRateHz: fs, sections: r.filter.sections, freqHz: [fs * 1e-4, fs * 0.013, fs * 0.21, fs * 0.4999] };
+    });
+    const refsOpen = runAuditReference<{ openLoop: { re: number; im: number }[][] }>({ openLoop: points }).openLoop;
+    points.forEach((p, i) => {
+      p.freqHz.forEach((f, j) => {
+        const g = discreteLoopResponse(p.sections, p.kRadPerS, p.sampleRateHz)(f);
+        const e = refsOpen[i]![j]!;
+        expect(Math.hypot(g.re - e.re, g.im - e.im) / Math.hypot(e.re, e.im)).toBeLessThan(1e-6);
       });
-    }
+    });
   });
 });
 
