@@ -104,6 +104,11 @@ describe('hand-off flow', () => {
     expect(approved[0]!.text).toContain(`/releases/${releaseId}`);
   });
 
+  it('offers the approved release to firmware on the Downloads list', async () => {
+    const res = await firmware.get('/api/releases').expect(200);
+    expect(res.body.releases.map((r: { id: number; state: string }) => [r.id, r.state])).toContainEqual([releaseId, 'approved']);
+  });
+
   it('serves every file with bytes equal to the stored bytes and to the manifest sums', async () => {
     const m = await firmware.get(`/api/releases/${releaseId}/files/manifest.json`).buffer(true).parse(binary).expect(200);
     expect(sha256(m.body)).toBe(manifestSha256);

@@ -112,6 +112,17 @@ describe('review links refuse', () => {
   });
 });
 
+describe('the review page', () => {
+  it('shows the diff to the previous release of the design', async () => {
+    await releaseInReview();
+    const second = await releaseInReview();
+    const view = await anonymous().get(`/api/review-links/${second.token}`).expect(200);
+    expect(view.body.diff.to.id).toBe(second.id);
+    expect(view.body.diff.spec).toEqual([]); // same spec, so the same codes: a re-cut changes nothing
+    expect(view.body.diff.codes).toEqual([]);
+  });
+});
+
 describe('deciding in the app', () => {
   it('lets the named reviewer decide signed in, once, on the content they read', async () => {
     const r = await releaseInReview();
