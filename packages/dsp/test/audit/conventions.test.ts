@@ -171,4 +171,17 @@ describe('traps of REFERENCES.md', () => {
     const warns = r.warnings.some((w) => /square/i.test(w.message));
     expect(usesSquareGain || warns, `kd ${r.loopGain.kd}, expected ${kdSquare} or a warning; warnings: ${JSON.stringify(r.warnings)}`).toBe(true);
   });
+
+  it('narrow sine table: the analysis loop gain is within 2 % of the bit-true loop\'s (README: FS = 2^(B−1) − 1)', () => {
+    // The bit-true NCO peaks at FS/2^(B−1) = 1 − 2^(1−B) (README "Number formats"), so its Kd is that
+    // fraction of A_in/2: 7/8 (−1.16 dB) at B = 4. Measured here from the steady error of a 300 Hz step
+    // (asin law, G3), as the difference to the same run without the step.
+    const spec: LoopSpec = { ...sp, nco: { ...sp.nco, amplitudeBits: 4 } };
+    const r = analyzeDesign(spec);
+    const run = (stepHz: number) =>
+      simulate(spec, { kind: 'frequency-step', stepHz, atS: 0.002, durationS: 0.03 }, { mode: 'bit-true' }).bitTrue!.metrics.steadyStatePhaseErrorDeg!;
+    const d = ((run(300) - run(0)) * Math.PI) / 180;
+    const kBitTrue = (2 * Math.PI * 300) / Math.sin(d);
+    expect(Math.abs(kBitTrue / r.loopGain.kRadPerS - 1), `bit-true K ${kBitTrue}, analysis K ${r.loopGain.kRadPerS}`).toBeLessThan(0.02);
+  });
 });
