@@ -370,7 +370,7 @@ describe('Loopwright in the browser', () => {
     await page.close();
   });
 
-  it('compares the next release with the approved one, field by field and code by code', async () => {
+  it('compares the next release with the approved one, shows the download log and withdraws', async () => {
     const page = await freshPage();
     await signIn(page, stack.baseUrl, 'designer@example.test');
     await openDesign(page, 'Mains sync PI loop');
@@ -390,6 +390,20 @@ describe('Loopwright in the browser', () => {
     expect(rows).toContain('Spec|filter.damping|0.35|0.6');
     expect(rows.some((r) => r.startsWith('Integer codes'))).toBe(true);
     await screenshot(page, '14-release-diff');
+
+    // Every firmware download of v1 is in its log.
+    await page.click('[data-test="open-v1"]');
+    await page.click('#tab-downloads');
+    await page.waitForSelector('[data-test="download-log"] .el-table__row');
+    const log = (await tableRows(page, '[data-test="download-log"]')).map((cells) => `${cells[1]}|${cells[2]}`);
+    expect(log).toEqual(expect.arrayContaining(["firmware@example.test|whole bundle (zip)", expect.stringMatching(/^firmware@example\.test\|.*_vectors\.csv$/)]));
+
+    // v2 is withdrawn: it stays listed, marked so.
+    await page.click('[data-test="open-v2"]');
+    await page.click('[data-test="withdraw"]');
+    await page.fill('textarea[data-test="withdraw-reason"]', 'superseded before review');
+    await page.click('[data-test="confirm-withdraw"]');
+    await page.waitForSelector('[data-test="state-v2"]:has-text("withdrawn")');
     await page.close();
   });
 });

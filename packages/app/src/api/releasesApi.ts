@@ -2,6 +2,7 @@ import { api, ApiError } from './client.ts';
 import { usersApi } from './adminApi.ts';
 import type {
   ConformanceRecord,
+  DownloadRecord,
   ReleaseDiff,
   ReleaseRecord,
   ReleaseSummary,
@@ -26,7 +27,9 @@ export const releasesApi = {
   approved: () => api.request<{ releases: ReleaseSummary[] }>('/releases').then((b) => b.releases),
   diff: (id: number, againstId: number) => api.request<ReleaseDiff>(`/releases/${id}/diff`, { query: { against: againstId } }),
   withdraw: (id: number, reason: string) =>
-    api.request<ReleaseRecord>(`/releases/${id}/withdraw`, { method: 'POST', body: { reason } }),
+    api.request<unknown>(`/releases/${id}/withdraw`, { method: 'POST', body: reason ? { reason } : {} }),
+  /** Who downloaded what, when (designers and admins). */
+  downloads: (id: number) => api.request<{ downloads: DownloadRecord[] }>(`/releases/${id}/downloads`).then((b) => b.downloads),
   reviews: (id: number) => api.request<ReviewsView>(`/releases/${id}/reviews`),
   requestReview: (id: number, request: ReviewRequest) =>
     api.request<unknown>(`/releases/${id}/reviews`, { method: 'POST', body: request }),

@@ -18,6 +18,7 @@ import type {
 
 export type {
   ConformanceRecord,
+  DownloadRecord,
   ReleaseDiff,
   ReleaseFileRecord,
   ReleaseRecord,

@@ -66,6 +66,11 @@ export const useReleasesStore = defineStore('releases', () => {
     return refresh(releaseId);
   }
 
+  async function withdraw(releaseId: number, reason: string): Promise<ReleaseRecord> {
+    await releasesApi.withdraw(releaseId, reason);
+    return refresh(releaseId);
+  }
+
   async function compare(fromId: number, toId: number): Promise<void> {
     diffError.value = null;
     try {
@@ -76,5 +81,5 @@ export const useReleasesStore = defineStore('releases', () => {
     }
   }
 
-  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, cut, loadReviewers, requestReview, compare };
+  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, cut, loadReviewers, requestReview, withdraw, compare };
 });
