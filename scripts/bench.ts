@@ -2,32 +2,45 @@
  * `npm run -s bench -- --json`: every performance figure of the project in one JSON document.
  * Targets are reported beside the figures (met: true/false); nothing here fails a test run.
  */
+import { spawn } from 'node:child_process';
 import path from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { ROOT, shutdown } from './lib/process.ts';
 
 interface BenchEntry {
   readonly name: string;
+  /** The package folder; the bench runs there, under that package's tsconfig. */
+  readonly cwd: string;
   readonly module: string;
   readonly exportName: string;
 }
 
 const BENCHES: readonly BenchEntry[] = [
-  { name: 'dsp', module: 'packages/dsp/bench/bench.ts', exportName: 'runDspBench' },
-  { name: 'api', module: 'packages/api/bench/bench.ts', exportName: 'runApiBench' },
-  { name: 'release', module: 'packages/api/bench/release-bench.ts', exportName: 'runReleaseBench' },
-  { name: 'app', module: 'packages/app/bench/bench.ts', exportName: 'runAppBench' },
+  { name: 'dsp', cwd: 'packages/dsp', module: 'bench/bench.ts', exportName: 'runDspBench' },
+  { name: 'api', cwd: 'packages/api', module: 'bench/bench.ts', exportName: 'runApiBench' },
+  { name: 'release', cwd: 'packages/api', module: 'bench/release-bench.ts', exportName: 'runReleaseBench' },
+  { name: 'app', cwd: 'packages/app', module: 'bench/bench.ts', exportName: 'runAppBench' },
 ];
 
-async function runOne(entry: BenchEntry): Promise<unknown> {
-  try {
-    const mod = (await import(pathToFileURL(path.join(ROOT, entry.module)).href)) as Record<string, unknown>;
-    const fn = mod[entry.exportName];
-    if (typeof fn !== 'function') return { error: `${entry.module} does not export ${entry.exportName}` };
-    return await (fn as () => Promise<unknown>)();
-  } catch (err) {
-    return { error: (err as Error).message };
-  }
+/** One bench in a child process; its last stdout line is its JSON result, its stderr passes through. */
+function runOne(entry: BenchEntry): Promise<unknown> {
+  const cwd = path.join(ROOT, entry.cwd);
+  return new Promise((resolve) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'scripts/lib/run-bench.ts'), entry.module, entry.exportName], {
+      cwd,
+      env: { ...process.env, TSX_TSCONFIG_PATH: path.join(cwd, 'tsconfig.json') },
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
+    let out = '';
+    child.stdout.on('data', (chunk: Buffer) => { out += chunk.toString(); });
+    child.on('exit', (code) => {
+      const last = out.trim().split('\n').pop() ?? '';
+      try {
+        resolve(JSON.parse(last) as unknown);
+      } catch {
+        resolve({ error: `the ${entry.name} bench exited ${code} without a JSON result` });
+      }
+    });
+  });
 }
 
 async function main(): Promise<void> {
