@@ -6,11 +6,11 @@
  */
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { analyzeDesign, mainsSyncSpec, ncoTuning } from '../../src/index.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../..');
@@ -19,6 +19,8 @@ const specPath = path.join(dir, 'mains.json');
 writeFileSync(specPath, JSON.stringify(mainsSyncSpec));
 const scenarioPath = path.join(dir, 'step.json');
 writeFileSync(scenarioPath, JSON.stringify({ kind: 'frequency-step', stepHz: 2, atS: 0.1, durationS: 0.5 }));
+
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function cli(...args: string[]) {
   const r = spawnSync('npm', ['run', '-s', 'loopwright', '--', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
