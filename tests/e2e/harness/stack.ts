@@ -9,7 +9,7 @@ import path from 'node:path';
 import type { Server } from 'node:http';
 import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
-import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
+import { startMariaDb, type MariaDbInstance } from '../../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { APP_DIST, ROOT } from './paths.ts';
 import { startSmtpFake, type SmtpFake } from './smtpFake.ts';
@@ -50,10 +50,27 @@ export async function startStack(options: { dataDir?: string } = {}): Promise<St
   if (!existsSync(path.join(APP_DIST, 'index.html'))) throw new Error(`no built app at ${APP_DIST}: run vite build first`);
   const dataDir = options.dataDir ?? path.join(ROOT, '.data', `e2e-${process.pid}`);
   const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_e2e', user: 'loopwright', password: 'e2e-only-password' });
-  const mail = await startSmtpFake();
+  let mail: SmtpFake;
+  try {
+    mail = await startSmtpFake();
+  } catch (err) {
+    await db.stop();
+    throw err;
+  }
+  try {
+    return await startApi(db, mail, dataDir);
+  } catch (err) {
+    // Leave nothing running when start-up fails half-way.
+    await mail.stop();
+    await db.stop();
+    throw err;
+  }
+}
+
+async function startApi(db: MariaDbInstance, mail: SmtpFake, dataDir: string): Promise<Stack> {
   const port = await findFreePort();
   const baseUrl = `http://127.0.0.1:${port}`;
-  Object.assign(process.env, {
+  const env: Record<string, string> = {
     NODE_ENV: 'test',
     LW_DB_HOST: db.host,
     LW_DB_PORT: String(db.port),
@@ -66,7 +83,11 @@ export async function startStack(options: { dataDir?: string } = {}): Promise<St
     LW_PUBLIC_URL: baseUrl,
     LW_OUTBOX_INTERVAL_MS: '500',
     LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
-  });
+  };
+  // The API reads its settings from process.env; put back what was there when the stack stops
+  // (the benchmark runs in one process with others).
+  const saved = Object.fromEntries(Object.keys(env).map((k) => [k, process.env[k]]));
+  Object.assign(process.env, env);
   const api = (await import(pathToFileURL(API_INDEX).href)) as ApiModule;
   const config = api.loadConfig(process.env);
   const dataSource = api.createDataSource(config.db);
@@ -92,6 +113,10 @@ export async function startStack(options: { dataDir?: string } = {}): Promise<St
       await mail.stop();
       await db.stop();
       await fs.rm(dataDir, { recursive: true, force: true });
+      for (const [key, value] of Object.entries(saved)) {
+        if (value === undefined) delete process.env[key];
+        else process.env[key] = value;
+      }
     },
   };
 }
