@@ -59,3 +59,15 @@ describe('api client', () => {
     expect(await client.request('/session', { method: 'DELETE' })).toBeUndefined();
   });
 });
+
+describe('api client: ended sessions', () => {
+  it('tells its listeners of a 401 and still throws the error to the caller', async () => {
+    const client = createApiClient('/api', async () => new Response('{"error":{"code":"unauthenticated","message":"sign in"}}', { status: 401 }));
+    const heard: string[] = [];
+    const stop = client.onUnauthenticated((path) => heard.push(path));
+    await expect(client.request('/designs/1')).rejects.toMatchObject({ status: 401, code: 'unauthenticated' });
+    stop();
+    await expect(client.request('/designs/2')).rejects.toMatchObject({ status: 401 });
+    expect(heard).toEqual(['/designs/1']);
+  });
+});

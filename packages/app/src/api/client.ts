@@ -35,12 +35,18 @@ export interface ApiClient {
   readonly baseUrl: string;
   request<T>(path: string, options?: RequestOptions): Promise<T>;
   url(path: string, query?: RequestOptions['query']): string;
+  /**
+   * Be told of every 401 (a session that expired or was ended by an admin). The client only reports
+   * it; the app decides what to do (the router sends the person to sign-in). Returns an unsubscribe.
+   */
+  onUnauthenticated(listener: (path: string) => void): () => void;
 }
 
 type FetchFn = (input: string, init: RequestInit) => Promise<Response>;
 
 export function createApiClient(baseUrl = '/api', fetchFn: FetchFn = (i, o) => fetch(i, o)): ApiClient {
   const url = (path: string, query?: RequestOptions['query']): string => buildUrl(baseUrl, path, query);
+  const listeners = new Set<(path: string) => void>();
   return {
     baseUrl,
     url,
@@ -52,7 +58,12 @@ export function createApiClient(baseUrl = '/api', fetchFn: FetchFn = (i, o) => f
         if (isAbort(cause)) throw cause;
         throw new ApiError(0, 'network', 'The server could not be reached. Check the connection and try again.');
       }
+      if (response.status === 401) for (const listener of listeners) listener(path);
       return readResponse<T>(response);
+    },
+    onUnauthenticated(listener) {
+      listeners.add(listener);
+      return () => listeners.delete(listener);
     },
   };
 }

@@ -44,6 +44,11 @@ export const useSessionStore = defineStore('session', () => {
     }
   }
 
+  /** Drop the local copy of a session the server no longer knows. */
+  function forget(): void {
+    user.value = null;
+  }
+
   async function signOut(): Promise<void> {
     try {
       await sessionApi.signOut();
@@ -52,5 +57,5 @@ export const useSessionStore = defineStore('session', () => {
     }
   }
 
-  return { user, loaded, signingIn, signedIn, roles, hasRole, hasAnyRole, load, ensureLoaded, signIn, signOut };
+  return { user, loaded, signingIn, signedIn, roles, hasRole, hasAnyRole, load, ensureLoaded, signIn, signOut, forget };
 });
