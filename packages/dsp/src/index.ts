@@ -1,7 +1,8 @@
 export type * from './types/index.ts';
 export { loopSpecSchema, parseLoopSpec, specWarnings, loopFilterSchema, rippleFilterSchema, FILTER_KINDS } from './spec/schema.ts';
 export { exampleSpecs, exampleSpecByKind, mainsSyncSpec, ultrasonicSinglePoleSpec, ultrasonicLagLeadSpec, ifFmDemodSpec } from './spec/examples.ts';
-export { loopGain } from './analysis/loopGain.ts';
+export { loopGain, ncoFundamentalAmplitude } from './analysis/loopGain.ts';
+export { datapathFigures } from './analysis/datapath.ts';
 export { piFromTargets, lagLeadFromTargets } from './filters/timeConstants.ts';
 export { FieldError } from './fixed/fieldError.ts';
 export { roundShift, roundReal, applyOverflow, wordRange } from './fixed/rounding.ts';

@@ -122,9 +122,9 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
   const analogGrid = logGrid(range.fMinHz, range.fMaxAnalogHz, points);
   const analogOpen = sampleResponse(analogFn, analogGrid, loopType);
   const analogMargins = loopMargins(analogFn, analogOpen);
-  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, analogOpen.values.map(closedFromOpen));
   const analogPolys = analogClosedLoop(design.analog, k);
   const analogStable = routhHurwitzStable(analogPolys.h.den);
+  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, analogOpen.values.map(closedFromOpen), analogStable);
 
   const discrete = discreteLoopMargins(spec, design.sections, { fMinHz: range.fMinHz, points });
   const plotGrid = discrete.open.freqHz;
@@ -144,7 +144,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
     quantizedMagnitudeDb: quantization.open?.magnitudeDb ?? null,
     quantizedPhaseDeg: quantization.open?.phaseDeg ?? null,
   };
-  const noiseBandwidth = loopNoiseBandwidth(spec, design, k, range, second);
+  const noiseBandwidth = loopNoiseBandwidth(spec, design, k, range, second, { analog: analogStable, discrete: discrete.stable });
   const crossoverHz = discrete.margins.crossoverHz ?? analogMargins.crossoverHz ?? k / (2 * Math.PI);
   const dampingForSpan = Math.min(Math.max(second?.damping ?? 0.5, 0.1), 1);
   const durationS = 3 / (crossoverHz * dampingForSpan);

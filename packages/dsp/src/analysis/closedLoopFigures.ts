@@ -11,7 +11,8 @@ import { type ResponseFn, toDb } from './response.ts';
 
 export interface ClosedLoopFigures {
   readonly bandwidth3dbHz: number | null;
-  readonly peakingDb: number;
+  /** null when the closed loop is unstable (no frequency response exists). */
+  readonly peakingDb: number | null;
   readonly peakHz: number | null;
   readonly notes: readonly string[];
 }
@@ -20,9 +21,18 @@ export const MINUS_3DB = 10 * Math.log10(0.5);
 
 /**
  * Figures of the closed loop h on the grid; `samples` may give h on the grid already (from the open-loop
- * samples, H = L/(1 + L)) to save the evaluations.
+ * samples, H = L/(1 + L)) to save the evaluations. An unstable closed loop (`stable` false) has none.
  */
-export function closedLoopFigures(h: ResponseFn, grid: readonly number[], samples?: readonly Complex[]): ClosedLoopFigures {
+export const UNSTABLE_NOTE =
+  'the closed loop is unstable: |H| on the frequency axis is not a frequency response (there is no steady state), so its bandwidth, peaking and noise bandwidth do not exist';
+
+export function closedLoopFigures(
+  h: ResponseFn,
+  grid: readonly number[],
+  samples?: readonly Complex[],
+  stable = true,
+): ClosedLoopFigures {
+  if (!stable) return { bandwidth3dbHz: null, peakingDb: null, peakHz: null, notes: [UNSTABLE_NOTE] };
   const db = samples ? samples.map(toDb) : grid.map((f) => toDb(h(f)));
   let iPeak = 0;
   for (let i = 1; i < db.length; i++) if (db[i]! > db[iPeak]!) iPeak = i;

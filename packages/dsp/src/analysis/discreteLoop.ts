@@ -84,7 +84,7 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
     : tf.a.length <= 3 && tf.b.length <= 3
       ? discreteLoopStable([tfAsSection(tf)], k, fs)
       : schurCohnStable(discreteClosedLoop(tf, k, fs).h.a);
-  const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid, open.values.map(closedFromOpen));
+  const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid, open.values.map(closedFromOpen), stable);
   return { margins, stable, closedLoop: cl, open, loopType, response: fn };
 }
 

@@ -6,6 +6,10 @@
  * - hold-in   ΔωH = K·F(0) (sinusoidal detector saturates at |sin| = 1); infinite for an ideal PI
  * - pull-out  ΔωPO ≈ 1.8·ωn·(ζ + 1)
  * - pull-in time TP ≈ Δω²/(2ζωn³) for an initial offset Δω beyond the lock-in range
+ * The lock-in and pull-out formulas are high-gain results; a type-1 loop can neither lock nor stay
+ * locked beyond its hold-in range (lock-in ≤ pull-in ≤ hold-in, pull-out ≤ hold-in: G3 Ch. 2/5), so
+ * lockInHz and pullOutHz are the formulas capped at K·F(0), and the raw formula values are kept in
+ * lockInFormulaHz and pullOutFormulaHz.
  */
 import type { AcquisitionEstimates } from '../types/analysis.ts';
 
@@ -26,28 +30,36 @@ export function acquisitionEstimates(
     return {
       lockInHz: null,
       lockInRadPerS: null,
+      lockInFormulaHz: null,
       holdInHz: holdIn === null ? null : hz(holdIn),
       holdInRadPerS: holdIn,
       pullOutHz: null,
       pullOutRadPerS: null,
+      pullOutFormulaHz: null,
       pullInTimeSPerHz2: null,
       label: 'estimate',
       notes,
     };
   }
   const { wnRadPerS: wn, damping: z } = second;
-  const lockIn = 2 * z * wn;
-  const pullOut = 1.8 * wn * (z + 1);
-  if (holdIn !== null && lockIn > holdIn) {
-    notes.push('lock-in: the 2ζωn formula exceeds the hold-in range K·F(0) here (a low-gain type-1 loop); the loop cannot lock beyond hold-in, so read it as at most the hold-in range');
-  }
+  const lockInFormula = 2 * z * wn;
+  const pullOutFormula = 1.8 * wn * (z + 1);
+  const cap = (w: number, what: string, formula: string) => {
+    if (holdIn === null || w <= holdIn) return w;
+    notes.push(`${what}: ${formula} = ${hz(w).toPrecision(4)} Hz exceeds the hold-in range K·F(0) = ${hz(holdIn).toPrecision(4)} Hz (the formula is a high-gain result); capped at hold-in, which a type-1 loop cannot pass`);
+    return holdIn;
+  };
+  const lockIn = cap(lockInFormula, 'lock-in', '2ζωn');
+  const pullOut = cap(pullOutFormula, 'pull-out', '1.8ωn(ζ+1)');
   return {
     lockInHz: hz(lockIn),
     lockInRadPerS: lockIn,
+    lockInFormulaHz: hz(lockInFormula),
     holdInHz: holdIn === null ? null : hz(holdIn),
     holdInRadPerS: holdIn,
     pullOutHz: hz(pullOut),
     pullOutRadPerS: pullOut,
+    pullOutFormulaHz: hz(pullOutFormula),
     // TP = Δω²/(2ζωn³) with Δω = 2π·Δf, so TP = c·Δf² with c = (2π)²/(2ζωn³).
     pullInTimeSPerHz2: (4 * Math.PI * Math.PI) / (2 * z * wn ** 3),
     label: 'estimate',

@@ -73,13 +73,15 @@ export function numericNoiseBandwidthHz(
 }
 
 export interface NoiseBandwidth {
-  /** ∫₀^∞ |H(j2πf)|² df of the analog prototype loop (closed form when second order). */
-  readonly analogHz: number;
-  readonly analogMethod: 'closed-form' | 'numeric';
-  /** ∫₀^{fs/2} |H(e^{j2πf/fs})|² df of the discrete loop (numeric). */
-  readonly discreteHz: number;
+  /** ∫₀^∞ |H(j2πf)|² df of the analog prototype loop (closed form when second order); null if unstable. */
+  readonly analogHz: number | null;
+  readonly analogMethod: 'closed-form' | 'numeric' | null;
+  /** ∫₀^{fs/2} |H(e^{j2πf/fs})|² df of the discrete loop (numeric); null if unstable. */
+  readonly discreteHz: number | null;
   /** (ωn/2)(ζ + 1/(4ζ)): the high-gain approximation, exact for PI only; null when ωn, ζ do not apply. */
   readonly highGainApproximationHz: number | null;
+  /** Why a figure is null. */
+  readonly notes: readonly string[];
 }
 
 /** Noise bandwidth of the analog prototype (closed form when second order) and of the discrete loop. */
@@ -89,12 +91,28 @@ export function loopNoiseBandwidth(
   k: number,
   range: { fMinHz: number; fMaxAnalogHz: number; nyquistHz: number },
   second: { wnRadPerS: number; damping: number } | null,
+  stable: { readonly analog: boolean; readonly discrete: boolean },
 ): NoiseBandwidth {
+  const highGainApproximationHz = second ? highGainNoiseBandwidthHz(second.wnRadPerS, second.damping) : null;
+  const notes: string[] = [];
+  if (!stable.analog) notes.push('analog: the closed loop is unstable, so ∫|H|² df does not exist');
+  if (!stable.discrete) notes.push('discrete: the closed loop is unstable, so ∫|H|² df does not exist');
+  const analog = stable.analog ? analogNoiseBandwidth(design, k, range) : { hz: null, method: null };
+  const hd = closedLoop(discreteLoopResponse(design.sections, k, spec.sampleRateHz));
+  const discreteHz = stable.discrete ? numericNoiseBandwidthHz(hd, range.fMinHz, range.nyquistHz) : null;
+  return { analogHz: analog.hz, analogMethod: analog.method, discreteHz, highGainApproximationHz, notes };
+}
+
+function analogNoiseBandwidth(
+  design: LoopFilterDesign,
+  k: number,
+  range: { fMinHz: number; fMaxAnalogHz: number },
+): { hz: number; method: 'closed-form' | 'numeric' } {
   const { h } = analogClosedLoop(design.analog, k);
   const den = h.den;
   const lead = den[0]!;
   let analogHz: number;
-  let analogMethod: NoiseBandwidth['analogMethod'];
+  let analogMethod: 'closed-form' | 'numeric';
   if (den.length === 3 && h.num.length <= 2) {
     const num = h.num.length === 2 ? h.num : [0, h.num[0]!];
     analogHz = secondOrderNoiseBandwidthHz(num[0]! / lead, num[1]! / lead, den[1]! / lead, den[2]! / lead);
@@ -104,13 +122,6 @@ export function loopNoiseBandwidth(
     analogHz = numericNoiseBandwidthHz(hFn, range.fMinHz, range.fMaxAnalogHz, { tail: true });
     analogMethod = 'numeric';
   }
-  const hd = closedLoop(discreteLoopResponse(design.sections, k, spec.sampleRateHz));
-  const discreteHz = numericNoiseBandwidthHz(hd, range.fMinHz, range.nyquistHz);
-  return {
-    analogHz,
-    analogMethod,
-    discreteHz,
-    highGainApproximationHz: second ? highGainNoiseBandwidthHz(second.wnRadPerS, second.damping) : null,
-  };
+  return { hz: analogHz, method: analogMethod };
 }
 

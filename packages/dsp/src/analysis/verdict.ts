@@ -11,6 +11,8 @@ import type { NcoSummary } from './ncoSummary.ts';
 export interface AnalysisVerdict {
   readonly stable: boolean;
   readonly marginsMet: boolean;
+  /** False when the fixed-point datapath cannot reach full scale (the MAC word is too narrow). */
+  readonly datapathOk: boolean;
   readonly minPhaseMarginDeg: number;
   readonly minGainMarginDb: number;
   readonly reasons: readonly string[];
@@ -40,10 +42,11 @@ export function analysisVerdict(
   check('discrete', discrete.margins);
   if (q.loop) check('quantised', q.loop.margins);
   const ncoReasons = nco.controlError ? [`NCO control scaling failed: ${nco.controlError.message}`] : [];
+  const datapathReasons = q.datapath?.notes ?? [];
   const stable = stabilityReasons.length === 0;
   const marginsMet = marginReasons.length === 0;
-  const reasons = [...stabilityReasons, ...marginReasons, ...ncoReasons];
-  return { stable, marginsMet, minPhaseMarginDeg: minPm, minGainMarginDb: minGm, reasons };
+  const reasons = [...stabilityReasons, ...marginReasons, ...ncoReasons, ...datapathReasons];
+  return { stable, marginsMet, datapathOk: datapathReasons.length === 0, minPhaseMarginDeg: minPm, minGainMarginDb: minGm, reasons };
 }
 
 /** Non-fatal observations about the discrete loop against its analog prototype. */

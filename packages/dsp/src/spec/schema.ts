@@ -248,10 +248,11 @@ function toSpecIssue(issue: z.core.$ZodIssue): SpecIssue {
 export function specWarnings(spec: LoopSpec): SpecWarning[] {
   const warnings: SpecWarning[] = [];
   const ratio = spec.clockHz / spec.sampleRateHz;
-  if (Math.abs(ratio - Math.round(ratio)) > 1e-9 * ratio) {
+  if (ratio !== Math.round(ratio)) {
+    const divider = Math.max(1, Math.round(ratio));
     warnings.push({
       field: 'sampleRateHz',
-      message: `clockHz/sampleRateHz = ${ratio.toPrecision(8)} is not an integer: the loop strobe cannot come from a plain clock divider, so update instants jitter by up to one clock period (use a fractional strobe generator or pick a divisor of the clock)`,
+      message: `clockHz/sampleRateHz = ${spec.clockHz}/${spec.sampleRateHz} = ${ratio} is not an integer: the loop strobe cannot come from a plain clock divider, so update instants jitter by up to one clock period (use a fractional strobe generator, or the nearest divider ${divider}, which gives sampleRateHz = ${spec.clockHz / divider})`,
     });
   }
   const rippleHz = 2 * spec.centerHz;
@@ -261,6 +262,19 @@ export function specWarnings(spec: LoopSpec): SpecWarning[] {
     warnings.push({
       field: 'centerHz',
       message: `the 2·centerHz detector ripple (${rippleHz} Hz) is above sampleRateHz/2 and aliases to ${Number(aliasHz.toPrecision(6))} Hz in the loop; the loop filter sees it there`,
+    });
+  }
+  const tablePeak = 1 - 2 ** (1 - spec.nco.amplitudeBits);
+  if (tablePeak < 0.99) {
+    warnings.push({
+      field: 'nco.amplitudeBits',
+      message: `the bit-true NCO peaks at (2^(B−1) − 1)/2^(B−1) = ${tablePeak} of full scale with nco.amplitudeBits = ${spec.nco.amplitudeBits}, so its detector gain, and the loop gain, are ${(20 * Math.log10(tablePeak)).toFixed(2)} dB below the analysis, which takes A_nco = 1 (DESIGN.md); use 8 or more bits to keep the difference under 1 %`,
+    });
+  }
+  if (spec.nco.waveform === 'square') {
+    warnings.push({
+      field: 'nco.waveform',
+      message: 'square-wave NCO: only its fundamental, of amplitude 4/π, mixes the input to DC, so the detector gain is Kd = 2·A_in/π (2.1 dB above a sine NCO) and the analysis uses that; its odd harmonics add detector products at (k ± 1)·centerHz that the loop filter must also reject',
     });
   }
   const fp = spec.fixedPoint;

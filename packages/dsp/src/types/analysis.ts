@@ -16,17 +16,22 @@ export type { NcoSummary } from '../analysis/ncoSummary.ts';
 export type { QuantizationSummary } from '../analysis/quantizedLoop.ts';
 export type { NoiseBandwidth } from '../analysis/noiseBandwidth.ts';
 export type { RippleFigures } from '../analysis/ripple.ts';
+export type { DatapathFigures } from '../analysis/datapath.ts';
 
 export interface AcquisitionEstimates {
-  /** ≈ 2ζωn/(2π) (G3, B6); lockInRadPerS = 2ζωn. */
+  /** ≈ 2ζωn/(2π) (G3, B6), capped at the hold-in range for a type-1 loop; lockInRadPerS in rad/s. */
   readonly lockInHz: number | null;
   readonly lockInRadPerS: number | null;
+  /** 2ζωn/(2π) itself, before the cap. */
+  readonly lockInFormulaHz: number | null;
   /** K·F(0)/(2π); null for a PI loop (infinite). holdInRadPerS = K·F(0). */
   readonly holdInHz: number | null;
   readonly holdInRadPerS: number | null;
-  /** ≈ 1.8ωn(ζ+1)/(2π) (B6); pullOutRadPerS = 1.8ωn(ζ+1). */
+  /** ≈ 1.8ωn(ζ+1)/(2π) (B6), capped at the hold-in range for a type-1 loop; pullOutRadPerS in rad/s. */
   readonly pullOutHz: number | null;
   readonly pullOutRadPerS: number | null;
+  /** 1.8ωn(ζ+1)/(2π) itself, before the cap. */
+  readonly pullOutFormulaHz: number | null;
   /** Pull-in time TP ≈ c·Δf² for an initial offset Δf in Hz; this is c = (2π)²/(2ζωn³) in s/Hz². */
   readonly pullInTimeSPerHz2: number | null;
   /** Always "estimate": textbook formulas, off by up to 2x against simulation (Ku23). */

@@ -253,7 +253,9 @@ function* searchData(
   const hi = Math.min(32, options.maxDataBits ?? 24);
   const curve: DataWidthPoint[] = [];
   for (let bits = lo; bits <= hi; bits++) {
-    const macBits = Math.min(64, Math.max(fp.accumulatorBits, bits + fp.coefficientBits));
+    // A MAC of at least Fc + D + 1 bits never limits the section outputs (datapath.ts), so the search
+    // sees the data width alone.
+    const macBits = Math.min(64, Math.max(fp.accumulatorBits, bits + quantized.format.fractionBits + 1));
     const s: LoopSpec = { ...spec, fixedPoint: { ...fp, dataBits: bits, accumulatorBits: macBits } };
     const m = simulateSections(s, sections, quantized, scenario, { mode: 'bit-true', buckets: 10 }).bitTrue!.metrics;
     const reasons: string[] = [];

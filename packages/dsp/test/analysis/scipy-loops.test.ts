@@ -111,13 +111,24 @@ describe(`loop analysis agrees with SciPy on ${CASES} seeded random specs (${BOO
     },
   );
 
-  it.each(specs.map((_, i) => [i] as const))('case %i: closed-loop bandwidth and peaking', (i) => {
+  it.each(specs.map((_, i) => [i] as const))('case %i: closed-loop bandwidth and peaking (null with a note when unstable)', (i) => {
     const r = results[i]!;
     const p = ref[i]!;
-    expectHzClose(r.closedLoop.analog.bandwidth3dbHz, p.analogClosed.bandwidth3dbHz, 1e-7, 'analog bandwidth3dbHz');
-    expectHzClose(r.closedLoop.discrete.bandwidth3dbHz, p.discreteClosed.bandwidth3dbHz, 1e-7, 'discrete bandwidth3dbHz');
-    expectAbsClose(r.closedLoop.analog.peakingDb, p.analogClosed.peakingDb, 1e-6, 'analog peakingDb');
-    expectAbsClose(r.closedLoop.discrete.peakingDb, p.discreteClosed.peakingDb, 1e-6, 'discrete peakingDb');
+    for (const which of ['analog', 'discrete'] as const) {
+      const stable = which === 'analog' ? r.stability.analogStable : r.stability.discreteStable;
+      const c = r.closedLoop[which];
+      const q = which === 'analog' ? p.analogClosed : p.discreteClosed;
+      if (!stable) {
+        // An unstable closed loop has no frequency response: no bandwidth, peaking or noise bandwidth.
+        expect(c.bandwidth3dbHz).toBeNull();
+        expect(c.peakingDb).toBeNull();
+        expect(c.notes.join(' ')).toMatch(/unstable/);
+        expect(which === 'analog' ? r.noiseBandwidth.analogHz : r.noiseBandwidth.discreteHz).toBeNull();
+        continue;
+      }
+      expectHzClose(c.bandwidth3dbHz, q.bandwidth3dbHz, 1e-7, `${which} bandwidth3dbHz`);
+      expectAbsClose(c.peakingDb, q.peakingDb, 1e-6, `${which} peakingDb`);
+    }
   });
 
   it('closed-loop stability agrees with the simplified Nyquist criterion on SciPy\'s margins (Og5 Sec. 7-5 (memory))', () => {
@@ -145,8 +156,8 @@ describe(`loop analysis agrees with SciPy on ${CASES} seeded random specs (${BOO
   it.each(specs.map((_, i) => [i] as const).filter(([i]) => i % 3 === 0))('case %i: noise bandwidth (quad)', (i) => {
     const r = results[i]!;
     const p = ref[i]!;
-    expectHzClose(r.noiseBandwidth.analogHz, p.analogNoiseHz!, 1e-5, 'analog noise bandwidth');
-    expectHzClose(r.noiseBandwidth.discreteHz, p.discreteNoiseHz!, 1e-5, 'discrete noise bandwidth');
+    if (r.stability.analogStable) expectHzClose(r.noiseBandwidth.analogHz, p.analogNoiseHz!, 1e-5, 'analog noise bandwidth');
+    if (r.stability.discreteStable) expectHzClose(r.noiseBandwidth.discreteHz, p.discreteNoiseHz!, 1e-5, 'discrete noise bandwidth');
   });
 
   it('step responses of the discrete loop agree with the loop run sample by sample in Python (sosfilt)', () => {

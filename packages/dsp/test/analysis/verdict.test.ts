@@ -28,3 +28,31 @@ describe('analysis verdict', () => {
     expect(r.verdict.reasons.join(' ')).toMatch(/quantised|quantisation/);
   });
 });
+
+describe('fixed-point datapath range (README, "Bit-true arithmetic")', () => {
+  it('a MAC narrower than Fc + D clamps the outputs at 2^(Wa−Fc−D) of full scale and fails the verdict', async () => {
+    const { mainsSyncSpec } = await import('../../src/spec/examples.ts');
+    // 24-bit data and coefficients in a 40-bit MAC: Fc is chosen by "auto" from the coefficients.
+    const spec: LoopSpec = { ...mainsSyncSpec, fixedPoint: { ...mainsSyncSpec.fixedPoint, dataBits: 24, coefficientBits: 24, accumulatorBits: 40 } };
+    const r = analyzeDesign(spec);
+    const fc = r.quantization.filter!.format.fractionBits;
+    expect(fc + 24).toBeGreaterThan(40);
+    const dp = r.quantization.datapath!;
+    expect(dp.macLimitsOutput).toBe(true);
+    expect(dp.outputLimitUnits).toBe(2 ** (40 - fc - 24));
+    expect(dp.controlRangeHz).toBeCloseTo(spec.nco.gainHzPerUnit * 2 ** (40 - fc - 24), 12);
+    expect(r.verdict.datapathOk).toBe(false);
+    expect(r.verdict.reasons.join(' ')).toMatch(/fixedPoint\.accumulatorBits/);
+  });
+
+  it('a MAC of Fc + D bits reaches full scale: no datapath reason', async () => {
+    const { mainsSyncSpec } = await import('../../src/spec/examples.ts');
+    const r0 = analyzeDesign(mainsSyncSpec);
+    const fc = r0.quantization.filter!.format.fractionBits;
+    const spec: LoopSpec = { ...mainsSyncSpec, fixedPoint: { ...mainsSyncSpec.fixedPoint, accumulatorBits: fc + mainsSyncSpec.fixedPoint.dataBits } };
+    const r = analyzeDesign(spec);
+    expect(r.quantization.datapath!.macLimitsOutput).toBe(false);
+    expect(r.quantization.datapath!.controlRangeHz).toBeCloseTo(spec.nco.gainHzPerUnit * (1 - 2 ** -(spec.fixedPoint.dataBits - 1)), 12);
+    expect(r.verdict.datapathOk).toBe(true);
+  });
+});

@@ -134,3 +134,15 @@ describe('parseLoopSpec warnings', () => {
     expect(r.warnings.find((x) => x.field === 'centerHz')?.message).toMatch(/400 Hz/);
   });
 });
+
+describe('NCO warnings', () => {
+  it('warns that a narrow sine table lowers the loop gain by (2^(B−1) − 1)/2^(B−1) (README, bit-true number formats)', () => {
+    const r = parseLoopSpec({ ...mainsSyncSpec, nco: { ...mainsSyncSpec.nco, amplitudeBits: 4 } });
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    // 7/8 = 0.875 → −1.16 dB
+    expect(r.warnings.find((w) => w.field === 'nco.amplitudeBits')?.message).toMatch(/0\.875.*-1\.16 dB/);
+    const wide = parseLoopSpec(mainsSyncSpec);
+    expect(wide.ok && wide.warnings.some((w) => w.field === 'nco.amplitudeBits')).toBe(false);
+  });
+});
