@@ -186,6 +186,26 @@ describe('Loopwright in the browser', () => {
     await page.close();
   });
 
+  it('creates a project and a design from a template, and opens it in the editor', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    await page.click('[data-test="new-project"]');
+    await page.fill('input[data-test="project-name"]', 'Resolver tracking');
+    await page.click('[data-test="create-project"]');
+    const card = page.locator('section.project', { hasText: 'Resolver tracking' });
+    await card.waitFor();
+    expect(await card.textContent()).toContain('0 designs');
+    await card.locator('[data-test="new-design"]').click();
+    await page.fill('input[data-test="design-title"]', 'Resolver loop');
+    await choose(page, 'design-template', 'Ultrasonic carrier, lag-lead');
+    await page.click('[data-test="create-design"]');
+    await page.waitForURL((u) => /^\/designs\/\d+$/.test(u.pathname));
+    await page.waitForSelector('[data-test="bode-chart"] canvas');
+    expect(await textOf(page, '[data-test="design-name"]')).toBe('Resolver loop');
+    expect(await page.inputValue('input[data-test="filter-tau1-s"]')).toBe('0.00026');
+    await page.close();
+  });
+
   it('shows what changed when two designers save the same design, and merges on request', async () => {
     await browser.context.clearCookies();
     const a = await browser.newPage();

@@ -29,6 +29,9 @@ export async function launchBrowser(options: { downloadsPath?: string } = {}): P
     acceptDownloads: true,
     ...(options.downloadsPath ? { downloadsPath: options.downloadsPath } : {}),
   });
+  // The machine may be busy with other test suites (2 cores): wait longer than playwright's 30 s.
+  context.setDefaultTimeout(60_000);
+  context.setDefaultNavigationTimeout(60_000);
   return {
     context,
     newPage: () => context.newPage(),
@@ -42,6 +45,9 @@ export async function launchBrowser(options: { downloadsPath?: string } = {}): P
 /** Sign in through the sign-in page and wait for the role's home screen. */
 export async function signIn(page: Page, baseUrl: string, email: string, password = 'loopwright-demo'): Promise<void> {
   await page.goto(`${baseUrl}/sign-in`);
+  await page.waitForSelector('input[data-test="email"]', { timeout: 30_000 }).catch(async (err: unknown) => {
+    throw new Error(`the sign-in page did not show its form (at ${page.url()}): ${String(err)}\n${(await page.textContent('body'))?.slice(0, 300) ?? ''}`);
+  });
   await page.fill('input[data-test="email"]', email);
   await page.fill('input[data-test="password"]', password);
   await page.click('[data-test="sign-in"]');
