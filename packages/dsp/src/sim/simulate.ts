@@ -7,7 +7,7 @@ import type { Sos } from '../types/filter.ts';
 import type { QuantizedFilter } from '../types/fixed.ts';
 import type { BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, SimRun } from '../types/sim.ts';
 import type { LoopSpec } from '../spec/schema.ts';
-import type { Scenario } from '../spec/scenario.ts';
+import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
 import { quantizeSections } from '../fixed/quantizeSections.ts';
 import { designLoopFilter } from '../design.ts';
@@ -66,6 +66,8 @@ export function simulateSections(
 }
 
 function sampleCount(spec: SimSpec, scenario: Scenario): number {
+  const issue = scenarioRateIssue(spec, scenario);
+  if (issue) throw new FieldError(issue.field, issue.message);
   const total = Math.round(scenario.durationS * spec.sampleRateHz);
   if (total < 1 || total > MAX_SIM_SAMPLES) {
     throw new FieldError('durationS', `durationS ${scenario.durationS} gives ${total} samples at ${spec.sampleRateHz} Hz; allowed 1 to ${MAX_SIM_SAMPLES}`);

@@ -37,12 +37,42 @@ export const fmScenarioSchema = z.strictObject({
   ...common,
 });
 
-export const scenarioSchema = z.discriminatedUnion('kind', [
-  toneScenarioSchema,
-  frequencyStepScenarioSchema,
-  phaseStepScenarioSchema,
-  fmScenarioSchema,
-]);
+/** A step at or after the end of the run never happens: say so rather than simulate nothing. */
+export const scenarioSchema = z
+  .discriminatedUnion('kind', [toneScenarioSchema, frequencyStepScenarioSchema, phaseStepScenarioSchema, fmScenarioSchema])
+  .superRefine((s, ctx) => {
+    if ((s.kind === 'frequency-step' || s.kind === 'phase-step') && s.atS >= s.durationS) {
+      ctx.addIssue({ code: 'custom', path: ['atS'], message: `atS ${s.atS} must be before the end of the run (durationS ${s.durationS})` });
+    }
+  });
+
+/**
+ * Checks that need the loop rate: every input frequency the scenario asks for must lie strictly
+ * between 0 and the Nyquist frequency sampleRateHz/2, or the sampled input aliases to another
+ * frequency and the run no longer means what it says (sampling theorem; common practice, no source).
+ * Returns the first offending field, or null.
+ */
+export function scenarioRateIssue(
+  spec: { readonly sampleRateHz: number; readonly centerHz: number },
+  s: Scenario,
+): ScenarioIssue | null {
+  const nyquistHz = spec.sampleRateHz / 2;
+  const inBand = (fHz: number) => fHz > 0 && fHz < nyquistHz;
+  const band = `(0, ${nyquistHz}) Hz, between 0 and sampleRateHz/2`;
+  switch (s.kind) {
+    case 'tone':
+      return inBand(spec.centerHz + s.offsetHz) ? null : { field: 'offsetHz', message: `offsetHz ${s.offsetHz} puts the input at ${spec.centerHz + s.offsetHz} Hz, outside ${band}` };
+    case 'frequency-step':
+      return inBand(spec.centerHz + s.stepHz) ? null : { field: 'stepHz', message: `stepHz ${s.stepHz} puts the input at ${spec.centerHz + s.stepHz} Hz, outside ${band}` };
+    case 'phase-step':
+      return null;
+    case 'fm':
+      if (s.rateHz >= nyquistHz) return { field: 'rateHz', message: `rateHz ${s.rateHz} must be below sampleRateHz/2 = ${nyquistHz} Hz` };
+      return inBand(spec.centerHz - s.deviationHz) && inBand(spec.centerHz + s.deviationHz)
+        ? null
+        : { field: 'deviationHz', message: `deviationHz ${s.deviationHz} swings the input outside ${band} around centerHz ${spec.centerHz}` };
+  }
+}
 
 export type Scenario = z.output<typeof scenarioSchema>;
 export type ScenarioKind = Scenario['kind'];

@@ -23,8 +23,10 @@ export interface NcoSpectralEstimates {
   readonly phaseTruncationSpurDbc: number | null;
   /** Worst case −6.02·P + 3.92 dBc (NS87; exact analysis TW05). */
   readonly phaseTruncationSpurWorstDbc: number | null;
-  /** 6.02·B + 1.76 dB for a full-scale sine (Be48); full scale = 2^(B−1) − 1 here, see README. */
+  /** 6.02·B + 1.76 dB, Be48's figure for a sine of peak 2^(B−1) LSB. */
   readonly amplitudeSnrDb: number;
+  /** The same for this table, whose peak is 2^(B−1) − 1 rather than 2^(B−1) LSB (dB). */
+  readonly amplitudeSnrTableDb: number;
 }
 
 /**
