@@ -83,9 +83,13 @@ describe('traps of REFERENCES.md', () => {
       const r = analyzeDesign(spec);
       const wn = 2 * Math.PI * r.secondOrder!.naturalHz;
       const z = r.secondOrder!.damping;
-      expect(r.estimates.lockInRadPerS! / (2 * z * wn)).toBeCloseTo(1, 12);
-      expect(r.estimates.lockInHz! / ((2 * z * wn) / (2 * Math.PI))).toBeCloseTo(1, 12);
-      expect(r.estimates.pullOutRadPerS! / (1.8 * wn * (z + 1))).toBeCloseTo(1, 12);
+      // The named formulas are kept as such; the figures a designer reads are capped at the hold-in
+      // range K·F(0) of a type-1 loop, which no loop can lock or stay locked beyond (G3 Ch. 2).
+      const holdIn = r.estimates.holdInRadPerS ?? Infinity;
+      expect(r.estimates.lockInFormulaHz! / ((2 * z * wn) / (2 * Math.PI))).toBeCloseTo(1, 12);
+      expect(r.estimates.pullOutFormulaHz! / ((1.8 * wn * (z + 1)) / (2 * Math.PI))).toBeCloseTo(1, 12);
+      expect(r.estimates.lockInRadPerS! / Math.min(2 * z * wn, holdIn)).toBeCloseTo(1, 12);
+      expect(r.estimates.pullOutRadPerS! / Math.min(1.8 * wn * (z + 1), holdIn)).toBeCloseTo(1, 12);
       // T_P = Δω²/(2ζωn³) with Δω = 2π·Δf
       expect(r.estimates.pullInTimeSPerHz2! / ((2 * Math.PI) ** 2 / (2 * z * wn ** 3))).toBeCloseTo(1, 12);
     }
@@ -172,16 +176,19 @@ describe('traps of REFERENCES.md', () => {
     expect(usesSquareGain || warns, `kd ${r.loopGain.kd}, expected ${kdSquare} or a warning; warnings: ${JSON.stringify(r.warnings)}`).toBe(true);
   });
 
-  it('narrow sine table: the analysis loop gain is within 2 % of the bit-true loop\'s (README: FS = 2^(B−1) − 1)', () => {
+  it('narrow sine table: the bit-true loop gain is the table peak times the analysis gain, and the spec warns (README: FS = 2^(B−1) − 1)', () => {
     // The bit-true NCO peaks at FS/2^(B−1) = 1 − 2^(1−B) (README "Number formats"), so its Kd is that
-    // fraction of A_in/2: 7/8 (−1.16 dB) at B = 4. Measured here from the steady error of a 300 Hz step
-    // (asin law, G3), as the difference to the same run without the step.
+    // fraction of A_in/2: 7/8 (−1.16 dB) at B = 4. The analysis keeps DESIGN.md's A_nco = 1 and warns
+    // on nco.amplitudeBits instead. Measured here from the steady error of a 300 Hz step (asin law, G3),
+    // as the difference to the same run without the step.
     const spec: LoopSpec = { ...sp, nco: { ...sp.nco, amplitudeBits: 4 } };
     const r = analyzeDesign(spec);
+    expect(r.warnings.some((w) => w.field === 'nco.amplitudeBits')).toBe(true);
     const run = (stepHz: number) =>
       simulate(spec, { kind: 'frequency-step', stepHz, atS: 0.002, durationS: 0.03 }, { mode: 'bit-true' }).bitTrue!.metrics.steadyStatePhaseErrorDeg!;
     const d = ((run(300) - run(0)) * Math.PI) / 180;
     const kBitTrue = (2 * Math.PI * 300) / Math.sin(d);
-    expect(Math.abs(kBitTrue / r.loopGain.kRadPerS - 1), `bit-true K ${kBitTrue}, analysis K ${r.loopGain.kRadPerS}`).toBeLessThan(0.02);
+    const tablePeak = 1 - 2 ** (1 - 4);
+    expect(Math.abs(kBitTrue / (tablePeak * r.loopGain.kRadPerS) - 1), `bit-true K ${kBitTrue}, analysis K ${r.loopGain.kRadPerS}`).toBeLessThan(0.02);
   });
 });
