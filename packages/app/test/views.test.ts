@@ -106,9 +106,10 @@ describe('scenario form', () => {
   });
 
   it('names the field the scenario schema refuses', () => {
-    const check = checkScenario('phase-step', { stepDeg: '45', atS: '0.1', durationS: '-1' });
+    const check = checkScenario('phase-step', { stepDeg: '400', atS: '0.1', durationS: '1' });
     expect(check.scenario).toBeNull();
-    expect(Object.keys(check.errors)).toEqual(['durationS']);
+    expect(Object.keys(check.errors)).toEqual(['stepDeg']);
+    expect(check.errors['stepDeg']).not.toMatch(/^stepDeg:/);
   });
 });
 

@@ -5,6 +5,4 @@ export const designsApi = {
   get: (id: number) => api.request<Design>(`/designs/${id}`),
   /** 409 stale_revision when the stored revision moved on; error.current carries the design as it is now. */
   save: (id: number, request: SaveDesignRequest) => api.request<Design>(`/designs/${id}`, { method: 'PUT', body: request }),
-  /** The server's analysis of the stored spec (the numbers that count at release time). */
-  analysis: (id: number) => api.request<{ analysis: unknown }>(`/designs/${id}/analysis`).then((b) => b.analysis),
 };

@@ -21,7 +21,6 @@ export interface DesignTemplate {
 
 export const projectsApi = {
   list: () => api.request<{ projects: Project[] }>('/projects').then((b) => b.projects),
-  get: (id: number) => api.request<Project>(`/projects/${id}`),
   create: (request: CreateProjectRequest) => api.request<Project>('/projects', { method: 'POST', body: request }),
   templates: () => api.request<{ templates: DesignTemplate[] }>('/templates').then((b) => b.templates),
   designs: (id: number) =>

@@ -7,15 +7,8 @@ import type {
   ReleaseRecord,
   ReleaseSummary,
   ReviewerChoice,
-  ReviewRecord,
   ReviewRequest,
 } from './types.ts';
-
-export interface ReviewsView {
-  readonly approvalsRequired: number | null;
-  readonly approvals: number;
-  readonly reviews: ReviewRecord[];
-}
 
 export const releasesApi = {
   forDesign: (designId: number) =>
@@ -30,7 +23,6 @@ export const releasesApi = {
     api.request<unknown>(`/releases/${id}/withdraw`, { method: 'POST', body: reason ? { reason } : {} }),
   /** Who downloaded what, when (designers and admins). */
   downloads: (id: number) => api.request<{ downloads: DownloadRecord[] }>(`/releases/${id}/downloads`).then((b) => b.downloads),
-  reviews: (id: number) => api.request<ReviewsView>(`/releases/${id}/reviews`),
   requestReview: (id: number, request: ReviewRequest) =>
     api.request<unknown>(`/releases/${id}/reviews`, { method: 'POST', body: request }),
   /** Plain links: the browser downloads them itself (the server logs each download). */
