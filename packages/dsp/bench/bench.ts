@@ -21,8 +21,8 @@ import { allocInputChunk, inputGenerator } from '../src/sim/inputSignal.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk } from '../src/sim/bitTrueKernel.ts';
 import { simulate, CHUNK_SAMPLES } from '../src/sim/simulate.ts';
 import { measureAcquisition } from '../src/analysis/acquisitionSim.ts';
-import * as dsp from '../src/index.ts';
 import { formatCParams } from './cParams.ts';
+import { runAnalysisBench, runWordLengthBench } from './analysis.ts';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
 const SAMPLES = 4_000_000;
@@ -78,16 +78,6 @@ function prepareC(plan: BitTruePlan, codes: Int32Array): { run: (repeats: number
   };
 }
 
-function analyzeDesignMs(): number | null {
-  const analyze = (dsp as Record<string, unknown>)['analyzeDesign'];
-  if (typeof analyze !== 'function') return null;
-  for (const e of exampleSpecs) analyze(e.spec);
-  const t0 = performance.now();
-  const rounds = 5;
-  for (let i = 0; i < rounds; i++) for (const e of exampleSpecs) analyze(e.spec);
-  return (performance.now() - t0) / (rounds * exampleSpecs.length);
-}
-
 function simulateSamplesPerS(mode: 'float' | 'bit-true'): number {
   const sc: Scenario = { kind: 'tone', offsetHz: 1, durationS: 100 };
   simulate(mainsSyncSpec, { ...sc, durationS: 5 }, { mode });
@@ -103,6 +93,9 @@ function measureAcquisitionMs(): number {
   for (const e of exampleSpecs) measureAcquisition(e.spec);
   return (performance.now() - t0) / exampleSpecs.length;
 }
+
+/** Issue target: the TypeScript bit-true loop runs at least this fraction of the C loop's speed. */
+const RATIO_TO_C_TARGET = 0.6;
 
 export async function runDspBench(): Promise<Record<string, unknown>> {
   const spec = mainsSyncSpec;
@@ -140,7 +133,10 @@ export async function runDspBench(): Promise<Record<string, unknown>> {
     compiler: `${c.compiler} -O2`,
     simulateFloatSamplesPerS: Math.round(simulateSamplesPerS('float')),
     simulateBitTrueSamplesPerS: Math.round(simulateSamplesPerS('bit-true')),
-    analyzeDesignMs: analyzeDesignMs(),
+    ratioToCTarget: RATIO_TO_C_TARGET,
+    ratioToCMet: bitTrueSamplesPerS / cSamplesPerS >= RATIO_TO_C_TARGET,
+    analyzeDesign: runAnalysisBench(),
+    wordLengthSearch: runWordLengthBench(),
     measureAcquisitionMs: measureAcquisitionMs(),
   };
 }
