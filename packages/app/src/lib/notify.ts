@@ -6,10 +6,11 @@
 import { ElMessage } from 'element-plus/es';
 import 'element-plus/es/components/message/style/css';
 
+// Bottom right: page headers (names, revisions, hashes) stay readable while a toast shows.
 export function notifySuccess(message: string): void {
-  ElMessage({ type: 'success', message, duration: 2500 });
+  ElMessage({ type: 'success', message, duration: 2500, placement: 'bottom-right' });
 }
 
 export function notifyError(message: string): void {
-  ElMessage({ type: 'error', message, duration: 6000, showClose: true });
+  ElMessage({ type: 'error', message, duration: 6000, showClose: true, placement: 'bottom-right' });
 }
