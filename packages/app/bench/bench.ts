@@ -91,6 +91,9 @@ async function measureAnalysisUpdate(rounds: number): Promise<{ updateMs: number
   }
 }
 
+/** Issue target: keystroke to redrawn plot on this 2-core machine. */
+const ANALYSIS_UPDATE_TARGET_MS = 50;
+
 export async function runAppBench(): Promise<object> {
   buildApp();
   const bytes = await signInJsGzipBytes();
@@ -102,7 +105,9 @@ export async function runAppBench(): Promise<object> {
     signInJsMet: signInJsGzipKb < SIGN_IN_TARGET_KB,
     signInJsFiles: (await signInJsFiles()).length,
     analysisUpdateMs: Math.round(median(updateMs) * 10) / 10,
-    analysisUpdateNote: 'median of 15 edits of filter.damping on the demo mains-sync loop, keystroke → worker → margins text and Bode redrawn, including the 80 ms typing debounce',
+    analysisUpdateTargetMs: ANALYSIS_UPDATE_TARGET_MS,
+    analysisUpdateMet: median(updateMs) < ANALYSIS_UPDATE_TARGET_MS,
+    analysisUpdateNote: 'median of 15 edits of filter.damping on the demo mains-sync loop: keystroke → worker analysis → margins text changed → two animation frames (Bode canvas painted)',
     analysisWorkerRoundTripMs: Math.round(median(roundTripMs) * 10) / 10,
     analysisUpdateMaxMs: Math.round(Math.max(...updateMs) * 10) / 10,
   };

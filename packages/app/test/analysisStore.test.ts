@@ -19,17 +19,19 @@ describe('analysis store', () => {
     run.mockReset();
   });
 
-  it('runs once after a burst of edits (debounced)', async () => {
-    vi.useFakeTimers();
-    run.mockResolvedValue({ output: { analysis: 'x' }, elapsedMs: 1 });
+  it('analyses the first edit at once and, of a burst made meanwhile, only the newest', async () => {
+    const first = deferred<unknown>();
+    run.mockReturnValueOnce(first.promise).mockResolvedValue({ output: 'newest', elapsedMs: 1 });
     const store = useAnalysisStore();
     store.request(mainsSyncSpec);
+    expect(run).toHaveBeenCalledTimes(1);
     store.request(mainsSyncSpec);
     store.request(ultrasonicSinglePoleSpec);
-    await vi.advanceTimersByTimeAsync(500);
-    expect(run).toHaveBeenCalledTimes(1);
-    expect(run.mock.calls[0]![1]).toBe(ultrasonicSinglePoleSpec);
-    vi.useRealTimers();
+    first.resolve({ output: 'first', elapsedMs: 1 });
+    await vi.waitFor(() => expect(store.running).toBe(false));
+    expect(run).toHaveBeenCalledTimes(2);
+    expect(run.mock.calls[1]![1]).toBe(ultrasonicSinglePoleSpec);
+    expect(store.result).toBe('newest');
   });
 
   it('keeps the newest answer when an older one arrives late', async () => {

@@ -4,12 +4,11 @@ import type { LoopSpec } from '@loopwright/dsp';
 import { analysisWorker } from '../workers/dspClient.ts';
 import type { DesignAnalysis } from '../workers/dspJobs.ts';
 
-/** How long typing must pause before the analysis runs again. */
-export const ANALYSIS_DEBOUNCE_MS = 80;
-
 /**
- * The live analysis of the spec being edited, computed in the browser's DSP worker. The newest
- * request wins: an answer for an older spec is dropped.
+ * The live analysis of the spec being edited, computed in the browser's DSP worker. A keystroke is
+ * analysed at once when the worker is idle (an analysis takes a few ms, so no debounce delay is
+ * added to the 50 ms keystroke-to-plot budget); edits made while it is busy are coalesced, and only
+ * the newest runs next. The newest request wins: an answer for an older spec is dropped.
  */
 export const useAnalysisStore = defineStore('analysis', () => {
   const result = shallowRef<DesignAnalysis | null>(null);
@@ -18,8 +17,9 @@ export const useAnalysisStore = defineStore('analysis', () => {
   const lastRoundTripMs = ref<number | null>(null);
   /** Incremented after each fresh result: charts and tests watch it. */
   const generation = ref(0);
-  let timer: ReturnType<typeof setTimeout> | null = null;
   let latest = 0;
+  let inFlight = false;
+  let pending: LoopSpec | null = null;
 
   async function runNow(spec: LoopSpec): Promise<void> {
     const ticket = ++latest;
@@ -42,20 +42,29 @@ export const useAnalysisStore = defineStore('analysis', () => {
     }
   }
 
-  /** Schedule an analysis of this spec after a short pause in typing. */
-  function request(spec: LoopSpec, delayMs = ANALYSIS_DEBOUNCE_MS): void {
-    if (timer) clearTimeout(timer);
+  /** Analyse this spec now, or as soon as the analysis in flight returns (only the newest waits). */
+  function request(spec: LoopSpec): void {
     running.value = true;
-    timer = setTimeout(() => {
-      timer = null;
-      void runNow(spec);
-    }, delayMs);
+    pending = spec;
+    if (!inFlight) void drain();
+  }
+
+  async function drain(): Promise<void> {
+    inFlight = true;
+    try {
+      while (pending) {
+        const spec = pending;
+        pending = null;
+        await runNow(spec);
+      }
+    } finally {
+      inFlight = false;
+    }
   }
 
   /** Forget the result (another design is opened, or the spec became invalid). */
   function clear(): void {
-    if (timer) clearTimeout(timer);
-    timer = null;
+    pending = null;
     latest++;
     running.value = false;
     result.value = null;
