@@ -60,6 +60,28 @@ async function cpuTimeUs(pid: number): Promise<number | null> {
   }
 }
 
+/** CPU of the server and its forked serving processes (src/server.ts supervises, children serve). */
+async function processTreeCpuUs(rootPid: number): Promise<number | null> {
+  const pids = [rootPid];
+  for (const entry of await fs.readdir('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = await fs.readFile(`/proc/${entry}/stat`, 'utf8');
+      const parentPid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
+      if (parentPid === rootPid) pids.push(Number(entry));
+    } catch {
+      // the process ended while we looked
+    }
+  }
+  let total = 0;
+  for (const pid of pids) {
+    const cpu = await cpuTimeUs(pid);
+    if (cpu === null) return null;
+    total += cpu;
+  }
+  return total;
+}
+
 async function mariaDbPid(dataDir: string): Promise<number | null> {
   try {
     return Number((await fs.readFile(path.join(dataDir, 'mariadbd.pid'), 'utf8')).trim());
@@ -139,10 +161,10 @@ export async function runApiBench(): Promise<object> {
     // Other work on the machine skews the figures; report how busy it was.
     const loadAverage1m = os.loadavg()[0];
     const dbPid = await mariaDbPid(dataDir);
-    const serverCpu0 = single.server.pid ? await cpuTimeUs(single.server.pid) : null;
+    const serverCpu0 = single.server.pid ? await processTreeCpuUs(single.server.pid) : null;
     const dbCpu0 = dbPid ? await cpuTimeUs(dbPid) : null;
     const list = await run({ url: `${baseUrl}/api/projects`, connections: CONNECTIONS, duration: DURATION_S, headers });
-    const serverCpu1 = single.server.pid ? await cpuTimeUs(single.server.pid) : null;
+    const serverCpu1 = single.server.pid ? await processTreeCpuUs(single.server.pid) : null;
     const dbCpu1 = dbPid ? await cpuTimeUs(dbPid) : null;
     const perRequest = (a: number | null, b: number | null) => (a === null || b === null || list.requests.total === 0 ? null : Math.round((b - a) / list.requests.total));
 
