@@ -3,6 +3,7 @@ import { ref, shallowRef } from 'vue';
 import type { LoopSpec } from '@loopwright/dsp';
 import { analysisWorker } from '../workers/dspClient.ts';
 import type { DesignAnalysis } from '../workers/dspJobs.ts';
+import { errorText } from '../lib/errorText.ts';
 
 /**
  * The live analysis of the spec being edited, computed in the browser's DSP worker. A keystroke is
@@ -36,7 +37,7 @@ export const useAnalysisStore = defineStore('analysis', () => {
       generation.value++;
     } catch (cause) {
       if (ticket !== latest) return;
-      error.value = cause instanceof Error ? cause.message : String(cause);
+      error.value = errorText(cause);
     } finally {
       if (ticket === latest) running.value = false;
     }

@@ -1,6 +1,7 @@
 /// <reference lib="webworker" />
 import type { FromWorker, ToWorker } from './protocol.ts';
 import { runDspJob } from './dspJobs.ts';
+import { errorText } from '../lib/errorText.ts';
 
 const running = new Map<number, AbortController>();
 
@@ -29,7 +30,7 @@ async function run(message: Extract<ToWorker, { type: 'run' }>): Promise<void> {
     post({ type: 'done', id: message.id, output, elapsedMs: performance.now() - started });
   } catch (cause) {
     const cancelled = controller.signal.aborted;
-    const text = cause instanceof Error ? cause.message : String(cause);
+    const text = errorText(cause);
     post({ type: 'failed', id: message.id, message: cancelled ? 'Cancelled' : text, cancelled });
   } finally {
     running.delete(message.id);

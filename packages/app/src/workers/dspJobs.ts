@@ -19,6 +19,7 @@ import {
   type WordLengthResult,
 } from '@loopwright/dsp';
 import { decimateMinMax } from '../charts/decimate.ts';
+import { errorText } from '../lib/errorText.ts';
 
 export interface NcoReportData {
   readonly tuning: NcoTuning;
@@ -78,7 +79,7 @@ function ncoReport(spec: LoopSpec): NcoReportData {
     });
     return { tuning, spectral, control, controlError: null };
   } catch (cause) {
-    return { tuning, spectral, control: null, controlError: cause instanceof Error ? cause.message : String(cause) };
+    return { tuning, spectral, control: null, controlError: errorText(cause) };
   }
 }
 
