@@ -14,7 +14,7 @@ import autocannon from 'autocannon';
 import { mainsSyncSpec } from '@loopwright/dsp';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
-import { loadConfig } from '../src/config.ts';
+import { dbEnv, loadConfig } from '../src/config.ts';
 import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../src/contract.ts';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
 import { DEMO_PASSWORD, seedDemo } from '../src/seed.ts';
@@ -124,11 +124,7 @@ export async function runApiBench(): Promise<object> {
     NODE_ENV: 'production',
     PORT: String(port),
     LW_SESSION_SECRET: 'benchmark-session-secret-of-at-least-32-chars',
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
+    ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '10',
     LW_APP_DIST: path.join(dataDir, 'no-app'),
   };

@@ -9,7 +9,7 @@ import fs from 'node:fs/promises';
 import path from 'node:path';
 import { Writable } from 'node:stream';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
-import { loadConfig } from '../src/config.ts';
+import { dbEnv, loadConfig } from '../src/config.ts';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
 import { Design, User } from '../src/entities/index.ts';
 import { loadHandoffConfig } from '../src/mail/config.ts';
@@ -52,11 +52,7 @@ export async function runReleaseBench(): Promise<object> {
   const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_bench', user: 'loopwright', password: 'bench-only-password' });
   const config = loadConfig({
     NODE_ENV: 'test',
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
+    ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '4',
   });
   const dataSource = createDataSource(config.db);

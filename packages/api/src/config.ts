@@ -81,6 +81,26 @@ export interface Config {
 
 export class ConfigError extends Error {}
 
+/** Where a MariaDB listens and whom to sign in as: what a started instance reports. */
+export interface DbAddress {
+  readonly host: string;
+  readonly port: number;
+  readonly user: string;
+  readonly password: string;
+  readonly database: string;
+}
+
+/** The LW_DB_* settings that point loadConfig at one MariaDB (tests, benchmarks and the browser-test stack). */
+export function dbEnv(db: DbAddress): Record<string, string> {
+  return {
+    LW_DB_HOST: db.host,
+    LW_DB_PORT: String(db.port),
+    LW_DB_USER: db.user,
+    LW_DB_PASSWORD: db.password,
+    LW_DB_NAME: db.database,
+  };
+}
+
 export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
   const parsed = envSchema.safeParse(source);
   if (!parsed.success) {

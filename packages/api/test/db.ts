@@ -1,8 +1,4 @@
+import type { DbAddress } from '../src/config.ts';
+
 /** Where the API tests' MariaDB listens (provided by global-setup.ts). */
-export interface TestDb {
-  host: string;
-  port: number;
-  user: string;
-  password: string;
-  database: string;
-}
+export type TestDb = DbAddress;

@@ -2,6 +2,7 @@ import fs from 'node:fs/promises';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
+import { dbEnv } from '../src/config.ts';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
 import type { TestDb } from './db.ts';
 
@@ -43,13 +44,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
       await fs.rm(dataDir, { recursive: true, force: true });
     };
   }
-  Object.assign(process.env, {
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
-  });
+  Object.assign(process.env, dbEnv(db));
   const dataSource = createDataSource({ ...db, poolSize: 2, connectTimeoutMs: 5_000 });
   await dataSource.initialize();
   try {

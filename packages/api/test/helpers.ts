@@ -4,7 +4,7 @@ import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import { inject } from 'vitest';
 import { createApp, type BuiltApp } from '../src/app.ts';
-import { loadConfig, type Config } from '../src/config.ts';
+import { dbEnv, loadConfig, type Config } from '../src/config.ts';
 import { CSRF_HEADER, CSRF_HEADER_VALUE, ROLES, type Role } from '../src/contract.ts';
 import { createDataSource } from '../src/data-source.ts';
 import { Organization, User } from '../src/entities/index.ts';
@@ -19,11 +19,7 @@ export function testDb(): TestDb {
 export function testConfig(overrides: Record<string, string> = {}, db: TestDb = testDb()): Config {
   return loadConfig({
     NODE_ENV: 'test',
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
+    ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '4',
     LW_DB_POOL_SIZE: '5',
     ...overrides,

@@ -2,6 +2,7 @@ import { execFile } from 'node:child_process';
 import path from 'node:path';
 import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
+import { dbEnv } from '../src/config.ts';
 import { testDb } from './helpers.ts';
 
 const execFileAsync = promisify(execFile);
@@ -16,7 +17,7 @@ describe('migrations and entities', () => {
       {
         cwd: API_DIR,
         timeout: 60_000,
-        env: { ...process.env, LW_DB_HOST: db.host, LW_DB_PORT: String(db.port), LW_DB_USER: db.user, LW_DB_PASSWORD: db.password, LW_DB_NAME: db.database },
+        env: { ...process.env, ...dbEnv(db) },
       },
     );
     // The CLI exits 1 (execFile rejects) and prints the would-be migration when entities drifted.

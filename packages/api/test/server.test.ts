@@ -3,6 +3,7 @@ import fs from 'node:fs/promises';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
+import { dbEnv } from '../src/config.ts';
 import { testDb } from './helpers.ts';
 
 const API_DIR = path.resolve(import.meta.dirname, '..');
@@ -23,7 +24,7 @@ describe('src/server.ts', () => {
     const port = await findFreePort();
     const server = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
       cwd: API_DIR,
-      env: { ...process.env, PORT: String(port), LW_DB_HOST: db.host, LW_DB_PORT: String(db.port), LW_DB_USER: db.user, LW_DB_PASSWORD: db.password, LW_DB_NAME: db.database },
+      env: { ...process.env, PORT: String(port), ...dbEnv(db) },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     let output = '';

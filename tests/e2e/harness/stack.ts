@@ -44,6 +44,12 @@ interface ExpressModule {
   static(root: string, options: { index: false }): unknown;
 }
 
+/** The API's settings module: free of side effects, so it loads before process.env is set. */
+interface ApiConfigModule {
+  dbEnv(db: { host: string; port: number; user: string; password: string; database: string }): Record<string, string>;
+}
+
+const API_CONFIG = path.join(ROOT, 'packages', 'api', 'src', 'config.ts');
 const API_INDEX = path.join(ROOT, 'packages', 'api', 'src', 'index.ts');
 
 export async function startStack(options: { dataDir?: string } = {}): Promise<Stack> {
@@ -70,13 +76,10 @@ export async function startStack(options: { dataDir?: string } = {}): Promise<St
 async function startApi(db: MariaDbInstance, mail: SmtpFake, dataDir: string): Promise<Stack> {
   const port = await findFreePort();
   const baseUrl = `http://127.0.0.1:${port}`;
+  const { dbEnv } = (await import(pathToFileURL(API_CONFIG).href)) as ApiConfigModule;
   const env: Record<string, string> = {
     NODE_ENV: 'test',
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
+    ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '4',
     LW_SMTP_HOST: '127.0.0.1',
     LW_SMTP_PORT: String(mail.port),
