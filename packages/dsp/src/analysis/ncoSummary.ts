@@ -4,7 +4,7 @@ import type { NcoControlScaling, NcoSpectralEstimates, NcoTuning } from '../type
 import { FieldError } from '../fixed/fieldError.ts';
 import { ncoTuning } from '../nco/tuningWord.ts';
 import { ncoSpectralEstimates } from '../nco/spectralEstimates.ts';
-import { ncoControlScaling } from '../nco/controlScaling.ts';
+import { specControlScaling } from '../nco/controlScaling.ts';
 
 /** The NCO at the loop rate: tuning word (TRG71), spur/SNR estimates (NS87, Be48), control scaling. */
 export interface NcoSummary {
@@ -17,18 +17,11 @@ export interface NcoSummary {
 
 /** The fixed-point module's NCO figures for the spec (the NCO runs at sampleRateHz, DESIGN.md). */
 export function ncoSummary(spec: LoopSpec): NcoSummary {
-  const { nco, fixedPoint: fp } = spec;
+  const { nco } = spec;
   const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, nco.accumulatorBits);
   const spectral = ncoSpectralEstimates(nco.accumulatorBits, nco.phaseBits, nco.amplitudeBits);
   try {
-    const control = ncoControlScaling({
-      gainHzPerUnit: nco.gainHzPerUnit,
-      sampleRateHz: spec.sampleRateHz,
-      accumulatorBits: nco.accumulatorBits,
-      dataBits: fp.dataBits,
-      coefficientBits: fp.coefficientBits,
-      rounding: fp.rounding,
-    });
+    const control = specControlScaling(spec);
     return { tuning, spectral, control, controlError: null };
   } catch (err) {
     if (!(err instanceof FieldError)) throw err;

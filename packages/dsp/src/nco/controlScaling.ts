@@ -6,6 +6,7 @@
  * is held as an integer gainCode in a coefficientBits word with gainShift fraction bits, the most that
  * fit (gainShift may be negative: then it is a left shift), and Δ = roundShift(y·gainCode, gainShift).
  */
+import type { LoopSpec } from '../spec/schema.ts';
 import type { RoundingMode } from '../types/fixed.ts';
 import type { NcoControlScaling } from '../types/nco.ts';
 import { FieldError } from '../fixed/fieldError.ts';
@@ -41,4 +42,17 @@ export function ncoControlScaling(p: ControlScalingInput): NcoControlScaling {
     quantizedScale,
     actualGainHzPerUnit: (quantizedScale * p.sampleRateHz * 2 ** (p.dataBits - 1)) / 2 ** p.accumulatorBits,
   };
+}
+
+/** The control scaling of a spec's NCO and fixed-point widths (the NCO runs at sampleRateHz, DESIGN.md). */
+export function specControlScaling(spec: Pick<LoopSpec, 'sampleRateHz' | 'nco' | 'fixedPoint'>): NcoControlScaling {
+  const { nco, fixedPoint: fp } = spec;
+  return ncoControlScaling({
+    gainHzPerUnit: nco.gainHzPerUnit,
+    sampleRateHz: spec.sampleRateHz,
+    accumulatorBits: nco.accumulatorBits,
+    dataBits: fp.dataBits,
+    coefficientBits: fp.coefficientBits,
+    rounding: fp.rounding,
+  });
 }

@@ -8,7 +8,7 @@ import type { QuantizedFilter } from '../types/fixed.ts';
 import type { BitTruePlan } from '../types/sim.ts';
 import { FieldError, requireIntIn } from '../fixed/fieldError.ts';
 import { ncoTuning } from '../nco/tuningWord.ts';
-import { ncoControlScaling } from '../nco/controlScaling.ts';
+import { specControlScaling } from '../nco/controlScaling.ts';
 import { sineFullScale, sineTable } from '../nco/sineTable.ts';
 
 /** The spec fields the bit-true loop reads (a LoopSpec satisfies it). */
@@ -54,14 +54,7 @@ export function planBitTrue(spec: BitTrueSpec, quantized: QuantizedFilter): BitT
     sectionCount: quantized.sections.length,
     coefficientCodes: quantized.sections.flatMap((s) => [s.codes.b0, s.codes.b1, s.codes.b2, s.codes.a1, s.codes.a2]),
     tuning: ncoTuning(spec.centerHz, spec.sampleRateHz, nco.accumulatorBits),
-    control: ncoControlScaling({
-      gainHzPerUnit: nco.gainHzPerUnit,
-      sampleRateHz: spec.sampleRateHz,
-      accumulatorBits: nco.accumulatorBits,
-      dataBits: fp.dataBits,
-      coefficientBits: fp.coefficientBits,
-      rounding: fp.rounding,
-    }),
+    control: specControlScaling(spec),
     sineTable: sineTable(nco.phaseBits, nco.amplitudeBits),
     ncoFullScale: sineFullScale(nco.amplitudeBits),
   };
