@@ -120,10 +120,7 @@ export function closedFromOpen(l: Complex): Complex {
 
 /** Closed-loop phase transfer H = L/(1 + L) from an open-loop response. */
 export function closedLoop(open: ResponseFn): ResponseFn {
-  return (f) => {
-    const l = open(f);
-    return cdiv(l, { re: 1 + l.re, im: l.im });
-  };
+  return (f) => closedFromOpen(open(f));
 }
 
 /** Error transfer E = 1/(1 + L). */
