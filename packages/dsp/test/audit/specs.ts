@@ -6,18 +6,7 @@
  */
 import type { LoopSpec } from '../../src/index.ts';
 import { exampleSpecs } from '../../src/index.ts';
-
-/** mulberry-style seeded uniform generator (common practice, no source). */
-export function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from '../reference/random.ts';
 
 const RATES = [8e3, 10e3, 48e3, 1e6, 100e6];
 
@@ -44,7 +33,7 @@ export interface AuditCase {
 
 /** The generated set: 4 kinds × variants × ripple/prewarp, deterministic. */
 export function generatedCases(seed = 20261202): AuditCase[] {
-  const rnd = seeded(seed);
+  const rnd = mulberry32(seed);
   const out: AuditCase[] = [];
   const kinds = ['single-pole', 'lag-lead-tau', 'lag-lead-targets', 'pi-tau', 'pi-targets', 'butterworth-1', 'butterworth-2', 'butterworth-3', 'butterworth-4'];
   let n = 0;
