@@ -45,7 +45,19 @@ describe('src/server.ts', () => {
 
       server.kill('SIGTERM');
       expect(await exited).toBe(0);
-      const stillThere = await Promise.all(workers.map((pid) => fs.access(`/proc/${pid}`).then(() => true, () => false)));
+      // Children (the serving process, tsx's esbuild service) end just after the supervisor: allow them
+      // a few seconds, then every one must be gone.
+      // A zombie (state Z, waiting for a reaper that a container's PID 1 may never be) has stopped too.
+      const running = async (pid: number) => {
+        const stat = await fs.readFile(`/proc/${pid}/stat`, 'utf8').catch(() => '');
+        return stat !== '' && stat.slice(stat.lastIndexOf(')') + 2)[0] !== 'Z';
+      };
+      const alive = () => Promise.all(workers.map(running));
+      let stillThere = await alive();
+      for (let waitedMs = 0; stillThere.some(Boolean) && waitedMs < 5000; waitedMs += 100) {
+        await new Promise((resolve) => setTimeout(resolve, 100));
+        stillThere = await alive();
+      }
       expect(stillThere).toEqual(workers.map(() => false));
     } finally {
       if (server.exitCode === null) server.kill('SIGKILL');
