@@ -1,25 +1,15 @@
 import { analyzeDesign, mainsSyncSpec, ultrasonicSinglePoleSpec } from '@loopwright/dsp';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { expectDeepClose } from './close.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, signedInAgent, type Agent, type TestOrg } from './helpers.ts';
+import { createTestOrg, csrf, signedInAgent, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp();
 let org: TestOrg;
 let designer: Agent;
 
 beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-  org = await createTestOrg(dataSource);
-  designer = await signedInAgent(built.app, org.emails.designer);
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
+  org = await createTestOrg(testApp.dataSource);
+  designer = await signedInAgent(testApp.built.app, org.emails.designer);
 });
 
 describe('analysis on the server, in worker threads', () => {
@@ -27,7 +17,7 @@ describe('analysis on the server, in worker threads', () => {
     const response = await designer.post('/api/analysis').set(csrf).send({ spec: mainsSyncSpec }).expect(200);
     // Equivalence with the library called in-process: the API adds transport, never its own numbers.
     expectDeepClose(response.body.analysis, JSON.parse(JSON.stringify(analyzeDesign(mainsSyncSpec))));
-    expect(built.services.compute.threadCount).toBeGreaterThan(0);
+    expect(testApp.built.services.compute.threadCount).toBeGreaterThan(0);
   });
 
   it("POST /api/designs/:id/analysis analyses the stored design and says which revision", async () => {
@@ -45,7 +35,7 @@ describe('analysis on the server, in worker threads', () => {
   });
 
   it('computes in a worker thread, not on the main event loop', async () => {
-    const outcome = await built.services.compute.run({ kind: 'analysis', spec: ultrasonicSinglePoleSpec });
+    const outcome = await testApp.built.services.compute.run({ kind: 'analysis', spec: ultrasonicSinglePoleSpec });
     expect(outcome.ok).toBe(true);
     expect(outcome.threadId).not.toBe(0);
   });

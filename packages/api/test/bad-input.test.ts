@@ -1,31 +1,19 @@
 import { mainsSyncSpec } from '@loopwright/dsp';
 import request from 'supertest';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, signedInAgent, type Agent, type TestOrg } from './helpers.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { csrf, designerWithProject, PASSWORD, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp();
 let org: TestOrg;
 let designer: Agent;
 let projectId: number;
 
 beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-  org = await createTestOrg(dataSource);
-  designer = await signedInAgent(built.app, org.emails.designer);
-  projectId = (await designer.post('/api/projects').set(csrf).send({ name: 'Bad input' }).expect(201)).body.id;
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
+  ({ org, designer, projectId } = await designerWithProject(testApp, 'Bad input'));
 });
 
 async function projectCount(): Promise<number> {
-  const [row] = await dataSource.query('SELECT COUNT(*) AS n FROM projects WHERE organizationId = ?', [org.organizationId]);
+  const [row] = await testApp.dataSource.query('SELECT COUNT(*) AS n FROM projects WHERE organizationId = ?', [org.organizationId]);
   return Number(row.n);
 }
 
@@ -102,7 +90,7 @@ describe('injection strings', () => {
       const read = (await designer.get(`/api/projects/${created.id}`).expect(200)).body;
       expect(read.name).toBe(name);
     }
-    const [row] = await dataSource.query("SELECT COUNT(*) AS n FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name = 'projects'");
+    const [row] = await testApp.dataSource.query("SELECT COUNT(*) AS n FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name = 'projects'");
     expect(Number(row.n)).toBe(1);
   });
 
@@ -112,7 +100,7 @@ describe('injection strings', () => {
   });
 
   it('treats injection in the sign-in e-mail as a wrong e-mail', async () => {
-    const response = await request(built.app).post('/api/session').set(csrf).send({ email: "' OR '1'='1", password: PASSWORD }).expect(400);
+    const response = await request(testApp.built.app).post('/api/session').set(csrf).send({ email: "' OR '1'='1", password: PASSWORD }).expect(400);
     expect(response.body.error.field).toBe('email');
   });
 });
@@ -139,7 +127,7 @@ describe('CSRF, unknown routes and headers', () => {
   });
 
   it('sends helmet security headers and no X-Powered-By', async () => {
-    const response = await request(built.app).get('/api/health');
+    const response = await request(testApp.built.app).get('/api/health');
     expect(response.headers['x-content-type-options']).toBe('nosniff');
     expect(response.headers['content-security-policy']).toBeDefined();
     expect(response.headers['x-powered-by']).toBeUndefined();

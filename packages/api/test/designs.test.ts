@@ -1,26 +1,14 @@
 import { ifFmDemodSpec, mainsSyncSpec, parseLoopSpec } from '@loopwright/dsp';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, signedInAgent, type Agent, type TestOrg } from './helpers.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { createTestOrg, csrf, designerWithProject, signedInAgent, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp();
 let org: TestOrg;
 let designer: Agent;
 let projectId: number;
 
 beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-  org = await createTestOrg(dataSource);
-  designer = await signedInAgent(built.app, org.emails.designer);
-  projectId = (await designer.post('/api/projects').set(csrf).send({ name: 'Designs under test' }).expect(201)).body.id;
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
+  ({ org, designer, projectId } = await designerWithProject(testApp, 'Designs under test'));
 });
 
 async function createDesign(body: object = { name: 'A loop', templateId: 'mains-sync' }) {
@@ -28,7 +16,7 @@ async function createDesign(body: object = { name: 'A loop', templateId: 'mains-
 }
 
 async function auditActions(objectType: string, objectId: number): Promise<string[]> {
-  const rows: { action: string }[] = await dataSource.query('SELECT action FROM audit_entries WHERE objectType = ? AND objectId = ? ORDER BY id', [objectType, String(objectId)]);
+  const rows: { action: string }[] = await testApp.dataSource.query('SELECT action FROM audit_entries WHERE objectType = ? AND objectId = ? ORDER BY id', [objectType, String(objectId)]);
   return rows.map((row) => row.action);
 }
 
@@ -57,8 +45,8 @@ describe('projects', () => {
   });
 
   it("does not show another organisation's projects", async () => {
-    const other = await createTestOrg(dataSource);
-    const stranger = await signedInAgent(built.app, other.emails.designer);
+    const other = await createTestOrg(testApp.dataSource);
+    const stranger = await signedInAgent(testApp.built.app, other.emails.designer);
     await stranger.get(`/api/projects/${projectId}`).expect(404);
     await stranger.get(`/api/projects/${projectId}/designs`).expect(404);
     const list = (await stranger.get('/api/projects').expect(200)).body.projects;
@@ -135,7 +123,7 @@ describe('designs', () => {
 
   it('refuses to delete a design a deletion guard protects, keeping it', async () => {
     const design = await createDesign();
-    built.services.designs.addDeletionGuard(async (id) => (id === design.id ? 'it has releases' : null));
+    testApp.built.services.designs.addDeletionGuard(async (id) => (id === design.id ? 'it has releases' : null));
     const response = await designer.delete(`/api/designs/${design.id}`).set(csrf).expect(409);
     expect(response.body.error.message).toMatch(/releases/);
     await designer.get(`/api/designs/${design.id}`).expect(200);

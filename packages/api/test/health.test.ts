@@ -6,22 +6,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMariaDb, type MariaDbInstance } from '../../../scripts/lib/mariadb.ts';
 import type { BuiltApp } from '../src/app.ts';
 import { runMigrations } from '../src/data-source.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, testConfig, type TestOrg } from './helpers.ts';
+import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, testConfig, useTestApp, type TestOrg } from './helpers.ts';
 
 describe('GET /api/health with the database up', () => {
-  let dataSource: DataSource;
-  let built: BuiltApp;
-  beforeAll(async () => {
-    dataSource = await openDataSource();
-    built = buildApp(dataSource);
-  });
-  afterAll(async () => {
-    await built.close();
-    await dataSource.destroy();
-  });
+  const testApp = useTestApp();
 
   it('reports ok and the database up', async () => {
-    const response = await request(built.app).get('/api/health').expect(200);
+    const response = await request(testApp.built.app).get('/api/health').expect(200);
     expect(response.body).toMatchObject({ status: 'ok', database: 'up' });
     expect(response.body.databaseLatencyMs).toBeGreaterThanOrEqual(0);
   });

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
-import { inject } from 'vitest';
+import { afterAll, beforeAll, inject } from 'vitest';
 import { createApp, type BuiltApp } from '../src/app.ts';
 import { dbEnv, loadConfig, type Config } from '../src/config.ts';
 import { CSRF_HEADER, CSRF_HEADER_VALUE, ROLES, type Role } from '../src/contract.ts';
@@ -34,6 +34,28 @@ export async function openDataSource(config: Config = testConfig()): Promise<Dat
 
 export function buildApp(dataSource: DataSource, config: Config = testConfig()): BuiltApp {
   return createApp({ config, dataSource, log: () => {} });
+}
+
+export interface TestApp {
+  readonly dataSource: DataSource;
+  readonly built: BuiltApp;
+}
+
+/**
+ * Opens a data source and builds the app before the tests of the enclosing file or describe block,
+ * and closes both after them. The fields are set once the hooks ran: read them inside hooks and tests.
+ */
+export function useTestApp(config: Config = testConfig()): TestApp {
+  const testApp = {} as { dataSource: DataSource; built: BuiltApp };
+  beforeAll(async () => {
+    testApp.dataSource = await openDataSource(config);
+    testApp.built = buildApp(testApp.dataSource, config);
+  });
+  afterAll(async () => {
+    await testApp.built?.close();
+    await testApp.dataSource?.destroy();
+  });
+  return testApp;
 }
 
 export interface TestOrg {
@@ -70,3 +92,11 @@ export async function signedInAgent(app: BuiltApp['app'], email: string, passwor
 }
 
 export const csrf = { [CSRF_HEADER]: CSRF_HEADER_VALUE } as const;
+
+/** A fresh organisation whose designer is signed in and owns one new project. */
+export async function designerWithProject(testApp: TestApp, projectName: string): Promise<{ org: TestOrg; designer: Agent; projectId: number }> {
+  const org = await createTestOrg(testApp.dataSource);
+  const designer = await signedInAgent(testApp.built.app, org.emails.designer);
+  const projectId: number = (await designer.post('/api/projects').set(csrf).send({ name: projectName }).expect(201)).body.id;
+  return { org, designer, projectId };
+}

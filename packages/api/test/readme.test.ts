@@ -1,27 +1,14 @@
 import fs from 'node:fs/promises';
 import path from 'node:path';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
-import { buildApp, openDataSource } from './helpers.ts';
+import { describe, expect, it } from 'vitest';
+import { useTestApp } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
-
-beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
-});
+const testApp = useTestApp();
 
 describe('README', () => {
   it('lists every route of the route table with its method', async () => {
     const readme = await fs.readFile(path.resolve(import.meta.dirname, '../README.md'), 'utf8');
-    const missing = built.routes.filter((r) => !readme.includes(`| ${r.method.toUpperCase()} | \`/api${r.path}\` |`)).map((r) => `${r.method.toUpperCase()} /api${r.path}`);
+    const missing = testApp.built.routes.filter((r) => !readme.includes(`| ${r.method.toUpperCase()} | \`/api${r.path}\` |`)).map((r) => `${r.method.toUpperCase()} /api${r.path}`);
     expect(missing).toEqual([]);
   });
 

@@ -1,11 +1,9 @@
 import { randomUUID } from 'node:crypto';
 import { mainsSyncSpec, ultrasonicSinglePoleSpec } from '@loopwright/dsp';
 import request from 'supertest';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { ROLES, type Role } from '../src/contract.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, signedInAgent, type Agent, type TestOrg } from './helpers.ts';
+import { createTestOrg, csrf, PASSWORD, signedInAgent, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 import { releaseFixtures, type ReleaseFixtures } from './releases/fixtures.ts';
 
 /**
@@ -96,12 +94,12 @@ const CASES: Record<string, Case> = {
   },
   'GET /releases/:id/reviews': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/reviews`) },
   // The token is the authority on review links: called without a session, whoever holds the role.
-  'GET /review-links/:token': { allowed: 'public', call: async (_a, f) => request(built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}`) },
+  'GET /review-links/:token': { allowed: 'public', call: async (_a, f) => request(testApp.built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}`) },
   'POST /review-links/:token': {
     allowed: 'public',
     call: async (_a, f) => {
       const link = await f.releases.freshToken();
-      return request(built.app).post(`/api/review-links/${link.token}`).send({ decision: 'approve', manifestSha256: link.manifestSha256 });
+      return request(testApp.built.app).post(`/api/review-links/${link.token}`).send({ decision: 'approve', manifestSha256: link.manifestSha256 });
     },
   },
   'POST /releases/:id/conformance': {
@@ -111,36 +109,28 @@ const CASES: Record<string, Case> = {
   'GET /releases/:id/conformance': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/conformance`) },
 };
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp();
 let org: TestOrg;
 let fixtures: Fixtures;
 
 beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-  org = await createTestOrg(dataSource);
+  org = await createTestOrg(testApp.dataSource);
   // Fixtures come from the services, not from signed-in agents: PUT /session/password ends the
   // other sessions of its account, which would sign such agents out half-way through the table.
   const designerActor = { id: org.ids.designer, email: org.emails.designer, ip: null };
   const adminActor = { id: org.ids.admin, email: org.emails.admin, ip: null };
-  const { projects, designs, users } = built.services;
+  const { projects, designs, users } = testApp.built.services;
   const projectId = (await projects.create(org.organizationId, { name: 'Role table', description: '' }, designerActor)).id;
   const freshDesign = async (): Promise<number> => (await designs.create(org.organizationId, projectId, { name: 'Fixture', templateId: 'ultrasonic-single-pole' }, designerActor)).id;
   const freshUser = async (): Promise<number> =>
     (await users.create(org.organizationId, { email: `fixture-${randomUUID().slice(0, 8)}@example.test`, displayName: 'Fixture', password: 'a-long-enough-password', roles: ['reviewer'] }, adminActor)).id;
   const designId = await freshDesign();
-  fixtures = { projectId, designId, freshDesign, freshUser, releases: await releaseFixtures(built, org, designId) };
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
+  fixtures = { projectId, designId, freshDesign, freshUser, releases: await releaseFixtures(testApp.built, org, designId) };
 });
 
 function registeredRoutes(): string[] {
   const keys: string[] = [];
-  for (const layer of built.apiRouter.stack) {
+  for (const layer of testApp.built.apiRouter.stack) {
     const route = layer.route as { path: string; methods: Record<string, boolean> } | undefined;
     if (!route) continue;
     for (const method of Object.keys(route.methods)) keys.push(`${method.toUpperCase()} ${route.path}`);
@@ -165,7 +155,7 @@ describe('route × role table', () => {
     for (const who of WHO) {
       const expected = expectedStatus(testCase.allowed, who);
       it(`${key} as ${who} → ${expected === 'ok' ? '2xx' : expected}`, async () => {
-        const agent = who === 'signed-out' ? request.agent(built.app) : await signedInAgent(built.app, org.emails[who]);
+        const agent = who === 'signed-out' ? request.agent(testApp.built.app) : await signedInAgent(testApp.built.app, org.emails[who]);
         const response = await testCase.call(agent, fixtures);
         if (expected === 'ok') {
           expect([200, 201, 204], `${key} as ${who}: ${response.status} ${response.text.slice(0, 200)}`).toContain(response.status);

@@ -1,12 +1,9 @@
 import { mainsSyncSpec, simulate } from '@loopwright/dsp';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { expectDeepClose } from './close.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, signedInAgent, testConfig, type Agent, type TestOrg } from './helpers.ts';
+import { createTestOrg, csrf, signedInAgent, testConfig, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp(testConfig({ LW_SIM_MAX_SAMPLES: '100000' }));
 let org: TestOrg;
 let reviewer: Agent;
 let designId: number;
@@ -15,18 +12,11 @@ let designId: number;
 const scenario = { kind: 'frequency-step', stepHz: 0.5, atS: 0.1, durationS: 0.5 } as const;
 
 beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource, testConfig({ LW_SIM_MAX_SAMPLES: '100000' }));
-  org = await createTestOrg(dataSource);
-  const designer = await signedInAgent(built.app, org.emails.designer);
-  reviewer = await signedInAgent(built.app, org.emails.reviewer);
+  org = await createTestOrg(testApp.dataSource);
+  const designer = await signedInAgent(testApp.built.app, org.emails.designer);
+  reviewer = await signedInAgent(testApp.built.app, org.emails.reviewer);
   const project = (await designer.post('/api/projects').set(csrf).send({ name: 'Simulations' }).expect(201)).body;
   designId = (await designer.post(`/api/projects/${project.id}/designs`).set(csrf).send({ name: 'Mains', spec: mainsSyncSpec }).expect(201)).body.id;
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
 });
 
 describe('simulations in the worker pool', () => {
@@ -57,7 +47,7 @@ describe('simulations in the worker pool', () => {
   });
 
   it('runs the simulation in a worker thread', async () => {
-    const outcome = await built.services.compute.run({ kind: 'simulation', spec: mainsSyncSpec, scenario, options: { mode: 'float' } });
+    const outcome = await testApp.built.services.compute.run({ kind: 'simulation', spec: mainsSyncSpec, scenario, options: { mode: 'float' } });
     expect(outcome.ok).toBe(true);
     expect(outcome.threadId).not.toBe(0);
   });

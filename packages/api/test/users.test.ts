@@ -1,24 +1,14 @@
 import request from 'supertest';
-import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
-import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, signedInAgent, type Agent, type TestOrg } from './helpers.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { buildApp, createTestOrg, csrf, openDataSource, PASSWORD, signedInAgent, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp();
 let org: TestOrg;
 let admin: Agent;
 
 beforeAll(async () => {
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-  org = await createTestOrg(dataSource);
-  admin = await signedInAgent(built.app, org.emails.admin);
-});
-
-afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
+  org = await createTestOrg(testApp.dataSource);
+  admin = await signedInAgent(testApp.built.app, org.emails.admin);
 });
 
 let counter = 0;
@@ -34,7 +24,7 @@ describe('admin account management', () => {
     const account = await newAccount(['designer', 'reviewer']);
     expect(account.record).toMatchObject({ email: account.email, roles: ['designer', 'reviewer'], disabled: false });
     expect(account.record.passwordHash).toBeUndefined();
-    const [row] = await dataSource.query('SELECT passwordHash FROM users WHERE id = ?', [account.id]);
+    const [row] = await testApp.dataSource.query('SELECT passwordHash FROM users WHERE id = ?', [account.id]);
     // bcrypt modular-crypt format: $2a$/$2b$, two-digit cost, 53 characters of salt and hash (OpenBSD bcrypt).
     expect(row.passwordHash).toMatch(/^\$2[ab]\$\d\d\$[./A-Za-z0-9]{53}$/);
     expect(row.passwordHash).not.toContain('first-password-1');
@@ -53,27 +43,27 @@ describe('admin account management', () => {
 
   it('disables an account: it cannot sign in and its open session ends at once', async () => {
     const account = await newAccount();
-    const session = await signedInAgent(built.app, account.email, account.password);
+    const session = await signedInAgent(testApp.built.app, account.email, account.password);
     await session.get('/api/projects').expect(200);
 
     await admin.patch(`/api/users/${account.id}`).set(csrf).send({ disabled: true }).expect(200);
 
     const after = await session.get('/api/projects').expect(401);
     expect(after.body.error.code).toBe('unauthenticated');
-    const signIn = await request(built.app).post('/api/session').set(csrf).send({ email: account.email, password: account.password }).expect(401);
+    const signIn = await request(testApp.built.app).post('/api/session').set(csrf).send({ email: account.email, password: account.password }).expect(401);
     expect(signIn.body.error.code).toBe('unauthenticated');
 
     await admin.patch(`/api/users/${account.id}`).set(csrf).send({ disabled: false }).expect(200);
-    await signedInAgent(built.app, account.email, account.password);
+    await signedInAgent(testApp.built.app, account.email, account.password);
   });
 
   it('re-roling an account ends its sessions so the new roles apply at the next sign-in', async () => {
     const account = await newAccount(['designer']);
-    const session = await signedInAgent(built.app, account.email, account.password);
+    const session = await signedInAgent(testApp.built.app, account.email, account.password);
     await session.post('/api/projects').set(csrf).send({ name: 'Allowed while designer' }).expect(201);
     await admin.patch(`/api/users/${account.id}`).set(csrf).send({ roles: ['firmware'] }).expect(200);
     await session.get('/api/session').expect(401);
-    const again = await signedInAgent(built.app, account.email, account.password);
+    const again = await signedInAgent(testApp.built.app, account.email, account.password);
     await again.post('/api/projects').set(csrf).send({ name: 'Refused as firmware' }).expect(403);
   });
 
@@ -92,16 +82,16 @@ describe('admin account management', () => {
   });
 
   it('keeps the audit trail append-only even for direct SQL', async () => {
-    await expect(dataSource.query('UPDATE audit_entries SET action = ? LIMIT 1', ['tampered'])).rejects.toThrow(/append-only/);
-    await expect(dataSource.query('DELETE FROM audit_entries LIMIT 1')).rejects.toThrow(/append-only/);
+    await expect(testApp.dataSource.query('UPDATE audit_entries SET action = ? LIMIT 1', ['tampered'])).rejects.toThrow(/append-only/);
+    await expect(testApp.dataSource.query('DELETE FROM audit_entries LIMIT 1')).rejects.toThrow(/append-only/);
   });
 });
 
 describe('password change', () => {
   it('checks the current password, then the new one works, the old one not, and other sessions end', async () => {
     const account = await newAccount();
-    const other = await signedInAgent(built.app, account.email, account.password);
-    const me = await signedInAgent(built.app, account.email, account.password);
+    const other = await signedInAgent(testApp.built.app, account.email, account.password);
+    const me = await signedInAgent(testApp.built.app, account.email, account.password);
 
     const wrong = await me.put('/api/session/password').set(csrf).send({ currentPassword: 'not-it-at-all', newPassword: 'second-password-2' }).expect(400);
     expect(wrong.body.error.field).toBe('currentPassword');
@@ -111,8 +101,8 @@ describe('password change', () => {
     await me.put('/api/session/password').set(csrf).send({ currentPassword: account.password, newPassword: 'second-password-2' }).expect(204);
     await me.get('/api/session').expect(200);
     await other.get('/api/session').expect(401);
-    await request(built.app).post('/api/session').set(csrf).send({ email: account.email, password: account.password }).expect(401);
-    await signedInAgent(built.app, account.email, 'second-password-2');
+    await request(testApp.built.app).post('/api/session').set(csrf).send({ email: account.email, password: account.password }).expect(401);
+    await signedInAgent(testApp.built.app, account.email, 'second-password-2');
   });
 });
 
@@ -121,19 +111,19 @@ describe('sign-in rate limit', () => {
     const account = await newAccount();
     const statuses: number[] = [];
     for (let attempt = 0; attempt < 10; attempt += 1) {
-      statuses.push((await request(built.app).post('/api/session').set(csrf).send({ email: account.email, password: 'wrong-password' })).status);
+      statuses.push((await request(testApp.built.app).post('/api/session').set(csrf).send({ email: account.email, password: 'wrong-password' })).status);
     }
     expect(statuses).toEqual(Array(10).fill(401));
-    const limited = await request(built.app).post('/api/session').set(csrf).send({ email: account.email, password: account.password }).expect(429);
+    const limited = await request(testApp.built.app).post('/api/session').set(csrf).send({ email: account.email, password: account.password }).expect(429);
     expect(limited.body.error.code).toBe('rate_limited');
     // Another account from the same address is not locked out by someone guessing this one.
-    await signedInAgent(built.app, org.emails.reviewer, PASSWORD);
+    await signedInAgent(testApp.built.app, org.emails.reviewer, PASSWORD);
   });
 
   it('counts attempts in MariaDB, so a second API process sees the same count', async () => {
     const account = await newAccount();
     for (let attempt = 0; attempt < 10; attempt += 1) {
-      await request(built.app).post('/api/session').set(csrf).send({ email: account.email, password: 'wrong-password' }).expect(401);
+      await request(testApp.built.app).post('/api/session').set(csrf).send({ email: account.email, password: 'wrong-password' }).expect(401);
     }
     const otherDataSource = await openDataSource();
     const other = buildApp(otherDataSource);
@@ -148,9 +138,9 @@ describe('sign-in rate limit', () => {
 
 describe('audit trail per organisation', () => {
   it("shows an admin their organisation's entries, including failed sign-ins on its accounts, and not another's", async () => {
-    const other = await createTestOrg(dataSource);
-    const otherAdmin = await signedInAgent(built.app, other.emails.admin);
-    await request(built.app).post('/api/session').set(csrf).send({ email: org.emails.firmware, password: 'not-the-password' }).expect(401);
+    const other = await createTestOrg(testApp.dataSource);
+    const otherAdmin = await signedInAgent(testApp.built.app, other.emails.admin);
+    await request(testApp.built.app).post('/api/session').set(csrf).send({ email: org.emails.firmware, password: 'not-the-password' }).expect(401);
     const mine = (await admin.get('/api/audit?limit=500').expect(200)).body.entries as { action: string; objectId: string | null; detail: { email?: string } | null }[];
     expect(mine.some((e) => e.action === 'session.sign-in-failed' && e.detail?.email === org.emails.firmware && e.objectId === String(org.ids.firmware))).toBe(true);
     const theirs = (await otherAdmin.get('/api/audit?limit=500').expect(200)).body.entries as { actorEmail: string | null; detail: { email?: string } | null }[];

@@ -2,14 +2,11 @@ import fs from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
-import type { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BuiltApp } from '../src/app.ts';
 import { serveWebApp } from '../src/web/static.ts';
-import { buildApp, openDataSource } from './helpers.ts';
+import { useTestApp } from './helpers.ts';
 
-let dataSource: DataSource;
-let built: BuiltApp;
+const testApp = useTestApp();
 let distDir: string;
 
 beforeAll(async () => {
@@ -17,42 +14,38 @@ beforeAll(async () => {
   await fs.mkdir(path.join(distDir, 'assets'));
   await fs.writeFile(path.join(distDir, 'index.html'), '<!doctype html><title>Loopwright</title><div id="app"></div>');
   await fs.writeFile(path.join(distDir, 'assets', 'main.js'), 'console.log("app");');
-  dataSource = await openDataSource();
-  built = buildApp(dataSource);
-  expect(serveWebApp(built.app, distDir)).toBe(true);
+  expect(serveWebApp(testApp.built.app, distDir)).toBe(true);
 });
 
 afterAll(async () => {
-  await built.close();
-  await dataSource.destroy();
   await fs.rm(distDir, { recursive: true, force: true });
 });
 
-describe('serving the built web app', () => {
+describe('serving the testApp.built web app', () => {
   it('serves files of the build', async () => {
-    const response = await request(built.app).get('/assets/main.js').expect(200);
+    const response = await request(testApp.built.app).get('/assets/main.js').expect(200);
     expect(response.text).toContain('console.log');
   });
 
   it('answers app routes with index.html (SPA fallback)', async () => {
-    const response = await request(built.app).get('/projects/3/designs/7').expect(200);
+    const response = await request(testApp.built.app).get('/projects/3/designs/7').expect(200);
     expect(response.headers['content-type']).toMatch(/text\/html/);
     expect(response.text).toContain('<div id="app">');
   });
 
   it('keeps unknown /api paths as JSON 404s, never the app page', async () => {
-    const response = await request(built.app).get('/api/unknown/thing').expect(404);
+    const response = await request(testApp.built.app).get('/api/unknown/thing').expect(404);
     expect(response.body.error.code).toBe('not_found');
-    await request(built.app).get('/api').expect(404);
+    await request(testApp.built.app).get('/api').expect(404);
   });
 
   it('sends a CSP that keeps scripts same-origin and does not force HTTPS on a plain-HTTP deployment', async () => {
-    const csp = String((await request(built.app).get('/projects')).headers['content-security-policy']);
+    const csp = String((await request(testApp.built.app).get('/projects')).headers['content-security-policy']);
     expect(csp).toMatch(/script-src 'self'/);
     expect(csp).not.toMatch(/upgrade-insecure-requests/);
   });
 
   it('reports false when there is no build', () => {
-    expect(serveWebApp(built.app, path.join(distDir, 'missing'))).toBe(false);
+    expect(serveWebApp(testApp.built.app, path.join(distDir, 'missing'))).toBe(false);
   });
 });
