@@ -90,11 +90,15 @@ export type HealthResponse = z.infer<typeof healthResponseSchema>;
 
 // ------------------------------------------------------------------------------------ session & users
 
-export const sessionUserSchema = z.object({
+/** Who an account is: the fields a session and the user list both show. */
+const userIdentitySchema = z.object({
   id: z.number().int(),
   email: z.string(),
   displayName: z.string(),
   roles: z.array(roleSchema),
+});
+
+export const sessionUserSchema = userIdentitySchema.extend({
   organizationId: z.number().int(),
 });
 export type SessionUser = z.infer<typeof sessionUserSchema>;
@@ -115,11 +119,7 @@ export const passwordChangeRequestSchema = z.strictObject({
 });
 export type PasswordChangeRequest = z.infer<typeof passwordChangeRequestSchema>;
 
-export const userRecordSchema = z.object({
-  id: z.number().int(),
-  email: z.string(),
-  displayName: z.string(),
-  roles: z.array(roleSchema),
+export const userRecordSchema = userIdentitySchema.extend({
   disabled: z.boolean(),
   createdAt: isoDateSchema,
   updatedAt: isoDateSchema,

@@ -6,12 +6,13 @@ import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';
 import type { SessionControl } from './sessions.ts';
 
+function identityOf(user: User): Pick<SessionUser, 'id' | 'email' | 'displayName' | 'roles'> {
+  return { id: user.id, email: user.email, displayName: user.displayName, roles: [...user.roles] };
+}
+
 function toRecord(user: User): UserRecord {
   return {
-    id: user.id,
-    email: user.email,
-    displayName: user.displayName,
-    roles: [...user.roles],
+    ...identityOf(user),
     disabled: user.disabled,
     createdAt: user.createdAt.toISOString(),
     updatedAt: user.updatedAt.toISOString(),
@@ -19,13 +20,7 @@ function toRecord(user: User): UserRecord {
 }
 
 export function toSessionUser(user: User): SessionUser {
-  return {
-    id: user.id,
-    email: user.email,
-    displayName: user.displayName,
-    roles: [...user.roles],
-    organizationId: user.organizationId,
-  };
+  return { ...identityOf(user), organizationId: user.organizationId };
 }
 
 function isDuplicateKey(err: unknown): boolean {
