@@ -6,6 +6,7 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
+import { dbEnv } from '../packages/api/src/config.ts';
 import { startMariaDb } from './lib/mariadb.ts';
 import { findFreePort, isPortTaken } from './lib/ports.ts';
 import { ROOT, onShutdown, shutdown } from './lib/process.ts';
@@ -93,11 +94,7 @@ async function main(): Promise<void> {
     ...process.env,
     NODE_ENV: process.env.NODE_ENV ?? 'development',
     PORT: String(httpPort),
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
+    ...dbEnv(db),
     LW_SMTP_HOST: '127.0.0.1',
     LW_SMTP_PORT: String(smtpPort),
     LW_PUBLIC_URL: process.env.LW_PUBLIC_URL ?? `http://127.0.0.1:${httpPort}`,

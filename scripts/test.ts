@@ -7,6 +7,7 @@ import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import fs from 'node:fs/promises';
 import path from 'node:path';
+import { dbEnv } from '../packages/api/src/config.ts';
 import { startMariaDb, type MariaDbInstance } from './lib/mariadb.ts';
 import { ROOT, onShutdown } from './lib/process.ts';
 import { StartupError } from './lib/startup-error.ts';
@@ -124,13 +125,7 @@ async function main(): Promise<number> {
   process.stdout.write(`test database: MariaDB on 127.0.0.1:${db.port} (data in ${path.relative(ROOT, runDir)}, removed afterwards)\n`);
   const env: NodeJS.ProcessEnv = {
     ...process.env,
-    LW_DB_HOST: db.host,
-    LW_DB_PORT: String(db.port),
-    LW_DB_USER: db.user,
-    LW_DB_PASSWORD: db.password,
-    LW_DB_NAME: db.database,
-    LW_DB_SOCKET: db.socket,
-    LW_MAIL_RETRY: 'off',
+    ...dbEnv(db),
   };
 
   const total: Tally = { passed: 0, failed: 0, skipped: 0 };
