@@ -2,7 +2,7 @@ import express, { type Express, type Router } from 'express';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
 import type { Config } from './config.ts';
-import { Authenticator, signInRateLimiter } from './middleware/auth.ts';
+import { Authenticator, reviewLinkRateLimiter, signInRateLimiter } from './middleware/auth.ts';
 import { apiNotFound, errorHandler } from './middleware/errors.ts';
 import { apiRoutes } from './routes/index.ts';
 import { jsonBody, mountRoutes, type RouteSpec } from './routes/table.ts';
@@ -37,7 +37,8 @@ export function createApp(options: AppOptions): BuiltApp {
   const log = options.log ?? defaultLog;
   const services = createServices(dataSource, config);
   const auth = new Authenticator(dataSource, services.users, config);
-  const routes = apiRoutes(auth, signInRateLimiter(dataSource, config), options.extraRoutes);
+  const limiters = { signIn: signInRateLimiter(dataSource, config), reviewLink: reviewLinkRateLimiter(dataSource, config) };
+  const routes = apiRoutes(auth, limiters, options.extraRoutes);
 
   const app = express();
   app.set('trust proxy', config.trustProxy);

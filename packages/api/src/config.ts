@@ -29,6 +29,9 @@ const envSchema = z.object({
   LW_UPLOAD_LIMIT_BYTES: int(1_024, 50_000_000).default(256 * 1024),
   LW_SIGNIN_LIMIT_PER_WINDOW: int(1, 10_000).default(10),
   LW_SIGNIN_WINDOW_S: int(1, 24 * 3600).default(15 * 60),
+  /** Refused review-link requests allowed per client address per window (anonymous requests only). */
+  LW_REVIEW_LINK_LIMIT_PER_WINDOW: int(1, 100_000).default(20),
+  LW_REVIEW_LINK_WINDOW_S: int(1, 24 * 3600).default(15 * 60),
   /** Worker threads for analyses and simulations; one core is left to the event loop and MariaDB. */
   LW_SIM_THREADS: int(1, 64).default(Math.max(1, availableParallelism() - 1)),
   LW_COMPUTE_TIMEOUT_S: int(1, 3600).default(60),
@@ -66,6 +69,7 @@ export interface Config {
   readonly bodyLimitBytes: number;
   readonly uploadLimitBytes: number;
   readonly signIn: { readonly limitPerWindow: number; readonly windowS: number };
+  readonly reviewLinks: { readonly limitPerWindow: number; readonly windowS: number };
   readonly compute: {
     readonly threads: number;
     readonly timeoutS: number;
@@ -136,6 +140,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     bodyLimitBytes: env.LW_BODY_LIMIT_BYTES,
     uploadLimitBytes: env.LW_UPLOAD_LIMIT_BYTES,
     signIn: { limitPerWindow: env.LW_SIGNIN_LIMIT_PER_WINDOW, windowS: env.LW_SIGNIN_WINDOW_S },
+    reviewLinks: { limitPerWindow: env.LW_REVIEW_LINK_LIMIT_PER_WINDOW, windowS: env.LW_REVIEW_LINK_WINDOW_S },
     compute: {
       threads: env.LW_SIM_THREADS,
       timeoutS: env.LW_COMPUTE_TIMEOUT_S,

@@ -115,3 +115,24 @@ export function signInRateLimiter(dataSource: DataSource, config: Config): Reque
     },
   });
 }
+
+/**
+ * Refused review-link requests (unknown, tampered, replayed … tokens) per client address, counted in
+ * MariaDB like sign-in: guessing tokens is bounded, and so is what it writes to the audit trail.
+ * Signed-in requests are not anonymous and are not counted; neither are requests that succeed.
+ */
+export function reviewLinkRateLimiter(dataSource: DataSource, config: Config): RequestHandler {
+  return rateLimit({
+    windowMs: config.reviewLinks.windowS * 1000,
+    limit: config.reviewLinks.limitPerWindow,
+    skipSuccessfulRequests: true,
+    skip: (req) => req.user !== undefined,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    store: new MariaDbRateLimitStore(dataSource, 'review-link'),
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? 'unknown'),
+    handler: (_req, _res, next, options) => {
+      next(new AppError('rate_limited', `too many refused review-link requests from this address; try again in ${Math.ceil(options.windowMs / 60_000)} minutes`, 429));
+    },
+  });
+}

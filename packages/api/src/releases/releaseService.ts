@@ -17,7 +17,7 @@ import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from './contract.ts';
 import { releaseDiff } from './diff.ts';
 import { Release, ReleaseFile } from './entities/index.ts';
 import { releaseLabel, toFileRecord, toReviewRecord, toSummary, type ReleaseRow } from './records.ts';
-import { fileContents, findRelease, listFiles, listReleases, listReviews } from './repository.ts';
+import { fileContents, findRelease, listFiles, listReleases, listReviews, releaseStateTransaction } from './repository.ts';
 import { allowedEvents, transition, type ReleaseEvent } from './stateMachine.ts';
 import { canSee, FIRMWARE_VISIBLE_STATES, seesAllStates } from './visibility.ts';
 
@@ -142,7 +142,7 @@ export class ReleaseService {
   }
 
   async withdraw(organizationId: number, id: number, actor: Actor, reason: string | undefined): Promise<ReleaseRecord> {
-    await this.dataSource.transaction(async (manager) => {
+    await releaseStateTransaction(this.dataSource, async (manager) => {
       const row = await findRelease(manager, organizationId, id, false, true);
       if (!row) throw notFound('release');
       const to = await this.applyEvent(manager, row, 'withdraw');

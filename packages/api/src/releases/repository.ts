@@ -1,5 +1,5 @@
 /** Queries over the release tables, returning plain rows (records.ts). */
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { Design } from '../entities/Design.ts';
 import { Release, ReleaseFile, ReleaseReview } from './entities/index.ts';
 import type { FileRow, ReleaseRow, ReviewRow } from './records.ts';
@@ -30,6 +30,17 @@ function releaseQuery(manager: EntityManager, withContent: boolean) {
     .innerJoin('d.project', 'p');
   if (withContent) qb.addSelect('r.specJson', 'specJson').addSelect('r.resultsJson', 'resultsJson');
   return qb;
+}
+
+/**
+ * The transaction every change of a release's review state runs in. It locks the release row first
+ * (findRelease with `lock`) and runs at READ COMMITTED, so each read after the lock sees what the
+ * transactions that held the lock before it committed. Under MariaDB's default REPEATABLE READ, a
+ * read made before the lock was granted would fix the snapshot, and a count of approvals would miss
+ * the decisions committed meanwhile: three reviewers deciding at once would each count one.
+ */
+export function releaseStateTransaction<T>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>): Promise<T> {
+  return dataSource.transaction('READ COMMITTED', work);
 }
 
 export async function findRelease(manager: EntityManager, organizationId: number, id: number, withContent = false, lock = false): Promise<ReleaseRow | undefined> {

@@ -1,11 +1,15 @@
 /**
  * Review requests and the e-mailed review links (tokens: reviewToken.ts). A decision is a POST that
- * locks the link row, checks the token and its bindings, marks it used and moves the release through
- * the state machine, all in one transaction; refusals (replayed, expired, tampered, foreign) roll that
- * back and are recorded in the audit trail on their own.
+ * locks the release row, then the link row, checks the token, its bindings and its holder's authority,
+ * marks it used, counts the approvals and moves the release through the state machine, all in one
+ * transaction (releaseStateTransaction: READ COMMITTED under the release's row lock, so the count sees
+ * every decision committed before it). Refusals (replayed, expired, tampered, foreign, the holder
+ * disabled or no longer a reviewer) roll that back and are recorded in the audit trail on their own,
+ * under the release's organisation when the link names one.
  */
 import type { DataSource, EntityManager } from 'typeorm';
 import type { SessionUser } from '../contract.ts';
+import { Design } from '../entities/Design.ts';
 import { User } from '../entities/User.ts';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { HandoffConfig } from '../mail/config.ts';
@@ -16,11 +20,11 @@ import { ReleaseReview } from './entities/index.ts';
 import { releaseApprovedMail, reviewRequestMail } from './mails.ts';
 import { releaseLabel, type ReleaseRow } from './records.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
-import { findRelease } from './repository.ts';
+import { findRelease, releaseStateTransaction } from './repository.ts';
 import { issueToken, parseToken, tokenMatches } from './reviewToken.ts';
 import type { ReleaseState } from './stateMachine.ts';
 
-export type RefusalReason = 'malformed' | 'unknown' | 'tampered' | 'replayed' | 'expired' | 'foreign';
+export type RefusalReason = 'malformed' | 'unknown' | 'tampered' | 'replayed' | 'expired' | 'foreign' | 'disabled' | 'revoked';
 
 const REFUSAL_TEXT: Record<RefusalReason, string> = {
   malformed: 'this review link is not a valid link (it may have been cut or altered)',
@@ -29,14 +33,35 @@ const REFUSAL_TEXT: Record<RefusalReason, string> = {
   replayed: 'this review link was already used; each link decides once',
   expired: 'this review link has expired; ask the designer for a new review request',
   foreign: 'this review link belongs to someone or something else',
+  disabled: 'the account this review link was sent to is disabled, so the link no longer decides',
+  revoked: 'the account this review link was sent to no longer holds the reviewer role, so the link no longer decides',
 };
 
+/** Where a refusal is filed: the release (and its organisation) a link's selector found, if any. */
+interface RefusalContext {
+  readonly organizationId: number;
+  readonly releaseId: number;
+  readonly reviewerId: number;
+}
+
 export class ReviewLinkRefused extends AppError {
+  context: RefusalContext | undefined;
+
   constructor(
     readonly reason: RefusalReason,
     detail?: string,
   ) {
     super('forbidden', detail ? `${REFUSAL_TEXT[reason]}: ${detail}` : REFUSAL_TEXT[reason], 403, 'token');
+  }
+}
+
+/** Runs `check`; a refusal it throws is tagged with the release the link belongs to. */
+async function within<T>(context: RefusalContext, check: () => Promise<T>): Promise<T> {
+  try {
+    return await check();
+  } catch (err) {
+    if (err instanceof ReviewLinkRefused) err.context ??= context;
+    throw err;
   }
 }
 
@@ -51,6 +76,12 @@ interface LinkRow {
   manifestSha256: string;
   expiresAt: Date | string;
   usedAt: Date | string | null;
+  /** The reviewer's account as it is now: authority is checked when the link is used. */
+  reviewerDisabled: number | boolean;
+  /** MariaDB SET column, raw: "reviewer,firmware". */
+  reviewerRoles: string;
+  reviewerOrganizationId: number;
+  organizationId: number;
 }
 
 interface Decided {
@@ -84,7 +115,7 @@ export class ReviewService {
     if (request.approvalsRequired > request.reviewerIds.length) {
       throw invalidInput('approvalsRequired', `approvalsRequired ${request.approvalsRequired} exceeds the ${request.reviewerIds.length} reviewer(s) named`);
     }
-    const mailIds = await this.dataSource.transaction(async (manager) => {
+    const mailIds = await releaseStateTransaction(this.dataSource, async (manager) => {
       const row = await findRelease(manager, organizationId, releaseId, true, true);
       if (!row) throw notFound('release');
       const reviewers = await this.reviewers(manager, organizationId, request.reviewerIds, [actor.id, Number(row.createdById)]);
@@ -138,8 +169,14 @@ export class ReviewService {
     });
   }
 
+  /**
+   * The link row with its reviewer's account and the release's organisation. With `lock`, the row is
+   * read FOR UPDATE; callers lock the release row first (the one lock order of every review
+   * transaction, so two of them never wait on each other in a cycle).
+   */
   private async linkRow(manager: EntityManager, selector: string, lock: boolean): Promise<LinkRow | undefined> {
-    const qb = manager
+    if (lock) await manager.query('SELECT `id` FROM `release_reviews` WHERE `selector` = ? FOR UPDATE', [selector]);
+    return manager
       .createQueryBuilder()
       .select([
         'v.id AS id',
@@ -147,6 +184,10 @@ export class ReviewService {
         'v.reviewerId AS reviewerId',
         'u.displayName AS reviewerName',
         'u.email AS reviewerEmail',
+        'u.disabled AS reviewerDisabled',
+        'u.roles AS reviewerRoles',
+        'u.organizationId AS reviewerOrganizationId',
+        'p.organizationId AS organizationId',
         'v.selector AS selector',
         'v.tokenHash AS tokenHash',
         'v.manifestSha256 AS manifestSha256',
@@ -155,35 +196,51 @@ export class ReviewService {
       ])
       .from(ReleaseReview, 'v')
       .innerJoin('v.reviewer', 'u')
-      .where('v.selector = :selector', { selector });
-    if (lock) await manager.query('SELECT `id` FROM `release_reviews` WHERE `selector` = ? FOR UPDATE', [selector]);
-    return qb.getRawOne<LinkRow>();
+      .innerJoin('v.release', 'r')
+      .innerJoin(Design, 'd', 'd.id = r.designId')
+      .innerJoin('d.project', 'p')
+      .where('v.selector = :selector', { selector })
+      .getRawOne<LinkRow>();
   }
 
-  /** Checks a token against its row and the release; returns both or throws ReviewLinkRefused. */
+  /**
+   * Checks a token against its row, the release and the holder's authority; returns both or throws
+   * ReviewLinkRefused. With `lock` (a decision) the release row and then the link row are locked and
+   * read again, so what is checked is what the decision is made on.
+   */
   private async verify(manager: EntityManager, token: string, lock: boolean): Promise<{ link: LinkRow; release: ReleaseRow; organizationId: number }> {
     const parsed = parseToken(token);
     if (!parsed) throw new ReviewLinkRefused('malformed');
-    const link = await this.linkRow(manager, parsed.selector, lock);
-    if (!link) throw new ReviewLinkRefused('unknown');
-    const binding = { selector: link.selector, releaseId: Number(link.releaseId), reviewerId: Number(link.reviewerId), manifestSha256: link.manifestSha256 };
-    if (!tokenMatches(parsed.secret, binding, link.tokenHash)) throw new ReviewLinkRefused('tampered');
-    const orgRow = (await manager.query('SELECT p.`organizationId` AS organizationId FROM `releases` r JOIN `designs` d ON d.id = r.designId JOIN `projects` p ON p.id = d.projectId WHERE r.id = ?', [link.releaseId])) as { organizationId: number }[];
-    const organizationId = Number(orgRow[0]?.organizationId);
-    const release = await findRelease(manager, organizationId, Number(link.releaseId), true, lock);
-    if (!release) throw new ReviewLinkRefused('unknown');
-    if (release.manifestSha256 !== link.manifestSha256) throw new ReviewLinkRefused('tampered', 'the release content is not the one the link was issued for');
-    if (link.usedAt !== null) throw new ReviewLinkRefused('replayed');
-    if (new Date(link.expiresAt).getTime() <= Date.now()) throw new ReviewLinkRefused('expired');
-    return { link, release, organizationId };
+    const found = await this.linkRow(manager, parsed.selector, false);
+    if (!found) throw new ReviewLinkRefused('unknown');
+    const organizationId = Number(found.organizationId);
+    const context = { organizationId, releaseId: Number(found.releaseId), reviewerId: Number(found.reviewerId) };
+    return within(context, async () => {
+      const binding = { selector: found.selector, releaseId: context.releaseId, reviewerId: context.reviewerId, manifestSha256: found.manifestSha256 };
+      if (!tokenMatches(parsed.secret, binding, found.tokenHash)) throw new ReviewLinkRefused('tampered');
+      const release = await findRelease(manager, organizationId, context.releaseId, true, lock);
+      const link = lock ? await this.linkRow(manager, parsed.selector, true) : found;
+      if (!release || !link) throw new ReviewLinkRefused('unknown');
+      if (release.manifestSha256 !== link.manifestSha256) throw new ReviewLinkRefused('tampered', 'the release content is not the one the link was issued for');
+      if (link.usedAt !== null) throw new ReviewLinkRefused('replayed');
+      if (new Date(link.expiresAt).getTime() <= Date.now()) throw new ReviewLinkRefused('expired');
+      assertReviewerAuthority(link, organizationId);
+      return { link, release, organizationId };
+    });
   }
 
-  /** Records a refusal outside the failed transaction, then rethrows it. */
+  /**
+   * Records a refusal outside the failed transaction, then rethrows it. A link whose selector found a
+   * release is filed under that release and its organisation (its admins read it); a malformed or
+   * unknown one belongs to no organisation (the review-link rate limit bounds how many there can be).
+   */
   private async refused(err: unknown, token: string, ip: string | null, action: string): Promise<never> {
     if (err instanceof ReviewLinkRefused) {
       const selector = parseToken(token)?.selector ?? null;
-      const actor: AuditActor = { id: null, email: null, ip };
-      await this.audit.record(actor, { action: 'review-link.refused', objectType: 'review-link', objectId: selector, detail: { reason: err.reason, attempted: action } });
+      const c = err.context;
+      const actor: AuditActor = { id: null, email: null, ip, organizationId: c?.organizationId ?? null };
+      const detail = { reason: err.reason, attempted: action, ...(c ? { selector, reviewerId: c.reviewerId } : {}) };
+      await this.audit.record(actor, c ? { action: 'review-link.refused', objectType: 'release', objectId: c.releaseId, detail } : { action: 'review-link.refused', objectType: 'review-link', objectId: selector, detail });
     }
     throw err;
   }
@@ -192,7 +249,7 @@ export class ReviewService {
   async read(token: string, ip: string | null, sessionUser: SessionUser | undefined): Promise<ReviewLinkView> {
     try {
       const { link, release, organizationId } = await this.verify(this.dataSource.manager, token, false);
-      if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw new ReviewLinkRefused('foreign', 'it was sent to another reviewer');
+      if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw foreignTo(link, organizationId, 'it was sent to another reviewer');
       const previous = await this.releases.previousOf(organizationId, release);
       const reviewerView = { roles: ['reviewer' as const] };
       return {
@@ -209,10 +266,10 @@ export class ReviewService {
   async decide(token: string, body: ReviewDecisionRequest, ip: string | null, sessionUser: SessionUser | undefined): Promise<ReviewDecisionResponse> {
     let outcome: Decided;
     try {
-      outcome = await this.dataSource.transaction(async (manager) => {
+      outcome = await releaseStateTransaction(this.dataSource, async (manager) => {
         const { link, release, organizationId } = await this.verify(manager, token, true);
-        if (body.manifestSha256 !== link.manifestSha256) throw new ReviewLinkRefused('foreign', 'the decision is about other release content than this link is for');
-        if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw new ReviewLinkRefused('foreign', 'it was sent to another reviewer');
+        if (body.manifestSha256 !== link.manifestSha256) throw foreignTo(link, organizationId, 'the decision is about other release content than this link is for');
+        if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw foreignTo(link, organizationId, 'it was sent to another reviewer');
         return this.record(manager, link, release, organizationId, body, ip, 'link');
       });
     } catch (err) {
@@ -227,14 +284,17 @@ export class ReviewService {
    * found by release and person instead of by token, and its link is used up with it.
    */
   async decideSignedIn(organizationId: number, releaseId: number, body: ReviewDecisionRequest, reviewer: SessionUser, ip: string | null): Promise<ReviewDecisionResponse> {
-    const outcome = await this.dataSource.transaction(async (manager) => {
+    const outcome = await releaseStateTransaction(this.dataSource, async (manager) => {
       const release = await findRelease(manager, organizationId, releaseId, true, true);
       if (!release) throw notFound('release');
-      const rows = (await manager.query('SELECT `selector` FROM `release_reviews` WHERE `releaseId` = ? AND `reviewerId` = ? FOR UPDATE', [release.id, reviewer.id])) as { selector: string }[];
-      const link = rows[0] ? await this.linkRow(manager, rows[0].selector, false) : undefined;
+      const rows = (await manager.query('SELECT `selector` FROM `release_reviews` WHERE `releaseId` = ? AND `reviewerId` = ?', [release.id, reviewer.id])) as { selector: string }[];
+      const link = rows[0] ? await this.linkRow(manager, rows[0].selector, true) : undefined;
       if (!link) throw new AppError('forbidden', 'you are not a named reviewer of this release', 403);
       if (link.usedAt !== null) throw conflict('you have already decided on this release', 'decision');
       if (new Date(link.expiresAt).getTime() <= Date.now()) throw new AppError('forbidden', 'your review request has expired; ask the designer for a new one', 403);
+      // The session's roles were checked by the route; the account as it is now decides (same rule as the link).
+      const authority = reviewerAuthorityIssue(link, organizationId);
+      if (authority) throw new AppError('forbidden', REFUSAL_TEXT[authority], 403);
       if (body.manifestSha256 !== release.manifestSha256) throw invalidInput('manifestSha256', 'the decision is about other content than this release (reload it)');
       return this.record(manager, link, release, organizationId, body, ip, 'app');
     });
@@ -278,4 +338,22 @@ export class ReviewService {
       }),
     );
   }
+}
+
+/** 'disabled' or 'revoked' when the link's holder may no longer decide, else null. */
+function reviewerAuthorityIssue(link: LinkRow, organizationId: number): 'disabled' | 'revoked' | null {
+  if (Boolean(Number(link.reviewerDisabled))) return 'disabled';
+  if (Number(link.reviewerOrganizationId) !== organizationId || !String(link.reviewerRoles).split(',').includes('reviewer')) return 'revoked';
+  return null;
+}
+
+function assertReviewerAuthority(link: LinkRow, organizationId: number): void {
+  const issue = reviewerAuthorityIssue(link, organizationId);
+  if (issue) throw new ReviewLinkRefused(issue);
+}
+
+function foreignTo(link: LinkRow, organizationId: number, detail: string): ReviewLinkRefused {
+  const err = new ReviewLinkRefused('foreign', detail);
+  err.context = { organizationId, releaseId: Number(link.releaseId), reviewerId: Number(link.reviewerId) };
+  return err;
 }

@@ -1,4 +1,5 @@
 /** Routes of releases, reviews, review links, downloads and conformance (paths relative to /api). */
+import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { idParamsSchema } from '../contract.ts';
 import { route } from '../routes/table.ts';
@@ -19,7 +20,8 @@ const DESIGNER = ['designer'] as const;
 const UPLOADERS = ['firmware', 'designer'] as const;
 const withdrawSchema = z.strictObject({ reason: z.string().max(2000).optional() });
 
-export const releaseRoutes = [
+/** `reviewLinkLimiter` guards the public review-link routes (refused anonymous requests per address). */
+export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
   route({
     method: 'post',
     path: '/designs/:id/releases',
@@ -129,6 +131,7 @@ export const releaseRoutes = [
     path: '/review-links/:token',
     access: 'public',
     csrf: 'token',
+    before: [reviewLinkLimiter],
     summary: 'what an e-mailed review link opens (reads only; the link stays unused)',
     params: reviewTokenParamsSchema,
     handler: ({ services, params, req }) => services.handoff.reviews.read(params.token, req.ip ?? null, req.user),
@@ -138,6 +141,7 @@ export const releaseRoutes = [
     path: '/review-links/:token',
     access: 'public',
     csrf: 'token',
+    before: [reviewLinkLimiter],
     summary: 'decide with an e-mailed review link: {decision: "approve"|"request-changes", comment?, manifestSha256}',
     params: reviewTokenParamsSchema,
     body: reviewDecisionSchema,

@@ -10,7 +10,13 @@ import type { RouteSpec } from './table.ts';
 import { userRoutes } from './users.ts';
 import { releaseRoutes } from '../releases/routes.ts';
 
+/** Rate limiters of the public routes (counters in MariaDB). */
+export interface RouteLimiters {
+  readonly signIn: RequestHandler;
+  readonly reviewLink: RequestHandler;
+}
+
 /** Every API route, in one table (path relative to /api). Other modules add theirs here. */
-export function apiRoutes(auth: Authenticator, signInLimiter: RequestHandler, extra: readonly RouteSpec[] = []): RouteSpec[] {
-  return [...healthRoutes, ...sessionRoutes(auth, signInLimiter), ...userRoutes, ...projectRoutes, ...designRoutes, ...analysisRoutes, ...auditRoutes, ...releaseRoutes, ...extra];
+export function apiRoutes(auth: Authenticator, limiters: RouteLimiters, extra: readonly RouteSpec[] = []): RouteSpec[] {
+  return [...healthRoutes, ...sessionRoutes(auth, limiters.signIn), ...userRoutes, ...projectRoutes, ...designRoutes, ...analysisRoutes, ...auditRoutes, ...releaseRoutes(limiters.reviewLink), ...extra];
 }
