@@ -6,7 +6,7 @@
  * and never collide; the unique (designId, number) index is the database's second line of defence.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import type { DesignRecord, SessionUser } from '../contract.ts';
+import type { DesignRecord, DesignSummary, SessionUser } from '../contract.ts';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
@@ -31,6 +31,11 @@ export function renderStoredSpec(spec: unknown): RenderedRelease {
     if (err instanceof RenderInputError) throw invalidInput(`spec.${err.field}`.replace(/\.$/, ''), err.message);
     throw err;
   }
+}
+
+/** The design as an approved release holds it: its spec, the revision it was cut from, when it was cut. */
+function asApproved(design: DesignRecord, release: ReleaseRow): DesignRecord {
+  return { ...design, spec: JSON.parse(release.specJson ?? 'null') as DesignRecord['spec'], revision: Number(release.designRevision), updatedAt: new Date(release.createdAt).toISOString() };
 }
 
 interface StoredResults {
@@ -113,8 +118,35 @@ export class ReleaseService {
     };
   }
 
+  /**
+   * A design as `user` may see it. An account that sees every release state sees the design as it is
+   * now; one that sees approved releases only (firmware) sees it as its latest approved release holds
+   * it — that release's spec and the revision it was cut from — and a design without one is a 404.
+   */
+  async designForUser(organizationId: number, designId: number, user: Pick<SessionUser, 'roles'>): Promise<DesignRecord> {
+    const design = await this.designs.get(organizationId, designId);
+    if (seesAllStates(user)) return design;
+    const [latest] = await listReleases(this.dataSource.manager, organizationId, { designId, states: FIRMWARE_VISIBLE_STATES }, true);
+    if (!latest) throw notFound('design');
+    return asApproved(design, latest);
+  }
+
+  /** A project's designs as `user` may see them (firmware: those with an approved release, as of it). */
+  async designsForUser(organizationId: number, projectId: number, user: Pick<SessionUser, 'roles'>): Promise<DesignSummary[]> {
+    const designs = await this.designs.list(organizationId, projectId);
+    if (seesAllStates(user)) return designs;
+    const approved = await listReleases(this.dataSource.manager, organizationId, { projectId, states: FIRMWARE_VISIBLE_STATES });
+    // Newest first per design (listReleases orders by number descending).
+    const latest = new Map<number, ReleaseRow>();
+    for (const r of approved) if (!latest.has(Number(r.designId))) latest.set(Number(r.designId), r);
+    return designs.flatMap((d) => {
+      const r = latest.get(d.id);
+      return r ? [{ ...d, revision: Number(r.designRevision), updatedAt: new Date(r.createdAt).toISOString() }] : [];
+    });
+  }
+
   async listForDesign(organizationId: number, designId: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseSummary[]> {
-    await this.designs.get(organizationId, designId);
+    await this.designForUser(organizationId, designId, user);
     const rows = await listReleases(this.dataSource.manager, organizationId, { designId, ...(seesAllStates(user) ? {} : { states: FIRMWARE_VISIBLE_STATES }) });
     return rows.map(toSummary);
   }

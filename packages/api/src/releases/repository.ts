@@ -49,9 +49,10 @@ export async function findRelease(manager: EntityManager, organizationId: number
   return releaseQuery(manager, withContent).where('r.id = :id AND p.organizationId = :organizationId', { id, organizationId }).getRawOne<ReleaseRow>();
 }
 
-export async function listReleases(manager: EntityManager, organizationId: number, where: { designId?: number; states?: readonly string[] }): Promise<ReleaseRow[]> {
-  const qb = releaseQuery(manager, false).where('p.organizationId = :organizationId', { organizationId });
+export async function listReleases(manager: EntityManager, organizationId: number, where: { designId?: number; projectId?: number; states?: readonly string[] }, withContent = false): Promise<ReleaseRow[]> {
+  const qb = releaseQuery(manager, withContent).where('p.organizationId = :organizationId', { organizationId });
   if (where.designId !== undefined) qb.andWhere('r.designId = :designId', { designId: where.designId });
+  if (where.projectId !== undefined) qb.andWhere('d.projectId = :projectId', { projectId: where.projectId });
   if (where.states !== undefined) qb.andWhere('r.state IN (:...states)', { states: where.states });
   return qb.orderBy('r.designId', 'ASC').addOrderBy('r.number', 'DESC').getRawMany<ReleaseRow>();
 }

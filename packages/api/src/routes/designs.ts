@@ -27,9 +27,9 @@ export const designRoutes = [
     method: 'get',
     path: '/projects/:id/designs',
     access: 'signed-in',
-    summary: "list a project's designs",
+    summary: "list a project's designs (firmware: those with an approved release)",
     params: idParamsSchema,
-    handler: async ({ services, user, params }): Promise<DesignListResponse> => ({ designs: await services.designs.list(user.organizationId, params.id) }),
+    handler: async ({ services, user, params }): Promise<DesignListResponse> => ({ designs: await services.handoff.releases.designsForUser(user.organizationId, params.id, user) }),
   }),
   route({
     method: 'post',
@@ -59,9 +59,9 @@ export const designRoutes = [
     method: 'get',
     path: '/designs/:id',
     access: 'signed-in',
-    summary: 'read a design with its spec',
+    summary: 'read a design with its spec (firmware: as its latest approved release holds it)',
     params: idParamsSchema,
-    handler: ({ services, user, params }): Promise<DesignRecord> => services.designs.get(user.organizationId, params.id),
+    handler: ({ services, user, params }): Promise<DesignRecord> => services.handoff.releases.designForUser(user.organizationId, params.id, user),
   }),
   route({
     method: 'get',
@@ -70,7 +70,7 @@ export const designRoutes = [
     summary: "download a design's spec as a JSON file",
     params: idParamsSchema,
     handler: async ({ services, user, params, res }) => {
-      const design = await services.designs.get(user.organizationId, params.id);
+      const design = await services.handoff.releases.designForUser(user.organizationId, params.id, user);
       res
         .status(200)
         .attachment(`${design.spec.name}.spec.json`)
