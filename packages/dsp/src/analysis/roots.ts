@@ -2,6 +2,11 @@
  * Scalar root finding and maximisation used to refine grid crossings (Brent's method: R. P. Brent,
  * Algorithms for Minimization without Derivatives, 1973, Ch. 4 — the algorithm behind SciPy's brentq;
  * golden-section search, ibid. Ch. 5).
+ * Kept by hand: mathjs has no bracketing solver for a function, only polynomial roots. On the analog
+ * gain crossover of the 40 demo and audit specs (|L|² = 1 as a polynomial of degree 2–8 in ω²), mathjs
+ * eigs of the companion matrix took 1,245 µs a solve and polynomialRoot (degree ≤ 3 only) 44 µs, against
+ * 21 µs for brentRoot, and both moved the crossover by up to 4e-13 relative. The discrete, quantised,
+ * phase and −3 dB crossings would each need a polynomial built for them; Brent refines any response.
  */
 
 /** Root of f in [a, b] with f(a)·f(b) ≤ 0, to absolute tolerance xtol + 4·eps·|x|. */

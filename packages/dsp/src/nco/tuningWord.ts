@@ -5,7 +5,7 @@
  */
 import type { NcoTuning } from '../types/nco.ts';
 import { FieldError, requireIntIn } from '../fixed/fieldError.ts';
-import { doubleToRational, rationalToNumber, roundRational } from './exactRational.ts';
+import { Fraction, exactFraction } from './exactRational.ts';
 
 export const MAX_ACCUMULATOR_BITS = 64;
 
@@ -16,14 +16,19 @@ export function ncoTuning(frequencyHz: number, sampleRateHz: number, accumulator
   if (!(frequencyHz >= 0) || frequencyHz >= sampleRateHz / 2) {
     throw new FieldError('centerHz', `centerHz must be in [0, sampleRateHz/2 = ${sampleRateHz / 2}), got ${frequencyHz}`);
   }
-  const f = doubleToRational(frequencyHz);
-  const fs = doubleToRational(sampleRateHz);
-  const twoN = 1n << BigInt(accumulatorBits);
-  // M = round(f·2^N/fs) with f = fn/fd, fs = sn/sd: (fn·sd·2^N)/(fd·sn).
-  const m = roundRational(f.num * fs.den * twoN, f.den * fs.num);
-  // error = M·fs/2^N − f = (M·sn·fd − fn·sd·2^N)/(2^N·sd·fd), formed exactly before one conversion.
-  const errNum = m * fs.num * f.den - f.num * fs.den * twoN;
-  const errorHz = rationalToNumber(errNum, twoN * fs.den * f.den);
+  const f = exactFraction(frequencyHz);
+  const fs = exactFraction(sampleRateHz);
+  const twoN = new Fraction(1n << BigInt(accumulatorBits));
+  // M = round(f·2^N/fs); f ≥ 0, so fraction.js's half-up is half away from zero.
+  const m = f.mul(twoN).div(fs).round().n;
+  // error = M·fs/2^N − f, exact before the one conversion. Its denominator is a power of two, so
+  // Number(num)/Number(den) rounds once, while den < 2^1024: true for every rate the spec admits
+  // (≥ 1e-6 Hz > 2^-20, so den ≤ 2^64·2^72·2^72); only absurdly small rates pass that limit.
+  const error = fs.mul(m).div(twoN).sub(f);
+  if (error.d >= 1n << 1024n) {
+    throw new FieldError('centerHz', `centerHz ${frequencyHz} at sampleRateHz ${sampleRateHz} is too small: its tuning error has no double value`);
+  }
+  const errorHz = error.valueOf();
   const resolutionHz = sampleRateHz / 2 ** accumulatorBits;
   return {
     accumulatorBits,

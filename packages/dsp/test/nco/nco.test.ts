@@ -35,6 +35,16 @@ describe('ncoTuning (TRG71: M = round(f·2^N/fs), f = M·fs/2^N)', () => {
     }
   });
 
+  it('gives the exact error −f when the word rounds to 0, and refuses a frequency whose error has no double', () => {
+    // M = round(1e-10·2^32/1) = 0: the accumulator stands still, so the error is exactly −f (by hand).
+    const still = ncoTuning(1e-10, 1, 32);
+    expect(still.tuningWord).toBe(0);
+    expect(still.errorHz).toBe(-1e-10);
+    // At 1e-300 Hz the word is 0 again and the error is −1e-300 exactly, but as a reduced fraction its
+    // denominator is 2^1049 (Python: Fraction(1e-300)), past the largest double: an error, not a number.
+    expect(() => ncoTuning(1e-300, 1, 64)).toThrow(/centerHz/);
+  });
+
   it('rejects a centre frequency at or above Nyquist, naming the field', () => {
     expect(() => ncoTuning(60e6, 100e6, 32)).toThrow(/centerHz/);
     expect(() => ncoTuning(1e6, 100e6, 65)).toThrow(/nco.accumulatorBits/);
