@@ -58,7 +58,7 @@ function ensurePnpm() {
 /** A digest of everything that decides what pnpm installs; unchanged digest = nothing to do. */
 function installDigest() {
   const hash = createHash('sha256');
-  for (const file of ['pnpm-lock.yaml', 'pnpm-workspace.yaml', 'package.json', 'packages/dsp/package.json', 'packages/api/package.json', 'packages/app/package.json']) {
+  for (const file of ['pnpm-lock.yaml', 'pnpm-workspace.yaml', 'package.json', 'packages/dsp/package.json', 'packages/contract/package.json', 'packages/api/package.json', 'packages/app/package.json']) {
     const full = path.join(ROOT, file);
     hash.update(file).update(existsSync(full) ? readFileSync(full) : '');
   }

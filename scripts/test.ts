@@ -36,11 +36,13 @@ type Suite = CheckSuite | VitestSuite;
 
 const SUITES: readonly Suite[] = [
   { name: 'types: dsp', kind: 'check', cwd: 'packages/dsp', command: ['pnpm', 'exec', 'tsc', '-p', '.'] },
+  { name: 'types: contract', kind: 'check', cwd: 'packages/contract', command: ['pnpm', 'exec', 'tsc', '-p', '.'] },
   { name: 'types: api', kind: 'check', cwd: 'packages/api', command: ['pnpm', 'exec', 'tsc', '-p', '.'] },
   { name: 'types: app', kind: 'check', cwd: 'packages/app', command: ['pnpm', 'exec', 'vue-tsc', '--noEmit', '-p', 'tsconfig.json'] },
   { name: 'types: scripts', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'scripts'] },
   { name: 'types: tests', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'tests'] },
   { name: 'dsp', kind: 'vitest', cwd: 'packages/dsp', config: 'vitest.config.ts' },
+  { name: 'contract', kind: 'vitest', cwd: 'packages/contract', config: 'vitest.config.ts' },
   { name: 'api', kind: 'vitest', cwd: 'packages/api', config: 'vitest.config.ts' },
   { name: 'app', kind: 'vitest', cwd: 'packages/app', config: 'vitest.config.ts' },
   { name: 'foundation', kind: 'vitest', cwd: '.', config: 'tests/vitest.config.ts' },

@@ -15,7 +15,7 @@ import { mainsSyncSpec } from '@loopwright/dsp';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { dbEnv, loadConfig } from '../src/config.ts';
-import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../src/contract.ts';
+import { CSRF_HEADER, CSRF_HEADER_VALUE } from '@loopwright/contract';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
 import { DEMO_PASSWORD, seedDemo } from '../src/seed.ts';
 

@@ -1,4 +1,4 @@
-import type { ErrorCode } from './contract.ts';
+import type { ErrorCode } from '@loopwright/contract';
 
 /**
  * A domain error with a machine-readable code. Services throw these; one middleware

@@ -1,7 +1,7 @@
 import bcrypt from 'bcryptjs';
 import { ifFmDemodSpec, mainsSyncSpec, ultrasonicSinglePoleSpec, type LoopSpec } from '@loopwright/dsp';
 import type { DataSource } from 'typeorm';
-import type { Role } from './contract.ts';
+import type { Role } from '@loopwright/contract';
 import { AuditEntry, Design, Organization, Project, User } from './entities/index.ts';
 
 /** Demo database only (DESIGN.md, "Demo scenario"); the README and the start command print these. */

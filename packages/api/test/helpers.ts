@@ -5,7 +5,7 @@ import type { DataSource } from 'typeorm';
 import { afterAll, beforeAll, inject } from 'vitest';
 import { createApp, type BuiltApp } from '../src/app.ts';
 import { dbEnv, loadConfig, type Config } from '../src/config.ts';
-import { CSRF_HEADER, CSRF_HEADER_VALUE, ROLES, type Role } from '../src/contract.ts';
+import { CSRF_HEADER, CSRF_HEADER_VALUE, ROLES, type Role } from '@loopwright/contract';
 import { createDataSource } from '../src/data-source.ts';
 import { Organization, User } from '../src/entities/index.ts';
 import type { TestDb } from './db.ts';

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { mainsSyncSpec, ultrasonicSinglePoleSpec } from '@loopwright/dsp';
 import request from 'supertest';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { ROLES, type Role } from '../src/contract.ts';
+import { ROLES, type Role } from '@loopwright/contract';
 import { createTestOrg, csrf, PASSWORD, signedInAgent, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 import { releaseFixtures, type ReleaseFixtures } from './releases/fixtures.ts';
 

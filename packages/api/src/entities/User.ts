@@ -9,7 +9,7 @@ import {
   UpdateDateColumn,
   type Relation,
 } from 'typeorm';
-import { ROLES, type Role } from '../contract.ts';
+import { ROLES, type Role } from '@loopwright/contract';
 import { Organization } from './Organization.ts';
 
 @Entity({ name: 'users' })

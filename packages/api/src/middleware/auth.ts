@@ -6,7 +6,7 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { DataSource } from 'typeorm';
 import type { Config } from '../config.ts';
-import type { SessionUser } from '../contract.ts';
+import type { SessionUser } from '@loopwright/contract';
 import { AppError } from '../errors.ts';
 import { MariaDbRateLimitStore } from '../services/rateLimitStore.ts';
 import type { UserService } from '../services/users.ts';

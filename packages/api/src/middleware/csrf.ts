@@ -1,5 +1,5 @@
 import type { RequestHandler } from 'express';
-import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../contract.ts';
+import { CSRF_HEADER, CSRF_HEADER_VALUE } from '@loopwright/contract';
 import { AppError } from '../errors.ts';
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);

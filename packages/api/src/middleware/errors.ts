@@ -1,5 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import type { ErrorBody, ErrorCode } from '../contract.ts';
+import type { ErrorBody, ErrorCode } from '@loopwright/contract';
 import { AppError } from '../errors.ts';
 
 /** mysql2 / Node network codes meaning "the database is not reachable right now". */

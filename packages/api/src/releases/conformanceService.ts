@@ -2,10 +2,10 @@
 import { createHash } from 'node:crypto';
 import type { GoldenVectors } from '@loopwright/dsp';
 import type { DataSource } from 'typeorm';
-import type { SessionUser } from '../contract.ts';
+import type { SessionUser } from '@loopwright/contract';
 import { AppError, invalidInput } from '../errors.ts';
 import type { AuditService } from '../services/audit.ts';
-import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from './contract.ts';
+import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from '@loopwright/contract';
 import { ConformanceRun } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
 import { fileContents } from './repository.ts';

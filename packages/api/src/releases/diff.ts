@@ -2,7 +2,7 @@
  * The difference between two releases of a design as data: every spec field that changed (dot
  * paths), every integer code that changed (by constant name, from the manifests) and the margins.
  */
-import type { ReleaseDiff } from './contract.ts';
+import type { ReleaseDiff } from '@loopwright/contract';
 
 type Change = ReleaseDiff['spec'][number];
 

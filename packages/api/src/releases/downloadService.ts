@@ -4,11 +4,11 @@
  */
 import type { Response } from 'express';
 import type { DataSource, EntityManager } from 'typeorm';
-import type { SessionUser } from '../contract.ts';
+import type { SessionUser } from '@loopwright/contract';
 import { notFound } from '../errors.ts';
 import { assertDesignName } from '../render/identifiers.ts';
 import type { AuditService } from '../services/audit.ts';
-import type { DownloadRecord } from './contract.ts';
+import type { DownloadRecord } from '@loopwright/contract';
 import { bundleFolder, writeBundle } from './bundle.ts';
 import { ReleaseDownload } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';

@@ -1,6 +1,6 @@
 /** Plain records of the release tables: what leaves the data layer (entities never do). */
-import type { ReleaseFileRecord, ReleaseSummary, ReviewRecord } from './contract.ts';
-import type { ReleaseState } from './stateMachine.ts';
+import type { ReleaseFileRecord, ReleaseSummary, ReviewRecord } from '@loopwright/contract';
+import type { ReleaseState } from '@loopwright/contract';
 
 export interface ReleaseRow {
   id: number;

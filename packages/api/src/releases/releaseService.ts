@@ -6,19 +6,20 @@
  * and never collide; the unique (designId, number) index is the database's second line of defence.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import type { DesignRecord, DesignSummary, SessionUser } from '../contract.ts';
+import type { DesignRecord, DesignSummary, SessionUser } from '@loopwright/contract';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
 import { renderArtifacts, type Manifest, type RenderedRelease } from '../render/artifacts.ts';
 import { CAUTION } from '../render/caution.ts';
 import { computeRelease, RenderInputError } from '../render/compute.ts';
-import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from './contract.ts';
+import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from '@loopwright/contract';
 import { releaseDiff } from './diff.ts';
 import { Release, ReleaseFile } from './entities/index.ts';
 import { releaseLabel, toFileRecord, toReviewRecord, toSummary, type ReleaseRow } from './records.ts';
 import { fileContents, findRelease, listFiles, listReleases, listReviews, releaseStateTransaction } from './repository.ts';
-import { allowedEvents, transition, type ReleaseEvent } from './stateMachine.ts';
+import type { ReleaseEvent } from '@loopwright/contract';
+import { allowedEvents, transition } from './stateMachine.ts';
 import { canSee, FIRMWARE_VISIBLE_STATES, seesAllStates } from './visibility.ts';
 
 export type Actor = AuditActor & { id: number };

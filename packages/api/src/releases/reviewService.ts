@@ -8,21 +8,21 @@
  * under the release's organisation when the link names one.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import type { SessionUser } from '../contract.ts';
+import type { SessionUser } from '@loopwright/contract';
 import { Design } from '../entities/Design.ts';
 import { User } from '../entities/User.ts';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { HandoffConfig } from '../mail/config.ts';
 import type { MailMessage, MailOutbox } from '../mail/outbox.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
-import type { ReleaseRecord, ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView, ReviewRequest } from './contract.ts';
+import type { ReleaseRecord, ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView, ReviewRequest } from '@loopwright/contract';
 import { ReleaseReview } from './entities/index.ts';
 import { releaseApprovedMail, reviewRequestMail } from './mails.ts';
 import { releaseLabel, type ReleaseRow } from './records.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
 import { findRelease, releaseStateTransaction } from './repository.ts';
 import { issueToken, parseToken, tokenMatches } from './reviewToken.ts';
-import type { ReleaseState } from './stateMachine.ts';
+import type { ReleaseState } from '@loopwright/contract';
 
 export type RefusalReason = 'malformed' | 'unknown' | 'tampered' | 'replayed' | 'expired' | 'foreign' | 'disabled' | 'revoked';
 

@@ -1,7 +1,7 @@
 /** Routes of releases, reviews, review links, downloads and conformance (paths relative to /api). */
 import type { RequestHandler } from 'express';
 import { z } from 'zod';
-import { idParamsSchema } from '../contract.ts';
+import { idParamsSchema } from '@loopwright/contract';
 import { route } from '../routes/table.ts';
 import {
   CONFORMANCE_UPLOAD_FIELD,
@@ -14,7 +14,7 @@ import {
   reviewTokenParamsSchema,
   type ConformanceListResponse,
   type ReleaseListResponse,
-} from './contract.ts';
+} from '@loopwright/contract';
 
 const DESIGNER = ['designer'] as const;
 const UPLOADERS = ['firmware', 'designer'] as const;

@@ -3,8 +3,8 @@
  * state; an account that is firmware only sees approved releases. A hidden release answers 404, as
  * if it did not exist, so its existence does not leak.
  */
-import type { SessionUser } from '../contract.ts';
-import type { ReleaseState } from './stateMachine.ts';
+import type { SessionUser } from '@loopwright/contract';
+import type { ReleaseState } from '@loopwright/contract';
 
 export const FIRMWARE_VISIBLE_STATES: readonly ReleaseState[] = ['approved'];
 

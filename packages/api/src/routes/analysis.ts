@@ -6,7 +6,7 @@ import {
   specSimulationRequestSchema,
   type AnalysisResponse,
   type SimulationResponse,
-} from '../contract.ts';
+} from '@loopwright/contract';
 import { route } from './table.ts';
 
 const ANALYSTS = ['designer', 'reviewer'] as const;

@@ -1,4 +1,4 @@
-import { auditQuerySchema, type AuditListResponse } from '../contract.ts';
+import { auditQuerySchema, type AuditListResponse } from '@loopwright/contract';
 import { route } from './table.ts';
 
 export const auditRoutes = [

@@ -8,7 +8,7 @@ import {
   type DesignListResponse,
   type DesignRecord,
   type TemplateListResponse,
-} from '../contract.ts';
+} from '@loopwright/contract';
 import { invalidInput } from '../errors.ts';
 import { listTemplates } from '../services/templates.ts';
 import { route } from './table.ts';

@@ -5,7 +5,7 @@ import {
   projectUpdateRequestSchema,
   type ProjectListResponse,
   type ProjectRecord,
-} from '../contract.ts';
+} from '@loopwright/contract';
 import { route } from './table.ts';
 
 const DESIGNER = ['designer'] as const;

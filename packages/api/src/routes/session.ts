@@ -1,5 +1,5 @@
 import type { RequestHandler } from 'express';
-import { passwordChangeRequestSchema, signInRequestSchema, type SessionResponse, type SessionUser } from '../contract.ts';
+import { passwordChangeRequestSchema, signInRequestSchema, type SessionResponse, type SessionUser } from '@loopwright/contract';
 import { unauthenticated } from '../errors.ts';
 import type { Authenticator } from '../middleware/auth.ts';
 import { route, type RouteSpec } from './table.ts';

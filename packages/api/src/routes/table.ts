@@ -1,7 +1,7 @@
 import express, { type Request, type RequestHandler, type Response, type Router } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import type { Role, SessionUser } from '../contract.ts';
+import type { Role, SessionUser } from '@loopwright/contract';
 import { AppError, forbidden, invalidInput, unauthenticated } from '../errors.ts';
 import { requireCsrfHeader } from '../middleware/csrf.ts';
 import type { AuditActor } from '../services/audit.ts';

@@ -1,4 +1,4 @@
-import { idParamsSchema, userCreateRequestSchema, userUpdateRequestSchema, type UserListResponse, type UserRecord } from '../contract.ts';
+import { idParamsSchema, userCreateRequestSchema, userUpdateRequestSchema, type UserListResponse, type UserRecord } from '@loopwright/contract';
 import { route } from './table.ts';
 
 const ADMIN = ['admin'] as const;

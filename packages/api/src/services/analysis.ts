@@ -1,5 +1,5 @@
 import type { AnalysisResult, LoopSpec, SpecIssue } from '@loopwright/dsp';
-import type { AnalysisResponse, SimulationRequest, SimulationResponse } from '../contract.ts';
+import type { AnalysisResponse, SimulationRequest, SimulationResponse } from '@loopwright/contract';
 import { invalidInput } from '../errors.ts';
 import type { ComputePool } from './compute.ts';
 import type { DesignService } from './designs.ts';

@@ -1,5 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import type { AuditEntryRecord, AuditQuery } from '../contract.ts';
+import type { AuditEntryRecord, AuditQuery } from '@loopwright/contract';
 import { AuditEntry, User } from '../entities/index.ts';
 
 /** Who did something and from where; `null` actor for events without a signed-in person. */

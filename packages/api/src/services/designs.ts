@@ -1,7 +1,7 @@
 import { parseLoopSpec, type LoopSpec } from '@loopwright/dsp';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { z } from 'zod';
-import type { DesignDuplicateRequest, DesignRecord, DesignSummary, designCreateRequestSchema, designUpdateRequestSchema } from '../contract.ts';
+import type { DesignDuplicateRequest, DesignRecord, DesignSummary, designCreateRequestSchema, designUpdateRequestSchema } from '@loopwright/contract';
 import { Design } from '../entities/index.ts';
 import { AppError, conflict, invalidInput, notFound, staleRevision } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';

@@ -1,5 +1,5 @@
 import type { DataSource } from 'typeorm';
-import type { HealthResponse } from '../contract.ts';
+import type { HealthResponse } from '@loopwright/contract';
 
 const API_VERSION = '0.1.0';
 /** A health probe must answer even when MariaDB hangs rather than refuses: give up after this. */

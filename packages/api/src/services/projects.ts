@@ -1,6 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { z } from 'zod';
-import type { projectCreateRequestSchema, ProjectListQuery, ProjectRecord, ProjectUpdateRequest } from '../contract.ts';
+import type { projectCreateRequestSchema, ProjectListQuery, ProjectRecord, ProjectUpdateRequest } from '@loopwright/contract';
 import { Project } from '../entities/index.ts';
 import { notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';

@@ -1,5 +1,5 @@
 import { exampleSpecs, ultrasonicSinglePoleSpec, type LoopSpec } from '@loopwright/dsp';
-import type { TemplateRecord } from '../contract.ts';
+import type { TemplateRecord } from '@loopwright/contract';
 
 /** Design templates are the dsp package's example specs (the demo scenario of DESIGN.md). */
 export function listTemplates(): TemplateRecord[] {

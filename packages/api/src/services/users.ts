@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
-import type { SessionUser, UserCreateRequest, UserRecord, UserUpdateRequest } from '../contract.ts';
+import type { SessionUser, UserCreateRequest, UserRecord, UserUpdateRequest } from '@loopwright/contract';
 import { User } from '../entities/index.ts';
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';

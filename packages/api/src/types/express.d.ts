@@ -1,4 +1,4 @@
-import type { SessionUser } from '../contract.ts';
+import type { SessionUser } from '@loopwright/contract';
 
 declare global {
   namespace Express {

@@ -3,7 +3,8 @@ import { VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
 import { valueChanges } from '../../src/releases/diff.ts';
 import { issueToken, parseToken, tokenHash, tokenMatches } from '../../src/releases/reviewToken.ts';
-import { allowedEvents, RELEASE_EVENTS, RELEASE_STATES, transition } from '../../src/releases/stateMachine.ts';
+import { RELEASE_EVENTS, RELEASE_STATES } from '@loopwright/contract';
+import { allowedEvents, transition } from '../../src/releases/stateMachine.ts';
 import { compareWithGolden, goldenFromRows, parseVectorCsv } from '../../src/releases/vectorCompare.ts';
 
 describe('release state machine', () => {

@@ -1,6 +1,6 @@
 /**
- * Request and response types of the API, taken from the API package's own contract modules (type
- * imports only: nothing of the server reaches the browser bundle), plus the few shapes the app adds.
+ * Request and response types of the API, from the contract package (@loopwright/contract) that the
+ * API validates with, plus the few shapes the app adds. The app never imports the API package.
  */
 import type { LoopSpec, LoopSpecInput } from '@loopwright/dsp';
 import type {
@@ -14,7 +14,7 @@ import type {
   UserCreateRequest,
   UserRecord,
   UserUpdateRequest,
-} from '../../../api/src/contract.ts';
+} from '@loopwright/contract';
 
 export type {
   ConformanceRecord,
@@ -28,15 +28,12 @@ export type {
   ReviewLinkView,
   ReviewRecord,
   ReviewRequest,
-} from '../../../api/src/releases/contract.ts';
-export type { ReleaseState, ReleaseEvent } from '../../../api/src/releases/stateMachine.ts';
+  ReleaseState,
+  ReleaseEvent,
+} from '@loopwright/contract';
+export { ROLES, isRole } from '@loopwright/contract';
 
-export const ROLES = ['designer', 'reviewer', 'firmware', 'admin'] as const satisfies readonly ContractRole[];
 export type Role = ContractRole;
-
-export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
-}
 
 export type SessionUser = ContractSessionUser;
 

@@ -1,7 +1,7 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 import { Design } from '../../entities/Design.ts';
 import { User } from '../../entities/User.ts';
-import { RELEASE_STATES, type ReleaseState } from '../stateMachine.ts';
+import { RELEASE_STATES, type ReleaseState } from '@loopwright/contract';
 
 /**
  * A cut release: v<number> of a design. Numbers come from the database (unique per design, taken

@@ -1,15 +1,9 @@
 /**
- * Request and response schemas of releases, reviews, review links, downloads and conformance.
- * Pure zod (no node imports) so the app can import the types; re-exported by ../contract.ts.
+ * Releases, reviews, review links, downloads and conformance (/api/releases/..., /api/review-links/:token).
  */
 import { z } from 'zod';
-import { RELEASE_EVENTS, RELEASE_STATES } from './stateMachine.ts';
-
-const idSchema = z.coerce.number().int().min(1).max(2_147_483_647);
-const sha256Schema = z.string().regex(/^[0-9a-f]{64}$/, 'must be a SHA-256 in lower-case hex');
-
-export const releaseStateSchema = z.enum(RELEASE_STATES);
-export const releaseEventSchema = z.enum(RELEASE_EVENTS);
+import { idParamsSchema, idSchema, sha256Schema } from './common.ts';
+import { releaseEventSchema, releaseStateSchema, reviewDecisionValueSchema } from './vocabulary.ts';
 
 export const releaseFileRecordSchema = z.object({
   name: z.string(),
@@ -23,7 +17,7 @@ export const reviewRecordSchema = z.object({
   id: z.number().int(),
   reviewerId: z.number().int(),
   reviewerName: z.string(),
-  decision: z.enum(['approve', 'request-changes']).nullable(),
+  decision: reviewDecisionValueSchema.nullable(),
   comment: z.string().nullable(),
   decidedAt: z.string().nullable(),
   expiresAt: z.string(),
@@ -65,7 +59,7 @@ export type ReleaseRecord = z.infer<typeof releaseRecordSchema>;
 export const releaseListResponseSchema = z.object({ releases: z.array(releaseSummarySchema) });
 export type ReleaseListResponse = z.infer<typeof releaseListResponseSchema>;
 
-export const releaseParamsSchema = z.strictObject({ id: idSchema });
+export const releaseParamsSchema = idParamsSchema;
 export const releaseFileParamsSchema = z.strictObject({
   id: idSchema,
   name: z.string().regex(/^[A-Za-z0-9_.-]{1,80}$/, 'must be a file name of the release'),
@@ -85,7 +79,7 @@ export type ReviewRequest = z.infer<typeof reviewRequestSchema>;
 export const reviewTokenParamsSchema = z.strictObject({ token: z.string().min(1).max(200) });
 
 export const reviewDecisionSchema = z.strictObject({
-  decision: z.enum(['approve', 'request-changes']),
+  decision: reviewDecisionValueSchema,
   comment: z.string().max(4000).optional(),
   /** The manifest hash the reviewer read; a decision on other content is refused. */
   manifestSha256: sha256Schema,
@@ -102,7 +96,7 @@ export const reviewLinkViewSchema = z.object({
 export type ReviewLinkView = z.infer<typeof reviewLinkViewSchema>;
 
 export const reviewDecisionResponseSchema = z.object({
-  decision: z.enum(['approve', 'request-changes']),
+  decision: reviewDecisionValueSchema,
   state: releaseStateSchema,
   approvals: z.number().int(),
   approvalsRequired: z.number().int(),

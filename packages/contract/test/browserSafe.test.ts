@@ -1,10 +1,11 @@
+/// <reference types="node" />
 import fs from 'node:fs/promises';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 
 const SRC = path.resolve(import.meta.dirname, '../src');
 
-/** Every module contract.ts pulls in, following relative imports (the browser bundles all of them). */
+/** Every module index.ts pulls in, following relative imports (the browser bundles all of them). */
 async function importClosure(file: string, seen = new Set<string>()): Promise<{ files: Set<string>; packages: Set<string> }> {
   const packages = new Set<string>();
   seen.add(file);
@@ -21,10 +22,16 @@ async function importClosure(file: string, seen = new Set<string>()): Promise<{ 
   return { files: seen, packages };
 }
 
-describe('contract.ts', () => {
+describe('the contract package', () => {
   it('imports only browser-safe packages (zod and the dsp library), so the app can bundle it', async () => {
-    const { files, packages } = await importClosure(path.join(SRC, 'contract.ts'));
+    const { files, packages } = await importClosure(path.join(SRC, 'index.ts'));
     expect(files.size).toBeGreaterThan(1);
     expect([...packages].sort()).toEqual(['@loopwright/dsp', 'zod']);
+  });
+
+  it('reaches every module of src/ from index.ts, so nothing is defined here that the package does not export', async () => {
+    const { files } = await importClosure(path.join(SRC, 'index.ts'));
+    const all = (await fs.readdir(SRC)).filter((f) => f.endsWith('.ts')).map((f) => path.join(SRC, f));
+    expect([...files].sort()).toEqual(all.sort());
   });
 });

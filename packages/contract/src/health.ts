@@ -1,0 +1,9 @@
+import { z } from 'zod';
+
+export const healthResponseSchema = z.object({
+  status: z.enum(['ok', 'degraded']),
+  database: z.enum(['up', 'down']),
+  databaseLatencyMs: z.number().nullable(),
+  version: z.string(),
+});
+export type HealthResponse = z.infer<typeof healthResponseSchema>;
