@@ -62,3 +62,9 @@ export const userUpdateRequestSchema = z
   })
   .refine((body) => Object.keys(body).length > 0, 'give at least one of displayName, roles, disabled');
 export type UserUpdateRequest = z.infer<typeof userUpdateRequestSchema>;
+
+/** GET /api/reviewers: the enabled accounts holding the reviewer role, for a designer to name. */
+export const reviewerChoiceSchema = userIdentitySchema.pick({ id: true, displayName: true, email: true });
+export type ReviewerChoice = z.infer<typeof reviewerChoiceSchema>;
+export const reviewerListResponseSchema = z.object({ reviewers: z.array(reviewerChoiceSchema) });
+export type ReviewerListResponse = z.infer<typeof reviewerListResponseSchema>;

@@ -152,3 +152,5 @@ export const downloadRecordSchema = z.object({
   at: z.string(),
 });
 export type DownloadRecord = z.infer<typeof downloadRecordSchema>;
+export const downloadListResponseSchema = z.object({ downloads: z.array(downloadRecordSchema) });
+export type DownloadListResponse = z.infer<typeof downloadListResponseSchema>;

@@ -13,6 +13,7 @@ import {
   reviewRequestSchema,
   reviewTokenParamsSchema,
   type ConformanceListResponse,
+  type DownloadListResponse,
   type ReleaseListResponse,
 } from '@loopwright/contract';
 
@@ -94,7 +95,7 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
     access: ['designer', 'admin'],
     summary: 'the download log of a release',
     params: releaseParamsSchema,
-    handler: async ({ services, user, params }) => ({ downloads: await services.handoff.downloads.list(user.organizationId, params.id, user) }),
+    handler: async ({ services, user, params }): Promise<DownloadListResponse> => ({ downloads: await services.handoff.downloads.list(user.organizationId, params.id, user) }),
   }),
   route({
     method: 'post',

@@ -1,4 +1,4 @@
-import { idParamsSchema, userCreateRequestSchema, userUpdateRequestSchema, type UserListResponse, type UserRecord } from '@loopwright/contract';
+import { idParamsSchema, userCreateRequestSchema, userUpdateRequestSchema, type ReviewerListResponse, type UserListResponse, type UserRecord } from '@loopwright/contract';
 import { route } from './table.ts';
 
 const ADMIN = ['admin'] as const;
@@ -34,7 +34,7 @@ export const userRoutes = [
     path: '/reviewers',
     access: ['designer'],
     summary: 'enabled accounts holding the reviewer role (id, name, e-mail), so a designer can name reviewers',
-    handler: async ({ services, user }) => ({
+    handler: async ({ services, user }): Promise<ReviewerListResponse> => ({
       reviewers: (await services.users.list(user.organizationId))
         .filter((u) => u.roles.includes('reviewer') && !u.disabled)
         .map((u) => ({ id: u.id, displayName: u.displayName, email: u.email })),

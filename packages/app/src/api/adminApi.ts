@@ -1,13 +1,13 @@
+import { auditListResponseSchema, userListResponseSchema, userRecordSchema } from '@loopwright/contract';
 import { api } from './client.ts';
-import type { AuditEntry, AuditQuery, CreateUserRequest, UpdateUserRequest, UserAccount } from './types.ts';
+import type { AuditQuery, CreateUserRequest, UpdateUserRequest } from './types.ts';
 
 export const usersApi = {
-  list: () => api.request<{ users: UserAccount[] }>('/users').then((b) => b.users),
-  create: (request: CreateUserRequest) => api.request<UserAccount>('/users', { method: 'POST', body: request }),
-  update: (id: number, request: UpdateUserRequest) => api.request<UserAccount>(`/users/${id}`, { method: 'PATCH', body: request }),
+  list: () => api.request('/users', userListResponseSchema).then((b) => b.users),
+  create: (request: CreateUserRequest) => api.request('/users', userRecordSchema, { method: 'POST', body: request }),
+  update: (id: number, request: UpdateUserRequest) => api.request(`/users/${id}`, userRecordSchema, { method: 'PATCH', body: request }),
 };
 
 export const auditApi = {
-  list: (query: AuditQuery = {}) =>
-    api.request<{ entries: AuditEntry[] }>('/audit', { query: { ...query } }).then((b) => b.entries),
+  list: (query: AuditQuery = {}) => api.request('/audit', auditListResponseSchema, { query: { ...query } }).then((b) => b.entries),
 };

@@ -2,7 +2,10 @@
  * The one HTTP client of the app: owns the base URL, JSON encoding and the error shape.
  * It never shows UI messages; it throws ApiError and the views decide how to show it.
  * Server errors are `{ "error": { "code", "message", "field"? } }` (DESIGN.md "API shape").
+ * Every reply the app reads is parsed with its schema from @loopwright/contract, so a server that
+ * breaks the contract fails here, naming the field, instead of somewhere in a view.
  */
+import type { z } from 'zod';
 
 export class ApiError extends Error {
   readonly status: number;
@@ -33,7 +36,10 @@ export interface RequestOptions {
 
 export interface ApiClient {
   readonly baseUrl: string;
-  request<T>(path: string, options?: RequestOptions): Promise<T>;
+  /** Call the API and parse its reply with the contract's schema for it. */
+  request<S extends z.ZodType>(path: string, response: S, options?: RequestOptions): Promise<z.output<S>>;
+  /** Call the API for its effect only; the reply's body is not read. */
+  send(path: string, options?: RequestOptions): Promise<void>;
   url(path: string, query?: RequestOptions['query']): string;
   /**
    * Be told of every 401 (a session that expired or was ended by an admin). The client only reports
@@ -47,19 +53,28 @@ type FetchFn = (input: string, init: RequestInit) => Promise<Response>;
 export function createApiClient(baseUrl = '/api', fetchFn: FetchFn = (i, o) => fetch(i, o)): ApiClient {
   const url = (path: string, query?: RequestOptions['query']): string => buildUrl(baseUrl, path, query);
   const listeners = new Set<(path: string) => void>();
+  async function call(path: string, options: RequestOptions): Promise<{ status: number; body: unknown }> {
+    let response: Response;
+    try {
+      response = await fetchFn(url(path, options.query), buildInit(options));
+    } catch (cause) {
+      if (isAbort(cause)) throw cause;
+      throw new ApiError(0, 'network', 'The server could not be reached. Check the connection and try again.');
+    }
+    if (response.status === 401) for (const listener of listeners) listener(path);
+    return { status: response.status, body: await readResponse(response) };
+  }
   return {
     baseUrl,
     url,
-    async request<T>(path: string, options: RequestOptions = {}): Promise<T> {
-      let response: Response;
-      try {
-        response = await fetchFn(url(path, options.query), buildInit(options));
-      } catch (cause) {
-        if (isAbort(cause)) throw cause;
-        throw new ApiError(0, 'network', 'The server could not be reached. Check the connection and try again.');
-      }
-      if (response.status === 401) for (const listener of listeners) listener(path);
-      return readResponse<T>(response);
+    async request<S extends z.ZodType>(path: string, schema: S, options: RequestOptions = {}): Promise<z.output<S>> {
+      const reply = await call(path, options);
+      const parsed = schema.safeParse(reply.body);
+      if (!parsed.success) throw contractError(reply.status, path, parsed.error);
+      return parsed.data;
+    },
+    async send(path: string, options: RequestOptions = {}): Promise<void> {
+      await call(path, options);
     },
     onUnauthenticated(listener) {
       listeners.add(listener);
@@ -91,12 +106,20 @@ function buildInit(options: RequestOptions): RequestInit {
   return init;
 }
 
-async function readResponse<T>(response: Response): Promise<T> {
-  if (response.status === 204) return undefined as T;
+async function readResponse(response: Response): Promise<unknown> {
+  if (response.status === 204) return undefined;
   const text = await response.text();
   const body = parseJson(text);
-  if (response.ok) return body as T;
+  if (response.ok) return body;
   throw toApiError(response.status, body, text);
+}
+
+/** A successful reply that does not match the contract: the server and the app disagree. */
+function contractError(status: number, path: string, error: z.ZodError): ApiError {
+  const issue = error.issues[0];
+  const field = issue ? issue.path.map(String).join('.') : '';
+  const where = field === '' ? 'the reply' : field;
+  return new ApiError(status, 'contract', `The server's reply to ${path} does not match what this app expects (${where}: ${issue?.message ?? 'invalid'}). Reload the page; if it persists, the app and the server are out of step.`, field || undefined);
 }
 
 function parseJson(text: string): unknown {

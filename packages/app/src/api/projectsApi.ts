@@ -1,17 +1,17 @@
+import {
+  designListResponseSchema,
+  designSummarySchema,
+  projectListResponseSchema,
+  projectRecordSchema,
+  templateListResponseSchema,
+  type DesignCreateRequest,
+  type ProjectCreateRequest,
+} from '@loopwright/contract';
 import { api } from './client.ts';
-import type { DesignSummary, Project } from './types.ts';
 
-export interface CreateProjectRequest {
-  readonly name: string;
-  readonly description: string;
-}
-
+export type CreateProjectRequest = ProjectCreateRequest;
 /** A design starts from a template (GET /api/templates), a full spec, or blank. */
-export interface CreateDesignRequest {
-  readonly name: string;
-  readonly templateId?: string;
-  readonly spec?: unknown;
-}
+export type CreateDesignRequest = DesignCreateRequest;
 
 export interface DesignTemplate {
   readonly id: string;
@@ -20,11 +20,10 @@ export interface DesignTemplate {
 }
 
 export const projectsApi = {
-  list: () => api.request<{ projects: Project[] }>('/projects').then((b) => b.projects),
-  create: (request: CreateProjectRequest) => api.request<Project>('/projects', { method: 'POST', body: request }),
-  templates: () => api.request<{ templates: DesignTemplate[] }>('/templates').then((b) => b.templates),
-  designs: (id: number) =>
-    api.request<{ designs: DesignSummary[] }>(`/projects/${id}/designs`).then((b) => b.designs),
+  list: () => api.request('/projects', projectListResponseSchema).then((b) => b.projects),
+  create: (request: CreateProjectRequest) => api.request('/projects', projectRecordSchema, { method: 'POST', body: request }),
+  templates: (): Promise<DesignTemplate[]> => api.request('/templates', templateListResponseSchema).then((b) => b.templates),
+  designs: (id: number) => api.request(`/projects/${id}/designs`, designListResponseSchema).then((b) => b.designs),
   createDesign: (id: number, request: CreateDesignRequest) =>
-    api.request<DesignSummary>(`/projects/${id}/designs`, { method: 'POST', body: request }),
+    api.request(`/projects/${id}/designs`, designSummarySchema, { method: 'POST', body: request }),
 };

@@ -1,10 +1,11 @@
+import { reviewDecisionResponseSchema, reviewLinkViewSchema } from '@loopwright/contract';
 import { api } from './client.ts';
-import type { ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView } from './types.ts';
+import type { ReviewDecisionRequest } from './types.ts';
 
 export const reviewLinksApi = {
   /** Reads only: the link stays unused until a decision is posted. */
-  read: (token: string) => api.request<ReviewLinkView>(`/review-links/${encodeURIComponent(token)}`),
-  /** A deliberate POST bound to the manifest hash the reviewer read (DESIGN.md flow, step 4). */
+  read: (token: string) => api.request(`/review-links/${encodeURIComponent(token)}`, reviewLinkViewSchema),
+  /** A deliberate POST bound to the manifest hash the reviewer read (DESIGN.md "The flow", step 4). */
   decide: (token: string, request: ReviewDecisionRequest) =>
-    api.request<ReviewDecisionResponse>(`/review-links/${encodeURIComponent(token)}`, { method: 'POST', body: request }),
+    api.request(`/review-links/${encodeURIComponent(token)}`, reviewDecisionResponseSchema, { method: 'POST', body: request }),
 };

@@ -1,22 +1,19 @@
+import { sessionResponseSchema } from '@loopwright/contract';
 import { api, ApiError } from './client.ts';
 import type { SessionUser, SignInRequest } from './types.ts';
 
 export const sessionApi = {
-  /** Who am I; null when nobody is signed in (the server may answer 401 or `{ user: null }`). */
+  /** Who am I; null when nobody is signed in (the server answers 401). */
   async current(): Promise<SessionUser | null> {
     try {
-      const body = await api.request<{ user: SessionUser | null } | undefined>('/session');
-      return body?.user ?? null;
+      return (await api.request('/session', sessionResponseSchema)).user;
     } catch (cause) {
       if (cause instanceof ApiError && cause.status === 401) return null;
       throw cause;
     }
   },
   async signIn(request: SignInRequest): Promise<SessionUser> {
-    const body = await api.request<{ user: SessionUser }>('/session', { method: 'POST', body: request });
-    return body.user;
+    return (await api.request('/session', sessionResponseSchema, { method: 'POST', body: request })).user;
   },
-  async signOut(): Promise<void> {
-    await api.request<void>('/session', { method: 'DELETE' });
-  },
+  signOut: (): Promise<void> => api.send('/session', { method: 'DELETE' }),
 };

@@ -2,7 +2,7 @@
  * Request and response types of the API, from the contract package (@loopwright/contract) that the
  * API validates with, plus the few shapes the app adds. The app never imports the API package.
  */
-import type { LoopSpec, LoopSpecInput } from '@loopwright/dsp';
+import type { LoopSpecInput } from '@loopwright/dsp';
 import type {
   AuditEntryRecord,
   AuditQuery as ContractAuditQuery,
@@ -28,6 +28,8 @@ export type {
   ReviewLinkView,
   ReviewRecord,
   ReviewRequest,
+  ReviewerChoice,
+  SignInRequest,
   ReleaseState,
   ReleaseEvent,
 } from '@loopwright/contract';
@@ -37,14 +39,9 @@ export type Role = ContractRole;
 
 export type SessionUser = ContractSessionUser;
 
-export interface SignInRequest {
-  readonly email: string;
-  readonly password: string;
-}
-
 export type Project = ProjectRecord;
 export type DesignSummary = ContractDesignSummary;
-export type Design = DesignRecord & { readonly spec: LoopSpec };
+export type Design = DesignRecord;
 
 export interface SaveDesignRequest {
   readonly spec?: LoopSpecInput;
@@ -59,9 +56,3 @@ export type UpdateUserRequest = Partial<UserUpdateRequest>;
 export type AuditEntry = AuditEntryRecord;
 export type AuditQuery = Partial<ContractAuditQuery>;
 
-/** A person who can be asked for review (GET /api/reviewers; admins may fall back to /api/users). */
-export interface ReviewerChoice {
-  readonly id: number;
-  readonly displayName: string;
-  readonly email: string;
-}
