@@ -1,5 +1,6 @@
 /**
- * `npm test`: type-checks every package, starts a MariaDB of its own (a fresh data directory, never
+ * `npm test`: type-checks every package, checks that every declared dependency is used and every used
+ * one declared (lib/dependency-check.ts), starts a MariaDB of its own (a fresh data directory, never
  * the one of `npm start`), runs every Vitest suite in turn, stops what it started, and ends with one
  * plain `N passed, N failed` line that adds up every suite (Vitest's own summary is not such a line).
  */
@@ -8,6 +9,7 @@ import { existsSync } from 'node:fs';
 import fs from 'node:fs/promises';
 import path from 'node:path';
 import { dbEnv } from '../packages/api/src/config.ts';
+import { DEPENDENCY_CHECK_COMMAND } from './lib/dependency-check.ts';
 import { startMariaDb, type MariaDbInstance } from './lib/mariadb.ts';
 import { ROOT, onShutdown } from './lib/process.ts';
 import { StartupError } from './lib/startup-error.ts';
@@ -41,6 +43,7 @@ const SUITES: readonly Suite[] = [
   { name: 'types: app', kind: 'check', cwd: 'packages/app', command: ['pnpm', 'exec', 'vue-tsc', '--noEmit', '-p', 'tsconfig.json'] },
   { name: 'types: scripts', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'scripts'] },
   { name: 'types: tests', kind: 'check', cwd: '.', command: ['pnpm', 'exec', 'tsc', '-p', 'tests'] },
+  { name: 'dependencies', kind: 'check', cwd: '.', command: DEPENDENCY_CHECK_COMMAND },
   { name: 'dsp', kind: 'vitest', cwd: 'packages/dsp', config: 'vitest.config.ts' },
   { name: 'contract', kind: 'vitest', cwd: 'packages/contract', config: 'vitest.config.ts' },
   { name: 'api', kind: 'vitest', cwd: 'packages/api', config: 'vitest.config.ts' },
