@@ -31,7 +31,7 @@ export { steadyStateErrors, frequencyStepErrorRad } from './analysis/steadyState
 export { routhHurwitzStable, discreteLoopStable, schurCohnStable } from './analysis/stability.ts';
 export { analyzeDesign, tryAnalyzeDesign, LoopSpecError } from './analysis/analyzeDesign.ts';
 export { quantizeFilter } from './fixed/quantizeFilter.ts';
-export { scenarioSchema, parseScenario, scenarioRateIssue } from './spec/scenario.ts';
+export { scenarioSchema, parseScenario, scenarioRateIssue, isScenarioField } from './spec/scenario.ts';
 export { simulate, simulateAsync, simulateSections, simulationSteps, bitTrueNcoHzOf, SimulationAbortedError } from './sim/simulate.ts';
 export { planBitTrue, validateBitTrueWidths, bitTrueFormats } from './sim/bitTruePlan.ts';
 export { runBitTrueChunk, initialBitTrueState, quantizeInput } from './sim/bitTrueKernel.ts';

@@ -3,7 +3,7 @@
  * run dsp's float and bit-true loops side by side, and report the metrics (and, on request, the first
  * N golden vectors in the release's CSV format).
  */
-import { FieldError, parseLoopSpec, parseScenario, simulate, type SimMetrics, type SimResult } from '@loopwright/dsp';
+import { FieldError, isScenarioField, parseLoopSpec, parseScenario, simulate, type SimMetrics, type SimResult } from '@loopwright/dsp';
 import { scenarioVectorsCsv } from './vectors.ts';
 
 export class ScenarioInputError extends Error {
@@ -41,7 +41,7 @@ export function simulateScenario(specInput: unknown, scenarioInput: unknown, vec
   } catch (err) {
     if (!(err instanceof FieldError)) throw err;
     // Scenario fields (durationS …) and spec fields (fixedPoint.…) both reach here; the path tells which.
-    const label = /^(fixedPoint|nco|filter|input|rippleFilter|discretization|name|clockHz|sampleRateHz|centerHz)\b/.test(err.field) ? 'SPEC.json' : 'SCENARIO.json';
+    const label = isScenarioField(err.field) ? 'SCENARIO.json' : 'SPEC.json';
     throw new ScenarioInputError(label, [{ field: err.field, message: err.message }]);
   }
   const bitTrue = result.bitTrue;

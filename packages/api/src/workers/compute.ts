@@ -5,6 +5,8 @@
  */
 import { threadId } from 'node:worker_threads';
 import {
+  FieldError,
+  isScenarioField,
   parseScenario,
   simulate,
   tryAnalyzeDesign,
@@ -43,7 +45,17 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome {
   }
   const scenario = parseScenario(task.scenario);
   if (!scenario.ok) return { threadId, ok: false, issues: scenario.issues, prefix: 'scenario' };
-  return { threadId, ok: true, kind: 'simulation', simulation: simulate(task.spec, scenario.scenario, task.options) };
+  try {
+    return { threadId, ok: true, kind: 'simulation', simulation: simulate(task.spec, scenario.scenario, task.options) };
+  } catch (err) {
+    // Checks that need the spec and the scenario together (the input band, the record size) throw.
+    if (err instanceof FieldError) return fieldFailure(err);
+    throw err;
+  }
+}
+
+function fieldFailure(err: FieldError): ComputeFailure & { readonly threadId: number } {
+  return { threadId, ok: false, issues: [{ field: err.field, message: err.message }], prefix: isScenarioField(err.field) ? 'scenario' : 'spec' };
 }
 
 export default runComputeTask;

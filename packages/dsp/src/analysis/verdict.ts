@@ -34,8 +34,12 @@ export function analysisVerdict(
   else if (q.loop && !q.loop.stable) stabilityReasons.push('the loop with quantised coefficients is unstable');
   const marginReasons: string[] = [];
   const check = (label: string, m: LoopMargins) => {
-    if (m.phaseMarginDeg === null || m.phaseMarginDeg < minPm) {
-      marginReasons.push(`${label} phase margin ${m.phaseMarginDeg === null ? 'undefined' : m.phaseMarginDeg.toFixed(1) + '°'} is below ${minPm}°`);
+    if (m.phaseMarginDeg === null) {
+      // No gain crossover: there is no frequency at which a phase margin is defined (margins.ts says why).
+      const why = m.notes[0] ?? '|L| does not cross 0 dB';
+      marginReasons.push(`the ${label} loop has no phase margin: ${why}; at least ${minPm}° is required`);
+    } else if (m.phaseMarginDeg < minPm) {
+      marginReasons.push(`${label} phase margin ${m.phaseMarginDeg.toFixed(1)}° is below ${minPm}°`);
     }
     if (m.gainMarginDb !== null && m.gainMarginDb < minGm) marginReasons.push(`${label} gain margin ${m.gainMarginDb.toFixed(1)} dB is below ${minGm} dB`);
   };

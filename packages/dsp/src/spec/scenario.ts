@@ -74,6 +74,18 @@ export function scenarioRateIssue(
   }
 }
 
+const SCENARIO_FIELDS: ReadonlySet<string> = new Set(
+  [toneScenarioSchema, frequencyStepScenarioSchema, phaseStepScenarioSchema, fmScenarioSchema].flatMap((schema) => Object.keys(schema.shape)),
+);
+
+/**
+ * Whether the field of a FieldError thrown by a simulation is the scenario's (offsetHz, durationS …)
+ * rather than the spec's (nco.phaseBits, fixedPoint.…): the two documents share no top-level name.
+ */
+export function isScenarioField(field: string): boolean {
+  return SCENARIO_FIELDS.has(field.split('.')[0] ?? '');
+}
+
 export type Scenario = z.output<typeof scenarioSchema>;
 export type ScenarioKind = Scenario['kind'];
 

@@ -3,7 +3,8 @@
  * compared with (packages/dsp/README.md, "Golden vectors"). Deterministic: a fixed scenario and seed.
  */
 import type { LoopSpec } from '../spec/schema.ts';
-import type { Scenario } from '../spec/scenario.ts';
+import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
+import { FieldError } from '../fixed/fieldError.ts';
 import type { BitTrueRecord } from '../types/sim.ts';
 import { simulate } from '../sim/simulate.ts';
 
@@ -34,8 +35,27 @@ export interface GoldenVectors {
   readonly checksum: number;
 }
 
+/**
+ * The default scenario is the server's, not the designer's: when the spec cannot run it (its tone,
+ * 0.01·gainHzPerUnit above centerHz, lands at or past sampleRateHz/2), the spec field that sets the
+ * offset is the one to change, so that is the field named.
+ */
+function checkDefaultScenario(spec: LoopSpec, scenario: Scenario): void {
+  const issue = scenarioRateIssue(spec, scenario);
+  if (!issue || scenario.kind !== 'tone') return;
+  const inputHz = spec.centerHz + scenario.offsetHz;
+  throw new FieldError(
+    'nco.gainHzPerUnit',
+    `nco.gainHzPerUnit ${spec.nco.gainHzPerUnit}: the golden-vector scenario is a tone 0.01·nco.gainHzPerUnit = ${scenario.offsetHz} Hz above centerHz ${spec.centerHz} Hz, at ${inputHz} Hz, which is not below sampleRateHz/2 = ${spec.sampleRateHz / 2} Hz; lower nco.gainHzPerUnit or centerHz`,
+  );
+}
+
 /** Run the bit-true loop on the scenario (default: defaultGoldenScenario) and keep every sample. */
-export function goldenVectors(spec: LoopSpec, scenario: Scenario = defaultGoldenScenario(spec)): GoldenVectors {
+export function goldenVectors(spec: LoopSpec, scenario?: Scenario): GoldenVectors {
+  if (scenario === undefined) {
+    scenario = defaultGoldenScenario(spec);
+    checkDefaultScenario(spec, scenario);
+  }
   const r = simulate(spec, scenario, { mode: 'bit-true', keepRecord: true });
   const bit = r.bitTrue;
   if (!bit?.record) throw new Error('bit-true run kept no record');

@@ -193,7 +193,7 @@ function coefficientPoint(
   const pmErr = m.phaseMarginDeg !== null && refPm !== null ? m.phaseMarginDeg - refPm : null;
   const reasons: string[] = [];
   if (!stable) reasons.push('unstable');
-  if (pmErr === null) reasons.push('phase margin undefined');
+  if (pmErr === null) reasons.push(m.phaseMarginDeg === null ? 'no phase margin: the quantised loop gain does not cross 0 dB' : 'no phase margin to compare with: the unquantised loop gain does not cross 0 dB');
   else if (Math.abs(pmErr) > cfg.pmTol) reasons.push(`phase margin off by ${pmErr.toFixed(2)}° (tolerance ${cfg.pmTol}°)`);
   if (q.maxDeviationDb === null) reasons.push('quantised response is zero (numerator rounded away)');
   else if (q.maxDeviationDb > cfg.dbTol) reasons.push(`response off by ${q.maxDeviationDb.toFixed(3)} dB (tolerance ${cfg.dbTol} dB)`);

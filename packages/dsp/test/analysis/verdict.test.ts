@@ -20,6 +20,15 @@ describe('analysis verdict', () => {
     expect(v.reasons.join(' ')).toMatch(/discrete phase margin .* below 80°/);
   });
 
+  it('2-bit coefficients leave the quantised loop without a gain crossover: the reason says so in words', () => {
+    const spec: LoopSpec = { ...ultrasonicSinglePoleSpec, fixedPoint: { ...ultrasonicSinglePoleSpec.fixedPoint, coefficientBits: 2, coefficientFractionBits: 'auto' } };
+    const v = analyzeDesign(spec).verdict;
+    expect(v.marginsMet).toBe(false);
+    const text = v.reasons.join(' ');
+    expect(text).not.toMatch(/undefined|NaN|null/);
+    expect(text).toMatch(/the quantised loop has no phase margin: \|L\| does not cross 0 dB between .* Hz and .* Hz; at least 45° is required/);
+  });
+
   it('4-bit coefficients make the quantised loop unstable: stable false with the reason', () => {
     const spec: LoopSpec = { ...ultrasonicSinglePoleSpec, fixedPoint: { ...ultrasonicSinglePoleSpec.fixedPoint, coefficientBits: 4 } };
     const r = analyzeDesign(spec);

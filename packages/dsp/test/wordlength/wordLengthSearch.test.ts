@@ -22,6 +22,12 @@ describe('coefficient width search', () => {
     expect(below?.reasons.length).toBeGreaterThan(0);
   });
 
+  it('says in words why a width without a phase margin fails (no "undefined")', () => {
+    const none = r.coefficients.curve.filter((p) => p.phaseMarginDeg === null);
+    expect(none.length).toBeGreaterThan(0);
+    for (const p of none) expect(p.reasons.join('; '), `${p.coefficientBits} bits`).toMatch(/^(unstable; )?no phase margin/);
+  });
+
   it('at the spec’s own width agrees with analyzeDesign’s quantised loop (same quantiser, same margins)', () => {
     const a = analyzeDesign(spec);
     const p = r.coefficients.curve.find((q) => q.coefficientBits === spec.fixedPoint.coefficientBits)!;
