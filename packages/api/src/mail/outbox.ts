@@ -3,6 +3,7 @@
  * the change it reports committed); `deliverPending` sends what is due, each row claimed first with a
  * compare-and-set so several API processes never send one mail twice; a failure stays in the table
  * with an exponential backoff. `startTimer` runs the retry periodically (disabled with 0 in tests).
+ * A delivered row keeps recipient, subject, kind and time, not the text.
  */
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Transporter } from 'nodemailer';
@@ -79,9 +80,10 @@ export class MailOutbox {
     if (Number((claim as { affectedRows?: number }).affectedRows ?? 0) !== 1) return 'skipped';
     const mail = await this.dataSource.getRepository(OutboxMail).findOneByOrFail({ id });
     try {
-      await this.transport.sendMail({ from: this.from, to: mail.toAddress, subject: mail.subject, text: mail.textBody });
+      await this.transport.sendMail({ from: this.from, to: mail.toAddress, subject: mail.subject, text: mail.textBody ?? '' });
+      // The text is dropped once delivered: a review link in it is a credential (stored hashed elsewhere).
       await this.dataSource.query(
-        'UPDATE `mail_outbox` SET `sentAt` = CURRENT_TIMESTAMP(3), `claimedUntil` = NULL, `attempts` = `attempts` + 1, `lastError` = NULL WHERE `id` = ?',
+        'UPDATE `mail_outbox` SET `sentAt` = CURRENT_TIMESTAMP(3), `claimedUntil` = NULL, `attempts` = `attempts` + 1, `lastError` = NULL, `textBody` = NULL WHERE `id` = ?',
         [id],
       );
       return 'sent';

@@ -62,14 +62,16 @@ it('keeps a mail the relay refused, still makes the change, and delivers it on r
     await h.dataSource.query('UPDATE `mail_outbox` SET `nextAttemptAt` = CURRENT_TIMESTAMP(3) WHERE `id` = ?', [pending[0]!.id]);
     const mine = () => smtp.mails.filter((m) => m.to.includes(h.org.emails.reviewer));
     const stop = h.built.services.handoff.outbox.startTimer(50);
+    const sentRow = async () => ((await h.dataSource.query('SELECT `sentAt`, `attempts` FROM `mail_outbox` WHERE `id` = ?', [pending[0]!.id])) as { sentAt: Date | null; attempts: number }[])[0];
     try {
       await vi.waitFor(() => expect(mine()).toHaveLength(1), { timeout: 10_000, interval: 50 });
+      // The relay has the mail a moment before the sender hears back and marks the row sent.
+      await vi.waitFor(async () => expect((await sentRow())?.sentAt).not.toBeNull(), { timeout: 10_000, interval: 50 });
     } finally {
       stop();
     }
     expect(linkToken(mine()[0]!.text)).toMatch(/^[A-Za-z0-9_-]{12}\.[A-Za-z0-9_-]{43}$/);
-    const [row] = (await h.dataSource.query('SELECT `sentAt`, `attempts` FROM `mail_outbox` WHERE `id` = ?', [pending[0]!.id])) as { sentAt: Date | null; attempts: number }[];
-    expect(row!.sentAt).not.toBeNull();
+    const row = await sentRow();
     expect(Number(row!.attempts)).toBe(2);
     // Sent once only: a further retry finds nothing due.
     expect(await h.built.services.handoff.outbox.deliverPending([pending[0]!.id])).toEqual({ sent: 0, failed: 0 });

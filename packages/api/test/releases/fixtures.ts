@@ -1,8 +1,10 @@
 /**
  * Release fixtures made through the services (no HTTP), for tests of other modules such as the
- * route × role table. Review tokens are read from the mail outbox, where the e-mail text is kept.
+ * route × role table. A delivered mail's text is not kept, so the reviewer's row is given a token of
+ * the fixture's own (issueToken, the same as the service's) instead of reading it from the e-mail.
  */
 import type { BuiltApp } from '../../src/app.ts';
+import { issueToken } from '../../src/releases/reviewToken.ts';
 import type { TestOrg } from '../helpers.ts';
 
 export interface ReleaseFixtures {
@@ -22,10 +24,9 @@ export async function releaseFixtures(built: BuiltApp, org: TestOrg, designId: n
   const freshToken = async () => {
     const releaseId = await freshDraft();
     const release = await handoff.reviews.requestReview(org.organizationId, releaseId, { reviewerIds: [org.ids.reviewer], approvalsRequired: 1 }, designer);
-    const rows = (await dataSource.query("SELECT `textBody` FROM `mail_outbox` WHERE `toAddress` = ? AND `kind` = 'review-request' ORDER BY `id` DESC LIMIT 1", [org.emails.reviewer])) as { textBody: string }[];
-    const token = /\/review\/([A-Za-z0-9_-]{12}\.[A-Za-z0-9_-]{43})/.exec(rows[0]?.textBody ?? '')?.[1];
-    if (!token) throw new Error('no review link in the outbox');
-    return { releaseId, token, manifestSha256: release.manifestSha256 };
+    const issued = issueToken({ releaseId, reviewerId: org.ids.reviewer, manifestSha256: release.manifestSha256 });
+    await dataSource.query('UPDATE `release_reviews` SET `selector` = ?, `tokenHash` = ? WHERE `releaseId` = ? AND `reviewerId` = ?', [issued.selector, issued.tokenHash, releaseId, org.ids.reviewer]);
+    return { releaseId, token: issued.token, manifestSha256: release.manifestSha256 };
   };
   const first = await freshToken();
   await handoff.reviews.decide(first.token, { decision: 'approve', manifestSha256: first.manifestSha256 }, null, undefined);

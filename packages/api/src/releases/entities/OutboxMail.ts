@@ -3,6 +3,7 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 
 /**
  * Every e-mail is written here in the transaction of the change it reports, then delivered; a
  * failed delivery stays here and is retried with backoff, so no message is lost to an SMTP outage.
+ * A delivered mail keeps only its record (recipient, subject, kind, when): its text is dropped.
  */
 @Entity({ name: 'mail_outbox' })
 @Index('IDX_mail_outbox_pending', ['sentAt', 'nextAttemptAt'])
@@ -16,8 +17,9 @@ export class OutboxMail {
   @Column({ type: 'varchar', length: 255 })
   subject: string;
 
-  @Column({ type: 'longtext' })
-  textBody: string;
+  /** The text until it is delivered; NULL after (a review link in it is a credential). */
+  @Column({ type: 'longtext', nullable: true })
+  textBody: string | null;
 
   /** What the mail is for, e.g. "review-request", "release-approved". */
   @Column({ type: 'varchar', length: 32 })
