@@ -23,7 +23,8 @@ export function readJsonFile(label: string, path: string): unknown {
     throw new UsageError(`${label}: cannot read ${full} (${(err as NodeJS.ErrnoException).code ?? String(err)})`);
   }
   try {
-    return JSON.parse(text) as unknown;
+    // A byte-order mark is not part of the JSON (RFC 8259 §8.1 lets a parser ignore it); editors add one.
+    return JSON.parse(text.replace(/^\uFEFF/, '')) as unknown;
   } catch (err) {
     throw new UsageError(`${label}: ${full} is not valid JSON (${(err as Error).message})`);
   }

@@ -15,15 +15,21 @@ export const requireCsrfHeader: RequestHandler = (req, _res, next) => {
   if (req.get(CSRF_HEADER)?.toLowerCase() !== CSRF_HEADER_VALUE) {
     return next(new AppError('csrf_rejected', `state-changing requests must send the header ${CSRF_HEADER}: ${CSRF_HEADER_VALUE}`, 403));
   }
-  // req.host honours X-Forwarded-Host when LW_TRUST_PROXY is on, so a proxy that rewrites Host still matches.
-  return next(originMismatch(req.get('origin'), req.host) ? new AppError('csrf_rejected', 'cross-origin request refused', 403) : undefined);
+  // req.protocol and req.host honour X-Forwarded-Proto/-Host when LW_TRUST_PROXY is on, so a proxy
+  // that terminates TLS or rewrites Host still matches.
+  return next(originMismatch(req.get('origin'), req.protocol, req.host) ? new AppError('csrf_rejected', 'cross-origin request refused', 403) : undefined);
 };
 
-export function originMismatch(origin: string | undefined, host: string | undefined): boolean {
+/**
+ * True unless `origin` is the origin the request reached: the same scheme, host and port (RFC 6454
+ * §4; a page on https://h is another origin than the API on http://h). Default ports compare equal
+ * (URL drops them from both sides).
+ */
+export function originMismatch(origin: string | undefined, protocol: string, host: string | undefined): boolean {
   if (origin === undefined) return false;
-  if (origin === 'null') return true;
+  if (origin === 'null' || host === undefined) return true;
   try {
-    return new URL(origin).host !== host;
+    return new URL(origin).origin !== new URL(`${protocol}://${host}`).origin;
   } catch {
     return true;
   }

@@ -80,6 +80,11 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
       res.status(400).json(body('invalid_input', `upload refused (${e.code.toLowerCase().replace(/_/g, ' ')})`, e.field));
       return;
     }
+    if (err instanceof URIError) {
+      // The router could not percent-decode a path parameter (e.g. /api/designs/%E0%A4%A).
+      res.status(400).json(body('invalid_input', 'the path holds percent-encoding that does not decode as UTF-8', 'path'));
+      return;
+    }
     if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported') {
       res.status(415).json(body('unsupported_media_type', 'the request body encoding is not supported'));
       return;

@@ -111,7 +111,7 @@ export class ReviewService {
     return `${this.config.publicUrl}/releases/${id}`;
   }
 
-  async requestReview(organizationId: number, releaseId: number, request: ReviewRequest, actor: Actor & { displayName: string }): Promise<ReleaseRecord> {
+  async requestReview(organizationId: number, releaseId: number, request: ReviewRequest, actor: Actor): Promise<ReleaseRecord> {
     if (request.approvalsRequired > request.reviewerIds.length) {
       throw invalidInput('approvalsRequired', `approvalsRequired ${request.approvalsRequired} exceeds the ${request.reviewerIds.length} reviewer(s) named`);
     }
@@ -120,6 +120,8 @@ export class ReviewService {
       if (!row) throw notFound('release');
       const reviewers = await this.reviewers(manager, organizationId, request.reviewerIds, [actor.id, Number(row.createdById)]);
       await this.releases.applyEvent(manager, row, 'request-review', { approvalsRequired: request.approvalsRequired });
+      // The name as the account holds it now, not as the requester's session cached it.
+      const requester = await manager.findOne(User, { where: { id: actor.id }, select: { displayName: true } });
       const specName = (JSON.parse(row.specJson ?? '{}') as { name: string }).name;
       const expiresAt = new Date(Date.now() + this.config.reviewLinkTtlS * 1000);
       const mails: MailMessage[] = [];
@@ -138,7 +140,7 @@ export class ReviewService {
           reviewRequestMail({
             to: reviewer.email,
             reviewerName: reviewer.displayName,
-            requesterName: actor.displayName,
+            requesterName: requester?.displayName ?? '',
             specName,
             label: releaseLabel(Number(row.number)),
             link: this.reviewUrl(issued.token),

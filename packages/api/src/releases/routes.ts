@@ -105,7 +105,7 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
     params: releaseParamsSchema,
     body: reviewRequestSchema,
     handler: ({ services, user, params, body, actor }) =>
-      services.handoff.reviews.requestReview(user.organizationId, params.id, body, { ...actor, id: user.id, displayName: user.displayName }),
+      services.handoff.reviews.requestReview(user.organizationId, params.id, body, { ...actor, id: user.id }),
   }),
   route({
     method: 'get',

@@ -127,7 +127,8 @@ export class DesignService {
     await this.assertWritableProject(organizationId, projectId);
     let json: unknown;
     try {
-      json = JSON.parse(fileText);
+      // A byte-order mark is not part of the JSON (RFC 8259 §8.1 lets a parser ignore it); editors add one.
+      json = JSON.parse(fileText.replace(/^\uFEFF/, ''));
     } catch (err) {
       throw invalidInput('file', `the file is not valid JSON: ${(err as Error).message}`);
     }

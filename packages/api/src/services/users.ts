@@ -89,7 +89,7 @@ export class UserService {
     });
   }
 
-  /** Disabling or re-roling ends the account's sessions, so the change applies at once. */
+  /** Disabling or re-roling ends the account's sessions, so the change applies at once; a rename is written into them. */
   async update(organizationId: number, id: number, request: UserUpdateRequest, actor: AuditActor): Promise<UserRecord> {
     if (actor.id === id && (request.disabled === true || (request.roles && !request.roles.includes('admin')))) {
       throw invalidInput(request.disabled === true ? 'disabled' : 'roles', 'an admin cannot disable or remove the admin role from their own account');
@@ -106,6 +106,7 @@ export class UserService {
       return toRecord(await manager.findOneByOrFail(User, { id }));
     });
     if (request.roles !== undefined || request.disabled === true) await this.sessions.endSessionsOf(id);
+    else if (request.displayName !== undefined) await this.sessions.renameIn(id, record.displayName);
     return record;
   }
 

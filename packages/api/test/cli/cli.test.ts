@@ -46,6 +46,14 @@ describe('loopwright CLI', () => {
     expect(r.stderr).toBe('');
   });
 
+  it('reads a spec file that starts with a UTF-8 byte-order mark', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'bom.json'), Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(JSON.stringify(mainsSyncSpec))]));
+    const r = cli(['design', 'bom.json'], dir);
+    expect(r.code, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout).specName).toBe('mains_sync_50hz');
+  });
+
   it('simulate prints metrics JSON, and with --vectors N the first N golden vectors as CSV', () => {
     const dir = workspace();
     const metrics = cli(['simulate', 'spec.json', 'tone.json'], dir);
