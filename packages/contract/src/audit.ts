@@ -1,6 +1,6 @@
 /** The audit trail (/api/audit, admin). */
 import { z } from 'zod';
-import { idSchema, isoDateSchema } from './common.ts';
+import { decimalIntSchema, idSchema, isoDateSchema } from './common.ts';
 
 export const auditEntrySchema = z.object({
   id: z.number().int(),
@@ -22,6 +22,6 @@ export const auditQuerySchema = z.strictObject({
   objectId: z.string().max(64).optional(),
   actorId: idSchema.optional(),
   beforeId: idSchema.optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
+  limit: decimalIntSchema(1, 500).default(100),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;

@@ -2,8 +2,20 @@
  * Wording of the hand-off e-mails (plain text). Only our own words, the validated spec name, the
  * release label, people's display names and URLs we built enter a message.
  */
+import { HIDDEN_TEXT_CHARACTERS } from '@loopwright/contract';
 import { CAUTION } from '../render/caution.ts';
 import type { MailMessage } from '../mail/outbox.ts';
+
+const HIDDEN_ALL = new RegExp(HIDDEN_TEXT_CHARACTERS.source, 'g');
+
+/**
+ * A person's name as plain e-mail text: names are checked when they are set (contract titleSchema),
+ * but one stored before that check could hold characters that break the line or reorder the words
+ * around it; each becomes a space.
+ */
+function plainName(name: string): string {
+  return name.replace(HIDDEN_ALL, ' ').replace(/ {2,}/g, ' ').trim();
+}
 
 export interface ReviewMailInput {
   readonly to: string;
@@ -23,9 +35,9 @@ export function reviewRequestMail(m: ReviewMailInput): MailMessage {
     to: m.to,
     subject: `Review requested: ${m.specName} ${m.label}`,
     text: [
-      `Hello ${m.reviewerName},`,
+      `Hello ${plainName(m.reviewerName)},`,
       '',
-      `${m.requesterName} asks you to review release ${m.label} of loop design ${m.specName}.`,
+      `${plainName(m.requesterName)} asks you to review release ${m.label} of loop design ${m.specName}.`,
       `${m.approvalsRequired} approval(s) are needed.`,
       '',
       `Open the release to approve it or ask for changes:`,
@@ -54,7 +66,7 @@ export function releaseApprovedMail(m: ApprovedMailInput): MailMessage {
     to: m.to,
     subject: `Release approved: ${m.specName} ${m.label}`,
     text: [
-      `Hello ${m.name},`,
+      `Hello ${plainName(m.name)},`,
       '',
       `Release ${m.label} of loop design ${m.specName} is approved and ready to download:`,
       m.releaseUrl,

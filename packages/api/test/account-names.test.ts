@@ -1,6 +1,7 @@
 /**
- * The session caches who the user is (middleware/auth.ts); a rename by an admin reaches the user's
- * open sessions at once, so the next page and the next e-mail show the new name.
+ * People's names in sessions and e-mail. The session caches who the user is (middleware/auth.ts); a
+ * rename by an admin reaches the user's open sessions at once, so the next page and the next e-mail
+ * show the new name. E-mail text stays plain even for a name stored before names were checked.
  */
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { csrf, signedInAgent } from './helpers.ts';
@@ -36,4 +37,15 @@ it('keeps the session of a renamed account signed in, with its roles', async () 
   await admin.patch(`/api/users/${h.org.ids.reviewer}`).set(csrf).send({ displayName: 'Tomasz Brandvold' }).expect(200);
   const me = await reviewer.get('/api/session').expect(200);
   expect(me.body.user).toMatchObject({ displayName: 'Tomasz Brandvold', roles: ['reviewer'] });
+});
+
+it('writes a name stored before the character rule into the e-mail without its hidden characters', async () => {
+  await h.dataSource.query('UPDATE `users` SET `displayName` = ? WHERE `id` = ?', ['Eve\u202eyrallaM\u2028Approved\u0085 by QA', h.org.ids.reviewer]);
+  const before = h.smtp.mails.length;
+  const designId = await designFromTemplate(h.designer, 'mains-sync');
+  const cut = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  await h.designer.post(`/api/releases/${cut.body.id}/reviews`).set(csrf).send({ reviewerIds: [h.org.ids.reviewer], approvalsRequired: 1 }).expect(200);
+  const mail = (await h.smtp.waitFor(before + 1))[before]!;
+  expect(mail.text).not.toMatch(/[\u0085\u2028\u2029\u202a-\u202e\u2066-\u2069]/);
+  expect(mail.text).toContain('Hello Eve yrallaM Approved by QA,');
 });
