@@ -16,9 +16,9 @@ const PNPM_VERSION = '12.4.2';
 
 /** Debian packages each command needs (gcc ships with the machine; listed so a slimmer one gets it). */
 const DEBIAN_PACKAGES = {
-  start: ['mariadb-server'],
-  test: ['mariadb-server', 'chromium', 'ghdl', 'iverilog', 'python3-scipy', 'gcc'],
-  bench: ['mariadb-server', 'chromium', 'gcc'],
+  start: ['mariadb-server', 'nginx-light'],
+  test: ['mariadb-server', 'nginx-light', 'chromium', 'ghdl', 'iverilog', 'python3-scipy', 'gcc'],
+  bench: ['mariadb-server', 'nginx-light', 'chromium', 'gcc'],
   loopwright: [],
 };
 

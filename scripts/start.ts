@@ -1,5 +1,6 @@
 /**
- * `npm start`: Loopwright with its demo data on http://127.0.0.1:8080 (PORT overrides).
+ * `npm start`: Loopwright with its demo data on http://127.0.0.1:8080 (PORT overrides); with
+ * LW_API_PROCESSES=N LW_BALANCER=nginx, N API processes behind Debian's nginx on that port.
  * Starts a project-local MariaDB (data kept in .data/dev between runs), migrates and seeds it
  * (seeding only an empty database), starts the local SMTP fake, builds the app and serves app and
  * API. Ctrl-C stops everything it started.
@@ -99,6 +100,8 @@ async function main(): Promise<void> {
     LW_SMTP_PORT: String(smtpPort),
     LW_PUBLIC_URL: process.env.LW_PUBLIC_URL ?? `http://127.0.0.1:${httpPort}`,
     LW_APP_DIST: path.join(ROOT, 'packages', 'app', 'dist'),
+    // The server's own files (the balancer's generated configuration) go beside the database's.
+    LW_DATA_DIR: dataDir,
   };
 
   await runStep('database migrations and demo seed', 'packages/api', process.execPath, ['--import', 'tsx', 'src/prepare-db.ts'], env);
@@ -112,7 +115,9 @@ async function main(): Promise<void> {
   const url = `http://127.0.0.1:${httpPort}`;
   await waitForHttp(`${url}/api/health`, 60);
 
-  log(`Loopwright is running at ${url}`);
+  const processes = env.LW_API_PROCESSES ?? '1';
+  const layout = env.LW_BALANCER === 'nginx' ? `${processes} API process(es) behind nginx` : `${processes} API process(es)`;
+  log(`Loopwright is running at ${url} (${layout})`);
   log(`demo sign-ins (demo database only), password '${DEMO_PASSWORD}':`);
   for (const account of DEMO_ACCOUNTS) log(`  ${account}`);
   log('press Ctrl-C to stop');

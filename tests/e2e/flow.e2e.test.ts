@@ -3,6 +3,10 @@
  * edits a loop and watches the margins move, simulates, cuts a release and asks for review; the
  * reviewer approves from the e-mailed link; firmware downloads the approved bundle and files and
  * uploads captures for the conformance check.
+ *
+ * All of it runs through the scale-out layout: two API processes behind Debian's nginx, round-robin,
+ * no sticky sessions (the stack's default), so consecutive requests of one page go to different
+ * processes. The last test pins down the cross-process cases one by one.
  */
 import { createHash } from 'node:crypto';
 import fs from 'node:fs/promises';
@@ -13,17 +17,24 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from './harness/build.ts';
 import { launchBrowser, signIn, type Browser } from './harness/browser.ts';
 import { choose, degrees, screenshot, tableRows, textOf, waitForChange } from './harness/pageHelpers.ts';
+import { afterProcess, api, apiSignIn, PROCESS_HEADER } from './harness/api.ts';
 import { startStack, type Stack } from './harness/stack.ts';
 
 let stack: Stack;
 let browser: Browser;
 let downloads: string;
+/** Which serving process answered each of the browser's /api requests. */
+const servedBy = new Map<string, number>();
 
 beforeAll(async () => {
   buildApp();
-  stack = await startStack();
+  stack = await startStack({ processes: 2, balancer: 'nginx' });
   downloads = await fs.mkdtemp(path.join(os.tmpdir(), 'lw-downloads-'));
   browser = await launchBrowser({ downloadsPath: downloads });
+  browser.context.on('response', (response) => {
+    const name = response.headers()[PROCESS_HEADER];
+    if (name && new URL(response.url()).pathname.startsWith('/api/')) servedBy.set(name, (servedBy.get(name) ?? 0) + 1);
+  });
 });
 
 afterAll(async () => {
@@ -422,5 +433,74 @@ describe('Loopwright in the browser', () => {
     await page.click('[data-test="confirm-withdraw"]');
     await page.waitForSelector('[data-test="state-v2"]:has-text("withdrawn")');
     await page.close();
+  });
+
+  it('serves every step from either API process: a session, release numbers, a review link and downloads cross processes', async () => {
+    const { baseUrl } = stack;
+    // The browser's requests above were spread over both processes by nginx.
+    expect([...servedBy.keys()].sort()).toEqual(['api-1', 'api-2']);
+    for (const count of servedBy.values()) expect(count).toBeGreaterThan(20);
+
+    // A session made by one process is honoured by the other: sessions live in MariaDB.
+    const designer = await apiSignIn(baseUrl, 'designer@example.test');
+    await afterProcess(baseUrl, designer.process!);
+    const who = await api<{ user: { email: string } }>(baseUrl, '/api/session', { cookie: designer.cookie });
+    expect(who.process).not.toBe(designer.process);
+    expect(who.status).toBe(200);
+    expect(who.body.user.email).toBe('designer@example.test');
+
+    // Six cuts at once, answered by both processes: v1 … v6, no gap and no repeat (the number is taken
+    // under a row lock in MariaDB, never counted in a process).
+    const projects = await api<{ projects: { id: number; name: string }[] }>(baseUrl, '/api/projects', { cookie: designer.cookie });
+    const project = projects.body.projects.find((p) => p.name === 'IF FM demodulator')!;
+    const designs = await api<{ designs: { id: number; name: string }[] }>(baseUrl, `/api/projects/${project.id}/designs`, { cookie: designer.cookie });
+    const designId = designs.body.designs.find((d) => d.name === 'FM demodulator loop')!.id;
+    const cuts = await Promise.all(
+      Array.from({ length: 6 }, () => api<{ id: number; number: number; manifestSha256: string }>(baseUrl, `/api/designs/${designId}/releases`, { method: 'POST', cookie: designer.cookie })),
+    );
+    expect(cuts.map((c) => c.status)).toEqual([201, 201, 201, 201, 201, 201]);
+    expect(cuts.map((c) => c.body.number).sort((a, b) => a - b)).toEqual([1, 2, 3, 4, 5, 6]);
+    expect(new Set(cuts.map((c) => c.process))).toEqual(new Set(['api-1', 'api-2']));
+
+    // A review link read on one process decides on the other, and only once on either.
+    const v1 = cuts.find((c) => c.body.number === 1)!.body;
+    const reviewers = await api<{ reviewers: { id: number; email: string }[] }>(baseUrl, '/api/reviewers', { cookie: designer.cookie });
+    const robin = reviewers.body.reviewers.find((r) => r.email === 'reviewer@example.test')!;
+    const asked = await api(baseUrl, `/api/releases/${v1.id}/reviews`, { cookie: designer.cookie, json: { reviewerIds: [robin.id], approvalsRequired: 1 } });
+    expect(asked.status).toBe(200);
+    const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: if_fm_demod_10m7 v1');
+    const token = /\/review\/([^\s"'<>]+)/.exec(mail.text)![1]!;
+    const read = await api(baseUrl, `/api/review-links/${token}`);
+    expect(read.status).toBe(200);
+    await afterProcess(baseUrl, read.process!);
+    const decision = { decision: 'approve', manifestSha256: v1.manifestSha256 };
+    const decided = await api<{ state: string }>(baseUrl, `/api/review-links/${token}`, { json: decision });
+    expect(decided.process).not.toBe(read.process);
+    expect(decided.status).toBe(200);
+    expect(decided.body.state).toBe('approved');
+    await afterProcess(baseUrl, decided.process!);
+    const replayed = await api<{ error: { field: string; message: string } }>(baseUrl, `/api/review-links/${token}`, { json: decision });
+    expect(replayed.process).toBe(read.process);
+    expect(replayed.status).toBe(403);
+    expect(replayed.body.error.message).toMatch(/already used/);
+
+    // The same file from each process: the same bytes, matching the SHA-256 the release stores.
+    const release = await api<{ files: { name: string; sha256: string }[] }>(baseUrl, `/api/releases/${v1.id}`, { cookie: designer.cookie });
+    const vectors = release.body.files.find((f) => f.name.endsWith('_vectors.csv'))!;
+    const first = await api(baseUrl, `/api/releases/${v1.id}/files/${vectors.name}`, { cookie: designer.cookie });
+    await afterProcess(baseUrl, first.process!);
+    const second = await api(baseUrl, `/api/releases/${v1.id}/files/${vectors.name}`, { cookie: designer.cookie });
+    expect(second.process).not.toBe(first.process);
+    for (const download of [first, second]) {
+      expect(download.status).toBe(200);
+      expect(createHash('sha256').update(download.bytes).digest('hex')).toBe(vectors.sha256);
+    }
+
+    // An upload through the balancer: the golden vectors, compared by whichever process gets them.
+    const form = new FormData();
+    form.append('file', new Blob([new Uint8Array(first.bytes)], { type: 'text/csv' }), 'capture.csv');
+    const upload = await api<{ verdict: string }>(baseUrl, `/api/releases/${v1.id}/conformance`, { cookie: designer.cookie, form });
+    expect(upload.status).toBe(201);
+    expect(upload.body.verdict).toBe('bit-exact');
   });
 });

@@ -89,13 +89,20 @@ describe('npm start', () => {
     expect(await pidAlive(pidFile)).toBe(false);
     await expect(fetch(`${baseUrl}/api/health`)).rejects.toThrow();
 
-    const second = launchStart(env);
+    // The second start in the README's scale-out setting: two API processes behind nginx, same data.
+    const second = launchStart({ ...env, LW_API_PROCESSES: '2', LW_BALANCER: 'nginx' });
     await waitFor(() => second.output().includes('Loopwright is running at') || second.child.exitCode !== null, 'the second start', 200);
+    expect(second.output()).toContain(`Loopwright is running at ${baseUrl} (2 API process(es) behind nginx)`);
     expect(second.output()).toMatch(/demo seed skipped/);
     const again = await signIn(baseUrl, 'admin@example.test');
     expect(again.body.user.roles).toContain('admin');
+    const served = new Set<string | null>();
+    for (let i = 0; i < 4; i += 1) served.add((await fetch(`${baseUrl}/api/health`)).headers.get('x-loopwright-process'));
+    expect([...served].sort()).toEqual(['api-1', 'api-2']);
+    expect(await fs.readFile(path.join(scratch, 'data', 'balancer', 'nginx.conf'), 'utf8')).toContain(`listen 127.0.0.1:${env.PORT};`);
     second.child.kill('SIGINT');
     await second.exited;
+    await expect(fetch(`${baseUrl}/api/health`)).rejects.toThrow();
   });
 
   it('says in one line that the HTTP port is taken, and starts nothing', async () => {

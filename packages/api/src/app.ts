@@ -8,6 +8,9 @@ import { apiRoutes } from './routes/index.ts';
 import { jsonBody, mountRoutes, type RouteSpec } from './routes/table.ts';
 import { createServices, type Services } from './services/index.ts';
 
+/** Response header naming the serving process (LW_PROCESS_NAME, set by the supervisor). */
+export const PROCESS_HEADER = 'X-Loopwright-Process';
+
 export interface AppOptions {
   readonly config: Config;
   /** An initialised DataSource (see data-source.ts). */
@@ -46,6 +49,14 @@ export function createApp(options: AppOptions): BuiltApp {
   app.disable('x-powered-by');
   // API answers are no-store, so an ETag (a SHA-1 of every body) would be computed for nothing.
   app.set('etag', false);
+  if (config.processName !== undefined) {
+    // Names the serving process on every answer, so it is visible which process behind the balancer served what.
+    const name = config.processName;
+    app.use((_req, res, next) => {
+      res.set(PROCESS_HEADER, name);
+      next();
+    });
+  }
   app.use(
     helmet({
       contentSecurityPolicy: {

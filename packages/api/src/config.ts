@@ -40,9 +40,22 @@ const envSchema = z.object({
   LW_SIM_MAX_SAMPLES: int(1_000, 50_000_000).default(5_000_000),
   /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
   LW_BCRYPT_ROUNDS: int(4, 15).default(12),
-  LW_TRUST_PROXY: flag.default(false),
-  /** API processes sharing the port (node:cluster); sessions and counters live in MariaDB. */
+  /** `loopback` trusts X-Forwarded-* only from 127.0.0.1/::1 (the balancer sets it so for its processes). */
+  LW_TRUST_PROXY: z
+    .enum(['true', 'false', '1', '0', 'loopback'])
+    .default('false')
+    .transform((value) => (value === 'loopback' ? ('loopback' as const) : value === 'true' || value === '1')),
+  /** Serving processes; sessions, counters and locks live in MariaDB, so any of them serves any request. */
   LW_API_PROCESSES: int(1, 64).default(1),
+  /**
+   * `none`: the processes share PORT through node:cluster. `nginx`: each process listens on a loopback
+   * port of its own and Debian's nginx, configured under LW_DATA_DIR, is the public PORT (round-robin).
+   */
+  LW_BALANCER: z.enum(['none', 'nginx']).default('none'),
+  /** The server's own files (the balancer's generated configuration and logs), relative to the working directory. */
+  LW_DATA_DIR: z.string().min(1).default('../../.data/server'),
+  /** Set by the supervisor for each serving process; sent as the X-Loopwright-Process header. */
+  LW_PROCESS_NAME: z.string().regex(/^[a-z][a-z0-9-]{0,31}$/).optional(),
 });
 
 export type Env = z.infer<typeof envSchema>;
@@ -77,8 +90,12 @@ export interface Config {
     readonly maxSimulationSamples: number;
   };
   readonly bcryptRounds: number;
-  readonly trustProxy: boolean;
+  /** true, false, or 'loopback': trust X-Forwarded-* only from a proxy on this machine (the balancer). */
+  readonly trustProxy: boolean | 'loopback';
   readonly processes: number;
+  readonly balancer: 'none' | 'nginx';
+  readonly dataDir: string;
+  readonly processName: string | undefined;
   /** Keys that fell back to their development default, with the value used (printed at start-up). */
   readonly defaultsUsed: readonly (readonly [key: string, value: string])[];
 }
@@ -150,6 +167,9 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     bcryptRounds: env.LW_BCRYPT_ROUNDS,
     trustProxy: env.LW_TRUST_PROXY,
     processes: env.LW_API_PROCESSES,
+    balancer: env.LW_BALANCER,
+    dataDir: env.LW_DATA_DIR,
+    processName: env.LW_PROCESS_NAME,
     defaultsUsed,
   };
 }

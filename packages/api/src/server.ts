@@ -1,33 +1,25 @@
 /**
- * `node --import tsx src/server.ts`: serves the API and the built web app (LW_APP_DIST) with an SPA
- * fallback for every non-/api path. Waits for MariaDB at start-up instead of failing; afterwards a
- * database outage is answered with 503 and the pool reconnects by itself.
+ * `node --import tsx src/server.ts`: the Loopwright server. This process only supervises: it starts
+ * LW_API_PROCESSES serving processes (src/serve.ts; nothing shared between them but MariaDB), each
+ * with a larger young generation, and starts one again when it dies.
  *
- * This process only supervises: it forks LW_API_PROCESSES serving processes (node:cluster, one port,
- * nothing shared but MariaDB), each with a larger young generation, and replaces one that dies.
+ * - LW_BALANCER=none (default): the processes share PORT through node:cluster.
+ * - LW_BALANCER=nginx: each process listens on a loopback port of its own, and Debian's nginx,
+ *   configured under LW_DATA_DIR/balancer, is the public LW_HOST:PORT, round-robin, no stickiness.
  */
 import cluster from 'node:cluster';
+import { fork, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
-import { createApp } from './app.ts';
+import { fileURLToPath } from 'node:url';
+import { CONFORMANCE_UPLOAD_LIMIT_BYTES } from '@loopwright/contract';
 import { ConfigError, describeDefaults, loadConfig, type Config } from './config.ts';
-import { createDataSource } from './data-source.ts';
-import { serveWebApp } from './web/static.ts';
+import { nginxSlot } from './processes/nginx.ts';
+import { listeningPort, Supervisor, type SlotSpec } from './processes/supervisor.ts';
+
+const SERVE_ENTRY = path.join(path.dirname(fileURLToPath(import.meta.url)), 'serve.ts');
 
 function log(message: string): void {
   process.stdout.write(`loopwright-api: ${message}\n`);
-}
-
-async function initialiseWithRetry(config: Config) {
-  for (let attempt = 1; ; attempt += 1) {
-    const dataSource = createDataSource(config.db);
-    try {
-      return await dataSource.initialize();
-    } catch (err) {
-      if (attempt >= 60) throw err;
-      log(`database ${config.db.host}:${config.db.port} not reachable yet (${(err as Error).message}); retrying`);
-      await new Promise((resolve) => setTimeout(resolve, 1000));
-    }
-  }
 }
 
 /**
@@ -35,68 +27,93 @@ async function initialiseWithRetry(config: Config) {
  * lets more of them die young. In the benchmark it cut the API's CPU per request by about a sixth.
  */
 const SEMI_SPACE_MB = 64;
-/** A process that dies sooner than this after its start is failing to start: stop, do not loop. */
-const MIN_LIFETIME_MS = 30_000;
+const SERVE_EXEC_ARGV = [...process.execArgv, `--max-semi-space-size=${SEMI_SPACE_MB}`];
+/** A serving process waits up to a minute for MariaDB at start-up; allow that and its own start. */
+const READY_TIMEOUT_MS = 120_000;
 
-function superviseWorkers(count: number): void {
-  let stopping = false;
-  const startedAt = new Map<number, number>();
-  cluster.setupPrimary({ execArgv: [...process.execArgv, `--max-semi-space-size=${SEMI_SPACE_MB}`] });
-  const fork = () => {
-    const worker = cluster.fork();
-    startedAt.set(worker.id, Date.now());
-  };
-  const stop = (exitCode: number) => {
-    stopping = true;
-    for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill('SIGTERM');
-    setTimeout(() => process.exit(exitCode), 6000).unref();
-    if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(exitCode);
-  };
-  cluster.on('exit', (worker, code, signal) => {
-    if (stopping) {
-      if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(process.exitCode ?? 0);
-      return;
-    }
-    const livedMs = Date.now() - (startedAt.get(worker.id) ?? 0);
-    if (livedMs < MIN_LIFETIME_MS) {
-      log(`API process ${worker.process.pid} stopped during start-up (${signal ?? code}); stopping`);
-      process.exitCode = 1;
-      stop(1);
-      return;
-    }
-    log(`API process ${worker.process.pid} exited (${signal ?? code}); starting another`);
-    fork();
-  });
-  for (let i = 0; i < count; i += 1) fork();
-  process.once('SIGTERM', () => stop(0));
-  process.once('SIGINT', () => stop(0));
+const processName = (i: number) => `api-${i + 1}`;
+
+/** node:cluster workers sharing PORT. */
+function clusterSlots(config: Config): SlotSpec[] {
+  cluster.setupPrimary({ exec: SERVE_ENTRY, execArgv: SERVE_EXEC_ARGV });
+  return Array.from({ length: config.processes }, (_, i) => ({
+    name: processName(i),
+    start: () => cluster.fork({ LW_PROCESS_NAME: processName(i) }).process,
+    ready: async (child: ChildProcess) => void (await listeningPort(child, READY_TIMEOUT_MS)),
+  }));
+}
+
+/**
+ * Processes on loopback ports of their own for the balancer. Each first starts on port 0 (the system
+ * picks a free one) and is started again on the port it got, which is the one nginx knows.
+ */
+function backendSlots(config: Config): { slots: SlotSpec[]; ports: number[] } {
+  const ports: number[] = [];
+  const slots = Array.from({ length: config.processes }, (_, i): SlotSpec => ({
+    name: processName(i),
+    start: () =>
+      fork(SERVE_ENTRY, [], {
+        execArgv: SERVE_EXEC_ARGV,
+        env: {
+          ...process.env,
+          LW_PROCESS_NAME: processName(i),
+          LW_HOST: '127.0.0.1',
+          PORT: String(ports[i] ?? 0),
+          // Only the balancer on this machine may say who the client is (rate limits, audit addresses).
+          LW_TRUST_PROXY: process.env.LW_TRUST_PROXY ?? 'loopback',
+        },
+      }),
+    ready: async (child) => {
+      ports[i] = await listeningPort(child, READY_TIMEOUT_MS);
+    },
+  }));
+  return { slots, ports };
 }
 
 async function main(): Promise<void> {
   const config = loadConfig();
-  if (cluster.isPrimary) {
-    for (const line of describeDefaults(config)) log(line);
-    if (config.processes > 1) log(`starting ${config.processes} API processes`);
-    superviseWorkers(config.processes);
-    return;
-  }
-  const dataSource = await initialiseWithRetry(config);
-  const built = createApp({ config, dataSource });
-
-  const appDist = path.resolve(process.cwd(), config.appDistDir);
-  if (!serveWebApp(built.app, appDist)) {
-    log(`no built web app at ${appDist} (build packages/app or set LW_APP_DIST); serving the API only`);
-  }
-
-  const server = built.app.listen(config.port, config.host, () => log(`listening on http://${config.host}:${config.port}`));
+  for (const line of describeDefaults(config)) log(line);
+  const supervisor = new Supervisor(log, (message) => {
+    log(`error: ${message}; stopping`);
+    process.exit(1);
+  });
+  let stopping = false;
   const stop = () => {
-    server.close(() => {
-      void built.close().then(() => dataSource.destroy()).finally(() => process.exit(0));
-    });
-    setTimeout(() => process.exit(0), 5000).unref();
+    if (stopping) return;
+    stopping = true;
+    void supervisor.stop().then(() => process.exit(process.exitCode ?? 0));
   };
   process.once('SIGTERM', stop);
   process.once('SIGINT', stop);
+
+  try {
+    if (config.balancer === 'nginx') {
+      const backends = backendSlots(config);
+      log(`starting ${config.processes} API process${config.processes > 1 ? 'es' : ''} behind nginx`);
+      await supervisor.add(backends.slots);
+      const dir = path.resolve(process.cwd(), config.dataDir, 'balancer');
+      const slot = await nginxSlot(
+        {
+          host: config.host,
+          port: config.port,
+          backendPorts: backends.ports,
+          dir,
+          maxBodyBytes: 2 * Math.max(config.bodyLimitBytes, config.uploadLimitBytes, CONFORMANCE_UPLOAD_LIMIT_BYTES),
+          readTimeoutS: config.compute.timeoutS + 30,
+        },
+        READY_TIMEOUT_MS,
+      );
+      await supervisor.add([slot]);
+      log(`nginx on http://${config.host}:${config.port} → ${backends.ports.map((p) => `127.0.0.1:${p}`).join(', ')} (configuration in ${dir})`);
+    } else {
+      if (config.processes > 1) log(`starting ${config.processes} API processes on one port`);
+      await supervisor.add(clusterSlots(config));
+    }
+  } catch (err) {
+    log(`error: ${(err as Error).message}; stopping`);
+    await supervisor.stop();
+    process.exit(1);
+  }
 }
 
 main().catch((err: unknown) => {

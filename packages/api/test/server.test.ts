@@ -1,5 +1,7 @@
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs/promises';
+import net from 'node:net';
+import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
@@ -16,6 +18,40 @@ async function childrenOf(pid: number): Promise<number[]> {
     if (stat && Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]) === pid) children.push(Number(entry));
   }
   return children;
+}
+
+/** True while the process runs (a zombie, waiting for a reaper a container's PID 1 may never be, has stopped). */
+async function running(pid: number): Promise<boolean> {
+  const stat = await fs.readFile(`/proc/${pid}/stat`, 'utf8').catch(() => '');
+  return stat !== '' && stat.slice(stat.lastIndexOf(')') + 2)[0] !== 'Z';
+}
+
+/** Waits up to 5 s for every pid to stop; returns which still run. */
+async function stillRunning(pids: readonly number[]): Promise<boolean[]> {
+  let alive = await Promise.all(pids.map(running));
+  for (let waitedMs = 0; alive.some(Boolean) && waitedMs < 5000; waitedMs += 100) {
+    await new Promise((resolve) => setTimeout(resolve, 100));
+    alive = await Promise.all(pids.map(running));
+  }
+  return alive;
+}
+
+function startServer(env: Record<string, string>) {
+  const server = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], { cwd: API_DIR, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  let output = '';
+  server.stdout.on('data', (chunk) => (output += String(chunk)));
+  server.stderr.on('data', (chunk) => (output += String(chunk)));
+  const exited = new Promise<number | null>((resolve) => server.once('exit', (code) => resolve(code)));
+  return { server, exited, output: () => output };
+}
+
+async function healthy(url: string): Promise<Response | undefined> {
+  let health: Response | undefined;
+  for (let attempt = 0; attempt < 300 && !health?.ok; attempt += 1) {
+    health = await fetch(url).catch(() => undefined);
+    if (!health?.ok) await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+  return health;
 }
 
 describe('src/server.ts', () => {
@@ -47,20 +83,64 @@ describe('src/server.ts', () => {
       expect(await exited).toBe(0);
       // Children (the serving process, tsx's esbuild service) end just after the supervisor: allow them
       // a few seconds, then every one must be gone.
-      // A zombie (state Z, waiting for a reaper that a container's PID 1 may never be) has stopped too.
-      const running = async (pid: number) => {
-        const stat = await fs.readFile(`/proc/${pid}/stat`, 'utf8').catch(() => '');
-        return stat !== '' && stat.slice(stat.lastIndexOf(')') + 2)[0] !== 'Z';
-      };
-      const alive = () => Promise.all(workers.map(running));
-      let stillThere = await alive();
-      for (let waitedMs = 0; stillThere.some(Boolean) && waitedMs < 5000; waitedMs += 100) {
-        await new Promise((resolve) => setTimeout(resolve, 100));
-        stillThere = await alive();
-      }
-      expect(stillThere).toEqual(workers.map(() => false));
+      expect(await stillRunning(workers)).toEqual(workers.map(() => false));
     } finally {
       if (server.exitCode === null) server.kill('SIGKILL');
+    }
+  });
+
+  it('with LW_BALANCER=nginx runs each process on a loopback port of its own behind nginx, round-robin, and stops all of it on SIGTERM', async () => {
+    const dataDir = await fs.mkdtemp(path.join(os.tmpdir(), 'lw-balancer-'));
+    const port = await findFreePort();
+    const { server, exited, output } = startServer({ PORT: String(port), ...dbEnv(testDb()), LW_BALANCER: 'nginx', LW_API_PROCESSES: '2', LW_DATA_DIR: dataDir });
+    try {
+      const health = await healthy(`http://127.0.0.1:${port}/api/health`);
+      expect(health?.status).toBe(200);
+      // nginx (Debian's) accepts the configuration the server generated.
+      const configFile = path.join(dataDir, 'balancer', 'nginx.conf');
+      const check = spawnSync('/usr/sbin/nginx', ['-t', '-p', path.join(dataDir, 'balancer'), '-c', configFile, '-e', path.join(dataDir, 'balancer', 'check.log')], { encoding: 'utf8' });
+      expect(check.stderr).toMatch(/syntax is ok/);
+      expect(check.status).toBe(0);
+      const config = await fs.readFile(configFile, 'utf8');
+      const backends = [...config.matchAll(/server 127\.0\.0\.1:(\d+)/g)].map((m) => Number(m[1]));
+      expect(backends).toHaveLength(2);
+      expect(new Set([...backends, port]).size).toBe(3);
+      expect(config).toContain(`listen 127.0.0.1:${port};`);
+      // No stickiness: consecutive requests alternate between the two processes, each of which also answers on its own port.
+      const names: string[] = [];
+      for (let i = 0; i < 6; i += 1) names.push((await fetch(`http://127.0.0.1:${port}/api/health`)).headers.get('x-loopwright-process') ?? '');
+      expect(names.slice().sort()).toEqual(['api-1', 'api-1', 'api-1', 'api-2', 'api-2', 'api-2']);
+      for (let i = 1; i < names.length; i += 1) expect(names[i]).not.toBe(names[i - 1]);
+      const direct = await Promise.all(backends.map(async (p) => (await fetch(`http://127.0.0.1:${p}/api/health`)).headers.get('x-loopwright-process')));
+      expect(direct.sort()).toEqual(['api-1', 'api-2']);
+
+      const children = await childrenOf(server.pid!);
+      expect(children.length).toBeGreaterThanOrEqual(3);
+      server.kill('SIGTERM');
+      expect(await exited).toBe(0);
+      expect(await stillRunning(children)).toEqual(children.map(() => false));
+      expect(output()).toMatch(/nginx on http:\/\/127\.0\.0\.1:\d+ → 127\.0\.0\.1:\d+, 127\.0\.0\.1:\d+/);
+    } finally {
+      if (server.exitCode === null) server.kill('SIGKILL');
+      await fs.rm(dataDir, { recursive: true, force: true });
+    }
+  });
+
+  it('stops with exit code 1, instead of retrying for ever, when the balancer cannot take its port', async () => {
+    const dataDir = await fs.mkdtemp(path.join(os.tmpdir(), 'lw-balancer-'));
+    const squatter = net.createServer();
+    await new Promise<void>((resolve) => squatter.listen(0, '127.0.0.1', resolve));
+    const port = (squatter.address() as net.AddressInfo).port;
+    const { server, exited, output } = startServer({ PORT: String(port), ...dbEnv(testDb()), LW_BALANCER: 'nginx', LW_API_PROCESSES: '1', LW_DATA_DIR: dataDir });
+    try {
+      expect(await exited).toBe(1);
+      expect(output()).toMatch(/nginx did not start \(attempt 3 of 3\)/);
+      expect(output()).toMatch(/nginx could not be started/);
+      expect(await childrenOf(server.pid!)).toEqual([]);
+    } finally {
+      if (server.exitCode === null) server.kill('SIGKILL');
+      squatter.close();
+      await fs.rm(dataDir, { recursive: true, force: true });
     }
   });
 });

@@ -33,7 +33,8 @@ interface SmtpServerCtor {
   };
 }
 
-export async function startSmtpFake(): Promise<SmtpFake> {
+/** Listens on `port` (0: a free one), so a test can stop the relay and bring it back where the API expects it. */
+export async function startSmtpFake(port = 0): Promise<SmtpFake> {
   const { SMTPServer } = requireFromApi('smtp-server') as { SMTPServer: SmtpServerCtor };
   const { simpleParser } = requireFromApi('mailparser') as {
     simpleParser(stream: NodeJS.ReadableStream): Promise<{ to?: unknown; subject?: string; text?: string; html?: string | false }>;
@@ -63,10 +64,9 @@ export async function startSmtpFake(): Promise<SmtpFake> {
         .catch((err: Error) => callback(err));
     },
   });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const port = (server.server.address() as AddressInfo).port;
+  await new Promise<void>((resolve) => server.listen(port, '127.0.0.1', resolve));
   return {
-    port,
+    port: (server.server.address() as AddressInfo).port,
     messages,
     waitFor(match, timeoutMs = 20_000) {
       const found = messages.find(match);

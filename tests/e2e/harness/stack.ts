@@ -1,125 +1,138 @@
 /**
- * The whole product for browser tests: a fresh project-local MariaDB, the API's migrations and demo
- * seed, the SMTP fake, and the API app serving the built web app (as the API's server does) on a
- * free loopback port.
+ * The whole product for browser and fault tests: a fresh project-local MariaDB, the API's migrations
+ * and demo seed (src/prepare-db.ts, as `npm start` runs them), the SMTP fake, and the real server
+ * (src/server.ts) serving the built web app on a free loopback port — by default two API processes
+ * behind Debian's nginx, round-robin, as the scale-out layout runs.
  */
+import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import fs from 'node:fs/promises';
 import path from 'node:path';
-import type { Server } from 'node:http';
-import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 import { startMariaDb, type MariaDbInstance } from '../../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { APP_DIST, ROOT } from './paths.ts';
+import { startServer, type ServerProcess } from './server.ts';
 import { startSmtpFake, type SmtpFake } from './smtpFake.ts';
+
+export interface StackOptions {
+  /** Holds `mariadb/` and the server's LW_DATA_DIR `server/`; removed when the stack stops. */
+  readonly dataDir?: string;
+  /** LW_API_PROCESSES (default 2). */
+  readonly processes?: number;
+  /** LW_BALANCER (default nginx). */
+  readonly balancer?: 'nginx' | 'none';
+  /** Serve the built web app (default true; the fault tests need only the API). */
+  readonly app?: boolean;
+  /** More settings for the server (they win over the stack's). */
+  readonly env?: Readonly<Record<string, string>>;
+}
 
 export interface Stack {
   readonly baseUrl: string;
   readonly mail: SmtpFake;
+  readonly db: MariaDbInstance;
+  readonly dataDir: string;
+  /** The server's settings (LW_DB_*, LW_SMTP_*, PORT, …), for tools run against the same stack. */
+  readonly env: Readonly<Record<string, string>>;
+  server: ServerProcess;
+  /** Stops the server (all its processes) and starts it again on the same port and data. */
+  restartServer(): Promise<void>;
+  /** Stops the SMTP fake (its port refuses connections) and, with `restartMail`, starts it again on the same port. */
+  stopMail(): Promise<void>;
+  restartMail(): Promise<void>;
   stop(): Promise<void>;
 }
 
-const requireFromApi = createRequire(path.join(ROOT, 'packages', 'api', 'package.json'));
-
-/**
- * The slice of the API package this harness calls. Loaded by path at run time so the app's tooling
- * type-check does not pull in the server's sources (they have their own tsconfig and checks).
- */
-interface ApiModule {
-  loadConfig(env: NodeJS.ProcessEnv): { db: unknown };
-  createDataSource(db: unknown): { initialize(): Promise<unknown>; destroy(): Promise<void> };
-  runMigrations(dataSource: unknown): Promise<unknown>;
-  seedDemo(dataSource: unknown, bcryptRounds: number): Promise<unknown>;
-  createApp(options: { config: unknown; dataSource: unknown; log: () => void }): { app: ExpressApp; close(): Promise<void> };
-}
-
-interface ExpressApp {
-  use(handler: unknown): void;
-  get(pattern: RegExp, handler: (req: unknown, res: { set(k: string, v: string): { sendFile(p: string): void } }) => void): void;
-  listen(port: number, host: string, cb: () => void): Server;
-}
-
-interface ExpressModule {
-  static(root: string, options: { index: false }): unknown;
-}
-
-/** The API's settings module: free of side effects, so it loads before process.env is set. */
+/** The API's settings module: free of side effects, loaded by path so this harness's type check skips the server's sources. */
 interface ApiConfigModule {
   dbEnv(db: { host: string; port: number; user: string; password: string; database: string }): Record<string, string>;
 }
 
-const API_CONFIG = path.join(ROOT, 'packages', 'api', 'src', 'config.ts');
-const API_INDEX = path.join(ROOT, 'packages', 'api', 'src', 'index.ts');
+const API_DIR = path.join(ROOT, 'packages', 'api');
+const API_CONFIG = path.join(API_DIR, 'src', 'config.ts');
 
-export async function startStack(options: { dataDir?: string } = {}): Promise<Stack> {
-  if (!existsSync(path.join(APP_DIST, 'index.html'))) throw new Error(`no built app at ${APP_DIST}: run vite build first`);
-  const dataDir = options.dataDir ?? path.join(ROOT, '.data', `e2e-${process.pid}`);
-  const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_e2e', user: 'loopwright', password: 'e2e-only-password' });
-  let mail: SmtpFake;
-  try {
-    mail = await startSmtpFake();
-  } catch (err) {
-    await db.stop();
-    throw err;
-  }
-  try {
-    return await startApi(db, mail, dataDir);
-  } catch (err) {
-    // Leave nothing running when start-up fails half-way.
-    await mail.stop();
-    await db.stop();
-    throw err;
-  }
+function runPrepareDb(env: Record<string, string>): Promise<void> {
+  return new Promise((resolve, reject) => {
+    let output = '';
+    const child = spawn(process.execPath, ['--import', 'tsx', 'src/prepare-db.ts'], { cwd: API_DIR, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+    child.stdout.on('data', (chunk: Buffer) => (output += chunk.toString()));
+    child.stderr.on('data', (chunk: Buffer) => (output += chunk.toString()));
+    child.once('exit', (code) => (code === 0 ? resolve() : reject(new Error(`prepare-db failed (exit ${code}):\n${output}`))));
+  });
 }
 
-async function startApi(db: MariaDbInstance, mail: SmtpFake, dataDir: string): Promise<Stack> {
-  const port = await findFreePort();
-  const baseUrl = `http://127.0.0.1:${port}`;
-  const { dbEnv } = (await import(pathToFileURL(API_CONFIG).href)) as ApiConfigModule;
-  const env: Record<string, string> = {
-    NODE_ENV: 'test',
-    ...dbEnv(db),
-    LW_BCRYPT_ROUNDS: '4',
-    LW_SMTP_HOST: '127.0.0.1',
-    LW_SMTP_PORT: String(mail.port),
-    LW_PUBLIC_URL: baseUrl,
-    LW_OUTBOX_INTERVAL_MS: '500',
-    LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
+export async function startStack(options: StackOptions = {}): Promise<Stack> {
+  const withApp = options.app ?? true;
+  if (withApp && !existsSync(path.join(APP_DIST, 'index.html'))) throw new Error(`no built app at ${APP_DIST}: run vite build first`);
+  const processes = options.processes ?? 2;
+  const balancer = options.balancer ?? 'nginx';
+  const dataDir = options.dataDir ?? path.join(ROOT, '.data', `e2e-${process.pid}`);
+  await fs.rm(dataDir, { recursive: true, force: true });
+  const stops: (() => Promise<void>)[] = [];
+  const stopAll = async () => {
+    for (const stop of stops.reverse()) await stop().catch(() => {});
+    stops.length = 0;
   };
-  // The API reads its settings from process.env; put back what was there when the stack stops
-  // (the benchmark runs in one process with others).
-  const saved = Object.fromEntries(Object.keys(env).map((k) => [k, process.env[k]]));
-  Object.assign(process.env, env);
-  const api = (await import(pathToFileURL(API_INDEX).href)) as ApiModule;
-  const config = api.loadConfig(process.env);
-  const dataSource = api.createDataSource(config.db);
-  await dataSource.initialize();
-  await api.runMigrations(dataSource);
-  await api.seedDemo(dataSource, 4);
-  const built = api.createApp({ config, dataSource, log: () => {} });
-  const express = requireFromApi('express') as ExpressModule;
-  built.app.use(express.static(APP_DIST, { index: false }));
-  built.app.get(/^(?!\/api(\/|$)).*/, (_req, res) => {
-    res.set('Cache-Control', 'no-cache').sendFile(path.join(APP_DIST, 'index.html'));
-  });
-  const server = await new Promise<Server>((resolve) => {
-    const s = built.app.listen(port, '127.0.0.1', () => resolve(s));
-  });
-  return {
-    baseUrl,
-    mail,
-    async stop() {
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-      await built.close();
-      await dataSource.destroy();
-      await mail.stop();
-      await db.stop();
-      await fs.rm(dataDir, { recursive: true, force: true });
-      for (const [key, value] of Object.entries(saved)) {
-        if (value === undefined) delete process.env[key];
-        else process.env[key] = value;
-      }
-    },
-  };
+  try {
+    const db = await startMariaDb({ dataDir: path.join(dataDir, 'mariadb'), fresh: true, database: 'loopwright_e2e', user: 'loopwright', password: 'e2e-only-password' });
+    stops.push(() => db.stop());
+    let mail = await startSmtpFake();
+    const mailPort = mail.port;
+    stops.push(() => mail.stop());
+
+    const port = await findFreePort();
+    const baseUrl = `http://127.0.0.1:${port}`;
+    const { dbEnv } = (await import(pathToFileURL(API_CONFIG).href)) as ApiConfigModule;
+    const env: Record<string, string> = {
+      NODE_ENV: 'test',
+      PORT: String(port),
+      ...dbEnv(db),
+      LW_DATA_DIR: path.join(dataDir, 'server'),
+      LW_APP_DIST: withApp ? APP_DIST : path.join(dataDir, 'no-app'),
+      LW_API_PROCESSES: String(processes),
+      LW_BALANCER: balancer,
+      LW_BCRYPT_ROUNDS: '4',
+      LW_SMTP_HOST: '127.0.0.1',
+      LW_SMTP_PORT: String(mailPort),
+      LW_PUBLIC_URL: baseUrl,
+      LW_OUTBOX_INTERVAL_MS: '500',
+      LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
+      ...options.env,
+    };
+    await runPrepareDb(env);
+    let server = await startServer(env, { expectedProcesses: processes });
+    stops.push(() => stack.server.stop());
+
+    const stack: Stack = {
+      baseUrl,
+      get mail() {
+        return mail;
+      },
+      db,
+      dataDir,
+      env,
+      server,
+      async restartServer() {
+        await stack.server.stop();
+        server = await startServer(env, { expectedProcesses: processes });
+        stack.server = server;
+      },
+      async stopMail() {
+        await mail.stop();
+      },
+      async restartMail() {
+        mail = await startSmtpFake(mailPort);
+      },
+      async stop() {
+        await stopAll();
+        await fs.rm(dataDir, { recursive: true, force: true });
+      },
+    };
+    return stack;
+  } catch (err) {
+    // Leave nothing running when start-up fails half-way.
+    await stopAll();
+    throw err;
+  }
 }
