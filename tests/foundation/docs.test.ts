@@ -17,6 +17,10 @@ const NOT_CITATIONS: Readonly<Record<string, string>> = {
   Q1: 'a Q format (Q1.15)',
   O2: 'the gcc optimisation flag -O2',
   SHA256: 'the hash function SHA-256',
+  C0: 'the C0 control characters (U+0000-U+001F)',
+  C1: 'the C1 control characters (U+0080-U+009F)',
+  E0: 'a byte of a percent-encoded path (%E0)',
+  A4: 'a byte of a percent-encoded path (%A4)',
 };
 
 function trackedFiles(): string[] {
