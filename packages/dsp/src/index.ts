@@ -43,3 +43,4 @@ export { measureAcquisition, cascadeDcGain } from './analysis/acquisitionSim.ts'
 export { wordLengthSearch, wordLengthSearchAsync, wordLengthSteps } from './wordlength/wordLengthSearch.ts';
 export { compareVectors } from './vectors/compareVectors.ts';
 export { simResultToJson } from './sim/simResultJson.ts';
+export { referenceRtlTiming, referenceRtlWarnings, clocksPerUpdate } from './rtl/referenceTiming.ts';

@@ -14,6 +14,10 @@ import { toolVersions, type ToolVersions } from './versions.ts';
 import { cHeaderView } from './views/cHeader.ts';
 import type { ArtifactHeader } from './views/header.ts';
 import { readmeView } from './views/readme.ts';
+import { artifactFile as file, type ArtifactFile } from './artifactFile.ts';
+import type { HexMemoryFile } from './hexVectors.ts';
+import { rtlFileNames, rtlModel } from './rtl.ts';
+import { renderRtl, rtlPurposes } from './rtlArtifacts.ts';
 import { verilogView } from './views/verilog.ts';
 import { vhdlView } from './views/vhdl.ts';
 
@@ -24,14 +28,11 @@ export interface ReleaseComputation extends HandoffInput {
   readonly results: Readonly<Record<string, unknown>>;
   readonly vectorsCsv: string;
   readonly vectorColumns: readonly { name: string; meaning: string }[];
+  readonly vectorHex: readonly HexMemoryFile[];
+  readonly vectorSamples: number;
 }
 
-export interface ArtifactFile {
-  readonly name: string;
-  readonly mediaType: string;
-  readonly bytes: Buffer;
-  readonly sha256: string;
-}
+export type { ArtifactFile } from './artifactFile.ts';
 
 export interface ManifestConstant {
   readonly name: string;
@@ -72,6 +73,7 @@ export function artifactNames(name: string) {
     cHeader: `${name}.h`,
     vectors: `${name}_vectors.csv`,
     readme: 'README.txt',
+    rtl: rtlFileNames(name),
   } as const;
 }
 
@@ -97,12 +99,25 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
     { name: names.verilog, purpose: 'Verilog localparams, to `include inside a module body' },
     { name: names.cHeader, purpose: 'C11 header of macros typed by <stdint.h>' },
     { name: names.vectors, purpose: 'golden vectors, bit-true, CSV' },
+    ...computation.vectorHex.map((h) => ({ name: h.fileName, purpose: `golden column ${h.column} as a $readmemh file (${h.widthBits}-bit words, ${h.digits} hex digits a line)` })),
+    ...rtlPurposes(names.rtl),
   ];
+  const rtl = rtlModel(spec.name, computation.plan);
   const files: ArtifactFile[] = [
     file(names.vhdl, 'text/x-vhdl', renderTemplate('vhdl', vhdlView(model, header(names.vhdl)))),
     file(names.verilog, 'text/x-verilog', renderTemplate('verilog', verilogView(model, header(names.verilog)))),
     file(names.cHeader, 'text/x-c', renderTemplate('cHeader', cHeaderView(model, header(names.cHeader)))),
     file(names.vectors, 'text/csv', computation.vectorsCsv),
+    ...computation.vectorHex.map((h) => file(h.fileName, 'text/plain', h.text)),
+    ...renderRtl({
+      rtl,
+      files: names.rtl,
+      vhdlPackageFile: names.vhdl,
+      verilogIncludeFile: names.verilog,
+      hex: computation.vectorHex,
+      samples: computation.vectorSamples,
+      header,
+    }),
     file(
       names.readme,
       'text/plain',
@@ -118,6 +133,9 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
           files: [...purposes, { name: names.readme, purpose: 'this file' }],
           vectorsFile: names.vectors,
           vectorColumns: computation.vectorColumns,
+          rtl,
+          rtlFiles: { vhdlPackage: names.vhdl, ...names.rtl },
+          samples: computation.vectorSamples,
         }),
       ),
     ),
@@ -153,10 +171,5 @@ function buildManifest(
     files: files.map((f) => ({ name: f.name, bytes: f.bytes.length, sha256: f.sha256 })),
     caution: CAUTION,
   };
-}
-
-function file(name: string, mediaType: string, text: string): ArtifactFile {
-  const bytes = Buffer.from(text, 'utf8');
-  return { name, mediaType, bytes, sha256: sha256Hex(bytes) };
 }
 

@@ -75,6 +75,8 @@ export function withVectors(d: DesignComputation, vectors: ReleaseVectors): Rele
     results: manifestResults(d.analysis, { nco: { tuning: d.plan.tuning, control: d.plan.control, fullScale: d.plan.ncoFullScale }, vectors: vectors.summary }),
     vectorsCsv: vectors.csv,
     vectorColumns: vectors.columns,
+    vectorHex: vectors.hex,
+    vectorSamples: vectors.summary.samples,
   };
 }
 

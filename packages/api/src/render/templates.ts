@@ -17,6 +17,18 @@ export const TEMPLATE_FILES = {
   verilog: 'verilog-include.vh.hbs',
   cHeader: 'c-header.h.hbs',
   readme: 'readme.txt.hbs',
+  'vhdl.round': 'rtl-round.vhd.hbs',
+  'vhdl.nco': 'rtl-nco.vhd.hbs',
+  'vhdl.detector': 'rtl-detector.vhd.hbs',
+  'vhdl.section': 'rtl-section.vhd.hbs',
+  'vhdl.loop': 'rtl-loop.vhd.hbs',
+  'vhdl.testbench': 'rtl-testbench.vhd.hbs',
+  'verilog.round': 'rtl-round.v.hbs',
+  'verilog.nco': 'rtl-nco.v.hbs',
+  'verilog.detector': 'rtl-detector.v.hbs',
+  'verilog.section': 'rtl-section.v.hbs',
+  'verilog.loop': 'rtl-loop.v.hbs',
+  'verilog.testbench': 'rtl-testbench.v.hbs',
 } as const;
 
 export type TemplateId = keyof typeof TEMPLATE_FILES;

@@ -10,6 +10,7 @@ import {
   type LoopSpec,
   type Scenario,
 } from '@loopwright/dsp';
+import { hexMemoryFiles, type HexMemoryFile } from './hexVectors.ts';
 
 type VectorColumn = (typeof VECTOR_CSV_COLUMNS)[number];
 
@@ -31,6 +32,8 @@ export const VECTOR_COLUMNS: readonly { name: VectorColumn; meaning: string }[] 
 export interface ReleaseVectors {
   readonly csv: string;
   readonly columns: readonly { name: string; meaning: string }[];
+  /** The same vectors as $readmemh files, one per column. */
+  readonly hex: readonly HexMemoryFile[];
   /** Scenario, sample count and checksum, recorded in the manifest's results. */
   readonly summary: { readonly scenario: Scenario; readonly samples: number; readonly checksum: number };
 }
@@ -40,6 +43,7 @@ export function goldenVectorsFor(spec: LoopSpec): ReleaseVectors {
   return {
     csv: formatVectorsCsv(v),
     columns: VECTOR_COLUMNS,
+    hex: hexMemoryFiles(spec, v),
     summary: { scenario: v.scenario, samples: v.record.length, checksum: v.checksum },
   };
 }

@@ -30,6 +30,7 @@ import { type RippleFigures, rippleFigures } from './ripple.ts';
 import { type NcoSummary, ncoSummary } from './ncoSummary.ts';
 import { type QuantizationSummary, quantizedLoop } from './quantizedLoop.ts';
 import { type AnalysisVerdict, analysisVerdict, analysisWarnings } from './verdict.ts';
+import { referenceRtlWarnings } from '../rtl/referenceTiming.ts';
 
 export interface AnalyzeOptions {
   /** Phase margin the verdict asks for (default 45°, common practice, no source). */
@@ -170,7 +171,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
     quantization: quantization.summary,
     nco,
     verdict,
-    warnings: [...specWarnings, ...analysisWarnings(spec, discrete, analogMargins)],
+    warnings: [...specWarnings, ...analysisWarnings(spec, discrete, analogMargins), ...referenceRtlWarnings(spec, design.sections.length)],
   };
 }
 

@@ -4,3 +4,4 @@ export type * from './fixed.ts';
 export type * from './nco.ts';
 export type * from './sim.ts';
 export type * from './analysis.ts';
+export type * from './rtl.ts';

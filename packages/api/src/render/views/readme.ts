@@ -3,6 +3,8 @@ import { bitTrueFormats, type BitTruePlan, type LoopSpec, type QuantizedFilter }
 import type { HandoffModel } from '../handoff.ts';
 import { codeNames, commentText } from '../identifiers.ts';
 import { CAUTION_LINES } from '../caution.ts';
+import { clocksPerUpdate } from '@loopwright/dsp';
+import { RTL_PARTS, type RtlFileNames, type RtlModel } from '../rtl.ts';
 
 export interface ReadmeView {
   readonly designName: string;
@@ -17,6 +19,12 @@ export interface ReadmeView {
   readonly vectorColumns: readonly { name: string; meaning: string }[];
   readonly vhdlPackage: string;
   readonly constants: readonly { name: string; code: string }[];
+  readonly rtl: {
+    readonly architecture: readonly string[];
+    readonly ports: readonly { name: string; text: string }[];
+    readonly run: readonly string[];
+    readonly caution: readonly string[];
+  };
 }
 
 export interface ReadmeInput {
@@ -29,6 +37,10 @@ export interface ReadmeInput {
   readonly files: readonly { name: string; purpose: string }[];
   readonly vectorsFile: string;
   readonly vectorColumns: readonly { name: string; meaning: string }[];
+  readonly rtl: RtlModel;
+  readonly rtlFiles: RtlFileNames & { readonly vhdlPackage: string };
+  /** Golden-vector samples the testbenches replay. */
+  readonly samples: number;
 }
 
 const ROUNDING_TEXT: Record<LoopSpec['fixedPoint']['rounding'], string> = {
@@ -100,5 +112,48 @@ export function readmeView(input: ReadmeInput): ReadmeView {
     vectorColumns: input.vectorColumns,
     vhdlPackage: names.vhdlPackage,
     constants: model.codes.map((c) => ({ name: names.constant(c.suffix), code: String(c.code) })),
+    rtl: rtlSection(input),
+  };
+}
+
+/** Architecture, ports and how to run the testbenches of the reference RTL (src/render/rtl.ts). */
+function rtlSection(input: ReadmeInput): ReadmeView['rtl'] {
+  const { rtl, rtlFiles: f, spec, plan } = input;
+  const t = rtl.timing;
+  const available = clocksPerUpdate(spec.clockHz, spec.sampleRateHz);
+  const e = rtl.entities;
+  const rom = plan.waveform === 'square'
+    ? 'no table: the square wave is +/-(2^(B-1) - 1) from the top address bit'
+    : `one ROM of 2^${plan.phaseBits} x ${plan.amplitudeBits} = ${plan.sineTable.length * plan.amplitudeBits} bits (the sine table), read through a register`;
+  return {
+    architecture: [
+      `Entities (modules): ${e.round} (round_s then reduce, as in ARITHMETIC), ${e.nco} (phase accumulator, table, control scaling), ${e.detector}, ${e.section} (one second-order section), ${e.loop} (top).`,
+      `Sequential: the detector takes 1 clock, each section 6 (five multiply-accumulates on one multiplier and one to round and update its state), the NCO advance 1 and the table read 1.`,
+      `Cycles per sample: ${t.cyclesPerSample} = 6 x ${t.sectionCount} sections + 3; sample_strobe may come at most once every ${t.cyclesPerSample} clocks.`,
+      `Latency: valid rises ${t.latencyCycles} clocks after the edge that samples sample_strobe.`,
+      `This spec gives ${available} clocks per loop update (clockHz ${spec.clockHz} / sampleRateHz ${spec.sampleRateHz}): ${available >= t.cyclesPerSample ? 'enough for this architecture' : 'NOT enough for this architecture; the analysis warns on clockHz'}.`,
+      `Multipliers: ${t.multipliers} (detector, one per section, NCO control scaling); ${rom}.`,
+      `Section MAC: the five products sum exactly in Wc + D + 2 bits, then reduce to Wa when Wa < Wc + D + 1, exactly as step 5 of ARITHMETIC.`,
+    ],
+    ports: rtl.ports.map((p) => ({
+      name: p.name,
+      text: `${p.direction === 'in' ? 'in ' : 'out'} ${p.kind === 'bit' ? '1 bit' : `${p.widthBits} bits ${p.kind}`}: ${p.meaning}`,
+    })),
+    run: [
+      `Both testbenches read the ${input.vectorColumns.length - 1} hex files from the working directory, replay all ${input.samples} samples and end with one line:`,
+      '"PASS <samples> samples", or "FAIL sample <n> signal <column> expected <value> got <value>" and a non-zero exit.',
+      `GHDL:   ghdl -a --std=08 ${[f.vhdlPackage, ...RTL_PARTS.map((p) => f.vhdl[p]), f.vhdlTestbench].join(' ')}`,
+      `        ghdl -e --std=08 ${e.testbench} && ghdl -r --std=08 ${e.testbench}`,
+      `Icarus: iverilog -g2005 -o ${e.testbench}.vvp ${[...RTL_PARTS.map((p) => f.verilog[p]), f.verilogTestbench].join(' ')}`,
+      `        vvp -n ${e.testbench}.vvp`,
+      `Lint:   verilator --lint-only -Wall --top-module ${e.loop} ${RTL_PARTS.map((p) => f.verilog[p]).join(' ')}`,
+      `Generics/parameters SAMPLES (fewer samples) and STROBE_PERIOD (clocks between strobes, at least ${t.cyclesPerSample}): ghdl -r ... -gSAMPLES=1024, iverilog -P${e.testbench}.SAMPLES=1024.`,
+      'Or, with Loopwright: npm run -s loopwright -- verify <this folder> (runs whichever simulators are installed).',
+    ],
+    caution: [
+      'The reference RTL is a model to verify your implementation against, bit for bit: it is written for clarity,',
+      'not for timing closure, area or your device. Its cycle count is fixed by the architecture above.',
+      'Review it, simulate your own design against the golden vectors, and verify on the bench before it drives hardware.',
+    ],
   };
 }

@@ -1,0 +1,101 @@
+/** View-models of templates/rtl-loop.vhd.hbs and rtl-testbench.vhd.hbs: the reference loop in VHDL-2008. */
+import type { HexMemoryFile } from '../hexVectors.ts';
+import { codeNames } from '../identifiers.ts';
+import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, type RtlModel, type RtlPart } from '../rtl.ts';
+import type { ArtifactHeader } from './header.ts';
+
+
+type Names = Readonly<Record<keyof typeof RTL_CONSTANTS, string>>;
+
+export interface RtlVhdlView {
+  readonly header: ArtifactHeader;
+  readonly packageName: string;
+  readonly packageFile: string;
+  readonly testbenchFile: string;
+  readonly cyclesPerSample: string;
+  readonly entities: Omit<RtlModel['entities'], 'testbench'>;
+  readonly sineTable: string;
+  readonly names: Names;
+  readonly sections: readonly { instance: string; start: string; input: string; output: string; done: string; b0: string; b1: string; b2: string; a1: string; a2: string }[];
+  readonly last: { readonly output: string; readonly done: string };
+}
+
+export interface RtlTestbenchVhdlView {
+  readonly header: ArtifactHeader;
+  readonly entity: string;
+  readonly loopEntity: string;
+  readonly packageName: string;
+  readonly packageFile: string;
+  /** The RTL files in analysis order, space-separated. */
+  readonly rtlFiles: string;
+  readonly length: string;
+  readonly cyclesPerSample: string;
+  readonly names: Names;
+  readonly inputMemory: string;
+  readonly columns: readonly { memory: string; file: string; digits: string }[];
+  readonly checks: readonly { signal: string; got: string; memory: string; type: string; width: string }[];
+}
+
+export interface VhdlFiles {
+  readonly package: string;
+  readonly parts: Readonly<Record<RtlPart, string>>;
+  readonly testbench: string;
+}
+
+export function rtlVhdlView(rtl: RtlModel, header: ArtifactHeader, files: VhdlFiles): RtlVhdlView {
+  const names = codeNames(rtl.name);
+  const { testbench: _tb, ...entities } = rtl.entities;
+  const last = rtl.sections[rtl.sections.length - 1]!;
+  return {
+    header,
+    packageName: names.vhdlPackage,
+    packageFile: files.package,
+    testbenchFile: files.testbench,
+    cyclesPerSample: String(rtl.timing.cyclesPerSample),
+    entities,
+    sineTable: names.vhdlConstant('SINE'),
+    names: rtlConstantNames(names.vhdlConstant),
+    sections: rtl.sections.map((s) => ({
+      instance: s.instance,
+      start: s.start,
+      input: s.input,
+      output: s.output,
+      done: s.done,
+      b0: names.vhdlConstant(s.coefficients.B0),
+      b1: names.vhdlConstant(s.coefficients.B1),
+      b2: names.vhdlConstant(s.coefficients.B2),
+      a1: names.vhdlConstant(s.coefficients.A1),
+      a2: names.vhdlConstant(s.coefficients.A2),
+    })),
+    last: { output: last.output, done: last.done },
+  };
+}
+
+export function rtlTestbenchVhdlView(
+  rtl: RtlModel,
+  header: ArtifactHeader,
+  files: VhdlFiles,
+  hex: readonly HexMemoryFile[],
+  length: number,
+): RtlTestbenchVhdlView {
+  const names = codeNames(rtl.name);
+  const memory = (column: string) => `golden_${column}`;
+  const byColumn = new Map(hex.map((h) => [h.column, h]));
+  return {
+    header,
+    entity: rtl.entities.testbench,
+    loopEntity: rtl.entities.loop,
+    packageName: names.vhdlPackage,
+    packageFile: files.package,
+    rtlFiles: RTL_PARTS.map((p) => files.parts[p]).join(' '),
+    length: String(length),
+    cyclesPerSample: String(rtl.timing.cyclesPerSample),
+    names: rtlConstantNames(names.vhdlConstant),
+    inputMemory: memory('input_code'),
+    columns: hex.map((h) => ({ memory: memory(h.column), file: h.fileName, digits: String(h.digits) })),
+    checks: CHECKED_COLUMNS.map(({ column, port }) => {
+      const h = byColumn.get(column)!;
+      return { signal: column, got: port, memory: memory(column), type: h.signed ? 'signed' : 'unsigned', width: String(h.widthBits) };
+    }),
+  };
+}
