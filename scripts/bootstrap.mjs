@@ -16,9 +16,11 @@ const PNPM_VERSION = '12.4.2';
 
 /** Debian packages each command needs (gcc ships with the machine; listed so a slimmer one gets it). */
 const DEBIAN_PACKAGES = {
-  start: ['mariadb-server', 'nginx-light'],
-  test: ['mariadb-server', 'nginx-light', 'chromium', 'ghdl', 'iverilog', 'python3-scipy', 'gcc'],
-  bench: ['mariadb-server', 'nginx-light', 'chromium', 'gcc'],
+  // The server verifies every release's reference RTL (GHDL, Icarus) and estimates it (yosys).
+  start: ['mariadb-server', 'nginx-light', 'ghdl', 'iverilog', 'yosys'],
+  test: ['mariadb-server', 'nginx-light', 'chromium', 'ghdl', 'iverilog', 'verilator', 'yosys', 'python3-scipy', 'gcc'],
+  bench: ['mariadb-server', 'nginx-light', 'chromium', 'gcc', 'ghdl', 'iverilog', 'yosys'],
+  // verify and estimate use whichever of ghdl, iverilog and yosys are installed; nothing is forced.
   loopwright: [],
 };
 

@@ -1,0 +1,75 @@
+/**
+ * Schemas of the reference-RTL checks: the verification record (testbenches under GHDL and Icarus)
+ * and the resource estimate (yosys). Pure zod so the app can import the types; re-exported by
+ * ../contract.ts.
+ */
+import { z } from 'zod';
+import { mismatchSchema } from '../releases/contract.ts';
+
+export const SIMULATORS = ['ghdl', 'icarus'] as const;
+export const simulatorSchema = z.enum(SIMULATORS);
+export type Simulator = z.infer<typeof simulatorSchema>;
+
+/** pass: PASS line and exit 0; fail: FAIL line (a mismatch); error: no verdict (compile error, timeout); not-run: not installed. */
+export const simulatorVerdictSchema = z.enum(['pass', 'fail', 'error', 'not-run']);
+export type SimulatorVerdict = z.infer<typeof simulatorVerdictSchema>;
+
+export const simulatorRunSchema = z.object({
+  simulator: simulatorSchema,
+  /** "GHDL", "Icarus": the names the summary uses. */
+  label: z.string(),
+  /** The tool's own version line; null when it is not installed. */
+  version: z.string().nullable(),
+  verdict: simulatorVerdictSchema,
+  /** Samples compared, when it passed. */
+  samples: z.number().int().nullable(),
+  mismatch: mismatchSchema.nullable(),
+  durationMs: z.number().int(),
+  /** The testbench's verdict line, or why there is none. */
+  detail: z.string(),
+});
+export type SimulatorRun = z.infer<typeof simulatorRunSchema>;
+
+/** passed: every simulator passed; failed: any failed or gave no verdict; partial: some passed, the rest not installed; not-run: none installed. */
+export const rtlVerdictSchema = z.enum(['passed', 'failed', 'partial', 'not-run']);
+export type RtlVerdict = z.infer<typeof rtlVerdictSchema>;
+
+export const rtlVerificationSchema = z.object({
+  verdict: rtlVerdictSchema,
+  /** Samples each testbench was asked to replay. */
+  samples: z.number().int(),
+  runs: z.array(simulatorRunSchema),
+  /** One sentence for the release page, the review page and the review e-mail. */
+  summary: z.string(),
+});
+export type RtlVerification = z.infer<typeof rtlVerificationSchema>;
+
+const count = () => z.number().int().min(0);
+export const genericResourcesSchema = z.object({ luts: count(), flipFlops: count(), multipliers: count(), romBits: count() });
+export const ice40ResourcesSchema = z.object({ luts: count(), flipFlops: count(), carries: count(), dspBlocks: count(), ramBlocks: count() });
+export type GenericResources = z.infer<typeof genericResourcesSchema>;
+export type Ice40Resources = z.infer<typeof ice40ResourcesSchema>;
+
+export const resourcePartSchema = z.object({
+  /** "nco", "detector", "section 0" …, "top" (the loop's own registers and glue). */
+  part: z.string(),
+  instance: z.string(),
+  generic: genericResourcesSchema,
+  ice40: ice40ResourcesSchema,
+});
+export type ResourcePart = z.infer<typeof resourcePartSchema>;
+
+export const resourceEstimateSchema = z.discriminatedUnion('state', [
+  z.object({
+    state: z.literal('estimated'),
+    /** yosys's version line. */
+    tool: z.string(),
+    /** What the figures are (and are not): shown beside them everywhere. */
+    label: z.string(),
+    parts: z.array(resourcePartSchema),
+    total: z.object({ generic: genericResourcesSchema, ice40: ice40ResourcesSchema }),
+    durationMs: z.number().int(),
+  }),
+  z.object({ state: z.literal('not-estimated'), reason: z.string() }),
+]);
+export type ResourceEstimate = z.infer<typeof resourceEstimateSchema>;
