@@ -6,9 +6,18 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tryAnalyzeDesign } from '@loopwright/dsp';
 import { renderArtifacts } from '../render/artifacts.ts';
-import { computeRelease, RenderInputError } from '../render/compute.ts';
+import { computeDesign, computeRelease, RenderInputError, validSpec } from '../render/compute.ts';
+import { synthesisSources } from '../render/synthesisSources.ts';
+import { estimateResources } from '../rtl/estimate.ts';
+import { RtlFolderError } from '../rtl/releaseFolder.ts';
+import { verifyFolder } from '../rtl/verify.ts';
 import { simulateScenario, ScenarioInputError } from '../render/simulation.ts';
 import { issuesLine, readJsonFile, resolveUserPath, UsageError } from './input.ts';
+
+export interface CommandOutput {
+  readonly stdout: string;
+  readonly exitCode: number;
+}
 
 export function toJson(value: unknown): string {
   return `${JSON.stringify(value, (_k, v: unknown) => (typeof v === 'bigint' ? v.toString() : v), 2)}\n`;
@@ -54,4 +63,32 @@ export function renderCommand(specPath: string, outDir: string): string {
     manifestSha256: rendered.manifestSha256,
     files: rendered.files.map((f) => ({ name: f.name, bytes: f.bytes.length, sha256: f.sha256 })),
   });
+}
+
+/** verify's exit codes: 0 every installed simulator passed, 1 a FAIL or no verdict, 3 nothing verified. */
+const VERIFY_EXIT = { passed: 0, partial: 0, failed: 1, 'not-run': 3 } as const;
+
+/** Runs the testbenches of a rendered release folder with whichever simulators are installed. */
+export async function verifyCommand(outDir: string, samples: number | undefined): Promise<CommandOutput> {
+  const dir = resolveUserPath(outDir);
+  try {
+    const v = await verifyFolder(dir, samples === undefined ? {} : { samples });
+    return { stdout: toJson(v), exitCode: VERIFY_EXIT[v.verdict] };
+  } catch (err) {
+    if (err instanceof RtlFolderError) throw new UsageError(`OUTDIR: ${err.message}`);
+    throw err;
+  }
+}
+
+/** The yosys resource estimate of the spec's reference RTL, or "not estimated". */
+export async function estimateCommand(specPath: string): Promise<CommandOutput> {
+  const spec = readJsonFile('SPEC.json', specPath);
+  let sources;
+  try {
+    sources = synthesisSources(computeDesign(validSpec(spec)));
+  } catch (err) {
+    if (err instanceof RenderInputError) throw new UsageError(issuesLine('SPEC.json', [{ field: err.field, message: err.message }]));
+    throw err;
+  }
+  return { stdout: toJson(await estimateResources(sources)), exitCode: 0 };
 }

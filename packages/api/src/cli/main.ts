@@ -1,19 +1,22 @@
 /**
- * `loopwright design SPEC.json` | `simulate SPEC.json SCENARIO.json [--vectors N]` | `render SPEC.json OUTDIR`.
+ * `loopwright design SPEC.json` | `simulate SPEC.json SCENARIO.json [--vectors N]` | `render SPEC.json OUTDIR`
+ * | `verify OUTDIR [--samples N]` | `estimate SPEC.json`.
  * stdout carries only the JSON or CSV; errors are one line on stderr. Exit codes: 0 ok, 2 bad input
- * or usage, 1 an internal failure.
+ * or usage, 1 an internal failure; verify: 1 when a testbench FAILs or gives no verdict, 3 when no
+ * simulator is installed (nothing was verified).
  */
 import { pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
-import { designCommand, renderCommand, simulateCommand } from './commands.ts';
+import { designCommand, estimateCommand, renderCommand, simulateCommand, verifyCommand, type CommandOutput } from './commands.ts';
 import { UsageError } from './input.ts';
 
-const USAGE = 'usage: loopwright design SPEC.json | simulate SPEC.json SCENARIO.json [--vectors N] | render SPEC.json OUTDIR';
+const USAGE =
+  'usage: loopwright design SPEC.json | simulate SPEC.json SCENARIO.json [--vectors N] | render SPEC.json OUTDIR | verify OUTDIR [--samples N] | estimate SPEC.json';
 
-export function runCli(argv: readonly string[]): string {
+export async function runCli(argv: readonly string[]): Promise<CommandOutput> {
   let parsed;
   try {
-    parsed = parseArgs({ args: [...argv], allowPositionals: true, strict: true, options: { vectors: { type: 'string' } } });
+    parsed = parseArgs({ args: [...argv], allowPositionals: true, strict: true, options: { vectors: { type: 'string' }, samples: { type: 'string' } } });
   } catch (err) {
     throw new UsageError(`${(err as Error).message.split('\n')[0]}; ${USAGE}`);
   }
@@ -22,33 +25,46 @@ export function runCli(argv: readonly string[]): string {
     if (rest.length !== n) throw new UsageError(`${command} takes ${n} argument${n > 1 ? 's' : ''}, got ${rest.length}; ${USAGE}`);
   };
   if (command !== 'simulate' && parsed.values.vectors !== undefined) throw new UsageError(`--vectors belongs to simulate; ${USAGE}`);
+  if (command !== 'verify' && parsed.values.samples !== undefined) throw new UsageError(`--samples belongs to verify; ${USAGE}`);
+  const ok = (stdout: string): CommandOutput => ({ stdout, exitCode: 0 });
   switch (command) {
     case 'design':
       arity(1);
-      return designCommand(rest[0]!);
+      return ok(designCommand(rest[0]!));
     case 'simulate':
       arity(2);
-      return simulateCommand(rest[0]!, rest[1]!, vectorCount(parsed.values.vectors));
+      return ok(simulateCommand(rest[0]!, rest[1]!, vectorCount(parsed.values.vectors)));
     case 'render':
       arity(2);
-      return renderCommand(rest[0]!, rest[1]!);
+      return ok(renderCommand(rest[0]!, rest[1]!));
+    case 'verify':
+      arity(1);
+      return verifyCommand(rest[0]!, parsed.values.samples === undefined ? undefined : wholeNumber('--samples', parsed.values.samples));
+    case 'estimate':
+      arity(1);
+      return estimateCommand(rest[0]!);
     default:
       throw new UsageError(`${command === undefined ? 'no command given' : `unknown command "${command}"`}; ${USAGE}`);
   }
 }
 
 function vectorCount(text: string | undefined): number | undefined {
-  if (text === undefined) return undefined;
+  return text === undefined ? undefined : wholeNumber('--vectors', text);
+}
+
+function wholeNumber(flag: string, text: string): number {
   const n = Number(text);
   if (!/^[0-9]+$/.test(text) || !Number.isSafeInteger(n) || n < 1 || n > 10_000_000) {
-    throw new UsageError(`--vectors: must be a whole number from 1 to 10000000, got "${text}"`);
+    throw new UsageError(`${flag}: must be a whole number from 1 to 10000000, got "${text}"`);
   }
   return n;
 }
 
-function main(): void {
+async function main(): Promise<void> {
   try {
-    process.stdout.write(runCli(process.argv.slice(2)));
+    const out = await runCli(process.argv.slice(2));
+    process.stdout.write(out.stdout);
+    process.exitCode = out.exitCode;
   } catch (err) {
     if (err instanceof UsageError) {
       process.stderr.write(`loopwright: ${err.message}\n`);
@@ -60,4 +76,4 @@ function main(): void {
   }
 }
 
-if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) main();
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) void main();

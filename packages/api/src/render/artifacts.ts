@@ -81,19 +81,20 @@ export function specDigest(spec: LoopSpec): string {
   return sha256Hex(canonicalJson(spec));
 }
 
+/** The banner of every generated code file of a spec's release, by file name. */
+export function artifactHeaders(spec: LoopSpec): (fileName: string) => ArtifactHeader {
+  const versions = toolVersions();
+  const specSha256 = specDigest(spec);
+  return (fileName) => ({ fileName, designName: spec.name, toolVersion: versions.loopwright, specSha256, caution: CAUTION_SHORT });
+}
+
 export function renderArtifacts(computation: ReleaseComputation): RenderedRelease {
   const { spec } = computation;
   const versions = toolVersions();
   const specSha256 = specDigest(spec);
   const model = handoffModel(computation);
   const names = artifactNames(spec.name);
-  const header = (fileName: string): ArtifactHeader => ({
-    fileName,
-    designName: spec.name,
-    toolVersion: versions.loopwright,
-    specSha256,
-    caution: CAUTION_SHORT,
-  });
+  const header = artifactHeaders(spec);
   const purposes = [
     { name: names.vhdl, purpose: `VHDL-2008 package ${codeNames(spec.name).vhdlPackage} (ieee.numeric_std)` },
     { name: names.verilog, purpose: 'Verilog localparams, to `include inside a module body' },

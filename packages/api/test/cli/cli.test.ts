@@ -133,3 +133,60 @@ describe('loopwright CLI', () => {
     }
   });
 });
+
+describe('loopwright verify and estimate', () => {
+  const noTools = mkdtempSync(join(tmpdir(), 'lw-cli-path-'));
+
+  it('render holds the reference RTL, both testbenches and one hex file per golden column', () => {
+    const dir = workspace();
+    expect(cli(['render', 'spec.json', 'out'], dir).code).toBe(0);
+    const files = readdirSync(join(dir, 'out'));
+    for (const part of ['round', 'nco', 'detector', 'section', 'loop']) {
+      expect(files).toContain(`mains_sync_50hz_${part}.vhd`);
+      expect(files).toContain(`mains_sync_50hz_${part}.v`);
+    }
+    expect(files).toContain('mains_sync_50hz_loop_tb.vhd');
+    expect(files).toContain('mains_sync_50hz_loop_tb.v');
+    for (const column of VECTOR_CSV_COLUMNS.filter((c) => c !== 'sample')) expect(files).toContain(`mains_sync_50hz_${column}.hex`);
+  });
+
+  it('verify exits 0 with the summary when the testbenches pass, 1 with the FAIL when they do not', () => {
+    const dir = workspace();
+    expect(cli(['render', 'spec.json', 'out'], dir).code).toBe(0);
+    const pass = cli(['verify', 'out', '--samples', '200'], dir);
+    expect(pass.code, pass.stderr).toBe(0);
+    expect((JSON.parse(pass.stdout) as { summary: string }).summary).toBe('reference RTL bit-exact in GHDL and Icarus on 200 samples');
+
+    const include = join(dir, 'out', 'mains_sync_50hz.vh');
+    writeFileSync(include, readFileSync(include, 'utf8').replace(/(MAINS_SYNC_50HZ_NCO_TUNING_WORD = 32'd)(\d+)/, (_m, head: string, v: string) => `${head}${Number(v) + 1}`));
+    const fail = cli(['verify', 'out', '--samples', '200'], dir);
+    expect(fail.code).toBe(1);
+    const v = JSON.parse(fail.stdout) as { verdict: string; runs: { simulator: string; verdict: string; detail: string }[] };
+    expect(v.verdict).toBe('failed');
+    // Only the Verilog include was changed: Icarus fails at sample 1, GHDL still passes.
+    expect(v.runs.map((r) => [r.simulator, r.verdict])).toEqual([['ghdl', 'pass'], ['icarus', 'fail']]);
+    expect(v.runs[1]!.detail).toMatch(/^FAIL sample 1 signal nco_phase expected \d+ got \d+$/);
+  });
+
+  it('verify exits 3 when no simulator is installed, and 2 for a folder that is no release', () => {
+    const dir = workspace();
+    expect(cli(['render', 'spec.json', 'out'], dir).code).toBe(0);
+    const r = spawnSync(process.execPath, ['--import', 'tsx', MAIN, 'verify', 'out'], { cwd: ROOT, env: { ...process.env, INIT_CWD: dir, PATH: noTools }, encoding: 'utf8' });
+    expect(r.status).toBe(3);
+    expect((JSON.parse(r.stdout) as { verdict: string }).verdict).toBe('not-run');
+    const none = cli(['verify', 'nowhere'], dir);
+    expect(none.code).toBe(2);
+    expect(none.stderr).toMatch(/^loopwright: OUTDIR: .*holds no readable manifest\.json/);
+  });
+
+  it('estimate prints "not estimated" without yosys and names the field of a bad spec', () => {
+    const dir = workspace();
+    const r = spawnSync(process.execPath, ['--import', 'tsx', MAIN, 'estimate', 'spec.json'], { cwd: ROOT, env: { ...process.env, INIT_CWD: dir, PATH: noTools }, encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout)).toEqual({ state: 'not-estimated', reason: 'yosys is not installed' });
+    writeFileSync(join(dir, 'bad.json'), JSON.stringify({ ...mainsSyncSpec, nco: { ...mainsSyncSpec.nco, phaseBits: 99 } }));
+    const bad = cli(['estimate', 'bad.json'], dir);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/^loopwright: SPEC\.json field nco\.phaseBits/);
+  });
+});

@@ -56,6 +56,11 @@ describe('hand-off flow', () => {
       'mains_sync_50hz.vh',
       'mains_sync_50hz.h',
       'mains_sync_50hz_vectors.csv',
+      ...['input_code', 'nco_phase', 'table_address', 'nco_code', 'detector_code', 'filter_code'].map((c) => `mains_sync_50hz_${c}.hex`),
+      ...['round', 'nco', 'detector', 'section', 'loop'].map((p) => `mains_sync_50hz_${p}.vhd`),
+      'mains_sync_50hz_loop_tb.vhd',
+      ...['round', 'nco', 'detector', 'section', 'loop'].map((p) => `mains_sync_50hz_${p}.v`),
+      'mains_sync_50hz_loop_tb.v',
       'README.txt',
     ]);
     expect(res.body.allowedEvents).toEqual(['request-review', 'withdraw']);
