@@ -12,3 +12,4 @@ export * from './designs.ts';
 export * from './analysis.ts';
 export * from './audit.ts';
 export * from './releases.ts';
+export * from './rtl.ts';

@@ -9,7 +9,7 @@
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { GenericResources, Ice40Resources, ResourceEstimate, ResourcePart } from './contract.ts';
+import type { GenericResources, Ice40Resources, ResourceEstimate, ResourcePart } from '@loopwright/contract';
 import { runProcess, toolVersion } from './processes.ts';
 
 export const ESTIMATE_LABEL =

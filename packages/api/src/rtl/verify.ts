@@ -7,7 +7,7 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { RtlVerdict, RtlVerification, Simulator, SimulatorRun } from './contract.ts';
+import type { RtlVerdict, RtlVerification, Simulator, SimulatorRun } from '@loopwright/contract';
 import { runProcess, toolVersion, type ProcessResult } from './processes.ts';
 import { rtlFolder, type RtlFolder } from './releaseFolder.ts';
 

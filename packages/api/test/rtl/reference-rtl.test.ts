@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { exampleSpecs, referenceRtlTiming } from '@loopwright/dsp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Manifest } from '../../src/render/artifacts.ts';
-import type { RtlVerification } from '../../src/rtl/contract.ts';
+import type { RtlVerification } from '@loopwright/contract';
 import { verifyFolder } from '../../src/rtl/verify.ts';
 import { randomRtlSpecs } from './randomSpecs.ts';
 import { bounded, flipConstantBit, lintVerilog, renderToFolder, tamper } from './rtlCases.ts';

@@ -1,10 +1,9 @@
 /**
- * Schemas of the reference-RTL checks: the verification record (testbenches under GHDL and Icarus)
- * and the resource estimate (yosys). Pure zod so the app can import the types; re-exported by
- * ../contract.ts.
+ * The reference-RTL checks: the verification record (the release's testbenches under GHDL and Icarus)
+ * and the resource estimate (yosys).
  */
 import { z } from 'zod';
-import { mismatchSchema } from '../releases/contract.ts';
+import { mismatchSchema } from './releases.ts';
 
 export const SIMULATORS = ['ghdl', 'icarus'] as const;
 export const simulatorSchema = z.enum(SIMULATORS);
