@@ -127,6 +127,7 @@ export async function runApiBench(): Promise<object> {
     ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '10',
     LW_APP_DIST: path.join(dataDir, 'no-app'),
+    LW_FILE_STORE_DIR: path.join(dataDir, 'files'),
   };
   const config = loadConfig(env);
   const dataSource = createDataSource(config.db);

@@ -54,12 +54,13 @@ export async function runReleaseBench(): Promise<object> {
     NODE_ENV: 'test',
     ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '4',
+    LW_FILE_STORE_DIR: path.join(dataDir, 'files'),
   });
   const dataSource = createDataSource(config.db);
   await dataSource.initialize();
   const services = createServices(dataSource, config);
   // No mail is sent while cutting; the outbox timer stays off.
-  const handoff = createReleaseServices(dataSource, services, loadHandoffConfig({ LW_OUTBOX_INTERVAL_MS: '0' }));
+  const handoff = createReleaseServices(dataSource, { ...services, files: services.handoff.files }, loadHandoffConfig({ LW_OUTBOX_INTERVAL_MS: '0' }));
   try {
     await runMigrations(dataSource);
     await seedDemo(dataSource, config.bcryptRounds);

@@ -1,4 +1,5 @@
 import { availableParallelism } from 'node:os';
+import path from 'node:path';
 import { z } from 'zod';
 
 /**
@@ -15,6 +16,8 @@ const envSchema = z.object({
   PORT: int(0, 65_535).default(8080),
   LW_HOST: z.string().min(1).default('127.0.0.1'),
   LW_APP_DIST: z.string().min(1).default('../app/dist'),
+  /** The content-addressed store of release file bytes (storage/fileStore.ts); default LW_DATA_DIR/files. */
+  LW_FILE_STORE_DIR: z.string().min(1).optional(),
   LW_DB_HOST: z.string().min(1).default('127.0.0.1'),
   LW_DB_PORT: int(1, 65_535).default(3307),
   LW_DB_USER: z.string().min(1).default('loopwright'),
@@ -65,6 +68,8 @@ export interface Config {
   readonly port: number;
   readonly host: string;
   readonly appDistDir: string;
+  /** Absolute: LW_FILE_STORE_DIR, else LW_DATA_DIR/files, resolved against the working directory. */
+  readonly fileStoreDir: string;
   readonly db: {
     readonly host: string;
     readonly port: number;
@@ -140,6 +145,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     port: env.PORT,
     host: env.LW_HOST,
     appDistDir: env.LW_APP_DIST,
+    fileStoreDir: path.resolve(env.LW_FILE_STORE_DIR ?? path.join(env.LW_DATA_DIR, 'files')),
     db: {
       host: env.LW_DB_HOST,
       port: env.LW_DB_PORT,

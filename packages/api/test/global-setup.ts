@@ -11,12 +11,15 @@ const ROOT = path.resolve(import.meta.dirname, '../../..');
 declare module 'vitest' {
   export interface ProvidedContext {
     lwDb: TestDb;
+    /** The release file store of this test run (LW_FILE_STORE_DIR). */
+    lwFileStoreDir: string;
   }
 }
 
 /**
  * One MariaDB for the API tests: the root test command's, when it set LW_DB_PORT, else a fresh
- * project-local one under .data/test-<pid>. Either way the migrations run before any test.
+ * project-local one under .data/test-<pid>. Either way the migrations run before any test, and the
+ * release files go to a file store of this run (.data/test-files-<pid>), removed afterwards.
  */
 export default async function setup(project: TestProject): Promise<() => Promise<void>> {
   let stop = async (): Promise<void> => {};
@@ -44,7 +47,14 @@ export default async function setup(project: TestProject): Promise<() => Promise
       await fs.rm(dataDir, { recursive: true, force: true });
     };
   }
-  Object.assign(process.env, dbEnv(db));
+  const fileStoreDir = path.join(ROOT, '.data', `test-files-${process.pid}`);
+  await fs.rm(fileStoreDir, { recursive: true, force: true });
+  const stopDb = stop;
+  stop = async () => {
+    await stopDb();
+    await fs.rm(fileStoreDir, { recursive: true, force: true });
+  };
+  Object.assign(process.env, dbEnv(db), { LW_FILE_STORE_DIR: fileStoreDir });
   const dataSource = createDataSource({ ...db, poolSize: 2, connectTimeoutMs: 5_000 });
   await dataSource.initialize();
   try {
@@ -53,5 +63,6 @@ export default async function setup(project: TestProject): Promise<() => Promise
     await dataSource.destroy();
   }
   project.provide('lwDb', db);
+  project.provide('lwFileStoreDir', fileStoreDir);
   return stop;
 }

@@ -22,6 +22,7 @@ export function testConfig(overrides: Record<string, string> = {}, db: TestDb = 
     ...dbEnv(db),
     LW_BCRYPT_ROUNDS: '4',
     LW_DB_POOL_SIZE: '5',
+    LW_FILE_STORE_DIR: inject('lwFileStoreDir'),
     // Test files share 127.0.0.1 and one database; the limit itself is tested with addresses of its own.
     LW_REVIEW_LINK_LIMIT_PER_WINDOW: '100000',
     ...overrides,

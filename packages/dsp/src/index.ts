@@ -11,7 +11,7 @@ export { sectionPoleRadius, sectionStabilityFromCodes } from './fixed/sectionPol
 export { sosMagnitudeSquared, maxResponseDeviationDb } from './fixed/sosResponse.ts';
 export { quantizeSections, resolveFractionBits } from './fixed/quantizeSections.ts';
 export { ncoTuning } from './nco/tuningWord.ts';
-export { sineTable, sineFullScale } from './nco/sineTable.ts';
+export { sineTable, sineFullScale, MAX_PHASE_BITS } from './nco/sineTable.ts';
 export { ncoSpectralEstimates } from './nco/spectralEstimates.ts';
 export { ncoControlScaling } from './nco/controlScaling.ts';
 export { designLoopFilter } from './design.ts';

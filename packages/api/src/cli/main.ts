@@ -71,7 +71,8 @@ async function main(): Promise<void> {
       process.exitCode = 2;
       return;
     }
-    process.stderr.write(`loopwright: internal error: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
+    // One line, like every other message: a CI log gets what failed, not the call stack.
+    process.stderr.write(`loopwright: internal error: ${(err instanceof Error ? err.message : String(err)).replace(/\s*\n\s*/g, ' ')}\n`);
     process.exitCode = 1;
   }
 }

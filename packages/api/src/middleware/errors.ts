@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ErrorBody, ErrorCode } from '@loopwright/contract';
 import { AppError } from '../errors.ts';
+import { StoredFileError } from '../storage/fileStore.ts';
 
 /** mysql2 / Node network codes meaning "the database is not reachable right now". */
 const DB_DOWN_CODES = new Set([
@@ -87,6 +88,12 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
     }
     if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported') {
       res.status(415).json(body('unsupported_media_type', 'the request body encoding is not supported'));
+      return;
+    }
+    if (err instanceof StoredFileError) {
+      // Never send bytes that fail their check; say so plainly (the hash, no path) and log it.
+      log(`stored file refused during ${req.method} ${req.originalUrl}`, err);
+      res.status(500).json(body('internal', `a release file could not be served: ${err.message}`));
       return;
     }
     if (isDatabaseUnavailable(err)) {

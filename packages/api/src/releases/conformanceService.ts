@@ -8,7 +8,6 @@ import type { AuditService } from '../services/audit.ts';
 import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from '@loopwright/contract';
 import { ConformanceRun } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
-import { fileContents } from './repository.ts';
 import { compareWithGolden, goldenFromRows, MalformedCapture, parseVectorCsv } from './vectorCompare.ts';
 
 interface RunRow {
@@ -53,7 +52,7 @@ export class ConformanceService {
   async upload(organizationId: number, releaseId: number, file: Express.Multer.File | undefined, user: SessionUser, actor: Actor): Promise<ConformanceRecord> {
     if (!file) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `attach the capture CSV in the multipart field "${CONFORMANCE_UPLOAD_FIELD}"`);
     const row = await this.releases.visibleRow(organizationId, releaseId, user);
-    const goldenFile = (await fileContents(this.dataSource.manager, row.id)).find((f) => f.name.endsWith('_vectors.csv'));
+    const goldenFile = (await this.releases.fileBytes(row.id)).find((f) => f.name.endsWith('_vectors.csv'));
     if (!goldenFile) throw new AppError('internal', 'the release has no golden vectors', 500);
     let got: string[][];
     try {
@@ -66,7 +65,7 @@ export class ConformanceService {
     const stored = manifest.results as { vectors?: { scenario?: GoldenVectors['scenario'] } };
     const spec = manifest.spec;
     if (!stored.vectors?.scenario) throw new AppError('internal', 'the release records no golden-vector scenario', 500);
-    const golden = goldenFromRows(parseVectorCsv(Buffer.from(goldenFile.content).toString('utf8')), stored.vectors.scenario, spec.nco.accumulatorBits);
+    const golden = goldenFromRows(parseVectorCsv(goldenFile.content.toString('utf8')), stored.vectors.scenario, spec.nco.accumulatorBits);
     const result = compareWithGolden(golden, got);
     const id = await this.dataSource.transaction(async (manager) => {
       const inserted = await manager.insert(ConformanceRun, {

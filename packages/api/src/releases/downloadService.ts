@@ -12,7 +12,6 @@ import type { DownloadRecord } from '@loopwright/contract';
 import { bundleFolder, writeBundle } from './bundle.ts';
 import { ReleaseDownload } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
-import { fileContents } from './repository.ts';
 
 export const BUNDLE_NAME = 'bundle';
 
@@ -30,7 +29,7 @@ export class DownloadService {
 
   async sendFile(organizationId: number, releaseId: number, name: string, user: SessionUser, actor: Actor, res: Response): Promise<void> {
     const row = await this.releases.visibleRow(organizationId, releaseId, user);
-    const [file] = await fileContents(this.dataSource.manager, row.id, name);
+    const [file] = await this.releases.fileBytes(row.id, name);
     if (!file) throw notFound(`file ${name} of the release`);
     await this.dataSource.transaction((manager) => this.log(manager, row.id, file.name, user, actor));
     res
@@ -38,19 +37,20 @@ export class DownloadService {
       .type(file.mediaType)
       .attachment(file.name)
       .set('X-Content-SHA256', file.sha256)
-      .send(Buffer.from(file.content));
+      .send(file.content);
   }
 
   async sendBundle(organizationId: number, releaseId: number, user: SessionUser, actor: Actor, res: Response): Promise<void> {
     const row = await this.releases.visibleRow(organizationId, releaseId, user, this.dataSource.manager, true);
-    const files = await fileContents(this.dataSource.manager, row.id);
+    // Every file is read and checked before the first byte goes out, so a bad one is an error reply, not a cut zip.
+    const files = await this.releases.fileBytes(row.id);
     await this.dataSource.transaction((manager) => this.log(manager, row.id, BUNDLE_NAME, user, actor));
     // The folder and file name come from the validated spec name, never from the design's free-text title.
     const specName = (JSON.parse(row.specJson ?? '{}') as { name?: string }).name ?? '';
     assertDesignName(specName);
     const folder = bundleFolder(specName, Number(row.number));
     res.status(200).type('application/zip').attachment(`${folder}.zip`);
-    await writeBundle(res, folder, files.map((f) => ({ name: f.name, content: Buffer.from(f.content) })), new Date(row.createdAt));
+    await writeBundle(res, folder, files.map((f) => ({ name: f.name, content: f.content })), new Date(row.createdAt));
   }
 
   async list(organizationId: number, releaseId: number, user: SessionUser): Promise<DownloadRecord[]> {

@@ -5,6 +5,7 @@ import { MailOutbox } from '../mail/outbox.ts';
 import { createMailTransport } from '../mail/transport.ts';
 import type { AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
+import type { FileStore } from '../storage/fileStore.ts';
 import { ConformanceService } from './conformanceService.ts';
 import { DownloadService } from './downloadService.ts';
 import { ReleaseService } from './releaseService.ts';
@@ -17,17 +18,19 @@ export interface ReleaseServices {
   readonly reviews: ReviewService;
   readonly downloads: DownloadService;
   readonly conformance: ConformanceService;
+  /** Where release file bytes are stored (LW_FILE_STORE_DIR). */
+  readonly files: FileStore;
   /** Stops the outbox timer (part of the app's close()). */
   close(): void;
 }
 
 export function createReleaseServices(
   dataSource: DataSource,
-  deps: { readonly audit: AuditService; readonly designs: DesignService },
+  deps: { readonly audit: AuditService; readonly designs: DesignService; readonly files: FileStore },
   config: HandoffConfig = loadHandoffConfig(),
 ): ReleaseServices {
   const outbox = new MailOutbox(dataSource, createMailTransport(config.smtp), config.mailFrom);
-  const releases = new ReleaseService(dataSource, deps.designs, deps.audit);
+  const releases = new ReleaseService(dataSource, deps.designs, deps.audit, deps.files);
   deps.designs.addDeletionGuard(async (designId, manager) => {
     const n = await releases.releaseCount(designId, manager);
     return n > 0 ? `it has ${n} release(s), which are kept for the record` : null;
@@ -40,6 +43,7 @@ export function createReleaseServices(
     reviews: new ReviewService(dataSource, releases, deps.audit, outbox, config),
     downloads: new DownloadService(dataSource, releases, deps.audit),
     conformance: new ConformanceService(dataSource, releases, deps.audit),
+    files: deps.files,
     close: stopTimer,
   };
 }

@@ -12,12 +12,14 @@ import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
 import { renderArtifacts, type Manifest, type RenderedRelease } from '../render/artifacts.ts';
 import { CAUTION } from '../render/caution.ts';
+import { sha256Hex } from '../render/digest.ts';
+import { StoredFileError, type FileStore } from '../storage/fileStore.ts';
 import { computeRelease, RenderInputError } from '../render/compute.ts';
 import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from '@loopwright/contract';
 import { releaseDiff } from './diff.ts';
 import { Release, ReleaseFile } from './entities/index.ts';
-import { releaseLabel, toFileRecord, toReviewRecord, toSummary, type ReleaseRow } from './records.ts';
-import { fileContents, findRelease, listFiles, listReleases, listReviews, releaseStateTransaction } from './repository.ts';
+import { releaseLabel, toFileRecord, toReviewRecord, toSummary, type FileRow, type ReleaseRow } from './records.ts';
+import { fileRowsWithContent, findRelease, listFiles, listReleases, listReviews, releaseStateTransaction } from './repository.ts';
 import type { ReleaseEvent } from '@loopwright/contract';
 import { allowedEvents, transition } from './stateMachine.ts';
 import { canSee, FIRMWARE_VISIBLE_STATES, seesAllStates } from './visibility.ts';
@@ -54,6 +56,7 @@ export class ReleaseService {
     private readonly dataSource: DataSource,
     private readonly designs: DesignService,
     private readonly audit: AuditService,
+    private readonly files: FileStore,
   ) {}
 
   async cut(organizationId: number, designId: number, actor: Actor): Promise<ReleaseRecord> {
@@ -65,6 +68,11 @@ export class ReleaseService {
   /** Stores a rendered release as the design's next number; returns the release id. */
   async store(design: Pick<DesignRecord, 'id' | 'revision'>, rendered: RenderedRelease, actor: Actor): Promise<number> {
     const designId = design.id;
+    // Bytes first: a row never names bytes the store does not hold (an interrupted cut leaves at most
+    // unreferenced files, which a later cut of the same content reuses).
+    for (const f of rendered.files) {
+      if ((await this.files.put(f.bytes)) !== f.sha256) throw new Error(`file store hashed ${f.name} differently from the render`);
+    }
     return this.dataSource.transaction(async (manager) => {
       await manager.query('SELECT `id` FROM `designs` WHERE `id` = ? FOR UPDATE', [designId]);
       const [{ next }] = (await manager.query('SELECT COALESCE(MAX(`number`), 0) + 1 AS `next` FROM `releases` WHERE `designId` = ?', [designId])) as [{ next: number | string }];
@@ -83,7 +91,7 @@ export class ReleaseService {
       const releaseId = Number(inserted.identifiers[0]?.id);
       await manager.insert(
         ReleaseFile,
-        rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: f.bytes })),
+        rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: null })),
       );
       await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256 } }, manager);
       return releaseId;
@@ -184,10 +192,26 @@ export class ReleaseService {
     return this.getForUser(organizationId, id, { roles: ['designer'] });
   }
 
+  /**
+   * The files of a release (or the one named) with their bytes, each checked against its SHA-256:
+   * from the file store, or from the row for releases cut before the store existed.
+   */
+  async fileBytes(releaseId: number, name?: string): Promise<(FileRow & { content: Buffer })[]> {
+    const rows = await fileRowsWithContent(this.dataSource.manager, releaseId, name);
+    return Promise.all(
+      rows.map(async (row) => {
+        if (row.content === null) return { ...row, content: await this.files.get(row.sha256) };
+        const content = Buffer.from(row.content);
+        if (sha256Hex(content) !== row.sha256) throw new StoredFileError('corrupt', row.sha256, `stored file ${row.sha256} failed its SHA-256 check (its bytes in the database were altered)`);
+        return { ...row, content };
+      }),
+    );
+  }
+
   async manifestOf(releaseId: number): Promise<Manifest> {
-    const [file] = await fileContents(this.dataSource.manager, releaseId, 'manifest.json');
+    const [file] = await this.fileBytes(releaseId, 'manifest.json');
     if (!file) throw new AppError('internal', 'the release has no manifest', 500);
-    return JSON.parse(Buffer.from(file.content).toString('utf8')) as Manifest;
+    return JSON.parse(file.content.toString('utf8')) as Manifest;
   }
 
   async diff(organizationId: number, id: number, againstId: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseDiff> {

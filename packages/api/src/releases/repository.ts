@@ -67,7 +67,8 @@ export async function listFiles(manager: EntityManager, releaseId: number): Prom
     .getRawMany<FileRow>();
 }
 
-export async function fileContents(manager: EntityManager, releaseId: number, name?: string): Promise<(FileRow & { content: Buffer })[]> {
+/** File rows with the bytes of rows cut before the file store existed (`content` NULL otherwise). */
+export async function fileRowsWithContent(manager: EntityManager, releaseId: number, name?: string): Promise<(FileRow & { content: Buffer | null })[]> {
   const qb = manager
     .createQueryBuilder()
     .select(['f.name AS name', 'f.mediaType AS mediaType', 'f.sizeBytes AS sizeBytes', 'f.sha256 AS sha256', 'f.content AS content'])
@@ -75,7 +76,7 @@ export async function fileContents(manager: EntityManager, releaseId: number, na
     .where('f.releaseId = :releaseId', { releaseId })
     .orderBy('f.position', 'ASC');
   if (name !== undefined) qb.andWhere('f.name = :name', { name });
-  return qb.getRawMany<FileRow & { content: Buffer }>();
+  return qb.getRawMany<FileRow & { content: Buffer | null }>();
 }
 
 export async function listReviews(manager: EntityManager, releaseId: number): Promise<ReviewRow[]> {

@@ -1,4 +1,5 @@
-/** One rendered file of a release: its bytes and their SHA-256. */
+/** One rendered file of a release: its bytes and their SHA-256, bounded in size. */
+import { RenderInputError } from './compute.ts';
 import { sha256Hex } from './digest.ts';
 
 export interface ArtifactFile {
@@ -8,7 +9,22 @@ export interface ArtifactFile {
   readonly sha256: string;
 }
 
+/**
+ * Largest file a release may hold. The spec's limits keep every file far below it (at 16 sine-table
+ * address bits and 32-bit codes the largest, the Verilog include, is about 3.6 MB); the bound makes
+ * sure no future template or limit can produce a file that fills the disk or the download.
+ */
+export const MAX_ARTIFACT_BYTES = 16 * 1024 * 1024;
+
+/** Refuses a file over the bound, naming the spec field that sizes the tables in every file. */
+export function checkArtifactSize(name: string, bytes: number, limitBytes = MAX_ARTIFACT_BYTES): void {
+  if (bytes > limitBytes) {
+    throw new RenderInputError('nco.phaseBits', `nco.phaseBits: ${name} would be ${bytes} bytes, more than the ${limitBytes} a release file may hold; use fewer sine-table address bits`);
+  }
+}
+
 export function artifactFile(name: string, mediaType: string, text: string): ArtifactFile {
   const bytes = Buffer.from(text, 'utf8');
+  checkArtifactSize(name, bytes.length);
   return { name, mediaType, bytes, sha256: sha256Hex(bytes) };
 }

@@ -8,7 +8,7 @@ import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { mainsSyncSpec, ultrasonicSinglePoleSpec, VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
+import { ifFmDemodSpec, mainsSyncSpec, ultrasonicSinglePoleSpec, VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
 
 const MAIN = fileURLToPath(new URL('../../src/cli/main.ts', import.meta.url));
@@ -104,6 +104,19 @@ describe('loopwright CLI', () => {
       expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
       expect(r.stderr).toContain('fixedPoint.dataBits');
     }
+  });
+
+  it('renders an IF demodulator with centerHz 6.87e-5 (it printed a RangeError stack trace), and refuses a 17-bit table naming it', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'tiny.json'), JSON.stringify({ ...ifFmDemodSpec, centerHz: 6.87e-5 }));
+    const r = cli(['render', 'tiny.json', 'out'], dir);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stderr).toBe('');
+    writeFileSync(join(dir, 'wide.json'), JSON.stringify({ ...mainsSyncSpec, nco: { ...mainsSyncSpec.nco, phaseBits: 17 } }));
+    const wide = cli(['render', 'wide.json', 'out2'], dir);
+    expect(wide.code).toBe(2);
+    expect(wide.stderr).toMatch(/^loopwright: SPEC\.json field nco\.phaseBits: .*at most 16 address bits/);
+    expect(wide.stderr).not.toMatch(/\n\s+at /);
   });
 
   it('names the scenario field for a bad scenario', () => {

@@ -30,6 +30,6 @@ export async function releaseFixtures(built: BuiltApp, org: TestOrg, designId: n
   };
   const first = await freshToken();
   await handoff.reviews.decide(first.token, { decision: 'approve', manifestSha256: first.manifestSha256 }, null, undefined);
-  const files = (await dataSource.query("SELECT `content` FROM `release_files` WHERE `releaseId` = ? AND `name` LIKE '%\\_vectors.csv'", [first.releaseId])) as { content: Buffer }[];
-  return { approvedId: first.releaseId, manifestSha256: first.manifestSha256, goldenCsv: Buffer.from(files[0]!.content), freshDraft, freshToken };
+  const golden = (await handoff.releases.fileBytes(first.releaseId)).find((f) => f.name.endsWith('_vectors.csv'))!;
+  return { approvedId: first.releaseId, manifestSha256: first.manifestSha256, goldenCsv: golden.content, freshDraft, freshToken };
 }

@@ -118,7 +118,9 @@ describe('hand-off flow', () => {
     const m = await firmware.get(`/api/releases/${releaseId}/files/manifest.json`).buffer(true).parse(binary).expect(200);
     expect(sha256(m.body)).toBe(manifestSha256);
     manifest = JSON.parse(m.body.toString('utf8'));
-    const stored = (await h.dataSource.query('SELECT `name`, `content` FROM `release_files` WHERE `releaseId` = ?', [releaseId])) as { name: string; content: Buffer }[];
+    // The stored bytes, read from the file store (not through the API): the download must equal them.
+    const rows = (await h.dataSource.query('SELECT `name`, `sha256` FROM `release_files` WHERE `releaseId` = ?', [releaseId])) as { name: string; sha256: string }[];
+    const stored = await Promise.all(rows.map(async (r) => ({ name: r.name, content: readFileSync(h.built.services.handoff.files.pathOf(r.sha256)) })));
     for (const f of manifest.files) {
       const res = await firmware.get(`/api/releases/${releaseId}/files/${f.name}`).buffer(true).parse(binary).expect(200);
       expect(sha256(res.body), f.name).toBe(f.sha256);

@@ -7,7 +7,13 @@
 import { requireIntIn } from '../fixed/fieldError.ts';
 import { roundReal } from '../fixed/rounding.ts';
 
-export const MAX_PHASE_BITS = 24;
+/**
+ * Address bits of the largest sine table a spec may ask for: 2^16 = 65,536 entries. Firmware NCO tables
+ * are rarely larger (beyond that the phase-truncation spur, −6.02·P dBc, is below what the amplitude
+ * quantisation allows; common practice, no source), and every release file holds the whole table
+ * (at 16 bits and 32-bit codes the largest file is about 3.6 MB).
+ */
+export const MAX_PHASE_BITS = 16;
 
 /** Largest code of the table, 2^(B−1) − 1. */
 export function sineFullScale(amplitudeBits: number): number {

@@ -9,7 +9,7 @@ import type { BitTruePlan } from '../types/sim.ts';
 import { FieldError, requireIntIn } from '../fixed/fieldError.ts';
 import { ncoTuning } from '../nco/tuningWord.ts';
 import { specControlScaling } from '../nco/controlScaling.ts';
-import { sineFullScale, sineTable } from '../nco/sineTable.ts';
+import { MAX_PHASE_BITS, sineFullScale, sineTable } from '../nco/sineTable.ts';
 
 /** The spec fields the bit-true loop reads (a LoopSpec satisfies it). */
 export type BitTrueSpec = Pick<LoopSpec, 'sampleRateHz' | 'centerHz' | 'input' | 'nco' | 'fixedPoint'>;
@@ -24,7 +24,7 @@ export function validateBitTrueWidths(spec: BitTrueSpec): void {
   requireIntIn('fixedPoint.accumulatorBits', fp.accumulatorBits, 2, 64);
   requireIntIn('nco.amplitudeBits', nco.amplitudeBits, 2, 32);
   requireIntIn('nco.accumulatorBits', nco.accumulatorBits, 4, 64);
-  requireIntIn('nco.phaseBits', nco.phaseBits, 2, Math.min(24, nco.accumulatorBits));
+  requireIntIn('nco.phaseBits', nco.phaseBits, 2, Math.min(MAX_PHASE_BITS, nco.accumulatorBits));
   if (fp.dataBits + fp.coefficientBits + 1 > MAX_EXACT_BITS) {
     throw new FieldError('fixedPoint.dataBits', `fixedPoint.dataBits + coefficientBits must be at most ${MAX_EXACT_BITS - 1} for the bit-true MAC, got ${fp.dataBits} + ${fp.coefficientBits}`);
   }

@@ -54,8 +54,10 @@ export class RunAccumulator {
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.lock = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.settle = new MinMaxDecimator(total, LOCK_BUCKETS, sampleRateHz);
-    // A boxcar of one period of the 2·centerHz detector ripple removes it from the settle test.
-    this.boxcar = new Float64Array(Math.max(1, Math.round(sampleRateHz / (2 * s.centerHz))));
+    // A boxcar of one period of the 2·centerHz detector ripple removes it from the settle test. One
+    // longer than the run never fills and averages the same samples as one of the run's length, so it
+    // is cut there (a centerHz of 1e-4 Hz would otherwise ask for ~1e11 entries).
+    this.boxcar = new Float64Array(Math.max(1, Math.min(total, Math.round(sampleRateHz / (2 * s.centerHz)))));
     // Lock indicator: one-pole low-pass at centerHz/8 of the quadrature arm (common practice, no source).
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
     this.tailStart = Math.floor(0.9 * total);

@@ -11,6 +11,7 @@
 import { z } from 'zod';
 import { loopGain } from '../analysis/loopGain.ts';
 import { lagLeadFromTargets } from '../filters/timeConstants.ts';
+import { MAX_PHASE_BITS } from '../nco/sineTable.ts';
 
 /** Finite number > 0 (zod 4's z.number() already rejects NaN and ±Infinity). */
 /**
@@ -83,8 +84,12 @@ const baseLoopSpecSchema = z.strictObject({
   detector: z.strictObject({ kind: z.literal('multiplier') }),
   nco: z.strictObject({
     accumulatorBits: intIn(4, 64),
-    /** Address bits of the sine table (2^phaseBits entries). */
-    phaseBits: intIn(2, 24),
+    /** Address bits of the sine table (2^phaseBits entries); at most MAX_PHASE_BITS (nco/sineTable.ts). */
+    phaseBits: z
+      .number()
+      .int()
+      .min(2)
+      .max(MAX_PHASE_BITS, `must be at most ${MAX_PHASE_BITS} address bits (a ${2 ** MAX_PHASE_BITS}-entry sine table, the largest a release holds)`),
     amplitudeBits: intIn(2, 32),
     gainHzPerUnit: hz(),
     waveform: z.enum(['sine', 'square']),

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { goldenVectors, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from '../../src/vectors/goldenVectors.ts';
 import { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from '../../src/vectors/vectorsCsv.ts';
-import { mainsSyncSpec, ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
+import { ifFmDemodSpec, mainsSyncSpec, ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
 import { checksumRecord, CHECKSUM_BASIS } from '../../src/sim/checksum.ts';
 
 describe('golden vectors', () => {
@@ -12,6 +12,16 @@ describe('golden vectors', () => {
     expect(a.checksum).toBe(b.checksum);
     expect(formatVectorsCsv(a)).toBe(formatVectorsCsv(b));
     expect(checksumRecord(CHECKSUM_BASIS, a.record, a.record.length)).toBe(a.checksum);
+  });
+
+  it('run for a centre frequency whose 2·f ripple period is far longer than the run (centerHz 6.87e-5 Hz)', () => {
+    // The settle boxcar of one ripple period would be ~7e11 entries; one longer than the run averages the same samples.
+    const v = goldenVectors({ ...ifFmDemodSpec, centerHz: 6.87e-5 });
+    expect(v.record.length).toBe(GOLDEN_VECTOR_SAMPLES);
+  });
+
+  it('name nco.gainHzPerUnit when their tone (0.01·gainHzPerUnit above centre) would pass Nyquist', () => {
+    expect(() => goldenVectors({ ...mainsSyncSpec, centerHz: 4990, nco: { ...mainsSyncSpec.nco, gainHzPerUnit: 2000 } })).toThrow(/^nco.gainHzPerUnit 2000: the golden-vector scenario/);
   });
 
   it('change when any arithmetic setting changes', () => {

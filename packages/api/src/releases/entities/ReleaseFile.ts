@@ -1,7 +1,11 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 import { Release } from './Release.ts';
 
-/** One artifact of a release, bytes as rendered, with its SHA-256. Insert-only (trigger-guarded). */
+/**
+ * One artifact of a release: name, size and SHA-256; the bytes are in the file store under that
+ * SHA-256 (storage/fileStore.ts). Rows of releases cut before the store existed hold their bytes in
+ * `content`. Insert-only (trigger-guarded).
+ */
 @Entity({ name: 'release_files' })
 @Index('UQ_release_files_name', ['releaseId', 'name'], { unique: true })
 export class ReleaseFile {
@@ -31,6 +35,7 @@ export class ReleaseFile {
   @Column({ type: 'char', length: 64 })
   sha256: string;
 
-  @Column({ type: 'longblob' })
-  content: Buffer;
+  /** NULL: the bytes are in the file store (every release cut since it exists). */
+  @Column({ type: 'longblob', nullable: true })
+  content: Buffer | null;
 }
