@@ -50,6 +50,7 @@ const SUITES: readonly Suite[] = [
   { name: 'app', kind: 'vitest', cwd: 'packages/app', config: 'vitest.config.ts' },
   { name: 'foundation', kind: 'vitest', cwd: '.', config: 'tests/vitest.config.ts' },
   { name: 'e2e', kind: 'vitest', cwd: '.', config: 'tests/e2e/vitest.config.ts' },
+  { name: 'faults', kind: 'vitest', cwd: '.', config: 'tests/faults/vitest.config.ts' },
 ];
 
 function runCommand(cwd: string, command: readonly string[], env: NodeJS.ProcessEnv): Promise<number> {

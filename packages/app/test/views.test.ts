@@ -5,7 +5,8 @@ import { decimateMinMax } from '../src/charts/decimate.ts';
 import { magnitudeAxisMin, type BodeTrace } from '../src/charts/bodeOption.ts';
 import { envelope } from '../src/charts/traceOption.ts';
 import { twosComplementHex } from '../src/components/reportView.ts';
-import { diffRows } from '../src/components/releaseView.ts';
+import { diffRows, reviewRows, waitingMailNotice } from '../src/components/releaseView.ts';
+import type { ReviewRecord } from '../src/api/types.ts';
 import { widthEdits } from '../src/components/wordLengthView.ts';
 import { auditRows, filterAudit } from '../src/views/adminView.ts';
 import { checkScenario, draftToScenario } from '../src/form/scenarioDraft.ts';
@@ -80,6 +81,35 @@ describe('release diff rows', () => {
       'Integer codes|S1_B0|40|41',
       'Margins|discrete.phaseMarginDeg|65.51234|52.1',
     ]);
+  });
+});
+
+describe('review e-mail state on the release page', () => {
+  const review = (name: string, mail: ReviewRecord['mail']): ReviewRecord => ({
+    id: 1,
+    reviewerId: 7,
+    reviewerName: name,
+    decision: null,
+    comment: null,
+    decidedAt: null,
+    expiresAt: '2026-12-09T10:00:00.000Z',
+    mail,
+  });
+  const waiting = review('Robin Reviewer', { state: 'waiting', attempts: 2, sentAt: null, nextAttemptAt: '2026-12-02T10:05:30.000Z' });
+  const sent = review('Sam Second', { state: 'sent', attempts: 3, sentAt: '2026-12-02T10:06:00.000Z', nextAttemptAt: null });
+
+  it('says which review e-mail waits for the mail server and when it is tried again, and which went out', () => {
+    const rows = reviewRows([waiting, sent, review('Old Request', null)]);
+    expect(rows.map((r) => [r.mail, r.mailTone])).toEqual([
+      ['waiting to be sent (2 failed attempts; next try 2026-12-02 10:05)', 'warning'],
+      ['sent 2026-12-02 10:06', 'success'],
+      ['not recorded', 'info'],
+    ]);
+    expect(waitingMailNotice([waiting, sent])).toMatch(/^The review e-mail to Robin Reviewer is waiting to be sent: .*recorded/);
+  });
+
+  it('shows no notice once every review e-mail has gone out', () => {
+    expect(waitingMailNotice([sent, review('Old Request', null)])).toBeNull();
   });
 });
 

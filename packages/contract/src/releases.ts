@@ -21,6 +21,20 @@ export const reviewRecordSchema = z.object({
   comment: z.string().nullable(),
   decidedAt: z.string().nullable(),
   expiresAt: z.string(),
+  /**
+   * The review-request e-mail: `sent`, or `waiting` in the outbox while the mail relay does not take it
+   * (it is retried with backoff); null for a review requested before this was recorded.
+   */
+  mail: z
+    .object({
+      state: z.enum(['sent', 'waiting']),
+      /** Delivery attempts so far (a waiting mail has failed this many times). */
+      attempts: z.number().int(),
+      sentAt: z.string().nullable(),
+      /** While waiting: when the next attempt is due. */
+      nextAttemptAt: z.string().nullable(),
+    })
+    .nullable(),
 });
 export type ReviewRecord = z.infer<typeof reviewRecordSchema>;
 

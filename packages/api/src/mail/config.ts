@@ -18,6 +18,8 @@ const handoffEnvSchema = z.object({
   LW_REVIEW_LINK_TTL_S: int(60, 90 * 24 * 3600).default(7 * 24 * 3600),
   /** Outbox retry timer period; 0 disables the timer (tests call the retry function themselves). */
   LW_OUTBOX_INTERVAL_MS: int(0, 3_600_000).optional(),
+  /** Delay before a failed mail is tried again; it doubles with each failure, up to an hour. */
+  LW_OUTBOX_FIRST_RETRY_S: int(1, 3600).default(30),
   NODE_ENV: z.string().optional(),
 });
 
@@ -33,6 +35,7 @@ export interface HandoffConfig {
   readonly publicUrl: string;
   readonly reviewLinkTtlS: number;
   readonly outboxIntervalMs: number;
+  readonly outboxFirstRetryS: number;
 }
 
 export function loadHandoffConfig(source: NodeJS.ProcessEnv = process.env): HandoffConfig {
@@ -48,5 +51,6 @@ export function loadHandoffConfig(source: NodeJS.ProcessEnv = process.env): Hand
     publicUrl: env.LW_PUBLIC_URL,
     reviewLinkTtlS: env.LW_REVIEW_LINK_TTL_S,
     outboxIntervalMs: env.LW_OUTBOX_INTERVAL_MS ?? defaultOutboxIntervalMs(env.NODE_ENV),
+    outboxFirstRetryS: env.LW_OUTBOX_FIRST_RETRY_S,
   };
 }

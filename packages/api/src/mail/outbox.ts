@@ -24,9 +24,9 @@ export interface DeliveryReport {
 const CLAIM_S = 60;
 const MAX_BACKOFF_S = 3600;
 
-/** 30 s, 60 s, 120 s … capped at an hour: a down relay is not hammered, a short outage heals fast. */
-export function backoffS(attempts: number): number {
-  return Math.min(MAX_BACKOFF_S, 30 * 2 ** Math.max(0, attempts - 1));
+/** 30 s, 60 s, 120 s … (from `firstRetryS`) capped at an hour: a down relay is not hammered, a short outage heals fast. */
+export function backoffS(attempts: number, firstRetryS = 30): number {
+  return Math.min(MAX_BACKOFF_S, firstRetryS * 2 ** Math.max(0, attempts - 1));
 }
 
 export class MailOutbox {
@@ -34,6 +34,8 @@ export class MailOutbox {
     private readonly dataSource: DataSource,
     private readonly transport: Transporter,
     private readonly from: string,
+    /** Delay before the first retry of a failed delivery (LW_OUTBOX_FIRST_RETRY_S); doubles after each failure. */
+    private readonly firstRetryS = 30,
   ) {}
 
   async enqueue(manager: EntityManager, messages: readonly MailMessage[]): Promise<string[]> {
@@ -92,7 +94,7 @@ export class MailOutbox {
       await this.dataSource.query(
         'UPDATE `mail_outbox` SET `attempts` = ?, `lastError` = ?, `claimedUntil` = NULL, ' +
           '`nextAttemptAt` = CURRENT_TIMESTAMP(3) + INTERVAL ? SECOND WHERE `id` = ?',
-        [attempts, String((err as Error).message ?? err).slice(0, 500), backoffS(attempts), id],
+        [attempts, String((err as Error).message ?? err).slice(0, 500), backoffS(attempts, this.firstRetryS), id],
       );
       return 'failed';
     }

@@ -29,7 +29,7 @@ export function createReleaseServices(
   deps: { readonly audit: AuditService; readonly designs: DesignService; readonly files: FileStore },
   config: HandoffConfig = loadHandoffConfig(),
 ): ReleaseServices {
-  const outbox = new MailOutbox(dataSource, createMailTransport(config.smtp), config.mailFrom);
+  const outbox = new MailOutbox(dataSource, createMailTransport(config.smtp), config.mailFrom, config.outboxFirstRetryS);
   const releases = new ReleaseService(dataSource, deps.designs, deps.audit, deps.files);
   deps.designs.addDeletionGuard(async (designId, manager) => {
     const n = await releases.releaseCount(designId, manager);

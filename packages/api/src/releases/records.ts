@@ -61,6 +61,11 @@ export interface ReviewRow {
   comment: string | null;
   usedAt: Date | string | null;
   expiresAt: Date | string;
+  /** The request mail's outbox row (LEFT JOIN: all null when the review has no mail recorded). */
+  mailId: string | null;
+  mailSentAt: Date | string | null;
+  mailAttempts: number | string | null;
+  mailNextAttemptAt: Date | string | null;
 }
 
 export function toReviewRecord(row: ReviewRow): ReviewRecord {
@@ -72,5 +77,14 @@ export function toReviewRecord(row: ReviewRow): ReviewRecord {
     comment: row.comment,
     decidedAt: row.usedAt === null ? null : iso(row.usedAt),
     expiresAt: iso(row.expiresAt),
+    mail:
+      row.mailId === null
+        ? null
+        : {
+            state: row.mailSentAt === null ? 'waiting' : 'sent',
+            attempts: Number(row.mailAttempts ?? 0),
+            sentAt: row.mailSentAt === null ? null : iso(row.mailSentAt),
+            nextAttemptAt: row.mailSentAt === null && row.mailNextAttemptAt !== null ? iso(row.mailNextAttemptAt) : null,
+          },
   };
 }

@@ -90,9 +90,14 @@ export async function listReviews(manager: EntityManager, releaseId: number): Pr
       'v.comment AS comment',
       'v.usedAt AS usedAt',
       'v.expiresAt AS expiresAt',
+      'v.mailId AS mailId',
+      'm.sentAt AS mailSentAt',
+      'm.attempts AS mailAttempts',
+      'm.nextAttemptAt AS mailNextAttemptAt',
     ])
     .from(ReleaseReview, 'v')
     .innerJoin('v.reviewer', 'u')
+    .leftJoin('v.mail', 'm')
     .where('v.releaseId = :releaseId', { releaseId })
     .orderBy('v.id', 'ASC')
     .getRawMany<ReviewRow>();

@@ -124,19 +124,10 @@ export class ReviewService {
       const requester = await manager.findOne(User, { where: { id: actor.id }, select: { displayName: true } });
       const specName = (JSON.parse(row.specJson ?? '{}') as { name: string }).name;
       const expiresAt = new Date(Date.now() + this.config.reviewLinkTtlS * 1000);
-      const mails: MailMessage[] = [];
+      const mailIds: string[] = [];
       for (const reviewer of reviewers) {
         const issued = issueToken({ releaseId: row.id, reviewerId: reviewer.id, manifestSha256: row.manifestSha256 });
-        await manager.insert(ReleaseReview, {
-          releaseId: row.id,
-          reviewerId: reviewer.id,
-          requestedById: actor.id,
-          selector: issued.selector,
-          tokenHash: issued.tokenHash,
-          manifestSha256: row.manifestSha256,
-          expiresAt,
-        });
-        mails.push(
+        const [mailId] = await this.outbox.enqueue(manager, [
           reviewRequestMail({
             to: reviewer.email,
             reviewerName: reviewer.displayName,
@@ -148,10 +139,22 @@ export class ReviewService {
             approvalsRequired: request.approvalsRequired,
             manifestSha256: row.manifestSha256,
           }),
-        );
+        ]);
+        // The review points at its mail, so the release page can say whether the link went out.
+        await manager.insert(ReleaseReview, {
+          releaseId: row.id,
+          reviewerId: reviewer.id,
+          requestedById: actor.id,
+          selector: issued.selector,
+          tokenHash: issued.tokenHash,
+          manifestSha256: row.manifestSha256,
+          expiresAt,
+          mailId: mailId ?? null,
+        });
+        if (mailId !== undefined) mailIds.push(mailId);
       }
       await this.audit.record(actor, { action: 'release.review-requested', objectType: 'release', objectId: row.id, detail: { reviewerIds: request.reviewerIds, approvalsRequired: request.approvalsRequired, expiresAt: expiresAt.toISOString() } }, manager);
-      return this.outbox.enqueue(manager, mails);
+      return mailIds;
     });
     await this.outbox.deliverPending(mailIds);
     return this.releases.getForUser(organizationId, releaseId, { roles: ['designer'] });

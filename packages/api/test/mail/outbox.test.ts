@@ -30,9 +30,11 @@ afterAll(async () => {
   await h.close();
 });
 
-it('backs off 30 s, 60 s, 120 s … up to an hour', () => {
-  expect([1, 2, 3, 4].map(backoffS)).toEqual([30, 60, 120, 240]);
+it('backs off 30 s, 60 s, 120 s … up to an hour, or from the first retry delay set', () => {
+  expect([1, 2, 3, 4].map((n) => backoffS(n))).toEqual([30, 60, 120, 240]);
   expect(backoffS(20)).toBe(3600);
+  expect([1, 2, 3].map((n) => backoffS(n, 2))).toEqual([2, 4, 8]);
+  expect(backoffS(20, 2)).toBe(3600);
 });
 
 it('keeps a mail the relay refused, still makes the change, and delivers it on retry', async () => {
@@ -51,6 +53,11 @@ it('keeps a mail the relay refused, still makes the change, and delivers it on r
   expect(pending[0]!.sentAt).toBeNull();
   expect(Number(pending[0]!.attempts)).toBe(1);
   expect(pending[0]!.lastError).toMatch(/ECONNREFUSED/);
+  // The release says so: the reviewer is named and the e-mail waits.
+  const waiting = await h.designer.get(`/api/releases/${cut.body.id}`).expect(200);
+  expect(waiting.body.reviews).toHaveLength(1);
+  expect(waiting.body.reviews[0].mail).toMatchObject({ state: 'waiting', attempts: 1, sentAt: null });
+  expect(Date.parse(waiting.body.reviews[0].mail.nextAttemptAt)).toBeGreaterThan(Date.now() + 20_000);
 
   // Not due yet: a retry now sends nothing. (Test files share the database, so other files' mail may be
   // due meanwhile: the checks below look only at this test's row and recipient.)
@@ -76,6 +83,8 @@ it('keeps a mail the relay refused, still makes the change, and delivers it on r
     // Sent once only: a further retry finds nothing due.
     expect(await h.built.services.handoff.outbox.deliverPending([pending[0]!.id])).toEqual({ sent: 0, failed: 0 });
     expect(mine()).toHaveLength(1);
+    const sent = await h.designer.get(`/api/releases/${cut.body.id}`).expect(200);
+    expect(sent.body.reviews[0].mail).toMatchObject({ state: 'sent', attempts: 2, nextAttemptAt: null });
   } finally {
     await smtp.close();
   }

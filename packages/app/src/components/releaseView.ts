@@ -77,17 +77,42 @@ export interface ReviewRow {
   readonly tone: TagType;
   readonly comment: string;
   readonly when: string;
+  readonly mail: string;
+  readonly mailTone: TagType;
+}
+
+/** What became of a review's request e-mail. */
+export function mailText(mail: ReviewRecord['mail']): { text: string; tone: TagType } {
+  if (mail === null) return { text: 'not recorded', tone: 'info' };
+  if (mail.state === 'sent') return { text: mail.sentAt ? `sent ${formatDate(mail.sentAt)}` : 'sent', tone: 'success' };
+  const next = mail.nextAttemptAt ? `; next try ${formatDate(mail.nextAttemptAt)}` : '';
+  return { text: `waiting to be sent (${mail.attempts} failed attempt${mail.attempts === 1 ? '' : 's'}${next})`, tone: 'warning' };
 }
 
 export function reviewRows(reviews: readonly ReviewRecord[]): ReviewRow[] {
-  return reviews.map((r) => ({
-    id: r.id,
-    reviewer: r.reviewerName,
-    decision: r.decision === null ? 'pending' : r.decision === 'approve' ? 'approved' : 'changes requested',
-    tone: r.decision === null ? 'info' : r.decision === 'approve' ? 'success' : 'danger',
-    comment: r.comment ?? '',
-    when: r.decidedAt ? formatDate(r.decidedAt) : `link expires ${formatDate(r.expiresAt)}`,
-  }));
+  return reviews.map((r) => {
+    const mail = mailText(r.mail);
+    return {
+      id: r.id,
+      reviewer: r.reviewerName,
+      decision: r.decision === null ? 'pending' : r.decision === 'approve' ? 'approved' : 'changes requested',
+      tone: r.decision === null ? 'info' : r.decision === 'approve' ? 'success' : 'danger',
+      comment: r.comment ?? '',
+      when: r.decidedAt ? formatDate(r.decidedAt) : `link expires ${formatDate(r.expiresAt)}`,
+      mail: mail.text,
+      mailTone: mail.tone,
+    };
+  });
+}
+
+/**
+ * The release page's notice while review e-mails wait in the outbox (the mail relay does not take
+ * them): the request is recorded and the links will go out, just not yet. Null when none waits.
+ */
+export function waitingMailNotice(reviews: readonly ReviewRecord[]): string | null {
+  const waiting = reviews.filter((r) => r.mail?.state === 'waiting').map((r) => r.reviewerName);
+  if (waiting.length === 0) return null;
+  return `The review e-mail to ${waiting.join(', ')} is waiting to be sent: the mail server has not accepted it yet. The review request is recorded, and Loopwright keeps trying to send the link.`;
 }
 
 export interface DiffRow {

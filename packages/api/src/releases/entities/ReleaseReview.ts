@@ -1,5 +1,6 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 import { User } from '../../entities/User.ts';
+import { OutboxMail } from './OutboxMail.ts';
 import { Release } from './Release.ts';
 
 export const REVIEW_DECISIONS = ['approve', 'request-changes'] as const;
@@ -55,6 +56,14 @@ export class ReleaseReview {
 
   @Column({ type: 'text', nullable: true })
   comment: string | null;
+
+  /** The review-request mail in the outbox, so the release page can say whether it went out. */
+  @Column({ type: 'bigint', unsigned: true, nullable: true })
+  mailId: string | null;
+
+  @ManyToOne(() => OutboxMail, { onDelete: 'SET NULL', nullable: true })
+  @JoinColumn({ name: 'mailId' })
+  mail: Relation<OutboxMail> | null;
 
   @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt: Date;
