@@ -1,10 +1,11 @@
 /**
  * MariaDB killed (SIGKILL) in the middle of a release cut, on the real stack: two API processes behind
- * nginx. The cut is stopped at a chosen step by a lock the test holds: its transaction has already
- * written the release row and its file rows (a dirty read shows them) and waits to write the audit
- * entry when the database dies. The request must fail with a clear 503, InnoDB's crash recovery must
- * leave no trace of the half-made release, and the next cut after the restart must take the number
- * the lost one would have had.
+ * nginx. The cut has stored its files (the file store comes first) and is stopped at a chosen step by
+ * a lock the test holds: its transaction has already written the release row and its file rows (a
+ * dirty read shows them) and waits to write the audit entry when the database dies. The request must
+ * fail with a clear 503, InnoDB's crash recovery must leave no trace of the half-made release, the file
+ * store must hold nothing half-written, and the next cut after the restart must take the number the
+ * lost one would have had.
  */
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -12,7 +13,7 @@ import { api, apiSignIn } from '../e2e/harness/api.ts';
 import { ROOT } from '../e2e/harness/paths.ts';
 import { startStack, type Stack } from '../e2e/harness/stack.ts';
 import { connect, waitForStatement, type Sql } from './harness/sql.ts';
-import { designIdOf, healthyEverywhere } from './harness/probes.ts';
+import { designIdOf, healthyEverywhere, storeIsWhole } from './harness/probes.ts';
 
 let stack: Stack;
 let cookie: string;
@@ -45,7 +46,7 @@ const ANSWER_TIMEOUT_MS = 60_000;
 
 describe('MariaDB killed during a release cut', () => {
   it('answers 503, leaves no release row, file or number half-made, and the next cut after the restart takes the next number', async () => {
-    const v1 = await api<{ number: number; files: unknown[] }>(stack.baseUrl, `/api/designs/${designId}/releases`, { method: 'POST', cookie });
+    const v1 = await api<{ number: number; files: { sha256: string }[] }>(stack.baseUrl, `/api/designs/${designId}/releases`, { method: 'POST', cookie });
     expect(v1.status).toBe(201);
     expect(v1.body.number).toBe(1);
     const fileCount = v1.body.files.length;
@@ -79,6 +80,10 @@ describe('MariaDB killed during a release cut', () => {
     const after = await connect(stack.db);
     try {
       expect(await stored(after)).toEqual(before);
+      // The file store holds v1's files, whole, and nothing half-written (the lost cut rendered the same
+      // bytes as v1, which the store already held under the same names).
+      const storeDir = path.join(stack.dataDir, 'server', 'files');
+      expect(await storeIsWhole(storeDir)).toEqual([...new Set(v1.body.files.map((f) => f.sha256))].sort());
       const next = await api<{ number: number; label: string; files: unknown[] }>(stack.baseUrl, `/api/designs/${designId}/releases`, { method: 'POST', cookie });
       expect(next.status).toBe(201);
       expect(next.body.label).toBe('v2');

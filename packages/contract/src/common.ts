@@ -77,6 +77,7 @@ export const ERROR_CODES = [
   'server_busy',
   'timeout',
   'database_unavailable',
+  'storage_full',
   'internal',
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -1,6 +1,8 @@
 /** Small questions a fault test asks the running stack. */
+import { createHash } from 'node:crypto';
 import fs from 'node:fs/promises';
 import path from 'node:path';
+import { expect } from 'vitest';
 import { api } from '../../e2e/harness/api.ts';
 
 /** The id of a demo design, found by its name through the project list. */
@@ -47,4 +49,22 @@ export async function gone(pid: number, timeoutMs = 10_000): Promise<void> {
     if (Date.now() > deadline) throw new Error(`process ${pid} still runs after ${timeoutMs / 1000} s`);
     await new Promise((resolve) => setTimeout(resolve, 20));
   }
+}
+
+/**
+ * Checks the release file store (src/storage/fileStore.ts layout): every stored file holds the bytes its
+ * SHA-256 name says, and no temporary file is left half-written. Returns the stored names.
+ */
+export async function storeIsWhole(storeDir: string): Promise<string[]> {
+  const names: string[] = [];
+  const shaDir = path.join(storeDir, 'sha256');
+  for (const prefix of await fs.readdir(shaDir)) {
+    for (const name of await fs.readdir(path.join(shaDir, prefix))) {
+      const bytes = await fs.readFile(path.join(shaDir, prefix, name));
+      expect(createHash('sha256').update(bytes).digest('hex')).toBe(name);
+      names.push(name);
+    }
+  }
+  expect(await fs.readdir(path.join(storeDir, 'tmp'))).toEqual([]);
+  return names.sort();
 }

@@ -35,6 +35,11 @@ function errorCodeChain(err: unknown): string[] {
   return codes;
 }
 
+/** The disk under the file store (or a quota on it) is full: ENOSPC / EDQUOT from the file system. */
+export function isStorageFull(err: unknown): boolean {
+  return errorCodeChain(err).some((code) => code === 'ENOSPC' || code === 'EDQUOT');
+}
+
 export function isDatabaseUnavailable(err: unknown): boolean {
   if (errorCodeChain(err).some((code) => DB_DOWN_CODES.has(code))) return true;
   return err instanceof Error && DB_DOWN_MESSAGES.test(err.message);
@@ -94,6 +99,13 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
       // Never send bytes that fail their check; say so plainly (the hash, no path) and log it.
       log(`stored file refused during ${req.method} ${req.originalUrl}`, err);
       res.status(500).json(body('internal', `a release file could not be served: ${err.message}`));
+      return;
+    }
+    if (isStorageFull(err)) {
+      // 507 Insufficient Storage (RFC 4918, 11.5). The file store writes whole files or none, and the
+      // release rows are written only after every file is, so nothing of the request was kept.
+      log(`file store full during ${req.method} ${req.originalUrl}`, err);
+      res.status(507).json(body('storage_full', "the server's disk for release files is full, so nothing was stored; ask your administrator to free space, then try again"));
       return;
     }
     if (isDatabaseUnavailable(err)) {
