@@ -1,6 +1,6 @@
 /** Conformance uploads of a release: compare with its golden vectors, store the verdict, list them. */
-import { createHash } from 'node:crypto';
-import type { GoldenVectors } from '@loopwright/dsp';
+import { HIDDEN_TEXT_CHARACTERS } from '@loopwright/contract';
+import type { GoldenVectors, LoopSpec } from '@loopwright/dsp';
 import type { DataSource } from 'typeorm';
 import type { SessionUser } from '@loopwright/contract';
 import { AppError, invalidInput } from '../errors.ts';
@@ -8,7 +8,8 @@ import type { AuditService } from '../services/audit.ts';
 import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from '@loopwright/contract';
 import { ConformanceRun } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
-import { compareWithGolden, goldenFromRows, MalformedCapture, parseVectorCsv } from './vectorCompare.ts';
+import { artifactNames } from '../render/artifacts.ts';
+import type { ComputePool } from '../services/compute.ts';
 
 interface RunRow {
   id: number;
@@ -23,6 +24,13 @@ interface RunRow {
   mismatchCount: number;
   firstMismatchesJson: string;
   createdAt: Date | string;
+}
+
+const HIDDEN_ALL = new RegExp(HIDDEN_TEXT_CHARACTERS.source, 'g');
+
+/** The uploaded file's name as it is stored and shown: characters that hide or reorder text become "_". */
+function printableFileName(name: string): string {
+  return name.replace(HIDDEN_ALL, '_') || 'capture.csv';
 }
 
 function toRecord(r: RunRow): ConformanceRecord {
@@ -47,33 +55,30 @@ export class ConformanceService {
     private readonly dataSource: DataSource,
     private readonly releases: ReleaseService,
     private readonly audit: AuditService,
+    private readonly compute: ComputePool,
   ) {}
 
   async upload(organizationId: number, releaseId: number, file: Express.Multer.File | undefined, user: SessionUser, actor: Actor): Promise<ConformanceRecord> {
     if (!file) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `attach the capture CSV in the multipart field "${CONFORMANCE_UPLOAD_FIELD}"`);
-    const row = await this.releases.visibleRow(organizationId, releaseId, user);
-    const goldenFile = (await this.releases.fileBytes(row.id)).find((f) => f.name.endsWith('_vectors.csv'));
-    if (!goldenFile) throw new AppError('internal', 'the release has no golden vectors', 500);
-    let got: string[][];
-    try {
-      got = parseVectorCsv(file.buffer.toString('utf8'));
-    } catch (err) {
-      if (err instanceof MalformedCapture) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${file.originalname.slice(0, 120)}: ${err.message}`);
-      throw err;
-    }
-    const manifest = await this.releases.manifestOf(row.id);
-    const stored = manifest.results as { vectors?: { scenario?: GoldenVectors['scenario'] } };
-    const spec = manifest.spec;
+    const row = await this.releases.visibleRow(organizationId, releaseId, user, undefined, true);
+    const spec = JSON.parse(row.specJson ?? '{}') as LoopSpec;
+    const stored = JSON.parse(row.resultsJson ?? '{}') as { vectors?: { scenario?: GoldenVectors['scenario'] } };
     if (!stored.vectors?.scenario) throw new AppError('internal', 'the release records no golden-vector scenario', 500);
-    const golden = goldenFromRows(parseVectorCsv(goldenFile.content.toString('utf8')), stored.vectors.scenario, spec.nco.accumulatorBits);
-    const result = compareWithGolden(golden, got);
+    const [goldenFile] = await this.releases.fileBytes(row.id, artifactNames(spec.name).vectors);
+    if (!goldenFile) throw new AppError('internal', 'the release has no golden vectors', 500);
+    const fileName = printableFileName(file.originalname);
+    // Parsing and comparing megabytes of CSV happens in the compute pool, never on the event loop.
+    const outcome = await this.compute.run({ kind: 'conformance', golden: goldenFile.content, capture: file.buffer, scenario: stored.vectors.scenario, accumulatorBits: spec.nco.accumulatorBits });
+    if (!outcome.ok) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${fileName.slice(0, 120)}: ${outcome.issues.map((i) => i.message).join('; ')}`);
+    if (outcome.kind !== 'conformance') throw new Error('compute pool answered a conformance check with another kind');
+    const result = outcome.comparison;
     const id = await this.dataSource.transaction(async (manager) => {
       const inserted = await manager.insert(ConformanceRun, {
         releaseId: row.id,
         uploadedById: user.id,
-        fileName: file.originalname.slice(0, 255),
+        fileName: fileName.slice(0, 255),
         sizeBytes: file.size,
-        sha256: createHash('sha256').update(file.buffer).digest('hex'),
+        sha256: outcome.sha256,
         verdict: result.verdict,
         samplesCompared: result.samplesCompared,
         mismatchCount: result.mismatchCount,

@@ -6,6 +6,7 @@ import { createMailTransport } from '../mail/transport.ts';
 import type { AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
 import type { FileStore } from '../storage/fileStore.ts';
+import type { ComputePool } from '../services/compute.ts';
 import { ConformanceService } from './conformanceService.ts';
 import { DownloadService } from './downloadService.ts';
 import { ReleaseService } from './releaseService.ts';
@@ -26,11 +27,11 @@ export interface ReleaseServices {
 
 export function createReleaseServices(
   dataSource: DataSource,
-  deps: { readonly audit: AuditService; readonly designs: DesignService; readonly files: FileStore },
+  deps: { readonly audit: AuditService; readonly designs: DesignService; readonly files: FileStore; readonly compute: ComputePool },
   config: HandoffConfig = loadHandoffConfig(),
 ): ReleaseServices {
   const outbox = new MailOutbox(dataSource, createMailTransport(config.smtp), config.mailFrom, config.outboxFirstRetryS);
-  const releases = new ReleaseService(dataSource, deps.designs, deps.audit, deps.files);
+  const releases = new ReleaseService(dataSource, deps.designs, deps.audit, deps.files, deps.compute);
   deps.designs.addDeletionGuard(async (designId, manager) => {
     const n = await releases.releaseCount(designId, manager);
     return n > 0 ? `it has ${n} release(s), which are kept for the record` : null;
@@ -42,7 +43,7 @@ export function createReleaseServices(
     releases,
     reviews: new ReviewService(dataSource, releases, deps.audit, outbox, config),
     downloads: new DownloadService(dataSource, releases, deps.audit),
-    conformance: new ConformanceService(dataSource, releases, deps.audit),
+    conformance: new ConformanceService(dataSource, releases, deps.audit, deps.compute),
     files: deps.files,
     close: stopTimer,
   };

@@ -10,11 +10,12 @@ import type { DesignRecord, DesignSummary, SessionUser } from '@loopwright/contr
 import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
-import { renderArtifacts, type Manifest, type RenderedRelease } from '../render/artifacts.ts';
+import type { Manifest, RenderedRelease } from '../render/artifacts.ts';
 import { CAUTION } from '../render/caution.ts';
 import { sha256Hex } from '../render/digest.ts';
 import { StoredFileError, type FileStore } from '../storage/fileStore.ts';
-import { computeRelease, RenderInputError } from '../render/compute.ts';
+import type { ComputePool } from '../services/compute.ts';
+import { asBuffer } from '../workers/handoffTasks.ts';
 import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from '@loopwright/contract';
 import { releaseDiff } from './diff.ts';
 import { Release, ReleaseFile } from './entities/index.ts';
@@ -26,14 +27,9 @@ import { canSee, FIRMWARE_VISIBLE_STATES, seesAllStates } from './visibility.ts'
 
 export type Actor = AuditActor & { id: number };
 
-/** Render a stored spec; a spec the server cannot turn into artifacts is the designer's to fix (400). */
-export function renderStoredSpec(spec: unknown): RenderedRelease {
-  try {
-    return renderArtifacts(computeRelease(spec));
-  } catch (err) {
-    if (err instanceof RenderInputError) throw invalidInput(`spec.${err.field}`.replace(/\.$/, ''), err.message);
-    throw err;
-  }
+/** A rendered release as it comes back from a worker thread, its bytes as Buffers again. */
+function fromWorker(r: RenderedRelease): RenderedRelease {
+  return { ...r, files: r.files.map((f) => ({ ...f, bytes: asBuffer(f.bytes) })) };
 }
 
 /** The design as an approved release holds it: its spec, the revision it was cut from, when it was cut. */
@@ -57,12 +53,28 @@ export class ReleaseService {
     private readonly designs: DesignService,
     private readonly audit: AuditService,
     private readonly files: FileStore,
+    private readonly compute: ComputePool,
   ) {}
 
   async cut(organizationId: number, designId: number, actor: Actor): Promise<ReleaseRecord> {
     const design = await this.designs.get(organizationId, designId);
-    const id = await this.store(design, renderStoredSpec(design.spec), actor);
+    const id = await this.store(design, await this.render(design.spec), actor);
     return this.getForUser(organizationId, id, { roles: ['designer'] });
+  }
+
+  /**
+   * Recompute and render a stored spec in the compute pool (a big sine table takes seconds, which
+   * must not hold the event loop); a spec the server cannot turn into artifacts is the designer's to
+   * fix (400 naming the field).
+   */
+  async render(spec: unknown): Promise<RenderedRelease> {
+    const outcome = await this.compute.run({ kind: 'release', spec });
+    if (!outcome.ok) {
+      const first = outcome.issues[0];
+      throw invalidInput(`spec.${first?.field ?? ''}`.replace(/\.$/, ''), outcome.issues.map((i) => i.message).join('; '));
+    }
+    if (outcome.kind !== 'release') throw new Error('compute pool answered a release render with another kind');
+    return fromWorker(outcome.rendered);
   }
 
   /** Stores a rendered release as the design's next number; returns the release id. */

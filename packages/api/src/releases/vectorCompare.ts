@@ -2,9 +2,11 @@
  * Conformance: an uploaded capture in the golden-vector CSV layout (dsp's VECTOR_CSV_COLUMNS, one
  * header line, one row of decimal integers per sample) compared value by value with the release's
  * golden vectors. Parsing is csv-parse's, and a malformed file is refused with the line that is wrong;
- * the comparison is dsp's compareVectors against the release's stored golden CSV.
+ * the comparison is dsp's compareVectors against the release's stored golden CSV. Both run in the
+ * compute pool (workers/handoffTasks.ts), never on the event loop.
  */
-import { parse } from 'csv-parse/sync';
+import { Readable } from 'node:stream';
+import { parse } from 'csv-parse';
 import { compareVectors, VECTOR_CSV_COLUMNS, type GoldenVectors } from '@loopwright/dsp';
 
 export const MAX_REPORTED_MISMATCHES = 10;
@@ -35,31 +37,57 @@ export class MalformedCapture extends Error {
 
 const INTEGER = /^-?[0-9]+$/;
 
-/** Rows of integer strings, after checking the header and every cell. */
-export function parseVectorCsv(text: string): string[][] {
-  if (text.trim() === '') throw new MalformedCapture(1, 'the file is empty; expected the header ' + VECTOR_CSV_COLUMNS.join(','));
-  let rows: { record: string[]; info: { lines: number } }[];
+interface ParsedRecord {
+  readonly record: string[];
+  readonly info: { readonly lines: number };
+}
+
+/**
+ * Rows of integer strings, after checking the header and every cell, read as a stream (csv-parse) and
+ * stopped at the first row past `maxRows`: a capture longer than the release's vectors is refused
+ * there, without reading the rest.
+ */
+export async function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE_INFINITY): Promise<string[][]> {
+  const want = VECTOR_CSV_COLUMNS.join(',');
+  const parser = parse({ skip_empty_lines: true, trim: true, info: true, bom: true, relax_column_count: true });
+  Readable.from([Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)]).pipe(parser);
+  const rows: string[][] = [];
+  let header = true;
   try {
-    rows = parse(text, { skip_empty_lines: true, trim: true, info: true, bom: true, relax_column_count: true }) as unknown as { record: string[]; info: { lines: number } }[];
+    for await (const { record, info } of parser as AsyncIterable<ParsedRecord>) {
+      if (header) {
+        if (record.join(',') !== want) throw new MalformedCapture(info.lines, `the header must be "${want}", got "${record.join(',').slice(0, 200)}"`);
+        header = false;
+        continue;
+      }
+      if (rows.length >= maxRows) {
+        throw new MalformedCapture(info.lines, `the release's golden vectors hold ${maxRows} samples, and this file has more rows; compare the first ${maxRows} samples of the run`);
+      }
+      rows.push(checkedRow(record, info.lines));
+    }
   } catch (err) {
+    if (err instanceof MalformedCapture) throw err;
     const e = err as { lines?: number; message: string };
     throw new MalformedCapture(e.lines ?? 1, `not readable as CSV (${e.message})`);
+  } finally {
+    parser.destroy();
   }
-  const [header, ...body] = rows;
-  if (!header) throw new MalformedCapture(1, 'no header line');
-  const want = VECTOR_CSV_COLUMNS.join(',');
-  if (header.record.join(',') !== want) {
-    throw new MalformedCapture(header.info.lines, `the header must be "${want}", got "${header.record.join(',')}"`);
-  }
-  return body.map(({ record, info }) => {
-    if (record.length !== VECTOR_CSV_COLUMNS.length) {
-      throw new MalformedCapture(info.lines, `expected ${VECTOR_CSV_COLUMNS.length} values, got ${record.length}`);
-    }
-    record.forEach((cell, i) => {
-      if (!INTEGER.test(cell)) throw new MalformedCapture(info.lines, `column ${VECTOR_CSV_COLUMNS[i]}: "${cell.slice(0, 40)}" is not a decimal integer`);
-    });
-    return record;
+  if (header) throw new MalformedCapture(1, `the file is empty; expected the header ${want}`);
+  return rows;
+}
+
+function checkedRow(record: string[], line: number): string[] {
+  if (record.length !== VECTOR_CSV_COLUMNS.length) throw new MalformedCapture(line, `expected ${VECTOR_CSV_COLUMNS.length} values, got ${record.length}`);
+  record.forEach((cell, i) => {
+    if (!INTEGER.test(cell)) throw new MalformedCapture(line, `column ${VECTOR_CSV_COLUMNS[i]}: "${cell.slice(0, 40)}" is not a decimal integer`);
   });
+  return record;
+}
+
+/** A capture against a release's stored golden CSV, capped at the golden rows (run in the compute pool). */
+export async function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario: GoldenVectors['scenario'], accumulatorBits: number): Promise<Comparison> {
+  const goldenRows = await readVectorCsv(golden);
+  return compareWithGolden(goldenFromRows(goldenRows, scenario, accumulatorBits), await readVectorCsv(capture, goldenRows.length));
 }
 
 /** The stored golden CSV of a release as dsp's GoldenVectors (the stored bytes are the reference, not a recomputation). */

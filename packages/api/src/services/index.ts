@@ -31,6 +31,6 @@ export function createServices(dataSource: DataSource, config: Config): Services
   const designs = new DesignService(dataSource, projects, audit);
   const compute = new ComputePool({ threads: config.compute.threads, timeoutMs: config.compute.timeoutS * 1000, maxQueue: config.compute.maxQueue });
   const analysis = new AnalysisService(compute, designs, config.compute.maxSimulationSamples);
-  const handoff = createReleaseServices(dataSource, { audit, designs, files: new FileStore(config.fileStoreDir) });
+  const handoff = createReleaseServices(dataSource, { audit, designs, compute, files: new FileStore(config.fileStoreDir) });
   return { dataSource, audit, sessions, users, projects, designs, compute, analysis, handoff };
 }

@@ -16,8 +16,10 @@ import {
   type SimResult,
   type SpecIssue,
 } from '@loopwright/dsp';
+import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
 
 export type ComputeTask =
+  | HandoffTask
   | { readonly kind: 'analysis'; readonly spec: unknown }
   | {
       readonly kind: 'simulation';
@@ -31,12 +33,14 @@ export type ComputeFailure = { readonly ok: false; readonly issues: readonly Spe
 
 /** threadId says which thread computed (0 is the main thread), for the tests and the log. */
 export type ComputeOutcome = { readonly threadId: number } & (
+  | HandoffOutcome
   | { readonly ok: true; readonly kind: 'analysis'; readonly analysis: AnalysisResult }
   | { readonly ok: true; readonly kind: 'simulation'; readonly simulation: SimResult }
   | ComputeFailure
 );
 
-export function runComputeTask(task: ComputeTask): ComputeOutcome {
+export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<ComputeOutcome> {
+  if (task.kind === 'release' || task.kind === 'conformance') return runHandoffTask(task).then((outcome) => ({ threadId, ...outcome }));
   if (task.kind === 'analysis') {
     const analysed = tryAnalyzeDesign(task.spec);
     return analysed.ok

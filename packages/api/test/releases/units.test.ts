@@ -5,7 +5,7 @@ import { valueChanges } from '../../src/releases/diff.ts';
 import { issueToken, parseToken, tokenHash, tokenMatches } from '../../src/releases/reviewToken.ts';
 import { RELEASE_EVENTS, RELEASE_STATES } from '@loopwright/contract';
 import { allowedEvents, transition } from '../../src/releases/stateMachine.ts';
-import { compareWithGolden, goldenFromRows, parseVectorCsv } from '../../src/releases/vectorCompare.ts';
+import { compareWithGolden, goldenFromRows, readVectorCsv } from '../../src/releases/vectorCompare.ts';
 
 describe('release state machine', () => {
   it('allows exactly the documented transitions', () => {
@@ -69,43 +69,45 @@ describe('golden vector comparison (dsp compareVectors on the stored CSV)', () =
   const row = (n: number, f = 0) => [n, 10, 4294967295, 3, -7, 5, f].join(',');
   const scenario = { kind: 'tone', offsetHz: 0, durationS: 1 } as const;
   const compareVectors = (g: string[][], got: string[][]) => compareWithGolden(goldenFromRows(g, scenario, 32), got);
-  const golden = parseVectorCsv([header, row(0), row(1), row(2)].join('\n') + '\n');
+  const parseVectorCsv = (text: string, maxRows?: number) => readVectorCsv(Buffer.from(text), maxRows);
+  const goldenText = [header, row(0), row(1), row(2)].join('\n') + '\n';
 
-  it('is bit-exact for the same numbers, however they are spaced or zero-padded', () => {
-    const got = parseVectorCsv(`${header}\r\n${row(0)}\r\n 1, 10, 4294967295, 3, -07, 5, 0\r\n${row(2)}\r\n`);
-    expect(compareVectors(golden, got)).toEqual({ verdict: 'bit-exact', samplesCompared: 3, mismatchCount: 0, firstMismatches: [] });
+  it('is bit-exact for the same numbers, however they are spaced or zero-padded', async () => {
+    const got = await parseVectorCsv(`${header}\r\n${row(0)}\r\n 1, 10, 4294967295, 3, -07, 5, 0\r\n${row(2)}\r\n`);
+    expect(compareVectors(await parseVectorCsv(goldenText), got)).toEqual({ verdict: 'bit-exact', samplesCompared: 3, mismatchCount: 0, firstMismatches: [] });
   });
 
-  it('counts every differing value and reports the first ten', () => {
-    const many = parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n))].join('\n'));
-    const got = parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n, n % 2))].join('\n'));
+  it('counts every differing value and reports the first ten', async () => {
+    const many = await parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n))].join('\n'));
+    const got = await parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n, n % 2))].join('\n'));
     const r = compareVectors(many, got);
     expect(r.mismatchCount).toBe(15);
     expect(r.firstMismatches).toHaveLength(10);
     expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'filter_code', expected: '0', got: '1' });
   });
 
-  it('keeps 64-bit phase words exact through the stored-CSV record', () => {
-    const wide = parseVectorCsv(`${header}\n0,1,18446744073709551615,2,3,4,5\n`);
+  it('keeps 64-bit phase words exact through the stored-CSV record', async () => {
+    const wide = await parseVectorCsv(`${header}\n0,1,18446744073709551615,2,3,4,5\n`);
     expect(compareVectors(wide, wide).verdict).toBe('bit-exact');
-    const off = parseVectorCsv(`${header}\n0,1,18446744073709551614,2,3,4,5\n`);
+    const off = await parseVectorCsv(`${header}\n0,1,18446744073709551614,2,3,4,5\n`);
     expect(compareVectors(wide, off).firstMismatches).toEqual([{ sampleIndex: 0, column: 'nco_phase', expected: '18446744073709551615', got: '18446744073709551614' }]);
   });
 
-  it('counts missing samples as mismatches', () => {
-    const got = parseVectorCsv([header, row(0)].join('\n'));
-    const r = compareVectors(golden, got);
+  it('counts missing samples as mismatches', async () => {
+    const got = await parseVectorCsv([header, row(0)].join('\n'));
+    const r = compareVectors(await parseVectorCsv(goldenText), got);
     expect(r.verdict).toBe('mismatch');
     expect(r.mismatchCount).toBe(2);
     expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'sample', expected: '1', got: '(missing)' });
   });
 
-  it('names the line of a malformed file', () => {
-    expect(() => parseVectorCsv('')).toThrow(/^line 1: the file is empty/);
-    expect(() => parseVectorCsv('a,b\n1,2\n')).toThrow(/^line 1: the header must be/);
-    expect(() => parseVectorCsv(`${header}\n${row(0)}\n1,2,3\n`)).toThrow(/^line 3: expected 7 values, got 3/);
-    expect(() => parseVectorCsv(`${header}\n${row(0)}\n${row(1).replace('-7', 'x')}\n`)).toThrow(/^line 3: column nco_code: "x" is not a decimal integer/);
-    expect(() => parseVectorCsv(`${header}\n"unterminated\n`)).toThrow(/^line \d+: not readable as CSV/);
+  it('names the line of a malformed file', async () => {
+    await expect(parseVectorCsv('')).rejects.toThrow(/^line 1: the file is empty/);
+    await expect(parseVectorCsv('a,b\n1,2\n')).rejects.toThrow(/^line 1: the header must be/);
+    await expect(parseVectorCsv(`${header}\n${row(0)}\n1,2,3\n`)).rejects.toThrow(/^line 3: expected 7 values, got 3/);
+    await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1).replace('-7', 'x')}\n`)).rejects.toThrow(/^line 3: column nco_code: "x" is not a decimal integer/);
+    await expect(parseVectorCsv(`${header}\n"unterminated\n`)).rejects.toThrow(/^line \d+: not readable as CSV/);
+    await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1)}\n${row(2)}\n`, 2)).rejects.toThrow(/^line 4: the release's golden vectors hold 2 samples, and this file has more rows/);
   });
 });
 

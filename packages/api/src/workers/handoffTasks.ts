@@ -1,0 +1,59 @@
+/**
+ * The hand-off's CPU-heavy steps, run in the compute pool (workers/compute.ts) so a request never holds
+ * the event loop: a release cut's computation and rendering (seconds for a 65,536-entry sine table),
+ * and a conformance upload's parsing and comparison (megabytes of CSV). Plain data in and out; input
+ * errors are returned, because an Error crossing the thread boundary keeps only its message.
+ */
+import { createHash } from 'node:crypto';
+import type { GoldenVectors } from '@loopwright/dsp';
+import { renderArtifacts, type RenderedRelease } from '../render/artifacts.ts';
+import { computeRelease, RenderInputError } from '../render/compute.ts';
+import { compareCapture, MalformedCapture, type Comparison } from '../releases/vectorCompare.ts';
+
+export interface ReleaseRenderTask {
+  readonly kind: 'release';
+  readonly spec: unknown;
+}
+
+export interface ConformanceTask {
+  readonly kind: 'conformance';
+  /** The release's stored golden-vector CSV. */
+  readonly golden: Uint8Array;
+  /** The uploaded capture. */
+  readonly capture: Uint8Array;
+  readonly scenario: GoldenVectors['scenario'];
+  readonly accumulatorBits: number;
+}
+
+export type HandoffTask = ReleaseRenderTask | ConformanceTask;
+
+/** A field-named refusal: `field` is a spec path for a release, "" (the file) for a capture. */
+export type HandoffFailure = { readonly ok: false; readonly issues: readonly { field: string; message: string }[]; readonly prefix: 'spec' | 'file' };
+
+export type HandoffOutcome =
+  | { readonly ok: true; readonly kind: 'release'; readonly rendered: RenderedRelease }
+  | { readonly ok: true; readonly kind: 'conformance'; readonly comparison: Comparison; readonly sha256: string }
+  | HandoffFailure;
+
+export async function runHandoffTask(task: HandoffTask): Promise<HandoffOutcome> {
+  if (task.kind === 'release') {
+    try {
+      return { ok: true, kind: 'release', rendered: renderArtifacts(computeRelease(task.spec)) };
+    } catch (err) {
+      if (err instanceof RenderInputError) return { ok: false, issues: [{ field: err.field, message: err.message }], prefix: 'spec' };
+      throw err;
+    }
+  }
+  try {
+    const comparison = await compareCapture(task.golden, task.capture, task.scenario, task.accumulatorBits);
+    return { ok: true, kind: 'conformance', comparison, sha256: createHash('sha256').update(task.capture).digest('hex') };
+  } catch (err) {
+    if (err instanceof MalformedCapture) return { ok: false, issues: [{ field: '', message: err.message }], prefix: 'file' };
+    throw err;
+  }
+}
+
+/** Buffers come back from a worker thread as plain Uint8Arrays (structured clone); this views them as Buffers again. */
+export function asBuffer(bytes: Uint8Array): Buffer {
+  return Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+}

@@ -1,0 +1,127 @@
+/**
+ * No request stalls the server: a large conformance upload (590,000 rows, 8.3 MB) is parsed and
+ * compared in the compute pool, capped at the rows the release's vectors hold, and a release cut of a
+ * big spec is computed and rendered there too, so /api/health keeps answering meanwhile. Timed
+ * loosely (a shared machine): before, each of these held the event loop for seconds.
+ */
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { mainsSyncSpec } from '@loopwright/dsp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { csrf, PASSWORD, signedInAgent, type Agent } from '../helpers.ts';
+import { releaseFixtures, type ReleaseFixtures } from './fixtures.ts';
+import { designFromTemplate, startHandoff, type Handoff } from './handoff.ts';
+
+/** Loose: a blocked event loop held health for 3 s and more; a busy shared machine answers within this. */
+const HEALTH_BOUND_MS = 1500;
+
+let h: Handoff;
+let fixtures: ReleaseFixtures;
+let firmware: Agent;
+let server: Server;
+let base: string;
+
+beforeAll(async () => {
+  h = await startHandoff();
+  const designId = await designFromTemplate(h.designer, 'mains-sync');
+  fixtures = await releaseFixtures(h.built, h.org, designId);
+  firmware = await signedInAgent(h.built.app, h.org.emails.firmware);
+  server = createServer(h.built.app);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+
+afterAll(async () => {
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+  await h.close();
+});
+
+/** Polls /api/health until `work` settles; returns the slowest answer in ms. */
+async function slowestHealthDuring(work: Promise<unknown>): Promise<number> {
+  let done = false;
+  void work.finally(() => (done = true));
+  let slowest = 0;
+  while (!done) {
+    const t0 = performance.now();
+    const res = await fetch(`${base}/api/health`);
+    await res.arrayBuffer();
+    slowest = Math.max(slowest, performance.now() - t0);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+  return slowest;
+}
+
+interface Answer {
+  readonly status: number;
+  readonly text: string;
+  readonly body: Record<string, any>;
+}
+
+async function sessionCookie(email: string): Promise<string> {
+  const res = await fetch(`${base}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json', ...csrf }, body: JSON.stringify({ email, password: PASSWORD }) });
+  expect(res.status).toBe(200);
+  return (res.headers.get('set-cookie') ?? '').split(';')[0]!;
+}
+
+/** A multipart/form-data body with one file (RFC 7578). */
+function multipart(field: string, fileName: string, content: Buffer): { type: string; bytes: Buffer } {
+  const boundary = `lw-${Date.now().toString(16)}-boundary`;
+  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="${field}"; filename="${fileName}"\r\nContent-Type: text/csv\r\n\r\n`);
+  return { type: `multipart/form-data; boundary=${boundary}`, bytes: Buffer.concat([head, content, Buffer.from(`\r\n--${boundary}--\r\n`)]) };
+}
+
+/** 590,000 rows in the vector layout, about 8.3 MB (under the 8 MiB upload limit). */
+function longCapture(): Buffer {
+  const lines = [fixtures.goldenCsv.toString('utf8').split('\n')[0]!];
+  for (let n = 0; n < 590_000; n++) lines.push('0,0,0,0,0,0,0');
+  return Buffer.from(`${lines.join('\n')}\n`);
+}
+
+/** The golden vectors with every value padded by spaces (accepted) to about 8 MB: a full-size compare. */
+function paddedGolden(): Buffer {
+  const [header, ...rows] = fixtures.goldenCsv.toString('utf8').trimEnd().split('\n');
+  const pad = ' '.repeat(280);
+  return Buffer.from(`${header}\n${rows.map((r) => r.split(',').map((v) => `${pad}${v}`).join(',')).join('\n')}\n`);
+}
+
+describe('while big uploads are compared and a big release is cut', () => {
+  it(`answers /api/health within ${HEALTH_BOUND_MS} ms, and gets each answer right`, async () => {
+    const long = longCapture();
+    const padded = paddedGolden();
+    expect(long.length).toBeGreaterThan(8_000_000);
+    expect(padded.length).toBeGreaterThan(7_000_000);
+    const bigSpec = { ...mainsSyncSpec, name: 'big_tables', nco: { ...mainsSyncSpec.nco, phaseBits: 16, amplitudeBits: 32 }, fixedPoint: { ...mainsSyncSpec.fixedPoint, dataBits: 21 } };
+    const project = await h.designer.post('/api/projects').set(csrf).send({ name: 'Big cut' }).expect(201);
+    const design = await h.designer.post(`/api/projects/${project.body.id}/designs`).set(csrf).send({ name: 'Big tables', spec: bigSpec }).expect(201);
+
+    const runsBefore = (await firmware.get(`/api/releases/${fixtures.approvedId}/conformance`).expect(200)).body.runs.length as number;
+    // The requests are built before the clock starts and sent with fetch, so the test's own work
+    // (building 8 MB multipart bodies) does not hold the event loop it shares with the server.
+    const firmwareCookie = await sessionCookie(h.org.emails.firmware);
+    const designerCookie = await sessionCookie(h.org.emails.designer);
+    const uploadBody = (file: Buffer, name: string) => multipart('file', name, file);
+    const bodies = [uploadBody(long, 'long.csv'), uploadBody(padded, 'padded.csv'), uploadBody(long, 'long-again.csv')];
+    const post = (path: string, cookie: string, body?: { type: string; bytes: Buffer }) =>
+      fetch(`${base}${path}`, { method: 'POST', headers: { cookie, ...csrf, ...(body ? { 'content-type': body.type } : {}) }, body: body?.bytes }).then(async (r) => ({ status: r.status, text: await r.text() }));
+    const uploadPath = `/api/releases/${fixtures.approvedId}/conformance`;
+    const work = Promise.all([
+      post(uploadPath, firmwareCookie, bodies[0]),
+      post(uploadPath, firmwareCookie, bodies[1]),
+      post(`/api/designs/${design.body.id}/releases`, designerCookie),
+      post(uploadPath, firmwareCookie, bodies[2]),
+    ]).then((answers) => answers.map((a) => ({ ...a, body: JSON.parse(a.text) as Record<string, any> })));
+    const slowest = await slowestHealthDuring(work);
+    const [tooLong, bitExact, cut, tooLongAgain] = (await work) as [Answer, Answer, Answer, Answer];
+    expect(slowest, 'slowest /api/health answer (ms)').toBeLessThan(HEALTH_BOUND_MS);
+
+    expect(tooLong.status, tooLong.text.slice(0, 300)).toBe(400);
+    expect(tooLong.body.error.field).toBe('file');
+    expect(tooLong.body.error.message).toMatch(/line 4098: .*4096 samples/);
+    expect(tooLongAgain.status).toBe(400);
+    expect(bitExact.status, bitExact.text.slice(0, 300)).toBe(201);
+    expect(bitExact.body).toMatchObject({ verdict: 'bit-exact', samplesCompared: 4096, mismatchCount: 0 });
+    expect(cut.status, cut.text.slice(0, 300)).toBe(201);
+    // Only the readable capture is stored as a run.
+    expect((await firmware.get(`/api/releases/${fixtures.approvedId}/conformance`).expect(200)).body.runs).toHaveLength(runsBefore + 1);
+  });
+});
