@@ -24,6 +24,17 @@ const DEBIAN_PACKAGES = {
   loopwright: [],
 };
 
+/** Debian packages single terminal commands need besides their command's (`npm run loopwright -- backup …`). */
+const VERB_PACKAGES = {
+  backup: ['mariadb-client'],
+  restore: ['mariadb-client'],
+};
+
+/** The tsconfig tsx compiles a command with, when not the nearest one (the API's TypeORM entities need its decorator settings). */
+const TSCONFIGS = {
+  loopwright: 'packages/api/tsconfig.json',
+};
+
 /** The TypeScript entry of each command, run under tsx. */
 const ENTRIES = {
   start: 'scripts/start.ts',
@@ -109,11 +120,12 @@ function main() {
   if (!command || !(command in ENTRIES)) fail(`unknown command '${command ?? ''}'; use start, test, bench or loopwright`);
   ensurePnpm();
   ensureDependencies();
-  ensureDebianPackages(DEBIAN_PACKAGES[command]);
+  ensureDebianPackages([...DEBIAN_PACKAGES[command], ...(command === 'loopwright' ? (VERB_PACKAGES[args[0]] ?? []) : [])]);
+  const tsconfig = TSCONFIGS[command] ? { TSX_TSCONFIG_PATH: path.join(ROOT, TSCONFIGS[command]) } : {};
   const child = spawn(process.execPath, ['--import', 'tsx', ENTRIES[command], ...args], {
     cwd: ROOT,
     stdio: 'inherit',
-    env: { ...process.env, INIT_CWD: process.env.INIT_CWD ?? process.cwd() },
+    env: { ...process.env, INIT_CWD: process.env.INIT_CWD ?? process.cwd(), ...tsconfig },
   });
   // Ctrl-C reaches the child too (same process group); pass signals on and wait for it to clean up.
   // The child's handlers are idempotent, so a second copy of the same signal does no harm.

@@ -52,6 +52,12 @@ interface ApiConfigModule {
 const API_DIR = path.join(ROOT, 'packages', 'api');
 const API_CONFIG = path.join(API_DIR, 'src', 'config.ts');
 
+/** The LW_DB_* settings that point the API (or its terminal commands) at `db`: the API's own dbEnv. */
+export async function apiDbEnv(db: MariaDbInstance): Promise<Record<string, string>> {
+  const { dbEnv } = (await import(pathToFileURL(API_CONFIG).href)) as ApiConfigModule;
+  return dbEnv(db);
+}
+
 function runPrepareDb(env: Record<string, string>): Promise<void> {
   return new Promise((resolve, reject) => {
     let output = '';
@@ -83,11 +89,10 @@ export async function startStack(options: StackOptions = {}): Promise<Stack> {
 
     const port = await findFreePort();
     const baseUrl = `http://127.0.0.1:${port}`;
-    const { dbEnv } = (await import(pathToFileURL(API_CONFIG).href)) as ApiConfigModule;
     const env: Record<string, string> = {
       NODE_ENV: 'test',
       PORT: String(port),
-      ...dbEnv(db),
+      ...(await apiDbEnv(db)),
       LW_DATA_DIR: path.join(dataDir, 'server'),
       LW_APP_DIST: withApp ? APP_DIST : path.join(dataDir, 'no-app'),
       LW_API_PROCESSES: String(processes),

@@ -1,6 +1,6 @@
 /**
  * `loopwright design SPEC.json` | `simulate SPEC.json SCENARIO.json [--vectors N]` | `render SPEC.json OUTDIR`
- * | `verify OUTDIR [--samples N]` | `estimate SPEC.json`.
+ * | `verify OUTDIR [--samples N]` | `estimate SPEC.json` | `backup FILE` | `restore FILE`.
  * stdout carries only the JSON or CSV; errors are one line on stderr. Exit codes: 0 ok, 2 bad input
  * or usage, 1 an internal failure; verify: 1 when a testbench FAILs or gives no verdict, 3 when no
  * simulator is installed (nothing was verified).
@@ -11,7 +11,7 @@ import { designCommand, estimateCommand, renderCommand, simulateCommand, verifyC
 import { UsageError } from './input.ts';
 
 const USAGE =
-  'usage: loopwright design SPEC.json | simulate SPEC.json SCENARIO.json [--vectors N] | render SPEC.json OUTDIR | verify OUTDIR [--samples N] | estimate SPEC.json';
+  'usage: loopwright design SPEC.json | simulate SPEC.json SCENARIO.json [--vectors N] | render SPEC.json OUTDIR | verify OUTDIR [--samples N] | estimate SPEC.json | backup FILE | restore FILE';
 
 export async function runCli(argv: readonly string[]): Promise<CommandOutput> {
   let parsed;
@@ -43,6 +43,13 @@ export async function runCli(argv: readonly string[]): Promise<CommandOutput> {
     case 'estimate':
       arity(1);
       return estimateCommand(rest[0]!);
+    // Loaded only when used: they bring in the database layer (TypeORM entities), the others need none of it.
+    case 'backup':
+      arity(1);
+      return ok(await (await import('./backupCommands.ts')).backupCommand(rest[0]!));
+    case 'restore':
+      arity(1);
+      return ok(await (await import('./backupCommands.ts')).restoreCommand(rest[0]!));
     default:
       throw new UsageError(`${command === undefined ? 'no command given' : `unknown command "${command}"`}; ${USAGE}`);
   }

@@ -14,7 +14,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { constants } from 'node:fs';
-import { mkdir, open, readFile, rename, rm, stat } from 'node:fs/promises';
+import { mkdir, open, readdir, readFile, rename, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 
 const SHA256_HEX = /^[0-9a-f]{64}$/;
@@ -31,6 +31,15 @@ export class StoredFileError extends Error {
 }
 
 const sha256Of = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
+
+async function readdirOrEmpty(path: string): Promise<string[]> {
+  try {
+    return await readdir(path);
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return [];
+    throw err;
+  }
+}
 
 async function fsyncPath(path: string, flags: number): Promise<void> {
   const handle = await open(path, flags);
@@ -84,6 +93,15 @@ export class FileStore {
       if ((err as NodeJS.ErrnoException).code === 'ENOENT') return false;
       throw err;
     }
+  }
+
+  /** The SHA-256 of every stored file (backup copies them all), in no particular order; [] for an empty or absent store. */
+  async list(): Promise<string[]> {
+    const found: string[] = [];
+    for (const prefix of await readdirOrEmpty(join(this.dir, 'sha256'))) {
+      for (const name of await readdirOrEmpty(join(this.dir, 'sha256', prefix))) if (SHA256_HEX.test(name) && name.startsWith(prefix)) found.push(name);
+    }
+    return found;
   }
 
   /** The bytes stored under `sha256`, checked against it; StoredFileError when missing or altered. */

@@ -22,6 +22,14 @@ afterEach(() => {
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 
 describe('FileStore', () => {
+  it('lists what it stores, skipping what is not a stored file, and lists nothing for a store never written', async () => {
+    const s = store();
+    expect(await new FileStore(join(s.dir, 'never-written')).list()).toEqual([]);
+    const keys = [await s.put(Buffer.from('a')), await s.put(Buffer.from('b')), await s.put(Buffer.from('a'))];
+    writeFileSync(join(s.dir, 'sha256', keys[0]!.slice(0, 2), 'notes.txt'), 'not a stored file');
+    expect((await s.list()).sort()).toEqual([...new Set(keys)].sort());
+  });
+
   it('stores bytes under their SHA-256 and reads them back', async () => {
     const s = store();
     const bytes = Buffer.from('constant SINE : sine_table := (0, 201, 402);\n');
