@@ -1,8 +1,10 @@
 /**
  * No request stalls the server: a large conformance upload (590,000 rows, 8.3 MB) is parsed and
- * compared in the compute pool, capped at the rows the release's vectors hold, and a release cut of a
- * big spec is computed and rendered there too, so /api/health keeps answering meanwhile. Timed
- * loosely (a shared machine): before, each of these held the event loop for seconds.
+ * compared in the compute pool, capped at the rows the release's vectors hold, a release cut of a
+ * big spec is computed and rendered there too, and so is a million-sample simulation, so /api/health
+ * keeps answering meanwhile. Timed loosely (a shared machine): before, each of these held the event
+ * loop for seconds. The target is an answer within 100 ms: the median answer is held to it, the
+ * slowest only to HEALTH_BOUND_MS.
  */
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -20,11 +22,12 @@ let fixtures: ReleaseFixtures;
 let firmware: Agent;
 let server: Server;
 let base: string;
+let mainsDesignId: number;
 
 beforeAll(async () => {
   h = await startHandoff();
-  const designId = await designFromTemplate(h.designer, 'mains-sync');
-  fixtures = await releaseFixtures(h.built, h.org, designId);
+  mainsDesignId = await designFromTemplate(h.designer, 'mains-sync');
+  fixtures = await releaseFixtures(h.built, h.org, mainsDesignId);
   firmware = await signedInAgent(h.built.app, h.org.emails.firmware);
   server = createServer(h.built.app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
@@ -36,19 +39,23 @@ afterAll(async () => {
   await h.close();
 });
 
-/** Polls /api/health until `work` settles; returns the slowest answer in ms. */
-async function slowestHealthDuring(work: Promise<unknown>): Promise<number> {
+/** The issue's target for one /api/health answer while long work runs. */
+const HEALTH_TARGET_MS = 100;
+
+/** Polls /api/health until `work` settles; returns the slowest and the median answer in ms, and how many. */
+async function healthDuring(work: Promise<unknown>): Promise<{ slowest: number; median: number; answers: number }> {
   let done = false;
   void work.finally(() => (done = true));
-  let slowest = 0;
+  const times: number[] = [];
   while (!done) {
     const t0 = performance.now();
     const res = await fetch(`${base}/api/health`);
     await res.arrayBuffer();
-    slowest = Math.max(slowest, performance.now() - t0);
+    times.push(performance.now() - t0);
     await new Promise((r) => setTimeout(r, 20));
   }
-  return slowest;
+  const sorted = [...times].sort((a, b) => a - b);
+  return { slowest: sorted[sorted.length - 1] ?? 0, median: sorted[Math.floor(sorted.length / 2)] ?? 0, answers: times.length };
 }
 
 interface Answer {
@@ -84,8 +91,8 @@ function paddedGolden(): Buffer {
   return Buffer.from(`${header}\n${rows.map((r) => r.split(',').map((v) => `${pad}${v}`).join(',')).join('\n')}\n`);
 }
 
-describe('while big uploads are compared and a big release is cut', () => {
-  it(`answers /api/health within ${HEALTH_BOUND_MS} ms, and gets each answer right`, async () => {
+describe('while big uploads are compared, a big release is cut and a long simulation runs', () => {
+  it(`answers /api/health in ${HEALTH_TARGET_MS} ms typically and always within ${HEALTH_BOUND_MS} ms, and gets each answer right`, async () => {
     const long = longCapture();
     const padded = paddedGolden();
     expect(long.length).toBeGreaterThan(8_000_000);
@@ -104,15 +111,23 @@ describe('while big uploads are compared and a big release is cut', () => {
     const post = (path: string, cookie: string, body?: { type: string; bytes: Buffer }) =>
       fetch(`${base}${path}`, { method: 'POST', headers: { cookie, ...csrf, ...(body ? { 'content-type': body.type } : {}) }, body: body?.bytes }).then(async (r) => ({ status: r.status, text: await r.text() }));
     const uploadPath = `/api/releases/${fixtures.approvedId}/conformance`;
+    // A million loop samples (100 s at the 10 kHz update rate), float and bit-true.
+    const simulation = { type: 'application/json', bytes: Buffer.from(JSON.stringify({ scenario: { kind: 'frequency-step', stepHz: 0.5, atS: 1, durationS: 100 }, mode: 'both' })) };
     const work = Promise.all([
       post(uploadPath, firmwareCookie, bodies[0]),
       post(uploadPath, firmwareCookie, bodies[1]),
       post(`/api/designs/${design.body.id}/releases`, designerCookie),
+      post(`/api/designs/${mainsDesignId}/simulations`, designerCookie, simulation),
       post(uploadPath, firmwareCookie, bodies[2]),
     ]).then((answers) => answers.map((a) => ({ ...a, body: JSON.parse(a.text) as Record<string, any> })));
-    const slowest = await slowestHealthDuring(work);
-    const [tooLong, bitExact, cut, tooLongAgain] = (await work) as [Answer, Answer, Answer, Answer];
-    expect(slowest, 'slowest /api/health answer (ms)').toBeLessThan(HEALTH_BOUND_MS);
+    const health = await healthDuring(work);
+    const [tooLong, bitExact, cut, simulated, tooLongAgain] = (await work) as [Answer, Answer, Answer, Answer, Answer];
+    expect(health.answers).toBeGreaterThan(10);
+    expect(health.median, 'median /api/health answer (ms)').toBeLessThan(HEALTH_TARGET_MS);
+    expect(health.slowest, 'slowest /api/health answer (ms)').toBeLessThan(HEALTH_BOUND_MS);
+    expect(simulated.status, simulated.text.slice(0, 300)).toBe(200);
+    expect(simulated.body.simulation.sampleCount).toBe(1_000_000);
+    expect(simulated.body.simulation.bitTrue.checksum).toEqual(expect.any(Number));
 
     expect(tooLong.status, tooLong.text.slice(0, 300)).toBe(400);
     expect(tooLong.body.error.field).toBe('file');
