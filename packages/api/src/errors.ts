@@ -19,6 +19,17 @@ export class AppError extends Error {
 }
 
 export const invalidInput = (field: string, message: string) => new AppError('invalid_input', message, 400, field);
+
+/**
+ * The one way spec and scenario issues (dsp's `{ field, message }`, field a dot path inside the
+ * document) become the API's error: 400 invalid_input naming the first field under `prefix` (`spec`,
+ * `file`, `scenario`), with every issue's message. The terminal says the same in its own words
+ * (cli/input.ts, issuesLine).
+ */
+export function issuesError(issues: readonly { readonly field: string; readonly message: string }[], prefix: string): AppError {
+  const first = issues[0];
+  return invalidInput(first?.field ? `${prefix}.${first.field}` : prefix, issues.map((issue) => issue.message).join('; '));
+}
 export const notFound = (what: string) => new AppError('not_found', `${what} not found`, 404);
 export const conflict = (message: string, field?: string) => new AppError('conflict', message, 409, field);
 export const forbidden = (message = 'your roles do not allow this') => new AppError('forbidden', message, 403);

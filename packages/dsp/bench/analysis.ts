@@ -2,7 +2,7 @@
  * Benchmark of analyzeDesign on the demo examples (target: < 5 ms per spec, so the design editor can
  * re-analyse on every edit in a Web Worker). Reports figures; never fails a test run.
  */
-import { analyzeDesign } from '../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../src/planDesign.ts';
 import { exampleSpecs } from '../src/spec/examples.ts';
 import { wordLengthSearch } from '../src/wordlength/wordLengthSearch.ts';
 

@@ -14,12 +14,11 @@ import { mainsSyncSpec, exampleSpecs } from '../src/spec/examples.ts';
 import type { LoopSpec } from '../src/spec/schema.ts';
 import type { Scenario } from '../src/spec/scenario.ts';
 import type { BitTruePlan } from '../src/types/sim.ts';
-import { designLoopFilter } from '../src/design.ts';
-import { quantizeSections } from '../src/fixed/quantizeSections.ts';
-import { planBitTrue } from '../src/sim/bitTruePlan.ts';
 import { allocInputChunk, inputGenerator } from '../src/sim/inputSignal.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk } from '../src/sim/bitTrueKernel.ts';
-import { simulate, CHUNK_SAMPLES } from '../src/sim/simulate.ts';
+import { CHUNK_SAMPLES } from '../src/sim/simulate.ts';
+import { planDesign, simulate } from '../src/planDesign.ts';
+import { requireValidSpec } from '../src/spec/schema.ts';
 import { measureAcquisition } from '../src/analysis/acquisitionSim.ts';
 import { formatCParams } from './cParams.ts';
 import { runAnalysisBench, runWordLengthBench } from './analysis.ts';
@@ -99,8 +98,7 @@ const RATIO_TO_C_TARGET = 0.6;
 
 export async function runDspBench(): Promise<Record<string, unknown>> {
   const spec = mainsSyncSpec;
-  const sections = designLoopFilter(spec).sections;
-  const plan = planBitTrue(spec, quantizeSections(sections, spec.fixedPoint));
+  const plan = planDesign(requireValidSpec(spec)).bitTrue!;
   const codes = inputCodes(spec, plan, SAMPLES);
   runTs(plan, codes.subarray(0, 200_000)); // warm-up: let the JIT compile the hot loop
   const c = prepareC(plan, codes);

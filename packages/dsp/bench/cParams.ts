@@ -11,7 +11,7 @@ export function formatCParams(plan: BitTruePlan): string {
     plan.dataBits,
     plan.coefficientBits,
     plan.coefficientFractionBits,
-    plan.macBits,
+    plan.accumulatorBits,
     ROUNDING[plan.rounding],
     plan.overflow === 'wrap' ? 1 : 0,
     plan.waveform === 'square' ? 1 : 0,

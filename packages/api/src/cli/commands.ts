@@ -4,14 +4,14 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { tryAnalyzeDesign } from '@loopwright/dsp';
+import { tryPlanDesign } from '@loopwright/dsp';
 import { renderArtifacts } from '../render/artifacts.ts';
-import { computeDesign, computeRelease, RenderInputError, validSpec } from '../render/compute.ts';
+import { computeDesign, computeRelease, RenderInputError } from '../render/compute.ts';
 import { synthesisSources } from '../render/synthesisSources.ts';
 import { estimateResources } from '../rtl/estimate.ts';
 import { RtlFolderError } from '../rtl/releaseFolder.ts';
 import { verifyFolder } from '../rtl/verify.ts';
-import { simulateScenario, ScenarioInputError } from '../render/simulation.ts';
+import { simulateScenario } from '../render/simulation.ts';
 import { issuesLine, readJsonFile, resolveUserPath, UsageError } from './input.ts';
 
 export interface CommandOutput {
@@ -24,29 +24,26 @@ export function toJson(value: unknown): string {
 }
 
 export function designCommand(specPath: string): string {
-  const r = tryAnalyzeDesign(readJsonFile('SPEC.json', specPath));
+  const r = tryPlanDesign(readJsonFile('SPEC.json', specPath));
   if (!r.ok) throw new UsageError(issuesLine('SPEC.json', r.issues));
-  return toJson(r.result);
+  return toJson(r.plan.analysis);
 }
 
 export function simulateCommand(specPath: string, scenarioPath: string, vectors: number | undefined): string {
   const spec = readJsonFile('SPEC.json', specPath);
   const scenario = readJsonFile('SCENARIO.json', scenarioPath);
-  try {
-    const out = simulateScenario(spec, scenario, vectors);
-    return vectors === undefined ? toJson(out.metrics) : out.vectorsCsv;
-  } catch (err) {
-    if (err instanceof ScenarioInputError) throw new UsageError(issuesLine(err.label, err.issues));
-    throw err;
-  }
+  const r = simulateScenario(spec, scenario, vectors);
+  if (!r.ok) throw new UsageError(issuesLine(r.label, r.issues));
+  return vectors === undefined ? toJson(r.output.metrics) : r.output.vectorsCsv;
 }
 
 /** Writes exactly the files a release of the spec holds (manifest.json included); prints their sums. */
 export function renderCommand(specPath: string, outDir: string): string {
-  const spec = readJsonFile('SPEC.json', specPath);
+  const computed = computeRelease(readJsonFile('SPEC.json', specPath));
+  if (!computed.ok) throw new UsageError(issuesLine('SPEC.json', computed.issues));
   let rendered;
   try {
-    rendered = renderArtifacts(computeRelease(spec));
+    rendered = renderArtifacts(computed.release);
   } catch (err) {
     if (err instanceof RenderInputError) throw new UsageError(issuesLine('SPEC.json', [{ field: err.field, message: err.message }]));
     throw err;
@@ -82,13 +79,8 @@ export async function verifyCommand(outDir: string, samples: number | undefined)
 
 /** The yosys resource estimate of the spec's reference RTL, or "not estimated". */
 export async function estimateCommand(specPath: string): Promise<CommandOutput> {
-  const spec = readJsonFile('SPEC.json', specPath);
-  let sources;
-  try {
-    sources = synthesisSources(computeDesign(validSpec(spec)));
-  } catch (err) {
-    if (err instanceof RenderInputError) throw new UsageError(issuesLine('SPEC.json', [{ field: err.field, message: err.message }]));
-    throw err;
-  }
+  const computed = computeDesign(readJsonFile('SPEC.json', specPath));
+  if (!computed.ok) throw new UsageError(issuesLine('SPEC.json', computed.issues));
+  const sources = synthesisSources(computed.plan);
   return { stdout: toJson(await estimateResources(sources)), exitCode: 0 };
 }

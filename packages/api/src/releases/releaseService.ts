@@ -7,7 +7,7 @@
  */
 import type { DataSource, EntityManager } from 'typeorm';
 import type { DesignRecord, DesignSummary, SessionUser } from '@loopwright/contract';
-import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
+import { AppError, conflict, invalidInput, issuesError, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
 import type { Manifest, RenderedRelease } from '../render/artifacts.ts';
@@ -69,10 +69,7 @@ export class ReleaseService {
    */
   async render(spec: unknown): Promise<RenderedRelease> {
     const outcome = await this.compute.run({ kind: 'release', spec });
-    if (!outcome.ok) {
-      const first = outcome.issues[0];
-      throw invalidInput(`spec.${first?.field ?? ''}`.replace(/\.$/, ''), outcome.issues.map((i) => i.message).join('; '));
-    }
+    if (!outcome.ok) throw issuesError(outcome.issues, 'spec');
     if (outcome.kind !== 'release') throw new Error('compute pool answered a release render with another kind');
     return fromWorker(outcome.rendered);
   }

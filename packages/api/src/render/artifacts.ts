@@ -6,7 +6,8 @@
 import type { LoopSpec } from '@loopwright/dsp';
 import { CAUTION, CAUTION_SHORT } from './caution.ts';
 import { canonicalJson, sha256Hex } from './digest.ts';
-import { handoffModel, type HandoffInput } from './fromDsp.ts';
+import type { ReleaseComputation } from './compute.ts';
+import { handoffModel } from './fromDsp.ts';
 import type { HandoffModel } from './handoff.ts';
 import { codeNames } from './identifiers.ts';
 import { renderTemplate } from './templates.ts';
@@ -15,22 +16,12 @@ import { cHeaderView } from './views/cHeader.ts';
 import type { ArtifactHeader } from './views/header.ts';
 import { readmeView } from './views/readme.ts';
 import { artifactFile as file, type ArtifactFile } from './artifactFile.ts';
-import type { HexMemoryFile } from './hexVectors.ts';
 import { rtlFileNames, rtlModel } from './rtl.ts';
 import { renderRtl, rtlPurposes } from './rtlArtifacts.ts';
 import { verilogView } from './views/verilog.ts';
 import { vhdlView } from './views/vhdl.ts';
 
 export const MANIFEST_FILE = 'manifest.json';
-
-export interface ReleaseComputation extends HandoffInput {
-  /** Everything the server computed, stored verbatim in the manifest's `results`. */
-  readonly results: Readonly<Record<string, unknown>>;
-  readonly vectorsCsv: string;
-  readonly vectorColumns: readonly { name: string; meaning: string }[];
-  readonly vectorHex: readonly HexMemoryFile[];
-  readonly vectorSamples: number;
-}
 
 export type { ArtifactFile } from './artifactFile.ts';
 
@@ -89,10 +80,11 @@ export function artifactHeaders(spec: LoopSpec): (fileName: string) => ArtifactH
 }
 
 export function renderArtifacts(computation: ReleaseComputation): RenderedRelease {
-  const { spec } = computation;
+  const { plan } = computation;
+  const { spec } = plan;
   const versions = toolVersions();
   const specSha256 = specDigest(spec);
-  const model = handoffModel(computation);
+  const model = handoffModel(plan);
   const names = artifactNames(spec.name);
   const header = artifactHeaders(spec);
   const purposes = [
@@ -103,7 +95,8 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
     ...computation.vectorHex.map((h) => ({ name: h.fileName, purpose: `golden column ${h.column} as a $readmemh file (${h.widthBits}-bit words, ${h.digits} hex digits a line)` })),
     ...rtlPurposes(names.rtl),
   ];
-  const rtl = rtlModel(spec.name, computation.plan);
+  const rtl = rtlModel(spec.name, plan.bitTrue);
+  const samples = plan.goldenVectors.record.length;
   const files: ArtifactFile[] = [
     file(names.vhdl, 'text/x-vhdl', renderTemplate('vhdl', vhdlView(model, header(names.vhdl)))),
     file(names.verilog, 'text/x-verilog', renderTemplate('verilog', verilogView(model, header(names.verilog)))),
@@ -116,7 +109,7 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
       vhdlPackageFile: names.vhdl,
       verilogIncludeFile: names.verilog,
       hex: computation.vectorHex,
-      samples: computation.vectorSamples,
+      samples,
       header,
     }),
     file(
@@ -126,8 +119,8 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
         'readme',
         readmeView({
           spec,
-          quantized: computation.quantized,
-          plan: computation.plan,
+          quantized: plan.quantized,
+          bitTrue: plan.bitTrue,
           model,
           toolVersion: versions.loopwright,
           specSha256,
@@ -136,7 +129,7 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
           vectorColumns: computation.vectorColumns,
           rtl,
           rtlFiles: { vhdlPackage: names.vhdl, ...names.rtl },
-          samples: computation.vectorSamples,
+          samples,
         }),
       ),
     ),
@@ -159,7 +152,7 @@ function buildManifest(
     design: model.name,
     versions,
     specSha256,
-    spec: computation.spec,
+    spec: computation.plan.spec,
     results: computation.results,
     constants: model.codes.map((c) => ({
       name: names.constant(c.suffix),

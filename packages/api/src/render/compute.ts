@@ -1,21 +1,39 @@
 /**
- * What the server computes from a stored spec before anything is rendered: the analysis, the
- * quantised sections, the NCO set-up and the golden vectors, all from packages/dsp (the server's
- * numbers are the ones that count). Validation happens here, at the public entry, and names the field.
+ * What the server computes from a stored spec before anything is rendered: one planDesign of the spec
+ * (packages/dsp) with its golden vectors, the numbers that count. The bit-true constants the files
+ * state and the vectors the release ships come from that same plan, so they cannot disagree.
  */
-import {
-  analyzeDesign,
-  FieldError,
-  parseLoopSpec,
-  planBitTrue,
-  type AnalysisResult,
-  type LoopSpec,
-  type BitTruePlan,
-  type QuantizedFilter,
-} from '@loopwright/dsp';
-import type { ReleaseComputation } from './artifacts.ts';
-import { goldenVectorsFor, type ReleaseVectors } from './vectors.ts';
+import { tryPlanDesign, type AnalysisResult, type DesignPlan, type SpecIssue } from '@loopwright/dsp';
+import type { HexMemoryFile } from './hexVectors.ts';
+import { releaseVectors } from './vectors.ts';
 
+/** A plan whose loop has a bit-true form: what the constants, the RTL and an estimate are made of. */
+export type BitTrueDesign = DesignPlan & {
+  readonly quantized: NonNullable<DesignPlan['quantized']>;
+  readonly bitTrue: NonNullable<DesignPlan['bitTrue']>;
+};
+
+/** A plan a release can be made of: a bit-true loop and its golden vectors. */
+export type ReleasablePlan = BitTrueDesign & { readonly goldenVectors: NonNullable<DesignPlan['goldenVectors']> };
+
+export interface ReleaseComputation {
+  readonly plan: ReleasablePlan;
+  /** Everything the server computed, stored verbatim in the manifest's `results` (each figure once). */
+  readonly results: Readonly<Record<string, unknown>>;
+  readonly vectorsCsv: string;
+  readonly vectorColumns: readonly { name: string; meaning: string }[];
+  /** The golden vectors as $readmemh files, one per column. */
+  readonly vectorHex: readonly HexMemoryFile[];
+}
+
+type Refused = { readonly ok: false; readonly issues: readonly SpecIssue[] };
+export type ComputeDesignResult = { readonly ok: true; readonly plan: BitTrueDesign } | Refused;
+export type ComputeReleaseResult = { readonly ok: true; readonly release: ReleaseComputation } | Refused;
+
+/**
+ * A file the render step refuses for its size, naming the spec field that sizes it (render/artifactFile.ts);
+ * the release service and the CLI turn it into their error like any other spec issue.
+ */
 export class RenderInputError extends Error {
   override readonly name = 'RenderInputError';
   constructor(
@@ -26,69 +44,41 @@ export class RenderInputError extends Error {
   }
 }
 
-/** The results a manifest records: the analysis without its plot arrays (the app recomputes plots). */
-export function manifestResults(analysis: AnalysisResult, extra: Record<string, unknown>): Record<string, unknown> {
+/** The analysis without its plot arrays (the app recomputes plots from the spec). */
+function manifestAnalysis(analysis: AnalysisResult): Record<string, unknown> {
   const { bode: _bode, stepResponses: _steps, ...numbers } = analysis;
-  return { analysis: numbers, ...extra };
+  return numbers;
 }
 
-export function validSpec(input: unknown): LoopSpec {
-  const parsed = parseLoopSpec(input);
-  if (!parsed.ok) {
-    const first = parsed.issues[0];
-    throw new RenderInputError(first?.field ?? '', parsed.issues.map((i) => i.message).join('; '));
-  }
-  return parsed.spec;
+function refusal(plan: DesignPlan): Refused {
+  const issue = plan.bitTrueIssue ?? plan.goldenVectorsIssue ?? { field: 'fixedPoint', message: 'the loop has no bit-true form' };
+  return { ok: false, issues: [issue] };
 }
 
-/** Everything but the golden vectors (the benchmark times the two apart). */
-export interface DesignComputation {
-  readonly spec: LoopSpec;
-  readonly analysis: AnalysisResult;
-  readonly quantized: QuantizedFilter;
-  /** Every integer constant of the bit-true loop (dsp README, "Bit-true arithmetic"). */
-  readonly plan: BitTruePlan;
+/** Plan a spec whose bit-true loop is needed (an estimate of its RTL); its field issues otherwise. */
+export function computeDesign(input: unknown): ComputeDesignResult {
+  const planned = tryPlanDesign(input);
+  if (!planned.ok) return planned;
+  const { plan } = planned;
+  return plan.quantized && plan.bitTrue ? { ok: true, plan: plan as BitTrueDesign } : refusal(plan);
 }
 
-export function computeDesign(spec: LoopSpec): DesignComputation {
-  const analysis = analyzeDesign(spec);
-  const quantized = analysis.quantization.filter;
-  if (!quantized) {
-    const e = analysis.quantization.error;
-    throw new RenderInputError(e?.field ?? 'fixedPoint', `the loop filter cannot be quantised: ${e?.message ?? 'unknown reason'}`);
-  }
-  let plan: BitTruePlan;
-  try {
-    plan = planBitTrue(spec, quantized);
-  } catch (err) {
-    if (err instanceof FieldError) throw new RenderInputError(err.field, err.message);
-    throw err;
-  }
-  return { spec, analysis, quantized, plan };
-}
-
-export function withVectors(d: DesignComputation, vectors: ReleaseVectors): ReleaseComputation {
+/** Plan a spec for a release, golden vectors included; a spec that cannot be released gives its field issues. */
+export function computeRelease(input: unknown): ComputeReleaseResult {
+  const planned = tryPlanDesign(input, { goldenVectors: true });
+  if (!planned.ok) return planned;
+  const { plan } = planned;
+  if (!plan.quantized || !plan.bitTrue || !plan.goldenVectors) return refusal(plan);
+  const releasable = plan as ReleasablePlan;
+  const vectors = releaseVectors(releasable);
   return {
-    spec: d.spec,
-    quantized: d.quantized,
-    plan: d.plan,
-    results: manifestResults(d.analysis, { nco: { tuning: d.plan.tuning, control: d.plan.control, fullScale: d.plan.ncoFullScale }, vectors: vectors.summary }),
-    vectorsCsv: vectors.csv,
-    vectorColumns: vectors.columns,
-    vectorHex: vectors.hex,
-    vectorSamples: vectors.summary.samples,
+    ok: true,
+    release: {
+      plan: releasable,
+      results: { analysis: manifestAnalysis(plan.analysis), vectors: vectors.summary },
+      vectorsCsv: vectors.csv,
+      vectorColumns: vectors.columns,
+      vectorHex: vectors.hex,
+    },
   };
-}
-
-export function computeRelease(input: unknown): ReleaseComputation {
-  const spec = validSpec(input);
-  const design = computeDesign(spec);
-  let vectors: ReleaseVectors;
-  try {
-    vectors = goldenVectorsFor(spec);
-  } catch (err) {
-    if (err instanceof FieldError) throw new RenderInputError(err.field, err.message);
-    throw err;
-  }
-  return withVectors(design, vectors);
 }

@@ -1,20 +1,12 @@
 /**
- * A simulation from the terminal: validate the spec and the scenario (each issue names its field),
- * run dsp's float and bit-true loops side by side, and report the metrics (and, on request, the first
- * N golden vectors in the release's CSV format).
+ * A simulation from the terminal: plan the spec (planDesign) and parse the scenario, each issue naming
+ * its field; run the plan's float and bit-true loops side by side and report the metrics (and, on
+ * request, the first N samples of the bit-true record in the release's CSV format, from the same run).
  */
-import { FieldError, isScenarioField, parseLoopSpec, parseScenario, simulate, type SimMetrics, type SimResult } from '@loopwright/dsp';
-import { scenarioVectorsCsv } from './vectors.ts';
+import { FieldError, isScenarioField, parseScenario, simulatePlan, tryPlanDesign, type SimMetrics, type SpecIssue } from '@loopwright/dsp';
+import { firstVectorsCsv } from './vectors.ts';
 
-export class ScenarioInputError extends Error {
-  override readonly name = 'ScenarioInputError';
-  constructor(
-    readonly label: 'SPEC.json' | 'SCENARIO.json',
-    readonly issues: readonly { field: string; message: string }[],
-  ) {
-    super(`${label}: ${issues[0]?.message ?? 'invalid'}`);
-  }
-}
+export type InputLabel = 'SPEC.json' | 'SCENARIO.json';
 
 export interface SimulationOutput {
   readonly metrics: {
@@ -28,31 +20,36 @@ export interface SimulationOutput {
   readonly vectorsCsv: string;
 }
 
-export function simulateScenario(specInput: unknown, scenarioInput: unknown, vectors: number | undefined): SimulationOutput {
-  const spec = parseLoopSpec(specInput);
-  if (!spec.ok) throw new ScenarioInputError('SPEC.json', spec.issues);
+export type SimulationOutcome = { readonly ok: true; readonly output: SimulationOutput } | { readonly ok: false; readonly label: InputLabel; readonly issues: readonly SpecIssue[] };
+
+export function simulateScenario(specInput: unknown, scenarioInput: unknown, vectors: number | undefined): SimulationOutcome {
+  const planned = tryPlanDesign(specInput);
+  if (!planned.ok) return { ok: false, label: 'SPEC.json', issues: planned.issues };
   const scenario = parseScenario(scenarioInput);
-  if (!scenario.ok) throw new ScenarioInputError('SCENARIO.json', scenario.issues);
-  let result: SimResult;
-  let csv = '';
+  if (!scenario.ok) return { ok: false, label: 'SCENARIO.json', issues: scenario.issues };
   try {
-    result = simulate(spec.spec, scenario.scenario);
-    if (vectors !== undefined) csv = scenarioVectorsCsv(spec.spec, scenario.scenario, vectors);
+    const result = simulatePlan(planned.plan, scenario.scenario, { keepRecord: vectors !== undefined });
+    const bitTrue = result.bitTrue;
+    const record = bitTrue?.record;
+    const csv = vectors !== undefined && bitTrue && record
+      ? firstVectorsCsv({ scenario: scenario.scenario, accumulatorBits: planned.plan.spec.nco.accumulatorBits, record, checksum: bitTrue.checksum }, vectors)
+      : '';
+    return {
+      ok: true,
+      output: {
+        metrics: {
+          sampleCount: result.sampleCount,
+          sampleRateHz: result.sampleRateHz,
+          durationS: result.durationS,
+          float: result.float?.metrics ?? null,
+          bitTrue: bitTrue ? { ...bitTrue.metrics, checksum: bitTrue.checksum } : null,
+        },
+        vectorsCsv: csv,
+      },
+    };
   } catch (err) {
     if (!(err instanceof FieldError)) throw err;
     // Scenario fields (durationS …) and spec fields (fixedPoint.…) both reach here; the path tells which.
-    const label = isScenarioField(err.field) ? 'SCENARIO.json' : 'SPEC.json';
-    throw new ScenarioInputError(label, [{ field: err.field, message: err.message }]);
+    return { ok: false, label: isScenarioField(err.field) ? 'SCENARIO.json' : 'SPEC.json', issues: [{ field: err.field, message: err.message }] };
   }
-  const bitTrue = result.bitTrue;
-  return {
-    metrics: {
-      sampleCount: result.sampleCount,
-      sampleRateHz: result.sampleRateHz,
-      durationS: result.durationS,
-      float: result.float?.metrics ?? null,
-      bitTrue: bitTrue ? { ...bitTrue.metrics, checksum: bitTrue.checksum } : null,
-    },
-    vectorsCsv: csv,
-  };
 }

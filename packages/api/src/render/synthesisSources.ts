@@ -3,7 +3,7 @@
  * exactly as a release renders them (the same views and templates), without the golden vectors,
  * which synthesis does not need. The word-length search estimates candidate widths this way.
  */
-import type { DesignComputation } from './compute.ts';
+import type { BitTrueDesign } from './compute.ts';
 import { handoffModel } from './fromDsp.ts';
 import { artifactHeaders, artifactNames } from './artifacts.ts';
 import { RTL_PARTS, rtlModel } from './rtl.ts';
@@ -12,11 +12,11 @@ import { rtlVerilogView } from './views/rtlVerilog.ts';
 import { verilogView } from './views/verilog.ts';
 import type { VerilogSources } from '../rtl/estimate.ts';
 
-export function synthesisSources(design: DesignComputation): VerilogSources {
+export function synthesisSources(design: BitTrueDesign): VerilogSources {
   const { spec } = design;
   const names = artifactNames(spec.name);
   const header = artifactHeaders(spec);
-  const rtl = rtlModel(spec.name, design.plan);
+  const rtl = rtlModel(spec.name, design.bitTrue);
   const files = new Map<string, string>([[names.verilog, renderTemplate('verilog', verilogView(handoffModel(design), header(names.verilog)))]]);
   const verilogFiles = { include: names.verilog, parts: names.rtl.verilog, testbench: names.rtl.verilogTestbench };
   for (const p of RTL_PARTS) {

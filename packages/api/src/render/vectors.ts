@@ -3,13 +3,7 @@
  * (packages/dsp/src/vectors/vectorsCsv.ts). The column meanings below are keyed by dsp's column list,
  * so a column added there fails the type check here until README.txt describes it.
  */
-import {
-  formatVectorsCsv,
-  goldenVectors,
-  VECTOR_CSV_COLUMNS,
-  type LoopSpec,
-  type Scenario,
-} from '@loopwright/dsp';
+import { formatVectorsCsv, VECTOR_CSV_COLUMNS, type GoldenVectors, type LoopSpec, type Scenario } from '@loopwright/dsp';
 import { hexMemoryFiles, type HexMemoryFile } from './hexVectors.ts';
 
 type VectorColumn = (typeof VECTOR_CSV_COLUMNS)[number];
@@ -38,8 +32,8 @@ export interface ReleaseVectors {
   readonly summary: { readonly scenario: Scenario; readonly samples: number; readonly checksum: number };
 }
 
-export function goldenVectorsFor(spec: LoopSpec): ReleaseVectors {
-  const v = goldenVectors(spec);
+/** A plan's golden vectors in the release's CSV and hex files, with the summary the manifest records. */
+export function releaseVectors({ spec, goldenVectors: v }: { readonly spec: LoopSpec; readonly goldenVectors: GoldenVectors }): ReleaseVectors {
   return {
     csv: formatVectorsCsv(v),
     columns: VECTOR_COLUMNS,
@@ -48,8 +42,8 @@ export function goldenVectorsFor(spec: LoopSpec): ReleaseVectors {
   };
 }
 
-/** The first `count` golden vectors of a scenario, in the release's CSV layout (header included). */
-export function scenarioVectorsCsv(spec: LoopSpec, scenario: Scenario, count: number): string {
-  const lines = formatVectorsCsv(goldenVectors(spec, scenario)).split('\n');
+/** The first `count` vectors of a run, in the release's CSV layout (header included). */
+export function firstVectorsCsv(v: GoldenVectors, count: number): string {
+  const lines = formatVectorsCsv(v).split('\n');
   return `${lines.slice(0, count + 1).join('\n')}\n`;
 }

@@ -1,13 +1,8 @@
-import type { AnalysisResult, LoopSpec, SpecIssue } from '@loopwright/dsp';
+import type { AnalysisResult, LoopSpec } from '@loopwright/dsp';
 import type { AnalysisResponse, SimulationRequest, SimulationResponse } from '@loopwright/contract';
-import { invalidInput } from '../errors.ts';
+import { invalidInput, issuesError } from '../errors.ts';
 import type { ComputePool } from './compute.ts';
 import type { DesignService } from './designs.ts';
-
-function issuesToError(issues: readonly SpecIssue[], prefix: string) {
-  const first = issues[0];
-  return invalidInput(first?.field ? `${prefix}.${first.field}` : prefix, issues.map((issue) => issue.message).join('; '));
-}
 
 /** The server's own analyses and simulations (the numbers that count), computed off the event loop. */
 export class AnalysisService {
@@ -19,7 +14,7 @@ export class AnalysisService {
 
   async analyzeSpec(spec: LoopSpec, cancel?: AbortSignal): Promise<AnalysisResult> {
     const outcome = await this.compute.run({ kind: 'analysis', spec }, cancel);
-    if (!outcome.ok) throw issuesToError(outcome.issues, outcome.prefix);
+    if (!outcome.ok) throw issuesError(outcome.issues, outcome.prefix);
     if (outcome.kind !== 'analysis') throw new Error('compute pool answered an analysis with another kind');
     return outcome.analysis;
   }
@@ -38,7 +33,7 @@ export class AnalysisService {
     }
     const options = { mode: request.mode, buckets: request.buckets };
     const outcome = await this.compute.run({ kind: 'simulation', spec, scenario: request.scenario, options }, cancel);
-    if (!outcome.ok) throw issuesToError(outcome.issues, outcome.prefix);
+    if (!outcome.ok) throw issuesError(outcome.issues, outcome.prefix);
     if (outcome.kind !== 'simulation') throw new Error('compute pool answered a simulation with another kind');
     return { scenario: request.scenario, simulation: outcome.simulation };
   }

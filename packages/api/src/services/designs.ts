@@ -3,7 +3,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { DesignDuplicateRequest, DesignRecord, DesignSummary, designCreateRequestSchema, designUpdateRequestSchema } from '@loopwright/contract';
 import { Design } from '../entities/index.ts';
-import { AppError, conflict, invalidInput, notFound, staleRevision } from '../errors.ts';
+import { AppError, conflict, invalidInput, issuesError, notFound, staleRevision } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';
 import type { ProjectService } from './projects.ts';
 import { blankSpec, findTemplate } from './templates.ts';
@@ -39,8 +39,20 @@ function toSummary(row: DesignRow): DesignSummary {
   };
 }
 
+/**
+ * A stored spec is validated again as it leaves the data layer: it went in valid, but only a parse
+ * (not a cast) proves it still is under today's schema. One that fails is a fault of the data (a
+ * schema made stricter without a migration), answered 500 naming the design and the field.
+ */
+function storedSpec(row: DesignRow): LoopSpec {
+  const parsed = parseLoopSpec(JSON.parse(row.specJson ?? 'null'));
+  if (parsed.ok) return parsed.spec;
+  const first = parsed.issues[0];
+  throw new AppError('internal', `the stored spec of design ${row.id} no longer passes validation (${first?.message ?? 'invalid'}); the database needs a migration to the current spec schema`, 500, first?.field ? `spec.${first.field}` : 'spec');
+}
+
 function toRecord(row: DesignRow): DesignRecord {
-  return { ...toSummary(row), spec: JSON.parse(row.specJson ?? 'null') as LoopSpec };
+  return { ...toSummary(row), spec: storedSpec(row) };
 }
 
 type Actor = AuditActor & { id: number };
@@ -118,9 +130,7 @@ export class DesignService {
   validSpec(input: unknown, fieldPrefix = 'spec'): LoopSpec {
     const parsed = parseLoopSpec(input);
     if (parsed.ok) return parsed.spec;
-    const first = parsed.issues[0];
-    const field = first?.field ? `${fieldPrefix}.${first.field}` : fieldPrefix;
-    throw invalidInput(field, parsed.issues.map((issue) => issue.message).join('; '));
+    throw issuesError(parsed.issues, fieldPrefix);
   }
 
   async createFromFile(organizationId: number, projectId: number, fileText: string, title: string | undefined, actor: Actor): Promise<DesignRecord> {

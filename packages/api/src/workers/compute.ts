@@ -8,10 +8,9 @@ import {
   FieldError,
   isScenarioField,
   parseScenario,
-  simulate,
-  tryAnalyzeDesign,
+  simulatePlan,
+  tryPlanDesign,
   type AnalysisResult,
-  type LoopSpec,
   type SimOptions,
   type SimResult,
   type SpecIssue,
@@ -23,8 +22,8 @@ export type ComputeTask =
   | { readonly kind: 'analysis'; readonly spec: unknown }
   | {
       readonly kind: 'simulation';
-      /** Already validated by the API (a stored design or a request body). */
-      readonly spec: LoopSpec;
+      /** A stored design's spec or a request body's (planned here, so parsed once more as it enters dsp). */
+      readonly spec: unknown;
       readonly scenario: unknown;
       readonly options: Pick<SimOptions, 'mode' | 'buckets'>;
     };
@@ -39,18 +38,16 @@ export type ComputeOutcome = { readonly threadId: number } & (
   | ComputeFailure
 );
 
+/** Every task plans its spec (planDesign) and reads what it needs from that one result; a release is planned with its golden vectors (render/compute.ts). */
 export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<ComputeOutcome> {
   if (task.kind === 'release' || task.kind === 'conformance') return runHandoffTask(task).then((outcome) => ({ threadId, ...outcome }));
-  if (task.kind === 'analysis') {
-    const analysed = tryAnalyzeDesign(task.spec);
-    return analysed.ok
-      ? { threadId, ok: true, kind: 'analysis', analysis: analysed.result }
-      : { threadId, ok: false, issues: analysed.issues, prefix: 'spec' };
-  }
+  const planned = tryPlanDesign(task.spec);
+  if (!planned.ok) return { threadId, ok: false, issues: planned.issues, prefix: 'spec' };
+  if (task.kind === 'analysis') return { threadId, ok: true, kind: 'analysis', analysis: planned.plan.analysis };
   const scenario = parseScenario(task.scenario);
   if (!scenario.ok) return { threadId, ok: false, issues: scenario.issues, prefix: 'scenario' };
   try {
-    return { threadId, ok: true, kind: 'simulation', simulation: simulate(task.spec, scenario.scenario, task.options) };
+    return { threadId, ok: true, kind: 'simulation', simulation: simulatePlan(planned.plan, scenario.scenario, task.options) };
   } catch (err) {
     // Checks that need the spec and the scenario together (the input band, the record size) throw.
     if (err instanceof FieldError) return fieldFailure(err);

@@ -37,8 +37,10 @@ export type HandoffOutcome =
 
 export async function runHandoffTask(task: HandoffTask): Promise<HandoffOutcome> {
   if (task.kind === 'release') {
+    const computed = computeRelease(task.spec);
+    if (!computed.ok) return { ok: false, issues: computed.issues, prefix: 'spec' };
     try {
-      return { ok: true, kind: 'release', rendered: renderArtifacts(computeRelease(task.spec)) };
+      return { ok: true, kind: 'release', rendered: renderArtifacts(computed.release) };
     } catch (err) {
       if (err instanceof RenderInputError) return { ok: false, issues: [{ field: err.field, message: err.message }], prefix: 'spec' };
       throw err;

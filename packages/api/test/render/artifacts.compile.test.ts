@@ -8,8 +8,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { exampleSpecs, mainsSyncSpec, ultrasonicLagLeadSpec, type LoopSpec } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
-import { artifactNames, renderArtifacts, type Manifest } from '../../src/render/artifacts.ts';
-import { computeRelease } from '../../src/render/compute.ts';
+import { artifactNames, type Manifest } from '../../src/render/artifacts.ts';
+import { renderRelease } from './release.ts';
 import { codeNames } from '../../src/render/identifiers.ts';
 import { checkC, checkVerilog, checkVhdl, workDir } from './toolchains.ts';
 
@@ -36,7 +36,7 @@ const cases: { id: string; spec: LoopSpec }[] = [
 ];
 
 function render(spec: LoopSpec) {
-  const rendered = renderArtifacts(computeRelease(spec));
+  const rendered = renderRelease(spec);
   const dir = workDir(rendered.files);
   const manifest = JSON.parse(readFileSync(join(dir, 'manifest.json'), 'utf8')) as Manifest;
   return { rendered, dir, manifest, names: artifactNames(spec.name), vhdlPackage: codeNames(spec.name).vhdlPackage };

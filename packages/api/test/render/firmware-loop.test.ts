@@ -9,8 +9,8 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { exampleSpecs, mainsSyncSpec, type LoopSpec } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
-import { artifactNames, renderArtifacts, type Manifest } from '../../src/render/artifacts.ts';
-import { computeRelease } from '../../src/render/compute.ts';
+import { artifactNames, type Manifest } from '../../src/render/artifacts.ts';
+import { renderRelease } from './release.ts';
 import { workDir } from './toolchains.ts';
 
 function loopSource(header: string, prefix: string, sections: number): string {
@@ -99,7 +99,7 @@ const cases: { id: string; spec: LoopSpec }[] = [
 
 describe.each(cases)('a C loop from the header of $id', ({ spec }) => {
   it('reproduces every golden vector from the input codes', () => {
-    const rendered = renderArtifacts(computeRelease(spec));
+    const rendered = renderRelease(spec);
     const dir = workDir(rendered.files);
     const names = artifactNames(spec.name);
     const manifest = JSON.parse(readFileSync(join(dir, 'manifest.json'), 'utf8')) as Manifest;
@@ -119,7 +119,7 @@ describe.each(cases)('a C loop from the header of $id', ({ spec }) => {
 describe('the C loop check', () => {
   it('fails when one coefficient in the header is off by one LSB', () => {
     const spec = mainsSyncSpec;
-    const rendered = renderArtifacts(computeRelease(spec));
+    const rendered = renderRelease(spec);
     const dir = workDir(rendered.files);
     const names = artifactNames(spec.name);
     const headerPath = join(dir, names.cHeader);

@@ -5,8 +5,7 @@
  */
 import { mainsSyncSpec, type LoopSpec } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
-import { renderArtifacts } from '../../src/render/artifacts.ts';
-import { computeRelease } from '../../src/render/compute.ts';
+import { renderRelease } from './release.ts';
 import { hexColumns, hexFileName } from '../../src/render/hexVectors.ts';
 
 const wide: LoopSpec = {
@@ -18,7 +17,7 @@ const wide: LoopSpec = {
 
 describe.each([mainsSyncSpec, wide])('hex files of $name', (spec) => {
   it('decode to the CSV column of every sample', () => {
-    const rendered = renderArtifacts(computeRelease(spec));
+    const rendered = renderRelease(spec);
     const text = (name: string) => rendered.files.find((f) => f.name === name)!.bytes.toString('utf8');
     const [header, ...rows] = text(`${spec.name}_vectors.csv`).trimEnd().split('\n');
     const columns = header!.split(',');

@@ -7,14 +7,14 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { LoopSpec } from '@loopwright/dsp';
-import { artifactNames, renderArtifacts, type Manifest } from '../../src/render/artifacts.ts';
-import { computeRelease } from '../../src/render/compute.ts';
+import { artifactNames, type Manifest } from '../../src/render/artifacts.ts';
+import { renderRelease } from '../render/release.ts';
 import { bitPattern } from '../../src/render/literals.ts';
 import { runProcess } from '../../src/rtl/processes.ts';
 import { rtlFolder } from '../../src/rtl/releaseFolder.ts';
 
 export function renderToFolder(spec: LoopSpec): { dir: string; manifest: Manifest } {
-  const rendered = renderArtifacts(computeRelease(spec));
+  const rendered = renderRelease(spec);
   const dir = mkdtempSync(join(tmpdir(), 'lw-rtl-'));
   for (const f of rendered.files) writeFileSync(join(dir, f.name), f.bytes);
   return { dir, manifest: rendered.manifest };

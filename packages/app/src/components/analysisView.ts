@@ -2,7 +2,7 @@
  * What the editor's result panels show, computed from the worker's analysis so the templates
  * only lay it out.
  */
-import type { AnalysisResult, LoopMargins } from '@loopwright/dsp';
+import { marginChecks, type AnalysisResult, type LoopMargins } from '@loopwright/dsp';
 import type { BodeMarkers, BodeTrace } from '../charts/bodeOption.ts';
 import { fmtEng, fmtFixed, fmtHz, fmtSig } from '../lib/format.ts';
 
@@ -51,15 +51,6 @@ export function bodeMarkers(a: AnalysisResult, sampleRateHz: number): BodeMarker
   };
 }
 
-function judgePm(m: LoopMargins | undefined, min: number): boolean {
-  return m?.phaseMarginDeg !== null && m?.phaseMarginDeg !== undefined && m.phaseMarginDeg >= min;
-}
-
-/** Gain margin passes when it meets the target or does not exist (the phase never reaches −180°). */
-function judgeGm(m: LoopMargins | undefined, min: number): boolean {
-  return m !== undefined && (m.gainMarginDb === null || m.gainMarginDb >= min);
-}
-
 function gmText(m: LoopMargins | undefined): string {
   if (!m) return '—';
   return m.gainMarginDb === null ? 'unbounded' : fmtFixed(m.gainMarginDb, 1, 'dB');
@@ -69,8 +60,8 @@ export function marginRows(a: AnalysisNumbers): SummaryRow[] {
   const { analog, discrete } = a.margins;
   const q = a.quantization.loop?.margins;
   const { minPhaseMarginDeg: minPm, minGainMarginDb: minGm } = a.verdict;
-  const pmOk = judgePm(discrete, minPm) && (q === undefined || judgePm(q, minPm));
-  const gmOk = judgeGm(discrete, minGm) && (q === undefined || judgeGm(q, minGm));
+  // The pass/fail rule is dsp's, the same one its verdict uses; this only lays it out per row.
+  const { phaseMarginMet: pmOk, gainMarginMet: gmOk } = marginChecks(discrete, q ?? null, minPm, minGm);
   const stableOk = a.verdict.stable;
   const yesNo = (v: boolean | undefined) => (v === undefined ? '—' : v ? 'stable' : 'UNSTABLE');
   return [

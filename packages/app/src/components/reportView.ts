@@ -1,6 +1,6 @@
 /** Rows of the quantisation and NCO reports, computed from the worker's analysis. */
 import type { QuantizedFilter } from '@loopwright/dsp';
-import type { NcoReportData } from '../workers/dspJobs.ts';
+import type { NcoSummary } from '@loopwright/dsp';
 import { fmtEng, fmtFixed, fmtHz, fmtSig } from '../lib/format.ts';
 
 
@@ -80,7 +80,7 @@ export interface NcoRow {
   readonly testId?: string;
 }
 
-export function ncoRows(n: NcoReportData): NcoRow[] {
+export function ncoRows(n: NcoSummary): NcoRow[] {
   const t = n.tuning;
   const rows: NcoRow[] = [
     { label: 'Tuning word (decimal)', value: t.tuningWordDecimal, testId: 'nco-tuning-word' },

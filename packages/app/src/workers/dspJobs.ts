@@ -1,36 +1,24 @@
 /**
- * The jobs the DSP worker runs: each a call into packages/dsp (the same code the server runs at
- * release time), nothing re-implemented here. Outputs are plain data so they cross postMessage.
+ * The jobs the DSP worker runs: each plans the spec with packages/dsp (planDesign, the same code the
+ * server runs at release time) and reads from that one result; nothing is re-implemented here.
+ * Outputs are plain data so they cross postMessage.
  */
 import {
-  analyzeDesign,
-  ncoControlScaling,
-  ncoSpectralEstimates,
-  ncoTuning,
-  simulateAsync,
+  planDesign,
+  requireValidSpec,
+  simulatePlanAsync,
   wordLengthSearch,
   type AnalysisResult,
   type LoopSpec,
-  type NcoControlScaling,
-  type NcoSpectralEstimates,
-  type NcoTuning,
   type Scenario,
   type SimResult,
   type WordLengthResult,
 } from '@loopwright/dsp';
 import { decimateMinMax } from '../charts/decimate.ts';
-import { errorText } from '../lib/errorText.ts';
 
-export interface NcoReportData {
-  readonly tuning: NcoTuning;
-  readonly spectral: NcoSpectralEstimates;
-  readonly control: NcoControlScaling | null;
-  readonly controlError: string | null;
-}
-
+/** What the editor shows of a design: its analysis (the NCO figures are its `nco`). */
 export interface DesignAnalysis {
   readonly analysis: AnalysisResult;
-  readonly nco: NcoReportData;
 }
 
 export interface SimulationOutput {
@@ -65,26 +53,12 @@ export interface JobContext {
   readonly onProgress: (fraction: number, label?: string) => void;
 }
 
-function ncoReport(spec: LoopSpec): NcoReportData {
-  const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, spec.nco.accumulatorBits);
-  const spectral = ncoSpectralEstimates(spec.nco.accumulatorBits, spec.nco.phaseBits, spec.nco.amplitudeBits);
-  try {
-    const control = ncoControlScaling({
-      gainHzPerUnit: spec.nco.gainHzPerUnit,
-      sampleRateHz: spec.sampleRateHz,
-      accumulatorBits: spec.nco.accumulatorBits,
-      dataBits: spec.fixedPoint.dataBits,
-      coefficientBits: spec.fixedPoint.coefficientBits,
-      rounding: spec.fixedPoint.rounding,
-    });
-    return { tuning, spectral, control, controlError: null };
-  } catch (cause) {
-    return { tuning, spectral, control: null, controlError: errorText(cause) };
-  }
-}
-
+/**
+ * The page sends a spec it validated with the same schema (form/specValidation.ts); the brand does not
+ * survive postMessage, so it is parsed once more here, as it enters dsp.
+ */
 export function analyzeJob(spec: LoopSpec): DesignAnalysis {
-  return { analysis: analyzeDesign(spec), nco: ncoReport(spec) };
+  return { analysis: planDesign(requireValidSpec(spec)).analysis };
 }
 
 /** Runs up to this many samples also return every sample, so the modulating signal can be drawn. */
@@ -94,7 +68,7 @@ const OFFSET_POINTS = 2000;
 export async function simulateJob(spec: LoopSpec, scenario: Scenario, ctx: JobContext): Promise<SimulationOutput> {
   const samples = Math.ceil(scenario.durationS * spec.sampleRateHz);
   const fullTraces = samples <= FULL_TRACE_LIMIT;
-  const run = await simulateAsync(spec, scenario, { signal: ctx.signal, onProgress: (f) => ctx.onProgress(f), fullTraces });
+  const run = await simulatePlanAsync(planDesign(requireValidSpec(spec)), scenario, { signal: ctx.signal, onProgress: (f) => ctx.onProgress(f), fullTraces });
   const full = run.float?.full ?? run.bitTrue?.full;
   const offsetHz = full ? decimateMinMax(timeAxis(full.offsetHz.length, spec.sampleRateHz), full.offsetHz, OFFSET_POINTS) : null;
   return { result: withoutFullTraces(run), offsetHz };

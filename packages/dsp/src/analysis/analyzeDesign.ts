@@ -1,15 +1,15 @@
 /**
- * analyzeDesign: everything the design editor, the API and a release show for one spec, composed from
- * the pipeline steps (design → responses → margins → closed loop → noise bandwidth → estimates →
- * quantisation). Conventions (DESIGN.md): L(s) = Kd·Ko·F(s)/s, Ko = 2π·gainHzPerUnit, Kd = A_in·A_nco/2;
+ * The analysis step of planDesign: everything the design editor, the API and a release show for one
+ * spec, from the representations the earlier steps derived (the designed filter, the quantised
+ * sections, the NCO summary) through responses → margins → closed loop → noise bandwidth → estimates →
+ * verdict. Conventions (DESIGN.md): L(s) = Kd·Ko·F(s)/s, Ko = 2π·gainHzPerUnit, Kd = A_in·A_nco/2;
  * discrete L(z) = Kd·F(z)·Ko·T·z⁻¹/(1 − z⁻¹) at sampleRateHz; bilinear s = 2fs(1 − z⁻¹)/(1 + z⁻¹),
  * prewarped at prewarpHz when given. Acquisition measured by simulation (measureAcquisition) is NOT
  * part of this call: it is far slower; the estimates here are the textbook formulas.
  */
-import type { LoopSpec, SpecIssue, SpecWarning } from '../spec/schema.ts';
-import { parseLoopSpec } from '../spec/schema.ts';
+import type { ValidSpec, SpecWarning } from '../spec/schema.ts';
 import type { AcquisitionEstimates, SteadyStateErrors, StepResponses } from '../types/analysis.ts';
-import { type LoopFilterDesign, designLoopFilter } from '../design.ts';
+import type { LoopFilterDesign } from '../design.ts';
 import { analogDcGain } from '../filters/sections.ts';
 import { type LoopGain, loopGain } from './loopGain.ts';
 import { analogLoopResponse, closedFromOpen, closedLoop, toDb } from './response.ts';
@@ -27,8 +27,8 @@ import { stepResponses } from './stepResponse.ts';
 import { analysisRange } from './frequencyRange.ts';
 import { DEFAULT_POINTS, discreteLoopMargins } from './discreteLoop.ts';
 import { type RippleFigures, rippleFigures } from './ripple.ts';
-import { type NcoSummary, ncoSummary } from './ncoSummary.ts';
-import { type QuantizationSummary, quantizedLoop } from './quantizedLoop.ts';
+import type { NcoSummary } from './ncoSummary.ts';
+import { type QuantizationOutcome, type QuantizationSummary, quantizedLoop } from './quantizedLoop.ts';
 import { type AnalysisVerdict, analysisVerdict, analysisWarnings } from './verdict.ts';
 import { referenceRtlWarnings } from '../rtl/referenceTiming.ts';
 
@@ -79,43 +79,22 @@ export interface AnalysisResult {
   readonly warnings: readonly SpecWarning[];
 }
 
-/** Thrown by analyzeDesign for a spec that fails parseLoopSpec; carries every field issue. */
-export class LoopSpecError extends Error {
-  readonly issues: readonly SpecIssue[];
-  readonly field: string;
-  constructor(issues: readonly SpecIssue[]) {
-    super(issues.map((i) => i.message).join('; '));
-    this.name = 'LoopSpecError';
-    this.issues = issues;
-    this.field = issues[0]?.field ?? '';
-  }
+/** What the analysis starts from: the steps of planDesign before it. */
+export interface AnalysisParts {
+  readonly filter: LoopFilterDesign;
+  readonly quantization: QuantizationOutcome;
+  readonly nco: NcoSummary;
 }
 
-/** Validate and analyse; never throws: bad input gives the field issues. */
-export function tryAnalyzeDesign(
-  input: unknown,
-  options: AnalyzeOptions = {},
-): { readonly ok: true; readonly result: AnalysisResult } | { readonly ok: false; readonly issues: readonly SpecIssue[] } {
-  const parsed = parseLoopSpec(input);
-  if (!parsed.ok) return { ok: false, issues: parsed.issues };
-  return { ok: true, result: analyzeValid(parsed.spec, parsed.warnings, options) };
-}
-
-/** Analyse a spec (validated here; throws LoopSpecError naming the fields when it is invalid). */
-export function analyzeDesign(spec: LoopSpec, options: AnalyzeOptions = {}): AnalysisResult {
-  const parsed = parseLoopSpec(spec);
-  if (!parsed.ok) throw new LoopSpecError(parsed.issues);
-  return analyzeValid(parsed.spec, parsed.warnings, options);
-}
-
-function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], options: AnalyzeOptions): AnalysisResult {
+/** Analyse a valid spec from the parts planDesign derived (nothing is designed or quantised again). */
+export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning[], parts: AnalysisParts, options: AnalyzeOptions = {}): AnalysisResult {
   const minPm = options.minPhaseMarginDeg ?? 45;
   const minGm = options.minGainMarginDb ?? 6;
   const points = options.points ?? DEFAULT_POINTS;
   const gain = loopGain(spec);
   const k = gain.kRadPerS;
   const fs = spec.sampleRateHz;
-  const design = designLoopFilter(spec);
+  const design = parts.filter;
   const loopType = 1 + design.integrators;
   const range = analysisRange(design.analogSections, k, fs);
 
@@ -131,7 +110,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
   const plotGrid = discrete.open.freqHz;
   const analogOnPlot = sampleResponse(analogFn, plotGrid, loopType);
 
-  const quantization = quantizedLoop(spec, design, range.fMinHz, points);
+  const quantization = quantizedLoop(spec, parts.quantization, range.fMinHz, points);
   const second = secondOrderParameters(spec, k, design.tau);
   const dcGain = analogDcGain(design.analogSections);
   const bode: BodePlotData = {
@@ -149,7 +128,7 @@ function analyzeValid(spec: LoopSpec, specWarnings: readonly SpecWarning[], opti
   const crossoverHz = discrete.margins.crossoverHz ?? analogMargins.crossoverHz ?? k / (2 * Math.PI);
   const dampingForSpan = Math.min(Math.max(second?.damping ?? 0.5, 0.1), 1);
   const durationS = 3 / (crossoverHz * dampingForSpan);
-  const nco = ncoSummary(spec);
+  const nco = parts.nco;
   const verdict = analysisVerdict(discrete, quantization.summary, nco, analogStable, minPm, minGm);
   return {
     specName: spec.name,

@@ -8,10 +8,8 @@
  */
 import type { LoopSpec } from '../spec/schema.ts';
 
+/** The figures the widths imply (the widths themselves are the spec's and the quantiser's, not repeated here). */
 export interface DatapathFigures {
-  /** Coefficient fraction bits Fc used (resolved when "auto"). */
-  readonly coefficientFractionBits: number;
-  readonly macBits: number;
   /** Largest |filter output| in control units the datapath can produce (≤ 1, the D-bit full scale). */
   readonly outputLimitUnits: number;
   /** The NCO's reach from centerHz: outputLimitUnits·gainHzPerUnit, Hz. */
@@ -34,5 +32,5 @@ export function datapathFigures(spec: LoopSpec, coefficientFractionBits: number)
         `fixedPoint.accumulatorBits ${wa} < Fc + D = ${fc + d}: the section MAC (Fc + D − 1 = ${fc + d - 1} fraction bits) ${overflow === 'wrap' ? 'wraps' : 'clamps'} every section output at 2^(${wa}−${fc}−${d}) = ${macLimit} of full scale, so the NCO can move only ±${controlRangeHz.toPrecision(4)} Hz from centerHz; widen fixedPoint.accumulatorBits to at least ${fc + d}`,
       ]
     : [];
-  return { coefficientFractionBits: fc, macBits: wa, outputLimitUnits, controlRangeHz, macLimitsOutput, notes };
+  return { outputLimitUnits, controlRangeHz, macLimitsOutput, notes };
 }

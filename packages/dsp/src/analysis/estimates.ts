@@ -66,8 +66,3 @@ export function acquisitionEstimates(
     notes,
   };
 }
-
-/** Pull-in time estimate (s) for an initial frequency offset (Hz), G3 (memory): TP ≈ Δω²/(2ζωn³). */
-export function pullInTimeS(estimates: AcquisitionEstimates, offsetHz: number): number | null {
-  return estimates.pullInTimeSPerHz2 === null ? null : estimates.pullInTimeSPerHz2 * offsetHz * offsetHz;
-}

@@ -1,16 +1,18 @@
 /**
- * The loop with quantised coefficients: the fixed-point module quantises the sections to the spec's
- * coefficient format, and the discrete loop is analysed again with them (discreteLoopMargins).
+ * The loop with quantised coefficients: the sections as the fixed-point module quantised them
+ * (planDesign's `quantized`), analysed again as a discrete loop (discreteLoopMargins).
  */
 import type { LoopSpec } from '../spec/schema.ts';
 import type { QuantizedFilter } from '../types/fixed.ts';
-import type { LoopFilterDesign } from '../design.ts';
 import type { LoopMargins } from './margins.ts';
 import type { ClosedLoopFigures } from './closedLoopFigures.ts';
 import { discreteLoopMargins } from './discreteLoop.ts';
-import { quantizeSections } from '../fixed/quantizeSections.ts';
-import { FieldError } from '../fixed/fieldError.ts';
 import { type DatapathFigures, datapathFigures } from './datapath.ts';
+
+/** The quantiser's outcome: the quantised filter, or the field issue that stopped it. */
+export type QuantizationOutcome =
+  | { readonly filter: QuantizedFilter; readonly error: null }
+  | { readonly filter: null; readonly error: { readonly field: string; readonly message: string } };
 
 export interface QuantizationSummary {
   readonly filter: QuantizedFilter | null;
@@ -24,23 +26,19 @@ export interface QuantizationSummary {
   readonly datapath: DatapathFigures | null;
 }
 
-/** Quantise and analyse; a format that cannot hold the coefficients is reported, not thrown. */
-export function quantizedLoop(spec: LoopSpec, design: LoopFilterDesign, fMinHz: number, points: number) {
-  try {
-    const filter = quantizeSections(design.sections, spec.fixedPoint);
-    const loop = discreteLoopMargins(spec, filter.sections.map((s) => s.quantized), { fMinHz, points });
-    return {
-      summary: {
-        filter,
-        error: null,
-        loop: { margins: loop.margins, stable: loop.stable && filter.stable, closedLoop: loop.closedLoop },
-        datapath: datapathFigures(spec, filter.format.fractionBits),
-      },
-      open: loop.open,
-    };
-  } catch (err) {
-    if (!(err instanceof FieldError)) throw err;
-    return { summary: { filter: null, error: { field: err.field, message: err.message }, loop: null, datapath: null }, open: null };
-  }
+/** Analyse the quantised loop; a format that could not hold the coefficients is reported as it came. */
+export function quantizedLoop(spec: LoopSpec, quantization: QuantizationOutcome, fMinHz: number, points: number) {
+  const { filter } = quantization;
+  if (!filter) return { summary: { filter: null, error: quantization.error, loop: null, datapath: null }, open: null };
+  const loop = discreteLoopMargins(spec, filter.sections.map((s) => s.quantized), { fMinHz, points });
+  return {
+    summary: {
+      filter,
+      error: null,
+      loop: { margins: loop.margins, stable: loop.stable && filter.stable, closedLoop: loop.closedLoop },
+      datapath: datapathFigures(spec, filter.format.fractionBits),
+    },
+    open: loop.open,
+  };
 }
 

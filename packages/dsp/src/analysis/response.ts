@@ -123,14 +123,6 @@ export function closedLoop(open: ResponseFn): ResponseFn {
   return (f) => closedFromOpen(open(f));
 }
 
-/** Error transfer E = 1/(1 + L). */
-export function errorTransfer(open: ResponseFn): ResponseFn {
-  return (f) => {
-    const l = open(f);
-    return cdiv({ re: 1, im: 0 }, { re: 1 + l.re, im: l.im });
-  };
-}
-
 /** Floor and ceiling of toDb: an exact zero or a pole never yields ±Infinity (or NaN) in a result. */
 export const DB_FLOOR = -3000;
 export const DB_CEILING = 3000;

@@ -18,6 +18,25 @@ export interface AnalysisVerdict {
   readonly reasons: readonly string[];
 }
 
+/** The phase-margin requirement: a margin exists and is at least minPm (common practice, no source). */
+export function phaseMarginMet(m: LoopMargins, minPm: number): boolean {
+  return m.phaseMarginDeg !== null && m.phaseMarginDeg >= minPm;
+}
+
+/** The gain-margin requirement: at least minGm, or no gain margin at all (the phase never reaches −180°). */
+export function gainMarginMet(m: LoopMargins, minGm: number): boolean {
+  return m.gainMarginDb === null || m.gainMarginDb >= minGm;
+}
+
+/**
+ * Each margin requirement over the loops that ship: the discrete loop, and the quantised one when it
+ * exists. The verdict's marginsMet is both; the app shows each (the rule is written only here).
+ */
+export function marginChecks(discrete: LoopMargins, quantized: LoopMargins | null, minPm: number, minGm: number): { readonly phaseMarginMet: boolean; readonly gainMarginMet: boolean } {
+  const loops = quantized ? [discrete, quantized] : [discrete];
+  return { phaseMarginMet: loops.every((m) => phaseMarginMet(m, minPm)), gainMarginMet: loops.every((m) => gainMarginMet(m, minGm)) };
+}
+
 /** Stable / margins met, with every failure in words; the quantised loop counts as much as the designed one. */
 export function analysisVerdict(
   discrete: DiscreteLoopAnalysis,
@@ -38,10 +57,10 @@ export function analysisVerdict(
       // No gain crossover: there is no frequency at which a phase margin is defined (margins.ts says why).
       const why = m.notes[0] ?? '|L| does not cross 0 dB';
       marginReasons.push(`the ${label} loop has no phase margin: ${why}; at least ${minPm}° is required`);
-    } else if (m.phaseMarginDeg < minPm) {
+    } else if (!phaseMarginMet(m, minPm)) {
       marginReasons.push(`${label} phase margin ${m.phaseMarginDeg.toFixed(1)}° is below ${minPm}°`);
     }
-    if (m.gainMarginDb !== null && m.gainMarginDb < minGm) marginReasons.push(`${label} gain margin ${m.gainMarginDb.toFixed(1)} dB is below ${minGm} dB`);
+    if (!gainMarginMet(m, minGm)) marginReasons.push(`${label} gain margin ${m.gainMarginDb?.toFixed(1)} dB is below ${minGm} dB`);
   };
   check('discrete', discrete.margins);
   if (q.loop) check('quantised', q.loop.margins);

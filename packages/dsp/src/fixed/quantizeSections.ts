@@ -15,7 +15,8 @@ import type {
   QuantizedFilter,
   QuantizedSection,
 } from '../types/fixed.ts';
-import { FieldError, requireIntIn } from './fieldError.ts';
+import { FieldError } from './fieldError.ts';
+import { requireWidth } from '../spec/limits.ts';
 import { autoFractionBits, qFormat, quantizeValue } from './qformat.ts';
 import { hasIntegratorPole, sectionPoleRadius, sectionStabilityFromCodes } from './sectionPoles.ts';
 import { maxResponseDeviationDb } from './sosResponse.ts';
@@ -23,9 +24,12 @@ import { maxResponseDeviationDb } from './sosResponse.ts';
 const NAMES: readonly CoefficientName[] = ['b0', 'b1', 'b2', 'a1', 'a2'];
 /** Deviation is counted where the unquantised response is within this many dB of its peak. */
 export const DEVIATION_BAND_DB = 40;
-/** Widest coefficient word: codes stay exact plain numbers (< 2^53) with headroom for the MAC. */
-export const MAX_COEFFICIENT_BITS = 52;
-export const MAX_FRACTION_BITS = 62;
+/**
+ * Most fraction bits "auto" may choose. Narrow-band coefficients are tiny, so the best format often has
+ * more fraction bits than the word has bits (say 18 bits, 30 fraction bits); 62 keeps 2^F a normal
+ * double and every shift by F within the bit-true loop's 64-bit reference (bench/loop.c).
+ */
+export const AUTO_MAX_FRACTION_BITS = 62;
 
 function coefficientValues(s: Sos): number[] {
   return [s.b[0], s.b[1], s.b[2], s.a[1], s.a[2]];
@@ -39,17 +43,15 @@ function validate(sections: readonly Sos[], fx: CoefficientFormat): void {
       if (!Number.isFinite(v)) throw new FieldError(`sections.${i}.${NAMES[k]}`, `sections.${i}.${NAMES[k]} must be finite, got ${v}`);
     });
   });
-  requireIntIn('fixedPoint.coefficientBits', fx.coefficientBits, 2, MAX_COEFFICIENT_BITS);
-  if (fx.coefficientFractionBits !== 'auto') {
-    requireIntIn('fixedPoint.coefficientFractionBits', fx.coefficientFractionBits, 0, MAX_FRACTION_BITS);
-  }
+  requireWidth('fixedPoint.coefficientBits', fx.coefficientBits);
+  if (fx.coefficientFractionBits !== 'auto') requireWidth('fixedPoint.coefficientFractionBits', fx.coefficientFractionBits);
 }
 
 /** The fraction bits to use: the given number, or the "auto" choice over every coefficient. */
 export function resolveFractionBits(sections: readonly Sos[], fx: CoefficientFormat): number {
   if (fx.coefficientFractionBits !== 'auto') return fx.coefficientFractionBits;
   const all = sections.flatMap(coefficientValues);
-  const f = autoFractionBits(all, fx.coefficientBits, fx.rounding, MAX_FRACTION_BITS);
+  const f = autoFractionBits(all, fx.coefficientBits, fx.rounding, AUTO_MAX_FRACTION_BITS);
   if (f === null) {
     const maxAbs = Math.max(...all.map(Math.abs));
     throw new FieldError(

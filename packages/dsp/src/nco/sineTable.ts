@@ -4,16 +4,8 @@
  * positive twin). Only the first quarter is computed with sin; the rest is mirrored, which makes the
  * odd and half-wave symmetries exact (common practice, no source).
  */
-import { requireIntIn } from '../fixed/fieldError.ts';
+import { requireWidth } from '../spec/limits.ts';
 import { roundReal } from '../fixed/rounding.ts';
-
-/**
- * Address bits of the largest sine table a spec may ask for: 2^16 = 65,536 entries. Firmware NCO tables
- * are rarely larger (beyond that the phase-truncation spur, −6.02·P dBc, is below what the amplitude
- * quantisation allows; common practice, no source), and every release file holds the whole table
- * (at 16 bits and 32-bit codes the largest file is about 3.6 MB).
- */
-export const MAX_PHASE_BITS = 16;
 
 /** Largest code of the table, 2^(B−1) − 1. */
 export function sineFullScale(amplitudeBits: number): number {
@@ -22,8 +14,8 @@ export function sineFullScale(amplitudeBits: number): number {
 
 /** The sine table as Int32Array (phaseBits ≥ 2 so the quarter-wave offset of cos is a whole address). */
 export function sineTable(phaseBits: number, amplitudeBits: number): Int32Array {
-  requireIntIn('nco.phaseBits', phaseBits, 2, MAX_PHASE_BITS);
-  requireIntIn('nco.amplitudeBits', amplitudeBits, 2, 32);
+  requireWidth('nco.phaseBits', phaseBits);
+  requireWidth('nco.amplitudeBits', amplitudeBits);
   const size = 2 ** phaseBits;
   const quarter = size / 4;
   const fullScale = sineFullScale(amplitudeBits);

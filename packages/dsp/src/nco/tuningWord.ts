@@ -4,14 +4,13 @@
  * binary values of f and fs (BigInt, set-up only), so 48- and 64-bit words are right to the LSB.
  */
 import type { NcoTuning } from '../types/nco.ts';
-import { FieldError, requireIntIn } from '../fixed/fieldError.ts';
+import { FieldError } from '../fixed/fieldError.ts';
+import { requireWidth } from '../spec/limits.ts';
 import { Fraction, exactFraction } from './exactRational.ts';
-
-export const MAX_ACCUMULATOR_BITS = 64;
 
 /** Tuning word, actual frequency and its error for `frequencyHz` at the loop rate `sampleRateHz`. */
 export function ncoTuning(frequencyHz: number, sampleRateHz: number, accumulatorBits: number): NcoTuning {
-  requireIntIn('nco.accumulatorBits', accumulatorBits, 1, MAX_ACCUMULATOR_BITS);
+  requireWidth('nco.accumulatorBits', accumulatorBits);
   if (!(sampleRateHz > 0) || !Number.isFinite(sampleRateHz)) throw new FieldError('sampleRateHz', `sampleRateHz must be a positive finite number, got ${sampleRateHz}`);
   if (!(frequencyHz >= 0) || frequencyHz >= sampleRateHz / 2) {
     throw new FieldError('centerHz', `centerHz must be in [0, sampleRateHz/2 = ${sampleRateHz / 2}), got ${frequencyHz}`);
@@ -32,7 +31,6 @@ export function ncoTuning(frequencyHz: number, sampleRateHz: number, accumulator
   const resolutionHz = sampleRateHz / 2 ** accumulatorBits;
   return {
     accumulatorBits,
-    tuningWord: Number(m),
     tuningWordDecimal: m.toString(),
     tuningWordHi: Number(m >> 32n),
     tuningWordLo: Number(m & 0xffffffffn),

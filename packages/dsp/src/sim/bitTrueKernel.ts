@@ -57,10 +57,10 @@ export function runBitTrueChunk(plan: BitTruePlan, state: BitTrueState, input: I
   const gainShift = plan.control.gainShift;
   const gInv = 2 ** -gainShift;
   // The exact sum of five products is below 2^(Wc + D + 1); a wider MAC word can never overflow.
-  const macCheck = plan.macBits < plan.coefficientBits + plan.dataBits + 1;
-  const macMin = -(2 ** (plan.macBits - 1));
-  const macMax = 2 ** (plan.macBits - 1) - 1;
-  const macSpan = 2 ** plan.macBits;
+  const macCheck = plan.accumulatorBits < plan.coefficientBits + plan.dataBits + 1;
+  const macMin = -(2 ** (plan.accumulatorBits - 1));
+  const macMax = 2 ** (plan.accumulatorBits - 1) - 1;
+  const macSpan = 2 ** plan.accumulatorBits;
   const sections = plan.sectionCount;
   const coef = Float64Array.from(plan.coefficientCodes);
   const s = state.sections;

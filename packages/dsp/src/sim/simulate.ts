@@ -4,15 +4,11 @@
  * `simulateAsync` yields to the event loop so a Web Worker can receive a cancel message.
  */
 import type { Sos } from '../types/filter.ts';
-import type { QuantizedFilter } from '../types/fixed.ts';
 import type { BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, SimRun } from '../types/sim.ts';
-import type { LoopSpec } from '../spec/schema.ts';
+import type { LoopSpec, SpecIssue } from '../spec/schema.ts';
 import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
-import { quantizeSections } from '../fixed/quantizeSections.ts';
-import { designLoopFilter } from '../design.ts';
 import { allocInputChunk, inputGenerator } from './inputSignal.ts';
-import { planBitTrue, type BitTrueSpec } from './bitTruePlan.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut } from './bitTrueKernel.ts';
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
 import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
@@ -23,8 +19,19 @@ export const MAX_RECORD_SAMPLES = 1 << 22;
 export const DEFAULT_BUCKETS = 1000;
 export const DEFAULT_LOCK_TOLERANCE_RAD = 0.1;
 
-/** The spec fields a simulation reads (a LoopSpec satisfies it). */
-export type SimSpec = BitTrueSpec;
+/** The spec fields a simulation reads as they are (a LoopSpec satisfies it). */
+export type SimSpec = Pick<LoopSpec, 'sampleRateHz' | 'centerHz' | 'input' | 'nco'>;
+
+/**
+ * The loop a simulation runs, as planDesign derived it: the designed sections for the float loop and
+ * the bit-true constants (null, with the reason, when the widths cannot represent the loop).
+ */
+export interface SimLoop {
+  readonly spec: SimSpec;
+  readonly sections: readonly Sos[];
+  readonly bitTrue: BitTruePlan | null;
+  readonly bitTrueIssue: SpecIssue | null;
+}
 
 export class SimulationAbortedError extends Error {
   constructor() {
@@ -33,35 +40,22 @@ export class SimulationAbortedError extends Error {
   }
 }
 
-/** Simulate a spec: designs its loop filter (designLoopFilter) and quantises it, then runs both loops. */
-export function simulate(spec: LoopSpec, scenario: Scenario, options: SimOptions = {}): SimResult {
-  const sections = designLoopFilter(spec).sections;
-  return simulateSections(spec, sections, quantizeSections(sections, spec.fixedPoint), scenario, options);
+/** Simulate a planned loop: the float and/or the bit-true loop on the same input samples. */
+export function simulateLoop(loop: SimLoop, scenario: Scenario, options: SimOptions = {}): SimResult {
+  const steps = simulationSteps(loop, scenario, options);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
 }
 
-/** As `simulate`, yielding to the event loop between chunks (cancellable from a worker message). */
-export async function simulateAsync(spec: LoopSpec, scenario: Scenario, options: SimOptions = {}): Promise<SimResult> {
-  const sections = designLoopFilter(spec).sections;
-  const steps = simulationSteps(spec, sections, quantizeSections(sections, spec.fixedPoint), scenario, options);
+/** As `simulateLoop`, yielding to the event loop between chunks (cancellable from a worker message). */
+export async function simulateLoopAsync(loop: SimLoop, scenario: Scenario, options: SimOptions = {}): Promise<SimResult> {
+  const steps = simulationSteps(loop, scenario, options);
   for (;;) {
     const r = steps.next();
     if (r.done) return r.value;
     await new Promise<void>((resolve) => setTimeout(resolve, 0));
-  }
-}
-
-/** Simulate given sections and their quantisation (the design is the caller's). */
-export function simulateSections(
-  spec: SimSpec,
-  sections: readonly Sos[],
-  quantized: QuantizedFilter,
-  scenario: Scenario,
-  options: SimOptions = {},
-): SimResult {
-  const steps = simulationSteps(spec, sections, quantized, scenario, options);
-  for (;;) {
-    const r = steps.next();
-    if (r.done) return r.value;
   }
 }
 
@@ -116,6 +110,13 @@ export function bitTrueNcoHzOf(plan: BitTruePlan): (y: number) => number {
     const d = gainShift <= 0 ? t : mode === 0 ? Math.floor(t) : roundScaled(t, mode);
     return centerHz + d * hzPerLsb;
   };
+}
+
+/** The bit-true constants, or the reason the loop has none (naming the field to change). */
+function requireBitTrue(loop: SimLoop): BitTruePlan {
+  if (loop.bitTrue) return loop.bitTrue;
+  const issue = loop.bitTrueIssue ?? { field: 'fixedPoint', message: 'the loop has no bit-true form' };
+  throw new FieldError(issue.field, issue.message);
 }
 
 type InputChunk = ReturnType<typeof allocInputChunk>;
@@ -181,20 +182,15 @@ function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total:
 }
 
 /** The chunked simulation as a generator: yields the fraction done after each chunk. */
-export function* simulationSteps(
-  spec: SimSpec,
-  sections: readonly Sos[],
-  quantized: QuantizedFilter,
-  scenario: Scenario,
-  options: SimOptions,
-): Generator<number, SimResult, void> {
+export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: SimOptions): Generator<number, SimResult, void> {
+  const { spec, sections } = loop;
   const total = sampleCount(spec, scenario);
   const mode = options.mode ?? 'both';
   const keep = mode !== 'float' && options.keepRecord === true;
   if (keep && total > MAX_RECORD_SAMPLES) {
     throw new FieldError('durationS', `a per-sample record is limited to ${MAX_RECORD_SAMPLES} samples, the scenario has ${total}`);
   }
-  const plan = mode !== 'float' ? planBitTrue(spec, quantized) : undefined;
+  const plan = mode !== 'float' ? requireBitTrue(loop) : undefined;
   const setup = runSetup(spec, scenario, options, total);
   const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup)) : null;
   const bitLoop = plan ? bitTrueRunner(plan, total, keep, new RunAccumulator(setup)) : null;

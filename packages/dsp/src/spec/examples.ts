@@ -2,7 +2,7 @@
  * Example specs of the invented demo scenario (DESIGN.md, Harrow Cove Instruments), one per filter kind.
  * The widths are ordinary choices for an FPGA/DSP loop, not the result of a search.
  */
-import type { FilterKind, LoopSpec } from './schema.ts';
+import type { LoopSpec } from './schema.ts';
 
 export interface ExampleSpec {
   readonly id: string;
@@ -118,11 +118,3 @@ export const exampleSpecs: readonly ExampleSpec[] = [
     spec: ifFmDemodSpec,
   },
 ];
-
-/** One example per filter kind. */
-export const exampleSpecByKind: Readonly<Record<FilterKind, LoopSpec>> = {
-  'single-pole': ultrasonicSinglePoleSpec,
-  'lag-lead': ultrasonicLagLeadSpec,
-  pi: mainsSyncSpec,
-  butterworth: ifFmDemodSpec,
-};

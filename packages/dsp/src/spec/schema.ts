@@ -11,7 +11,7 @@
 import { z } from 'zod';
 import { loopGain } from '../analysis/loopGain.ts';
 import { lagLeadFromTargets } from '../filters/timeConstants.ts';
-import { MAX_PHASE_BITS } from '../nco/sineTable.ts';
+import { EXACT_INTEGER_BITS, WIDTH_LIMIT_REASONS, WIDTH_LIMITS, type WidthField } from './limits.ts';
 
 /** Finite number > 0 (zod 4's z.number() already rejects NaN and ±Infinity). */
 /**
@@ -21,10 +21,8 @@ import { MAX_PHASE_BITS } from '../nco/sineTable.ts';
 const hz = () => z.number().min(1e-6).max(1e12);
 /** Time constants: 1 ps … 1e6 s, for the same reason. */
 const seconds = () => z.number().min(1e-12).max(1e6);
-const intIn = (min: number, max: number) => z.number().int().min(min).max(max);
-
-export const FILTER_KINDS = ['single-pole', 'lag-lead', 'pi', 'butterworth'] as const;
-export const BUTTERWORTH_MAX_ORDER = 4;
+/** An integer width within its limit (./limits.ts, the one place the limits are written). */
+const width = (field: WidthField) => z.number().int().min(WIDTH_LIMITS[field][0]).max(WIDTH_LIMITS[field][1], WIDTH_LIMIT_REASONS[field]);
 
 /** Single-pole low-pass F = 1/(1+sτ), τ = 1/(2π·cutoffHz); a type-1 loop. */
 export const singlePoleFilterSchema = z.strictObject({
@@ -52,7 +50,7 @@ export const piFilterSchema = z.strictObject({ kind: z.literal('pi'), ...secondO
 /** Butterworth low-pass, unit DC gain, order 1–4, −3.01 dB at cutoffHz. */
 export const butterworthFilterSchema = z.strictObject({
   kind: z.literal('butterworth'),
-  order: intIn(1, BUTTERWORTH_MAX_ORDER),
+  order: width('filter.order'),
   cutoffHz: hz(),
 });
 
@@ -65,7 +63,7 @@ export const loopFilterSchema = z.discriminatedUnion('kind', [
 
 /** Optional Butterworth low-pass in series with the loop filter, against the 2·f detector ripple. */
 export const rippleFilterSchema = z.strictObject({
-  order: intIn(1, BUTTERWORTH_MAX_ORDER),
+  order: width('filter.order'),
   cutoffHz: hz(),
 });
 
@@ -83,14 +81,10 @@ const baseLoopSpecSchema = z.strictObject({
   }),
   detector: z.strictObject({ kind: z.literal('multiplier') }),
   nco: z.strictObject({
-    accumulatorBits: intIn(4, 64),
-    /** Address bits of the sine table (2^phaseBits entries); at most MAX_PHASE_BITS (nco/sineTable.ts). */
-    phaseBits: z
-      .number()
-      .int()
-      .min(2)
-      .max(MAX_PHASE_BITS, `must be at most ${MAX_PHASE_BITS} address bits (a ${2 ** MAX_PHASE_BITS}-entry sine table, the largest a release holds)`),
-    amplitudeBits: intIn(2, 32),
+    accumulatorBits: width('nco.accumulatorBits'),
+    /** Address bits of the sine table (2^phaseBits entries); at most MAX_PHASE_BITS (limits.ts). */
+    phaseBits: width('nco.phaseBits'),
+    amplitudeBits: width('nco.amplitudeBits'),
     gainHzPerUnit: hz(),
     waveform: z.enum(['sine', 'square']),
   }),
@@ -101,11 +95,12 @@ const baseLoopSpecSchema = z.strictObject({
     prewarpHz: hz().nullable().default(null),
   }),
   fixedPoint: z.strictObject({
-    coefficientBits: intIn(2, 32),
+    coefficientBits: width('fixedPoint.coefficientBits'),
     /** "auto": the most fraction bits that still hold every coefficient. */
-    coefficientFractionBits: z.union([intIn(0, 64), z.literal('auto')]),
-    dataBits: intIn(2, 32),
-    accumulatorBits: intIn(2, 64),
+    coefficientFractionBits: z.union([width('fixedPoint.coefficientFractionBits'), z.literal('auto')]),
+    dataBits: width('fixedPoint.dataBits'),
+    /** The loop filter's multiply-accumulate (MAC) word. */
+    accumulatorBits: width('fixedPoint.accumulatorBits'),
     /** nearest: half away from zero; half-even: convergent; truncate: toward −∞ (IEEE754 cl. 4.3). */
     rounding: z.enum(['nearest', 'half-even', 'truncate']),
     overflow: z.enum(['saturate', 'wrap']),
@@ -145,7 +140,23 @@ function checkCrossFields(value: unknown, ctx: z.RefinementCtx): void {
   if (fp && fp.accumulatorBits < Math.max(fp.dataBits, fp.coefficientBits)) {
     add(['fixedPoint', 'accumulatorBits'], `fixedPoint.accumulatorBits ${fp.accumulatorBits} must be at least max(dataBits, coefficientBits) = ${Math.max(fp.dataBits, fp.coefficientBits)}`);
   }
+  checkExactArithmetic(p, add);
   if (p.filter && (p.filter.kind === 'lag-lead' || p.filter.kind === 'pi')) checkSecondOrder(p, p.filter, add);
+}
+
+/**
+ * The bit-true loop holds its products in float64 integers (limits.ts, EXACT_INTEGER_BITS): the MAC
+ * sum of five products needs dataBits + coefficientBits + 1 bits, the detector product dataBits +
+ * amplitudeBits. A spec past either could be analysed but never simulated bit-true or released.
+ */
+function checkExactArithmetic(p: ValidParts, add: AddIssue): void {
+  const fp = p.fixedPoint;
+  if (fp && fp.dataBits + fp.coefficientBits + 1 > EXACT_INTEGER_BITS) {
+    add(['fixedPoint', 'dataBits'], `fixedPoint.dataBits + coefficientBits must be at most ${EXACT_INTEGER_BITS - 1} for the bit-true MAC, got ${fp.dataBits} + ${fp.coefficientBits}`);
+  }
+  if (fp && p.nco && fp.dataBits + p.nco.amplitudeBits > EXACT_INTEGER_BITS) {
+    add(['nco', 'amplitudeBits'], `fixedPoint.dataBits + nco.amplitudeBits must be at most ${EXACT_INTEGER_BITS} for the detector product, got ${fp.dataBits} + ${p.nco.amplitudeBits}`);
+  }
 }
 
 /** Loop rate against the clock, and every frequency against the loop rate's Nyquist frequency. */
@@ -198,8 +209,16 @@ function checkSecondOrder(p: ValidParts, f: SecondOrderFilter, add: AddIssue): v
 // form shows every problem at once; checkCrossFields only looks at parts that are valid on their own.
 export const loopSpecSchema = baseLoopSpecSchema.superRefine(checkCrossFields, { when: () => true });
 
-/** A validated loop design spec (defaults applied). */
+/** A loop design spec of the schema's shape (defaults applied); not necessarily checked. */
 export type LoopSpec = z.output<typeof loopSpecSchema>;
+
+declare const validSpecBrand: unique symbol;
+/**
+ * A spec that passed parseLoopSpec, the only function that makes one: whatever takes a ValidSpec
+ * (planDesign and the steps below it) relies on every limit and cross-field rule of the schema and
+ * never checks the spec again. The brand exists only for the type checker.
+ */
+export type ValidSpec = LoopSpec & { readonly [validSpecBrand]: true };
 /** What a client may send (optional fields with defaults may be left out). */
 export type LoopSpecInput = z.input<typeof loopSpecSchema>;
 export type LoopFilterSpec = LoopSpec['filter'];
@@ -220,7 +239,7 @@ export interface SpecWarning {
 }
 
 export type ParseLoopSpecResult =
-  | { readonly ok: true; readonly spec: LoopSpec; readonly warnings: readonly SpecWarning[] }
+  | { readonly ok: true; readonly spec: ValidSpec; readonly warnings: readonly SpecWarning[] }
   | { readonly ok: false; readonly issues: readonly SpecIssue[] };
 
 /**
@@ -237,7 +256,26 @@ export function parseLoopSpec(input: unknown): ParseLoopSpecResult {
   if (!result.success) {
     return { ok: false, issues: result.error.issues.map(toSpecIssue) };
   }
-  return { ok: true, spec: result.data, warnings: specWarnings(result.data) };
+  return { ok: true, spec: result.data as ValidSpec, warnings: specWarnings(result.data) };
+}
+
+/** Thrown by requireValidSpec for a spec that fails parseLoopSpec; carries every field issue. */
+export class LoopSpecError extends Error {
+  readonly issues: readonly SpecIssue[];
+  readonly field: string;
+  constructor(issues: readonly SpecIssue[]) {
+    super(issues.map((i) => i.message).join('; '));
+    this.name = 'LoopSpecError';
+    this.issues = issues;
+    this.field = issues[0]?.field ?? '';
+  }
+}
+
+/** parseLoopSpec for a spec the caller holds to be valid (an example, a test's variant): throws LoopSpecError naming the fields. */
+export function requireValidSpec(input: unknown): ValidSpec {
+  const parsed = parseLoopSpec(input);
+  if (!parsed.ok) throw new LoopSpecError(parsed.issues);
+  return parsed.spec;
 }
 
 function toSpecIssue(issue: z.core.$ZodIssue): SpecIssue {

@@ -17,6 +17,7 @@ export type { QuantizationSummary } from '../analysis/quantizedLoop.ts';
 export type { NoiseBandwidth } from '../analysis/noiseBandwidth.ts';
 export type { RippleFigures } from '../analysis/ripple.ts';
 export type { DatapathFigures } from '../analysis/datapath.ts';
+export type { DesignPlan, PlanOptions, PlanDesignResult } from '../planDesign.ts';
 
 export interface AcquisitionEstimates {
   /** ≈ 2ζωn/(2π) (G3, B6), capped at the hold-in range for a type-1 loop; lockInRadPerS in rad/s. */

@@ -2,11 +2,9 @@
 
 export interface NcoTuning {
   readonly accumulatorBits: number;
-  /** Tuning word M = round(f·2^N/fs) (TRG71); exact as a number when N ≤ 53, else nearest double. */
-  readonly tuningWord: number;
-  /** M exactly, decimal (safe for any N ≤ 64). */
+  /** Tuning word M = round(f·2^N/fs) (TRG71), exactly, in decimal (any N ≤ 64). */
   readonly tuningWordDecimal: string;
-  /** M split into 32-bit words: M = hi·2^32 + lo (hi = 0 when N ≤ 32). */
+  /** The same M as the hardware holds it, in 32-bit words: M = hi·2^32 + lo (hi = 0 when N ≤ 32). */
   readonly tuningWordHi: number;
   readonly tuningWordLo: number;
   readonly requestedHz: number;

@@ -10,14 +10,15 @@ export interface BitTruePlan {
   readonly centerHz: number;
   /** D: input, detector, section outputs and filter output are D-bit codes with D − 1 fraction bits. */
   readonly dataBits: number;
+  /** Wc: the coefficient word (fixedPoint.coefficientBits), also the word of the control gain code G. */
   readonly coefficientBits: number;
   /** Fc: fraction bits of every coefficient code (resolved when the spec said "auto"). */
   readonly coefficientFractionBits: number;
-  /** Wa: the section MAC word (fixedPoint.accumulatorBits). */
-  readonly macBits: number;
+  /** Wa: the loop filter's multiply-accumulate (MAC) word, fixedPoint.accumulatorBits. */
+  readonly accumulatorBits: number;
   readonly rounding: RoundingMode;
   readonly overflow: OverflowMode;
-  /** N: phase accumulator bits. */
+  /** N: the NCO's phase accumulator, nco.accumulatorBits. */
   readonly ncoAccumulatorBits: number;
   /** P: sine-table address bits. */
   readonly phaseBits: number;
@@ -177,4 +178,5 @@ export interface AcquisitionOptions {
 }
 export type { VectorComparison, VectorMismatch } from '../vectors/compareVectors.ts';
 export type { JsonSimResult, JsonSimRun, JsonTrace } from '../sim/simResultJson.ts';
-export type { SignalFormat } from '../sim/bitTruePlan.ts';
+export type { SignalFormat, BitTrueParts } from '../sim/bitTruePlan.ts';
+export type { SimLoop, SimSpec } from '../sim/simulate.ts';

@@ -2,6 +2,7 @@
 export type {
   LoopSpec,
   LoopSpecInput,
+  ValidSpec,
   LoopFilterSpec,
   FilterKind,
   RippleFilterSpec,

@@ -6,7 +6,7 @@ import type { LoopSpec } from '../spec/schema.ts';
 import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
 import type { BitTrueRecord } from '../types/sim.ts';
-import { simulate } from '../sim/simulate.ts';
+import { simulateLoop, type SimLoop } from '../sim/simulate.ts';
 
 /** Samples in a release's golden vectors. */
 export const GOLDEN_VECTOR_SAMPLES = 4096;
@@ -40,7 +40,7 @@ export interface GoldenVectors {
  * 0.01·gainHzPerUnit above centerHz, lands at or past sampleRateHz/2), the spec field that sets the
  * offset is the one to change, so that is the field named.
  */
-function checkDefaultScenario(spec: LoopSpec, scenario: Scenario): void {
+function checkDefaultScenario(spec: SimLoop['spec'], scenario: Scenario): void {
   const issue = scenarioRateIssue(spec, scenario);
   if (!issue || scenario.kind !== 'tone') return;
   const inputHz = spec.centerHz + scenario.offsetHz;
@@ -50,14 +50,20 @@ function checkDefaultScenario(spec: LoopSpec, scenario: Scenario): void {
   );
 }
 
-/** Run the bit-true loop on the scenario (default: defaultGoldenScenario) and keep every sample. */
-export function goldenVectors(spec: LoopSpec, scenario?: Scenario): GoldenVectors {
-  if (scenario === undefined) {
-    scenario = defaultGoldenScenario(spec);
-    checkDefaultScenario(spec, scenario);
-  }
-  const r = simulate(spec, scenario, { mode: 'bit-true', keepRecord: true });
+/** A release's golden vectors: the planned loop on its default scenario (defaultGoldenScenario). */
+export function releaseGoldenVectors(loop: SimLoop): GoldenVectors {
+  const scenario = defaultGoldenScenario(loop.spec);
+  checkDefaultScenario(loop.spec, scenario);
+  return goldenVectorsOf(loop, scenario);
+}
+
+/**
+ * Run a planned loop's bit-true constants (planDesign's `bitTrue`, the ones the release renders) on
+ * the scenario and keep every sample.
+ */
+export function goldenVectorsOf(loop: SimLoop, scenario: Scenario): GoldenVectors {
+  const r = simulateLoop(loop, scenario, { mode: 'bit-true', keepRecord: true });
   const bit = r.bitTrue;
   if (!bit?.record) throw new Error('bit-true run kept no record');
-  return { scenario, accumulatorBits: spec.nco.accumulatorBits, record: bit.record, checksum: bit.checksum };
+  return { scenario, accumulatorBits: loop.spec.nco.accumulatorBits, record: bit.record, checksum: bit.checksum };
 }

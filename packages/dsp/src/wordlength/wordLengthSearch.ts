@@ -7,7 +7,7 @@
  * sections): quantisation moves poles most where they crowd z = 1, which is where narrow loop filters
  * live (OS3 Sec. 6.8 (memory)). Data widths have no closed form worth trusting (rounding of the
  * section states, dead bands, limit cycles), so they are judged by the bit-true simulation of a small
- * tone offset against the float loop on the same input (sim module's simulateSections).
+ * tone offset against the float loop on the same input (sim module's simulateLoop).
  * The reported minimum is the smallest width from which every wider width in the range also passes.
  */
 import type { LoopSpec } from '../spec/schema.ts';
@@ -15,9 +15,13 @@ import type { Sos } from '../types/filter.ts';
 import type { CoefficientFormat } from '../types/fixed.ts';
 import { designLoopFilter } from '../design.ts';
 import { discreteLoopMargins } from '../analysis/discreteLoop.ts';
-import { quantizeSections, MAX_COEFFICIENT_BITS } from '../fixed/quantizeSections.ts';
+import { quantizeSections } from '../fixed/quantizeSections.ts';
+import { EXACT_INTEGER_BITS, WIDTH_LIMITS } from '../spec/limits.ts';
 import { FieldError } from '../fixed/fieldError.ts';
-import { SimulationAbortedError, simulateSections } from '../sim/simulate.ts';
+import { SimulationAbortedError, simulateLoop } from '../sim/simulate.ts';
+import { planBitTrue } from '../sim/bitTruePlan.ts';
+import { ncoTuning } from '../nco/tuningWord.ts';
+import { specControlScaling } from '../nco/controlScaling.ts';
 import type { AbortFlag } from '../types/sim.ts';
 import { acquisitionEstimates } from '../analysis/estimates.ts';
 import { secondOrderParameters } from '../analysis/secondOrder.ts';
@@ -61,7 +65,8 @@ export interface CoefficientWidthPoint {
 
 export interface DataWidthPoint {
   readonly dataBits: number;
-  readonly macBits: number;
+  /** The MAC word used at this data width (fixedPoint.accumulatorBits, widened so it never limits). */
+  readonly accumulatorBits: number;
   readonly locked: boolean;
   readonly steadyStatePhaseErrorDeg: number;
   readonly phaseJitterDeg: number;
@@ -158,8 +163,10 @@ function* searchCoefficients(
   cfg: { pmTol: number; dbTol: number; points: number; options: WordLengthOptions },
   progress: (f: number) => void,
 ): Generator<void, WordLengthResult['coefficients']> {
-  const lo = Math.max(2, cfg.options.minCoefficientBits ?? 4);
-  const hi = Math.min(MAX_COEFFICIENT_BITS, cfg.options.maxCoefficientBits ?? 32);
+  // Only widths a spec may hold are searched (limits.ts): a recommendation must be one the designer can enter.
+  const [fewestBits, mostBits] = WIDTH_LIMITS['fixedPoint.coefficientBits'];
+  const lo = Math.max(fewestBits, cfg.options.minCoefficientBits ?? 4);
+  const hi = Math.min(mostBits, cfg.options.maxCoefficientBits ?? mostBits);
   const curve: CoefficientWidthPoint[] = [];
   for (let bits = lo; bits <= hi; bits++) {
     curve.push(coefficientPoint(spec, sections, bits, refPm, cfg));
@@ -248,16 +255,21 @@ function* searchData(
   const crossoverHz = discreteLoopMargins(spec, sections, { points: 200, closedLoop: false }).margins.crossoverHz ?? loopGain(spec).kRadPerS / (2 * Math.PI);
   const { scenario, cut } = dataScenario(spec, crossoverHz, options.maxSamplesPerRun ?? 200_000);
   const quantized = quantizeSections(sections, fp);
-  const floatRun = simulateSections(spec, sections, quantized, scenario, { mode: 'float', buckets: 10 }).float!.metrics;
-  const lo = Math.max(2, options.minDataBits ?? 6);
-  const hi = Math.min(32, options.maxDataBits ?? 24);
+  const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, spec.nco.accumulatorBits);
+  const floatRun = simulateLoop({ spec, sections, bitTrue: null, bitTrueIssue: null }, scenario, { mode: 'float', buckets: 10 }).float!.metrics;
+  const [fewestBits, mostBits] = WIDTH_LIMITS['fixedPoint.dataBits'];
+  // Only data words a spec may hold with this coefficient word and NCO (limits.ts, exact arithmetic).
+  const exactBits = Math.min(EXACT_INTEGER_BITS - 1 - fp.coefficientBits, EXACT_INTEGER_BITS - spec.nco.amplitudeBits);
+  const lo = Math.max(fewestBits, options.minDataBits ?? 6);
+  const hi = Math.min(mostBits, exactBits, options.maxDataBits ?? 24);
   const curve: DataWidthPoint[] = [];
   for (let bits = lo; bits <= hi; bits++) {
     // A MAC of at least Fc + D + 1 bits never limits the section outputs (datapath.ts), so the search
     // sees the data width alone.
-    const macBits = Math.min(64, Math.max(fp.accumulatorBits, bits + quantized.format.fractionBits + 1));
-    const s: LoopSpec = { ...spec, fixedPoint: { ...fp, dataBits: bits, accumulatorBits: macBits } };
-    const m = simulateSections(s, sections, quantized, scenario, { mode: 'bit-true', buckets: 10 }).bitTrue!.metrics;
+    const accumulatorBits = Math.min(WIDTH_LIMITS['fixedPoint.accumulatorBits'][1], Math.max(fp.accumulatorBits, bits + quantized.format.fractionBits + 1));
+    const s: LoopSpec = { ...spec, fixedPoint: { ...fp, dataBits: bits, accumulatorBits } };
+    const bitTrue = planBitTrue(s, { quantized, tuning, control: specControlScaling(s) });
+    const m = simulateLoop({ spec: s, sections, bitTrue, bitTrueIssue: null }, scenario, { mode: 'bit-true', buckets: 10 }).bitTrue!.metrics;
     const reasons: string[] = [];
     if (!m.locked) reasons.push('did not lock');
     if (m.cycleSlips !== 0) reasons.push(`${m.cycleSlips} cycle slips`);
@@ -267,7 +279,7 @@ function* searchData(
     if (dJit > errTol) reasons.push(`phase jitter ${dJit.toFixed(3)}° above float (tolerance ${errTol}°)`);
     curve.push({
       dataBits: bits,
-      macBits,
+      accumulatorBits,
       locked: m.locked,
       steadyStatePhaseErrorDeg: m.steadyStatePhaseErrorDeg,
       phaseJitterDeg: m.steadyStatePhaseJitterDeg,

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { discreteLoopMargins, integratorCount } from '../../src/analysis/discreteLoop.ts';
-import { analyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../../src/planDesign.ts';
 import { designLoopFilter } from '../../src/design.ts';
 import { schurCohnStable, discreteLoopStable, routhHurwitzStable } from '../../src/analysis/stability.ts';
 import { ultrasonicLagLeadSpec, mainsSyncSpec } from '../../src/spec/examples.ts';

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { loopGain } from '../../src/analysis/loopGain.ts';
-import { analyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../../src/planDesign.ts';
 import { ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
 import type { LoopSpec } from '../../src/spec/schema.ts';
 

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { analyzeDesign, tryAnalyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign, tryAnalyzeDesign } from '../../src/planDesign.ts';
 import { parseLoopSpec } from '../../src/spec/schema.ts';
 import { mulberry32, randomLoopSpec } from '../reference/random.ts';
 import { mainsSyncSpec } from '../../src/spec/examples.ts';

@@ -5,7 +5,7 @@
  * DESIGN.md formulas on its own; only the spec's numbers are shared.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../../src/planDesign.ts';
 import type { AnalysisResult } from '../../src/types/analysis.ts';
 import type { LoopSpec } from '../../src/spec/schema.ts';
 import { analysisRange } from '../../src/analysis/frequencyRange.ts';

@@ -3,7 +3,7 @@
  * against what the analysis computes from the transfer functions themselves.
  */
 import { describe, expect, it } from 'vitest';
-import { analyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../../src/planDesign.ts';
 import { analogClosedLoop } from '../../src/analysis/loopPolynomials.ts';
 import { designLoopFilter } from '../../src/design.ts';
 import { loopGain } from '../../src/analysis/loopGain.ts';

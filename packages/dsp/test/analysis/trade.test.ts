@@ -2,7 +2,7 @@
  * Facts of the trade (common practice, no source), checked on the analysis itself.
  */
 import { describe, expect, it } from 'vitest';
-import { analyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../../src/planDesign.ts';
 import { discreteLoopResponse, toDb } from '../../src/analysis/response.ts';
 import type { LoopSpec } from '../../src/spec/schema.ts';
 import { ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';

@@ -3,7 +3,7 @@
  * Requirements PM ≥ 45°, GM ≥ 6 dB by default (common practice, no source).
  */
 import { describe, expect, it } from 'vitest';
-import { analyzeDesign } from '../../src/analysis/analyzeDesign.ts';
+import { analyzeDesign } from '../../src/planDesign.ts';
 import { exampleSpecs, ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
 import type { LoopSpec } from '../../src/spec/schema.ts';
 

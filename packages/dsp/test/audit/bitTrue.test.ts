@@ -5,7 +5,7 @@
  * Fraction and the sine table from numpy (round half away from zero of (2^(B−1) − 1)·sin), not from us.
  */
 import { describe, expect, it } from 'vitest';
-import { exampleSpecs, goldenVectors, phaseDecimal, planBitTrue, quantizeFilter, type LoopSpec } from '../../src/index.ts';
+import { exampleSpecs, phaseDecimal, planDesign, requireValidSpec, type LoopSpec } from '../../src/index.ts';
 import { runAuditReference } from './reference/run.ts';
 
 const base = exampleSpecs.map((e) => e.spec);
@@ -21,14 +21,13 @@ const specs: LoopSpec[] = [
 ];
 
 const runs = specs.map((spec) => {
-  const q = quantizeFilter(spec);
-  const plan = planBitTrue(spec, q);
-  const v = goldenVectors(spec);
-  return { spec, plan, v };
+  // The constants and the vectors of one plan: the vectors must be what these constants produce.
+  const planned = planDesign(requireValidSpec(spec), { goldenVectors: true });
+  return { spec, plan: planned.bitTrue!, v: planned.goldenVectors! };
 });
 const refs = runAuditReference<{ bitTrue: { rows: (number | string)[][]; tuningWord: string; table: number[]; checksum: number }[] }>({
   bitTrue: runs.map(({ spec, plan, v }) => ({
-    dataBits: plan.dataBits, coefficientBits: plan.coefficientBits, fractionBits: plan.coefficientFractionBits, macBits: plan.macBits,
+    dataBits: plan.dataBits, coefficientBits: plan.coefficientBits, fractionBits: plan.coefficientFractionBits, macBits: plan.accumulatorBits,
     ncoAccumulatorBits: plan.ncoAccumulatorBits, phaseBits: plan.phaseBits, amplitudeBits: plan.amplitudeBits,
     rounding: plan.rounding, overflow: plan.overflow, waveform: plan.waveform,
     centerHz: spec.centerHz, sampleRateHz: spec.sampleRateHz,

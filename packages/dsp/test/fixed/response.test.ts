@@ -1,10 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Sos } from '../../src/types/filter.ts';
 import { sosMagnitudeSquared, maxResponseDeviationDb } from '../../src/fixed/sosResponse.ts';
-import { quantizeSections } from '../../src/fixed/quantizeSections.ts';
-import { quantizeFilter } from '../../src/fixed/quantizeFilter.ts';
-import { designLoopFilter } from '../../src/design.ts';
-import { mainsSyncSpec } from '../../src/spec/examples.ts';
 import { python } from './python.ts';
 
 describe('section cascade response', () => {
@@ -26,10 +22,5 @@ out = {'sos': sos.tolist(), 'w': w.tolist(), 'h2': (np.abs(h)**2).tolist()}`,
     const s: Sos = { b: [0.2, 0.4, 0.2], a: [1, -0.5, 0.3] };
     const scaled: Sos = { b: [0.202, 0.404, 0.202], a: s.a };
     expect(maxResponseDeviationDb([s], [scaled], 40)).toBeCloseTo(20 * Math.log10(1.01), 9);
-  });
-
-  it('quantizeFilter is quantizeSections of the designed sections', () => {
-    const direct = quantizeSections(designLoopFilter(mainsSyncSpec).sections, mainsSyncSpec.fixedPoint);
-    expect(quantizeFilter(mainsSyncSpec)).toEqual(direct);
   });
 });

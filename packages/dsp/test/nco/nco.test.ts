@@ -10,7 +10,7 @@ describe('ncoTuning (TRG71: M = round(f·2^N/fs), f = M·fs/2^N)', () => {
     // actual = 459561501 · 1e8 / 2^32 = 10700000.0076 Hz; error = 0.328 LSB · 0.02328 Hz = 0.00764 Hz.
     // resolution = 1e8 / 2^32 = 0.023283064365386963 Hz.
     const t = ncoTuning(10.7e6, 100e6, 32);
-    expect(t.tuningWord).toBe(459561501);
+    expect(t.tuningWordDecimal).toBe('459561501');
     expect(t.tuningWordLo).toBe(459561501);
     expect(t.tuningWordHi).toBe(0);
     expect(t.resolutionHz).toBeCloseTo(0.023283064365386963, 15);
@@ -38,7 +38,7 @@ describe('ncoTuning (TRG71: M = round(f·2^N/fs), f = M·fs/2^N)', () => {
   it('gives the exact error −f when the word rounds to 0, and refuses a frequency whose error has no double', () => {
     // M = round(1e-10·2^32/1) = 0: the accumulator stands still, so the error is exactly −f (by hand).
     const still = ncoTuning(1e-10, 1, 32);
-    expect(still.tuningWord).toBe(0);
+    expect(still.tuningWordDecimal).toBe('0');
     expect(still.errorHz).toBe(-1e-10);
     // At 1e-300 Hz the word is 0 again and the error is −1e-300 exactly, but as a reduced fraction its
     // denominator is 2^1049 (Python: Fraction(1e-300)), past the largest double: an error, not a number.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { simulate } from '../../src/sim/simulate.ts';
+import { simulate } from '../../src/planDesign.ts';
 import { simResultToJson } from '../../src/sim/simResultJson.ts';
 import { ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
 

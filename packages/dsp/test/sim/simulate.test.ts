@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { simulate, simulateAsync } from '../../src/sim/simulate.ts';
+import { simulate, simulateAsync } from '../../src/planDesign.ts';
 import { mainsSyncSpec, ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
 import { designLoopFilter } from '../../src/design.ts';
 import { parseScenario, type Scenario } from '../../src/spec/scenario.ts';

@@ -9,7 +9,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { simulate } from '../../src/sim/simulate.ts';
+import { simulate } from '../../src/planDesign.ts';
 import { mainsSyncSpec, ultrasonicSinglePoleSpec, ifFmDemodSpec, ultrasonicLagLeadSpec } from '../../src/spec/examples.ts';
 import type { LoopSpec } from '../../src/spec/schema.ts';
 import type { Scenario } from '../../src/spec/scenario.ts';

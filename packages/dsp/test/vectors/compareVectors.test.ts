@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { goldenVectors } from '../../src/vectors/goldenVectors.ts';
+import { goldenVectors } from '../../src/planDesign.ts';
 import { formatVectorsCsv, VECTOR_CSV_COLUMNS } from '../../src/vectors/vectorsCsv.ts';
 import { compareVectors } from '../../src/vectors/compareVectors.ts';
 import { ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';

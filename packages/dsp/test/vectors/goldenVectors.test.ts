@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { goldenVectors, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from '../../src/vectors/goldenVectors.ts';
+import { goldenVectors } from '../../src/planDesign.ts';
+import { defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from '../../src/vectors/goldenVectors.ts';
 import { formatVectorsCsv, VECTOR_CSV_COLUMNS, phaseDecimal } from '../../src/vectors/vectorsCsv.ts';
 import { ifFmDemodSpec, mainsSyncSpec, ultrasonicSinglePoleSpec } from '../../src/spec/examples.ts';
 import { checksumRecord, CHECKSUM_BASIS } from '../../src/sim/checksum.ts';

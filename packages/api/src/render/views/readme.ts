@@ -30,7 +30,7 @@ export interface ReadmeView {
 export interface ReadmeInput {
   readonly spec: LoopSpec;
   readonly quantized: QuantizedFilter;
-  readonly plan: BitTruePlan;
+  readonly bitTrue: BitTruePlan;
   readonly model: HandoffModel;
   readonly toolVersion: string;
   readonly specSha256: string;
@@ -97,7 +97,7 @@ export function readmeView(input: ReadmeInput): ReadmeView {
     specSha256: input.specSha256,
     caution: CAUTION_LINES,
     files: input.files,
-    formats: bitTrueFormats(input.plan).map((f) => ({
+    formats: bitTrueFormats(input.bitTrue).map((f) => ({
       what: `${f.signal} (${f.description})`,
       format: f.signed ? `${qm(f.wordBits, f.fractionBits)}` : `${f.wordBits} bits unsigned, ${f.fractionBits} fraction bits`,
     })),
@@ -118,7 +118,7 @@ export function readmeView(input: ReadmeInput): ReadmeView {
 
 /** Architecture, ports and how to run the testbenches of the reference RTL (src/render/rtl.ts). */
 function rtlSection(input: ReadmeInput): ReadmeView['rtl'] {
-  const { rtl, rtlFiles: f, spec, plan } = input;
+  const { rtl, rtlFiles: f, spec, bitTrue: plan } = input;
   const t = rtl.timing;
   const available = clocksPerUpdate(spec.clockHz, spec.sampleRateHz);
   const e = rtl.entities;
