@@ -33,6 +33,7 @@ export { steadyStateErrors, frequencyStepErrorRad } from './analysis/steadyState
 export { marginChecks } from './analysis/verdict.ts';
 export { routhHurwitzStable, discreteLoopStable, schurCohnStable } from './analysis/stability.ts';
 export { scenarioSchema, parseScenario, scenarioRateIssue, isScenarioField } from './spec/scenario.ts';
+export { plainMessages } from './spec/messages.ts';
 export { simulateLoop, simulateLoopAsync, simulationSteps, bitTrueNcoHzOf, SimulationAbortedError } from './sim/simulate.ts';
 export { planBitTrue, bitTrueFormats } from './sim/bitTruePlan.ts';
 export { runBitTrueChunk, initialBitTrueState, quantizeInput } from './sim/bitTrueKernel.ts';

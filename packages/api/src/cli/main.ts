@@ -67,21 +67,33 @@ function wholeNumber(flag: string, text: string): number {
   return n;
 }
 
-async function main(): Promise<void> {
+/**
+ * Runs the CLI as the shell sees it: stdout gets only the command's output, stderr at most one line,
+ * and the exit code is 0 (ok), 2 (bad input or usage), 1 (an internal failure) or the command's own —
+ * never a stack trace.
+ */
+export async function cliMain(argv: readonly string[], stdout: (text: string) => void, stderr: (text: string) => void): Promise<number> {
   try {
-    const out = await runCli(process.argv.slice(2));
-    process.stdout.write(out.stdout);
-    process.exitCode = out.exitCode;
+    const out = await runCli(argv);
+    stdout(out.stdout);
+    return out.exitCode;
   } catch (err) {
     if (err instanceof UsageError) {
-      process.stderr.write(`loopwright: ${err.message}\n`);
-      process.exitCode = 2;
-      return;
+      stderr(`loopwright: ${err.message}\n`);
+      return 2;
     }
     // One line, like every other message: a CI log gets what failed, not the call stack.
-    process.stderr.write(`loopwright: internal error: ${(err instanceof Error ? err.message : String(err)).replace(/\s*\n\s*/g, ' ')}\n`);
-    process.exitCode = 1;
+    stderr(`loopwright: internal error: ${(err instanceof Error ? err.message : String(err)).replace(/\s*\n\s*/g, ' ')}\n`);
+    return 1;
   }
+}
+
+async function main(): Promise<void> {
+  process.exitCode = await cliMain(
+    process.argv.slice(2),
+    (text) => process.stdout.write(text),
+    (text) => process.stderr.write(text),
+  );
 }
 
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) void main();

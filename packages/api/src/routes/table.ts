@@ -1,5 +1,6 @@
 import express, { type Request, type RequestHandler, type Response, type Router } from 'express';
 import multer from 'multer';
+import { plainMessages } from '@loopwright/dsp';
 import { z } from 'zod';
 import type { Role, SessionUser } from '@loopwright/contract';
 import { AppError, forbidden, invalidInput, unauthenticated } from '../errors.ts';
@@ -85,7 +86,7 @@ export function zodToAppError(error: z.ZodError, prefix: string): AppError {
 
 function parsePart(schema: z.ZodType | undefined, value: unknown, prefix: string): unknown {
   if (!schema) return undefined;
-  const parsed = schema.safeParse(value);
+  const parsed = schema.safeParse(value, { error: plainMessages });
   if (!parsed.success) throw zodToAppError(parsed.error, prefix);
   return parsed.data;
 }

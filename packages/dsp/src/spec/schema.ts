@@ -12,6 +12,7 @@ import { z } from 'zod';
 import { loopGain } from '../analysis/loopGain.ts';
 import { lagLeadFromTargets } from '../filters/timeConstants.ts';
 import { EXACT_INTEGER_BITS, WIDTH_LIMIT_REASONS, WIDTH_LIMITS, type WidthField } from './limits.ts';
+import { plainMessages } from './messages.ts';
 
 /** Finite number > 0 (zod 4's z.number() already rejects NaN and ±Infinity). */
 /**
@@ -248,7 +249,7 @@ export type ParseLoopSpecResult =
 export function parseLoopSpec(input: unknown): ParseLoopSpecResult {
   let result: ReturnType<typeof loopSpecSchema.safeParse>;
   try {
-    result = loopSpecSchema.safeParse(input);
+    result = loopSpecSchema.safeParse(input, { error: plainMessages });
   } catch (err) {
     // safeParse does not throw on bad data; this guards exotic inputs such as throwing getters.
     return { ok: false, issues: [{ field: '', message: `spec could not be read: ${String(err)}` }] };

@@ -106,6 +106,16 @@ describe('parseLoopSpec rejects bad fields by name', () => {
     expect(fields).toContain('sampleRateHz');
   });
 
+  it('says a missing field is missing, in words (not "received undefined")', () => {
+    const { amplitudeBits: _dropped, ...nco } = mainsSyncSpec.nco;
+    const r = parseLoopSpec({ ...mainsSyncSpec, nco, fixedPoint: undefined });
+    expect(r.ok).toBe(false);
+    const messages = r.ok ? [] : r.issues.map((i) => i.message);
+    expect(messages).toContain('nco.amplitudeBits: missing (expected a number)');
+    expect(messages).toContain('fixedPoint: missing (expected an object)');
+    expect(messages.join(' ')).not.toMatch(/undefined/);
+  });
+
   it('rejects taus and targets given together', () => {
     const spec = { ...mainsSyncSpec, filter: { kind: 'pi', tau1S: 1, tau2S: 0.01, naturalHz: 5, damping: 0.7 } };
     expect(fieldsOf(spec)).toContain('filter');
