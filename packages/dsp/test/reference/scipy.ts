@@ -1,25 +1,30 @@
 /// <reference types="node" />
 /**
- * Run the committed SciPy reference script (test/reference/scipy_reference.py) with Debian's
- * /usr/bin/python3 + python3-scipy (REFERENCES.md) on one JSON document. Fails — never skips — with a
- * clear message when Python or SciPy is missing.
+ * Run a committed SciPy reference script with Debian's /usr/bin/python3 + python3-scipy (REFERENCES.md)
+ * on one JSON document: the dsp tests' (reference/scipy_reference.py) and the audit's
+ * (audit/reference/audit_reference.py), which share reference/loop_formulas.py. Fails — never skips —
+ * with a clear message when Python or SciPy is missing.
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 
-const SCRIPT = fileURLToPath(new URL('./scipy_reference.py', import.meta.url));
 const PYTHON = '/usr/bin/python3';
 
-export function runScipyReference<T>(data: unknown): T {
-  const r = spawnSync(PYTHON, [SCRIPT], { input: JSON.stringify(data), encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
-  if (r.error) throw new Error(`SciPy reference: cannot run ${PYTHON} (${r.error.message}); install python3-scipy (Debian)`);
+/** Run `script` (a path) on `data`; NaN and ±Infinity in its answer become null. */
+export function runPythonReference<T>(label: string, script: string, data: unknown): T {
+  const r = spawnSync(PYTHON, [script], { input: JSON.stringify(data), encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
+  if (r.error) throw new Error(`${label}: cannot run ${PYTHON} (${r.error.message}); install python3-scipy (Debian)`);
   if (r.status !== 0) {
     const missing = /No module named '?(numpy|scipy)/.test(r.stderr);
     throw new Error(
       missing
-        ? `SciPy reference: python3-scipy is missing (apt-get install python3-scipy): ${r.stderr.trim()}`
-        : `SciPy reference script failed (exit ${r.status}): ${r.stderr.trim()}`,
+        ? `${label}: python3-scipy is missing (apt-get install python3-scipy): ${r.stderr.trim()}`
+        : `${label} script failed (exit ${r.status}): ${r.stderr.trim()}`,
     );
   }
-  return JSON.parse(r.stdout) as T;
+  return JSON.parse(r.stdout.replace(/\bNaN\b/g, 'null').replace(/-?Infinity\b/g, 'null')) as T;
+}
+
+export function runScipyReference<T>(data: unknown): T {
+  return runPythonReference('SciPy reference', fileURLToPath(new URL('./scipy_reference.py', import.meta.url)), data);
 }

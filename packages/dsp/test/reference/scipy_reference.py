@@ -13,21 +13,13 @@ conventions of DESIGN.md and scipy.signal:
   refined with brentq; the discrete search interval is closed at fs/2. No control library is packaged
   for Debian, hence the grid search (REFERENCES.md).
 """
-import json
-import sys
-
 import numpy as np
 from scipy import integrate, optimize, signal
 
+from loop_formulas import bilinear_constant, bracketed_root as root, filter_zpk, serve
+
 GRID_POINTS = 20000
 END_TOUCH_DEG = 1e-7
-
-
-def bilinear_constant(fs, prewarp_hz):
-    if prewarp_hz is None:
-        return 2.0 * fs
-    wp = 2 * np.pi * prewarp_hz
-    return wp / np.tan(wp / (2 * fs))
 
 
 def butter_case(case):
@@ -53,47 +45,6 @@ def bilinear_case(case):
     fs_eff = bilinear_constant(case["sampleRateHz"], case.get("prewarpHz")) / 2
     b, a = signal.bilinear(case["num"], case["den"], fs=fs_eff)
     return {"b": np.atleast_1d(b).tolist(), "a": np.atleast_1d(a).tolist()}
-
-
-def time_constants(kind, k, natural_hz, damping):
-    """Targets to time constants, G3 Ch. 2 / B6: PI tau1 = K/wn^2, tau2 = 2 zeta/wn; lag-lead
-    tau1 + tau2 = K/wn^2, tau2 = 2 zeta/wn - 1/K."""
-    wn = 2 * np.pi * natural_hz
-    if kind == "pi":
-        return {"tau1S": k / wn ** 2, "tau2S": 2 * damping / wn}
-    t2 = 2 * damping / wn - 1 / k
-    return {"tau1S": k / wn ** 2 - t2, "tau2S": t2}
-
-
-def analog_filter_zpk(f, ripple):
-    """F(s) of the loop filter (and ripple filter) as zeros, poles, gain."""
-    kind = f["kind"]
-    z, p, k = [], [], 1.0
-    if kind in ("lag-lead", "pi") and "naturalHz" in f:
-        f = dict(f, **time_constants(kind, f["kRadPerS"], f["naturalHz"], f["damping"]))
-    if kind == "single-pole":
-        tau = 1 / (2 * np.pi * f["cutoffHz"])
-        p, k = [-1 / tau], 1 / tau
-    elif kind == "lag-lead":
-        t1, t2 = f["tau1S"], f["tau2S"]
-        z, p, k = [-1 / t2], [-1 / (t1 + t2)], t2 / (t1 + t2)
-    elif kind == "pi":
-        t1, t2 = f["tau1S"], f["tau2S"]
-        z, p, k = [-1 / t2], [0.0], t2 / t1
-    elif kind == "butterworth":
-        z, p, k = signal.butter(f["order"], 2 * np.pi * f["cutoffHz"], analog=True, output="zpk")
-    if ripple is not None:
-        rz, rp, rk = signal.butter(ripple["order"], 2 * np.pi * ripple["cutoffHz"], analog=True, output="zpk")
-        z, p, k = np.concatenate([z, rz]), np.concatenate([p, rp]), k * rk
-    return np.asarray(z, dtype=complex), np.asarray(p, dtype=complex), float(k)
-
-
-def root(fun, a, b):
-    """brentq, or the better end of the bracket when rounding at an end point hides the sign change."""
-    fa, fb = fun(a), fun(b)
-    if fa == 0 or fb == 0 or (fa > 0) != (fb > 0):
-        return optimize.brentq(fun, a, b, xtol=1e-14)
-    return a if abs(fa) < abs(fb) else b
 
 
 def unwrap_from(h, loop_type):
@@ -206,7 +157,7 @@ def loop_step_errors(zd, pd, kd, k, fs, n):
 def loop_case(case):
     fs = case["sampleRateHz"]
     k = case["kRadPerS"]
-    z, p, kf = analog_filter_zpk(dict(case["filter"], kRadPerS=k), case.get("rippleFilter"))
+    z, p, kf, _ = filter_zpk(case["filter"], k, case.get("rippleFilter"))
     loop_type = 1 + int(np.sum(np.abs(p) == 0))
     fs_eff = bilinear_constant(fs, case.get("prewarpHz")) / 2
     zd, pd, kd = signal.bilinear_zpk(z, p, kf, fs_eff)
@@ -242,16 +193,6 @@ def loop_case(case):
     return out
 
 
-def main():
-    data = json.load(sys.stdin)
-    out = {
-        "scipyVersion": __import__("scipy").__version__,
-        "butter": [butter_case(c) for c in data.get("butter", [])],
-        "bilinear": [bilinear_case(c) for c in data.get("bilinear", [])],
-        "loops": [loop_case(c) for c in data.get("loops", [])],
-    }
-    json.dump(out, sys.stdout)
-
-
 if __name__ == "__main__":
-    main()
+    serve({"butter": butter_case, "bilinear": bilinear_case, "loops": loop_case},
+          {"scipyVersion": __import__("scipy").__version__})

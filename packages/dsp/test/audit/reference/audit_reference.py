@@ -15,8 +15,8 @@ built from DESIGN.md's conventions with numpy/scipy.signal (Debian python3-scipy
 * NCO tuning word with Python's exact integers / Fraction (TRG71), worked without floating point.
 """
 import decimal
-import json
 import math
+import os
 import sys
 import warnings
 from fractions import Fraction
@@ -24,14 +24,10 @@ from fractions import Fraction
 import numpy as np
 from scipy import integrate, optimize, signal
 
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "reference"))
+from loop_formulas import bilinear_constant as bilinear_c, bracketed_root as brent, filter_zpk as loop_filter_zpk, serve  # noqa: E402
+
 GRID = 40000
-
-
-def bilinear_c(fs, prewarp_hz):
-    if prewarp_hz is None:
-        return 2.0 * fs
-    wp = 2 * math.pi * prewarp_hz
-    return wp / math.tan(wp / (2 * fs))
 
 
 def loop_gain(spec):
@@ -40,43 +36,9 @@ def loop_gain(spec):
     return kd * ko
 
 
-def time_constants(kind, f, k):
-    if "tau1S" in f and f.get("tau1S") is not None:
-        return f["tau1S"], f["tau2S"]
-    wn = 2 * math.pi * f["naturalHz"]
-    z = f["damping"]
-    if kind == "pi":  # tau1 = K/wn^2, tau2 = 2 zeta/wn (G3 Ch. 2, B6)
-        return k / wn ** 2, 2 * z / wn
-    t2 = 2 * z / wn - 1 / k  # lag-lead: tau1+tau2 = K/wn^2, tau2 = 2 zeta/wn - 1/K
-    return k / wn ** 2 - t2, t2
-
-
 def filter_zpk(spec, k):
-    f = spec["filter"]
-    kind = f["kind"]
-    z, p, g = [], [], 1.0
-    taus = None
-    if kind == "single-pole":
-        tau = 1 / (2 * math.pi * f["cutoffHz"])
-        p, g = [-1 / tau], 1 / tau
-        taus = {"tau": tau}
-    elif kind == "lag-lead":
-        t1, t2 = time_constants(kind, f, k)
-        z, p, g = [-1 / t2], [-1 / (t1 + t2)], t2 / (t1 + t2)
-        taus = {"tau1": t1, "tau2": t2}
-    elif kind == "pi":
-        t1, t2 = time_constants(kind, f, k)
-        z, p, g = [-1 / t2], [0.0], t2 / t1
-        taus = {"tau1": t1, "tau2": t2}
-    else:
-        z, p, g = signal.butter(f["order"], 2 * math.pi * f["cutoffHz"], analog=True, output="zpk")
-        z, p = list(z), list(p)
-    loop_z, loop_p, loop_g = list(z), list(p), g
-    rf = spec.get("rippleFilter")
-    if rf:
-        z2, p2, g2 = signal.butter(rf["order"], 2 * math.pi * rf["cutoffHz"], analog=True, output="zpk")
-        z, p, g = list(z) + list(z2), list(p) + list(p2), g * g2
-    return np.array(z, dtype=complex), np.array(p, dtype=complex), float(np.real(g)), taus, (loop_z, loop_p, loop_g)
+    """F(s) of the spec's loop filter and ripple filter (loop_formulas.filter_zpk)."""
+    return loop_filter_zpk(spec["filter"], k, spec.get("rippleFilter"))
 
 
 def second_order(spec, k, taus):
@@ -129,24 +91,13 @@ class Loop:
 def open_loops(spec):
     k = loop_gain(spec)
     fs = spec["sampleRateHz"]
-    z, p, g, taus, loopf = filter_zpk(spec, k)
+    z, p, g, taus = filter_zpk(spec, k)
     c = bilinear_c(fs, spec["discretization"].get("prewarpHz"))
     zd, pd, gd = signal.bilinear_zpk(z, p, g, c / 2)
     analog = Loop(z, np.append(p, 0.0), k * g, False, fs)
     # L(z) = K T F(z) z^-1/(1 - z^-1) = K T F(z)/(z - 1)
     discrete = Loop(zd, np.append(pd, 1.0), k * gd / fs, True, fs)
     return k, (z, p, g), (zd, pd, gd), analog, discrete, taus, c
-
-
-def brent(fun, a, b):
-    fa, fb = fun(a), fun(b)
-    if fa == 0:
-        return a
-    if fb == 0:
-        return b
-    if np.sign(fa) == np.sign(fb):
-        return a if abs(fa) < abs(fb) else b
-    return optimize.brentq(fun, a, b, xtol=1e-15, rtol=1e-15, maxiter=500)
 
 
 def phase_near(loop, t, ref):
@@ -486,22 +437,16 @@ def bit_true_case(c):
     return {"rows": rows, "tuningWord": str(m), "table": table, "checksum": h}
 
 
-def main():
-    doc = json.load(sys.stdin)
-    res = {
-        "cases": [case(s) for s in doc.get("cases", [])],
-        "nco": [nco_case(c) for c in doc.get("nco", [])],
-        "bilinear": [bilinear_only(c) for c in doc.get("bilinear", [])],
-        "openLoop": [open_loop_points(c) for c in doc.get("openLoop", [])],
-        "rounding": [rounding_case(c) for c in doc.get("rounding", [])],
-        "bode": [bode_case(c) for c in doc.get("bode", [])],
-        "sectionLoops": [section_loop_case(c) for c in doc.get("sectionLoops", [])],
-        "steps": [step_case(c) for c in doc.get("steps", [])],
-        "butterDigital": [butter_digital(c) for c in doc.get("butterDigital", [])],
-        "bitTrue": [bit_true_case(c) for c in doc.get("bitTrue", [])],
-    }
-    json.dump(res, sys.stdout, allow_nan=True)
-
-
 if __name__ == "__main__":
-    main()
+    serve({
+        "cases": case,
+        "nco": nco_case,
+        "bilinear": bilinear_only,
+        "openLoop": open_loop_points,
+        "rounding": rounding_case,
+        "bode": bode_case,
+        "sectionLoops": section_loop_case,
+        "steps": step_case,
+        "butterDigital": butter_digital,
+        "bitTrue": bit_true_case,
+    })
