@@ -109,7 +109,7 @@ function deepFreeze<T>(value: T): T {
 }
 
 /** The loop a simulation of the plan runs (its sections and its bit-true constants). */
-export function loopOf(plan: DesignPlan): SimLoop {
+function loopOf(plan: DesignPlan): SimLoop {
   return { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
 }
 

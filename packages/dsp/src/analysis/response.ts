@@ -7,6 +7,7 @@
 import type { AnalogTf, DigitalTf, Sos } from '../types/filter.ts';
 import { type Complex, cdiv, cexpj, cmul, cscale } from '../filters/complex.ts';
 import { polyvalAscending } from '../filters/polynomial.ts';
+import { sectionOnUnitCircle, unitCirclePoint, type SectionValue } from '../filters/sections.ts';
 
 /** A digital filter in either representation. */
 export type DigitalFilter = DigitalTf | readonly Sos[];
@@ -14,37 +15,53 @@ export type DigitalFilter = DigitalTf | readonly Sos[];
 /** Complex response as a function of frequency in Hz. */
 export type ResponseFn = (freqHz: number) => Complex;
 
+/** Scratch of one section's value, reused by every evaluation below (single-threaded, never re-entered). */
+const SECTION: SectionValue = { nr: 0, ni: 0, dr: 1, di: 0 };
+
+/** h ← h·N/D for the section value v: the complex product both responses reduce to. */
+function multiplyQuotient(h: { re: number; im: number }, v: SectionValue): void {
+  const d = v.dr * v.dr + v.di * v.di;
+  const qr = (v.nr * v.dr + v.ni * v.di) / d;
+  const qi = (v.ni * v.dr - v.nr * v.di) / d;
+  const r = h.re * qr - h.im * qi;
+  h.im = h.re * qi + h.im * qr;
+  h.re = r;
+}
+
+/** N(jω) and D(jω) of one analog section, by Horner's rule in jω (coefficients highest power first). */
+function analogSectionAt(tf: AnalogTf, w: number, out: SectionValue): void {
+  let nr = 0;
+  let ni = 0;
+  for (const c of tf.num) {
+    const t = -ni * w + c; // (nr + j·ni)·(jω) + c
+    ni = nr * w;
+    nr = t;
+  }
+  let dr = 0;
+  let di = 0;
+  for (const c of tf.den) {
+    const t = -di * w + c;
+    di = dr * w;
+    dr = t;
+  }
+  out.nr = nr;
+  out.ni = ni;
+  out.dr = dr;
+  out.di = di;
+}
+
 /**
- * F(jω) of analog sections (or one transfer function) at freqHz. Written with scalar locals: this is
- * the innermost loop of every grid and root search, and object allocation would dominate it.
+ * F(jω) of analog sections (or one transfer function) at freqHz. Scalars and one reused scratch: this
+ * is the innermost loop of every grid and root search, and object allocation would dominate it.
  */
 export function analogResponse(sections: readonly AnalogTf[], freqHz: number): Complex {
   const w = 2 * Math.PI * freqHz;
-  let hr = 1;
-  let hi = 0;
+  const h = { re: 1, im: 0 };
   for (const tf of sections) {
-    let nr = 0;
-    let ni = 0;
-    for (const c of tf.num) {
-      const t = -ni * w + c; // (nr + j·ni)·(jω) + c
-      ni = nr * w;
-      nr = t;
-    }
-    let dr = 0;
-    let di = 0;
-    for (const c of tf.den) {
-      const t = -di * w + c;
-      di = dr * w;
-      dr = t;
-    }
-    const d = dr * dr + di * di;
-    const qr = (nr * dr + ni * di) / d;
-    const qi = (ni * dr - nr * di) / d;
-    const r = hr * qr - hi * qi;
-    hi = hr * qi + hi * qr;
-    hr = r;
+    analogSectionAt(tf, w, SECTION);
+    multiplyQuotient(h, SECTION);
   }
-  return { re: hr, im: hi };
+  return h;
 }
 
 /** H(e^{jωT}) of a digital filter at freqHz for the sample rate fs. */
@@ -54,26 +71,13 @@ export function digitalResponse(filter: DigitalFilter, freqHz: number, sampleRat
     const w = cexpj(-omega); // z⁻¹ on the unit circle
     return cdiv(polyvalAscending(filter.b, w), polyvalAscending(filter.a, w));
   }
-  const c1 = Math.cos(omega);
-  const s1 = Math.sin(omega);
-  const c2 = Math.cos(2 * omega);
-  const s2 = Math.sin(2 * omega);
-  let hr = 1;
-  let hi = 0;
-  for (const { b, a } of filter) {
-    // P(e^{−jω}) = p0 + p1·e^{−jω} + p2·e^{−j2ω}
-    const nr = b[0] + b[1] * c1 + b[2] * c2;
-    const ni = -(b[1] * s1 + b[2] * s2);
-    const dr = a[0] + a[1] * c1 + a[2] * c2;
-    const di = -(a[1] * s1 + a[2] * s2);
-    const d = dr * dr + di * di;
-    const qr = (nr * dr + ni * di) / d;
-    const qi = (ni * dr - nr * di) / d;
-    const r = hr * qr - hi * qi;
-    hi = hr * qi + hi * qr;
-    hr = r;
+  const p = unitCirclePoint(omega);
+  const h = { re: 1, im: 0 };
+  for (const s of filter) {
+    sectionOnUnitCircle(s, p, SECTION);
+    multiplyQuotient(h, SECTION);
   }
-  return { re: hr, im: hi };
+  return h;
 }
 
 export function isSections(filter: DigitalFilter): filter is readonly Sos[] {

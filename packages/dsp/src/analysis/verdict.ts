@@ -19,12 +19,12 @@ export interface AnalysisVerdict {
 }
 
 /** The phase-margin requirement: a margin exists and is at least minPm (common practice, no source). */
-export function phaseMarginMet(m: LoopMargins, minPm: number): boolean {
+function phaseMarginMet(m: LoopMargins, minPm: number): boolean {
   return m.phaseMarginDeg !== null && m.phaseMarginDeg >= minPm;
 }
 
 /** The gain-margin requirement: at least minGm, or no gain margin at all (the phase never reaches −180°). */
-export function gainMarginMet(m: LoopMargins, minGm: number): boolean {
+function gainMarginMet(m: LoopMargins, minGm: number): boolean {
   return m.gainMarginDb === null || m.gainMarginDb >= minGm;
 }
 

@@ -29,7 +29,7 @@ export const DEVIATION_BAND_DB = 40;
  * more fraction bits than the word has bits (say 18 bits, 30 fraction bits); 62 keeps 2^F a normal
  * double and every shift by F within the bit-true loop's 64-bit reference (bench/loop.c).
  */
-export const AUTO_MAX_FRACTION_BITS = 62;
+const AUTO_MAX_FRACTION_BITS = 62;
 
 function coefficientValues(s: Sos): number[] {
   return [s.b[0], s.b[1], s.b[2], s.a[1], s.a[2]];

@@ -1,26 +1,22 @@
 /** Magnitude response of a cascade of second-order sections on the unit circle (OS3 Ch. 5, memory). */
 import type { Sos } from '../types/filter.ts';
+import { sectionOnUnitCircle, unitCirclePoint, type SectionValue } from '../filters/sections.ts';
 
-/** |H(e^jω)|² of the cascade at normalised angular frequency ω (rad/sample). */
+const SECTION: SectionValue = { nr: 0, ni: 0, dr: 1, di: 0 };
+
+/** |H(e^jω)|² of the cascade at normalised angular frequency ω (rad/sample): the product of |N|²/|D|². */
 export function sosMagnitudeSquared(sections: readonly Sos[], omega: number): number {
-  const c1 = Math.cos(omega);
-  const s1 = Math.sin(omega);
-  const c2 = Math.cos(2 * omega);
-  const s2 = Math.sin(2 * omega);
+  const p = unitCirclePoint(omega);
   let mag2 = 1;
-  for (const { b, a } of sections) {
-    // P(e^−jω) = p0 + p1·e^−jω + p2·e^−j2ω
-    const bRe = b[0] + b[1] * c1 + b[2] * c2;
-    const bIm = -(b[1] * s1 + b[2] * s2);
-    const aRe = a[0] + a[1] * c1 + a[2] * c2;
-    const aIm = -(a[1] * s1 + a[2] * s2);
-    mag2 *= (bRe * bRe + bIm * bIm) / (aRe * aRe + aIm * aIm);
+  for (const s of sections) {
+    sectionOnUnitCircle(s, p, SECTION);
+    mag2 *= (SECTION.nr * SECTION.nr + SECTION.ni * SECTION.ni) / (SECTION.dr * SECTION.dr + SECTION.di * SECTION.di);
   }
   return mag2;
 }
 
 /** Log-spaced normalised frequencies ω from 1e-6·π to π (fs/2), `points` of them. */
-export function logOmegaGrid(points: number): Float64Array {
+function logOmegaGrid(points: number): Float64Array {
   const grid = new Float64Array(points);
   for (let k = 0; k < points; k++) grid[k] = Math.PI * 10 ** (-6 + (6 * k) / (points - 1));
   return grid;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Sos } from '../../src/types/filter.ts';
 import { sosMagnitudeSquared, maxResponseDeviationDb } from '../../src/fixed/sosResponse.ts';
+import { digitalResponse } from '../../src/analysis/response.ts';
 import { python } from './python.ts';
 
 describe('section cascade response', () => {
@@ -22,5 +23,19 @@ out = {'sos': sos.tolist(), 'w': w.tolist(), 'h2': (np.abs(h)**2).tolist()}`,
     const s: Sos = { b: [0.2, 0.4, 0.2], a: [1, -0.5, 0.3] };
     const scaled: Sos = { b: [0.202, 0.404, 0.202], a: s.a };
     expect(maxResponseDeviationDb([s], [scaled], 40)).toBeCloseTo(20 * Math.log10(1.01), 9);
+  });
+
+  it('gives the squared magnitude of the complex response the analysis computes (one evaluation, two reductions)', () => {
+    // An equivalence of the same cascade stated two ways: Π|N|²/|D|² = |Π N/D|² (common practice, no source).
+    const sections: Sos[] = [
+      { b: [0.2, 0.4, 0.2], a: [1, -0.5, 0.3] },
+      { b: [1, -1.9, 0.95], a: [1, -1.98, 0.981] },
+    ];
+    const fs = 48e3;
+    for (const f of [1, 10, 100, 1e3, 5e3, 2e4, 2.3e4]) {
+      const h = digitalResponse(sections, f, fs);
+      const mag2 = sosMagnitudeSquared(sections, (2 * Math.PI * f) / fs);
+      expect(Math.abs(mag2 / (h.re * h.re + h.im * h.im) - 1)).toBeLessThan(1e-12);
+    }
   });
 });
