@@ -34,7 +34,10 @@ describe('analysis verdict', () => {
     const r = analyzeDesign(spec);
     expect(r.stability.discreteStable).toBe(true);
     expect(r.verdict.stable).toBe(false);
-    expect(r.verdict.reasons.join(' ')).toMatch(/quantised|quantisation/);
+    // The quantiser succeeded (no format error): it is the loop it made that is unstable.
+    expect(r.quantization.error).toBeNull();
+    expect(r.verdict.reasons).toContain('the loop with quantised coefficients is unstable');
+    expect(r.verdict.reasons.some((m) => m.startsWith('quantisation failed'))).toBe(false);
   });
 });
 
