@@ -163,6 +163,19 @@ export class ReleaseService {
     });
   }
 
+  /** Projects as `user` may see them: for firmware, each counts only the designs with an approved release. */
+  async projectsForUser<P extends { id: number; designCount: number }>(organizationId: number, projects: readonly P[], user: Pick<SessionUser, 'roles'>): Promise<P[]> {
+    if (seesAllStates(user)) return [...projects];
+    const approved = await listReleases(this.dataSource.manager, organizationId, { states: FIRMWARE_VISIBLE_STATES });
+    const designs = new Map<number, Set<number>>();
+    for (const r of approved) {
+      const set = designs.get(Number(r.projectId)) ?? new Set<number>();
+      set.add(Number(r.designId));
+      designs.set(Number(r.projectId), set);
+    }
+    return projects.map((p) => ({ ...p, designCount: designs.get(p.id)?.size ?? 0 }));
+  }
+
   async listForDesign(organizationId: number, designId: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseSummary[]> {
     await this.designForUser(organizationId, designId, user);
     const rows = await listReleases(this.dataSource.manager, organizationId, { designId, ...(seesAllStates(user) ? {} : { states: FIRMWARE_VISIBLE_STATES }) });

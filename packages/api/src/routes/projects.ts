@@ -15,9 +15,11 @@ export const projectRoutes = [
     method: 'get',
     path: '/projects',
     access: 'signed-in',
-    summary: 'list projects (?archived=false|true|all, default false)',
+    summary: 'list projects (?archived=false|true|all, default false; firmware: designCount counts designs with an approved release)',
     query: projectListQuerySchema,
-    handler: async ({ services, user, query }): Promise<ProjectListResponse> => ({ projects: await services.projects.list(user.organizationId, query) }),
+    handler: async ({ services, user, query }): Promise<ProjectListResponse> => ({
+      projects: await services.handoff.releases.projectsForUser(user.organizationId, await services.projects.list(user.organizationId, query), user),
+    }),
   }),
   route({
     method: 'post',
@@ -34,7 +36,10 @@ export const projectRoutes = [
     access: 'signed-in',
     summary: 'read a project',
     params: idParamsSchema,
-    handler: ({ services, user, params }): Promise<ProjectRecord> => services.projects.get(user.organizationId, params.id),
+    handler: async ({ services, user, params }): Promise<ProjectRecord> => {
+      const [project] = await services.handoff.releases.projectsForUser(user.organizationId, [await services.projects.get(user.organizationId, params.id)], user);
+      return project!;
+    },
   }),
   route({
     method: 'patch',

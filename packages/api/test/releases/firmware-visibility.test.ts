@@ -69,6 +69,13 @@ describe('a firmware-only account', () => {
     expect(list.body.designs[0].revision).toBe(approved.designRevision);
   });
 
+  it('counts only the designs it can see in a project', async () => {
+    expect((await firmware.get(`/api/projects/${projectId}`).expect(200)).body.designCount).toBe(1);
+    const listed = (await firmware.get('/api/projects').expect(200)).body.projects.find((p: { id: number }) => p.id === projectId);
+    expect(listed.designCount).toBe(1);
+    expect((await h.designer.get(`/api/projects/${projectId}`).expect(200)).body.designCount).toBe(2);
+  });
+
   it('gets 404 for the release in review on every release route', async () => {
     for (const path of ['', '/files/manifest.json', '/bundle', '/reviews', '/conformance', `/diff?against=${approved.id}`]) {
       await firmware.get(`/api/releases/${inReviewId}${path}`).expect(404);
