@@ -4,16 +4,14 @@
  * approved, exactly once, and firmware is told exactly once. The decisions go through a listening
  * HTTP server at once (fetch), many trials for 2, 3 and 5 reviewers.
  */
-import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { csrf, PASSWORD, signedInAgent } from '../helpers.ts';
-import { designFromTemplate, linkToken, startHandoff, type Handoff } from './handoff.ts';
+import { designFromTemplate, linkToken, startHandoff, type Handoff, listening } from './handoff.ts';
 
 const TRIALS_PER_SIZE = 6;
 
 let h: Handoff;
-let server: Server;
+let server: Awaited<ReturnType<typeof listening>>;
 let base: string;
 let designId: number;
 const reviewers: { id: number; email: string }[] = [];
@@ -27,13 +25,12 @@ beforeAll(async () => {
     reviewers.push({ id: res.body.id, email });
   }
   designId = await designFromTemplate(h.designer, 'ultrasonic-single-pole');
-  server = createServer(h.built.app);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  server = await listening(h.built.app);
+  base = server.base;
 });
 
 afterAll(async () => {
-  await new Promise<void>((resolve) => server.close(() => resolve()));
+  await server.close();
   await h.close();
 });
 

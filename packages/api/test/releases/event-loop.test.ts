@@ -6,13 +6,11 @@
  * loop for seconds. The target is an answer within 100 ms: the median answer is held to it, the
  * slowest only to HEALTH_BOUND_MS.
  */
-import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { mainsSyncSpec } from '@loopwright/dsp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { csrf, PASSWORD, signedInAgent, type Agent } from '../helpers.ts';
 import { releaseFixtures, type ReleaseFixtures } from './fixtures.ts';
-import { designFromTemplate, startHandoff, type Handoff } from './handoff.ts';
+import { designFromTemplate, startHandoff, type Handoff, listening } from './handoff.ts';
 
 /** Loose: a blocked event loop held health for 3 s and more; a busy shared machine answers within this. */
 const HEALTH_BOUND_MS = 1500;
@@ -20,7 +18,7 @@ const HEALTH_BOUND_MS = 1500;
 let h: Handoff;
 let fixtures: ReleaseFixtures;
 let firmware: Agent;
-let server: Server;
+let server: Awaited<ReturnType<typeof listening>>;
 let base: string;
 let mainsDesignId: number;
 
@@ -29,13 +27,12 @@ beforeAll(async () => {
   mainsDesignId = await designFromTemplate(h.designer, 'mains-sync');
   fixtures = await releaseFixtures(h.built, h.org, mainsDesignId);
   firmware = await signedInAgent(h.built.app, h.org.emails.firmware);
-  server = createServer(h.built.app);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  server = await listening(h.built.app);
+  base = server.base;
 });
 
 afterAll(async () => {
-  await new Promise<void>((resolve) => server.close(() => resolve()));
+  await server.close();
   await h.close();
 });
 

@@ -12,16 +12,9 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../src/render/caution.ts';
 import { csrf, signedInAgent, type Agent } from '../helpers.ts';
-import { designFromTemplate, linkToken, startHandoff, type Handoff } from './handoff.ts';
+import { binary, designFromTemplate, linkToken, startHandoff, type Handoff } from './handoff.ts';
 
 const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest('hex');
-
-/** supertest buffers binary bodies with this parser. */
-function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => void): void {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}
 
 let h: Handoff;
 let firmware: Agent;

@@ -1,4 +1,7 @@
 /** Shared set-up of the hand-off tests: an app whose mail goes to an in-process SMTP fake. */
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import type request from 'supertest';
 import type { DataSource } from 'typeorm';
 import type { BuiltApp } from '../../src/app.ts';
 import { buildApp, createTestOrg, csrf, openDataSource, signedInAgent, type Agent, type TestOrg } from '../helpers.ts';
@@ -49,4 +52,21 @@ export function linkToken(text: string): string {
   const m = new RegExp(`${PUBLIC_URL.replace(/[.]/g, '\\.')}/review/([A-Za-z0-9_.-]+)`).exec(text);
   if (!m?.[1]) throw new Error(`no review link in: ${text}`);
   return m[1];
+}
+
+/** The app on a loopback port of its own, for requests that must truly run at the same moment (fetch). */
+export async function listening(app: BuiltApp['app']): Promise<{ base: string; close(): Promise<void> }> {
+  const server = createServer(app);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  return {
+    base: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
+    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
+  };
+}
+
+/** supertest's parser for binary bodies: the bytes as one Buffer. */
+export function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => void): void {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
 }

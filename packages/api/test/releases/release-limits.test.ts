@@ -11,15 +11,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkArtifactSize, MAX_ARTIFACT_BYTES } from '../../src/render/artifactFile.ts';
 import { RenderInputError } from '../../src/render/compute.ts';
 import { csrf } from '../helpers.ts';
-import { startHandoff, type Handoff } from './handoff.ts';
+import { binary, startHandoff, type Handoff } from './handoff.ts';
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
-
-function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => void): void {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}
 
 let h: Handoff;
 let projectId: number;
