@@ -7,11 +7,14 @@
  * - A review decision half-made when its process dies (the link already marked used and the release
  *   approved inside the open transaction) leaves the link unused: after the restart it decides once,
  *   and only once, whichever process serves it.
+ * - nginx itself killed: its worker, which outlives a SIGKILLed master and holds the port, is ended
+ *   and the balancer started again.
  */
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { afterProcess, api, apiSignIn, type ApiAnswer } from '../e2e/harness/api.ts';
 import { ROOT } from '../e2e/harness/paths.ts';
+import { childrenOf } from '../e2e/harness/server.ts';
 import { startStack, type Stack } from '../e2e/harness/stack.ts';
 import { connect, waitForStatement } from './harness/sql.ts';
 import { backendPorts, designIdOf, gone } from './harness/probes.ts';
@@ -161,5 +164,26 @@ describe('an API process killed', () => {
     await new Promise((resolve) => setTimeout(resolve, 2_000));
     expect(stack.mail.messages.filter((m) => m.subject === 'Release approved: flow_carrier_40k v1')).toHaveLength(1);
     await look.close();
+  });
+
+  it('the balancer itself killed (SIGKILL): the supervisor ends its orphaned worker, starts nginx again, and both processes serve', async () => {
+    const master = (await stack.server.balancerPid())!;
+    expect(master).toBeGreaterThan(0);
+    const [worker] = await childrenOf(master);
+    expect(worker).toBeGreaterThan(0);
+    process.kill(master, 'SIGKILL');
+    await gone(master);
+    await expect.poll(async () => stack.server.output().includes('nginx is back'), { timeout: 30_000, interval: 100 }).toBe(true);
+    // The old worker held the public port; it is gone, and a new master with its own worker serves.
+    await gone(worker!);
+    const again = (await stack.server.balancerPid())!;
+    expect(again).not.toBe(master);
+    const served = new Set<string | null>();
+    for (let i = 0; i < 6; i += 1) {
+      const health = await api(stack.baseUrl, '/api/health');
+      expect(health.status).toBe(200);
+      served.add(health.process);
+    }
+    expect([...served].sort()).toEqual(['api-1', 'api-2']);
   });
 });

@@ -23,6 +23,8 @@ export interface ServerProcess {
   output(): string;
   /** The serving processes the supervisor runs now, by name. */
   processes(): Promise<ServedProcess[]>;
+  /** The balancer's master process (nginx), when the server runs one. */
+  balancerPid(): Promise<number | undefined>;
   /** Resolves once the supervisor runs process `name` under a pid other than `oldPid`. */
   waitForRestart(name: string, oldPid: number, timeoutMs?: number): Promise<ServedProcess>;
   /** SIGTERM and wait for the whole process group to end (SIGKILL after a grace period). */
@@ -40,12 +42,26 @@ async function processNameOf(pid: number): Promise<string | undefined> {
   return environ.split('\0').find((entry) => entry.startsWith('LW_PROCESS_NAME='))?.slice('LW_PROCESS_NAME='.length);
 }
 
+/** Running processes whose parent is `pid` (proc(5): field 4 of /proc/<pid>/stat). */
+export async function childrenOf(pid: number): Promise<number[]> {
+  const found: number[] = [];
+  for (const entry of await fs.readdir('/proc')) {
+    if (/^\d+$/.test(entry) && (await parentOf(Number(entry))) === pid) found.push(Number(entry));
+  }
+  return found;
+}
+
+async function balancerOf(supervisorPid: number): Promise<number | undefined> {
+  for (const pid of await childrenOf(supervisorPid)) {
+    const cmdline = await fs.readFile(`/proc/${pid}/cmdline`, 'utf8').catch(() => '');
+    if (/^(nginx: master|\S*\/nginx\0)/.test(cmdline)) return pid;
+  }
+  return undefined;
+}
+
 async function servedProcesses(supervisorPid: number): Promise<ServedProcess[]> {
   const found: ServedProcess[] = [];
-  for (const entry of await fs.readdir('/proc')) {
-    if (!/^\d+$/.test(entry)) continue;
-    const pid = Number(entry);
-    if ((await parentOf(pid)) !== supervisorPid) continue;
+  for (const pid of await childrenOf(supervisorPid)) {
     const name = await processNameOf(pid);
     if (name) found.push({ name, pid });
   }
@@ -110,6 +126,7 @@ export async function startServer(env: Record<string, string>, options: { expect
     pid,
     output: () => output,
     processes: () => servedProcesses(pid),
+    balancerPid: () => balancerOf(pid),
     async waitForRestart(name, oldPid, timeoutMs = 120_000) {
       const deadline = Date.now() + timeoutMs;
       for (;;) {

@@ -91,6 +91,34 @@ export function nginxConfig(plan: BalancerPlan): string {
   ].join('\n');
 }
 
+/** Processes whose parent is `pid` (Linux /proc, proc(5): field 4 of /proc/<pid>/stat). */
+async function childPids(pid: number): Promise<number[]> {
+  const found: number[] = [];
+  for (const entry of await fs.readdir('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    const stat = await fs.readFile(`/proc/${entry}/stat`, 'utf8').catch(() => '');
+    if (stat && Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]) === pid) found.push(Number(entry));
+  }
+  return found;
+}
+
+/**
+ * A worker outlives a master killed with SIGKILL and keeps the listening socket, so the next master
+ * could not bind; end it first. The command line is checked so a reused pid is never hit.
+ */
+async function endOrphanedWorkers(pids: readonly number[]): Promise<void> {
+  for (const pid of pids) {
+    const cmdline = await fs.readFile(`/proc/${pid}/cmdline`, 'utf8').catch(() => '');
+    if (!cmdline.startsWith('nginx: worker process')) continue;
+    try {
+      process.kill(pid, 'SIGKILL');
+    } catch {
+      // gone meanwhile
+    }
+    for (let i = 0; i < 50 && (await fs.readFile(`/proc/${pid}/cmdline`, 'utf8').catch(() => '')) !== ''; i += 1) await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
 async function pidFileNames(pidFile: string, pid: number | undefined): Promise<boolean> {
   try {
     return Number((await fs.readFile(pidFile, 'utf8')).trim()) === pid;
@@ -106,15 +134,21 @@ export async function nginxSlot(plan: BalancerPlan, readyTimeoutMs: number): Pro
   const configFile = path.join(plan.dir, 'nginx.conf');
   const pidFile = path.join(plan.dir, 'nginx.pid');
   await fs.writeFile(configFile, nginxConfig(plan));
+  let workers: number[] = [];
   return {
     name: 'nginx',
     // SIGQUIT: finish the requests in flight, then stop (nginx's graceful shutdown).
     stopSignal: 'SIGQUIT',
-    start(): ChildProcess {
+    async start(): Promise<ChildProcess> {
+      await endOrphanedWorkers(workers);
+      workers = [];
       // -e: the error log before the configuration is read (the compiled-in default is the system's).
       return spawn(binary, ['-p', plan.dir, '-c', configFile, '-e', path.join(plan.dir, 'error.log')], { stdio: ['ignore', 'inherit', 'inherit'] });
     },
-    // nginx writes its pid file only after it has bound the listening socket.
-    ready: (child) => pollUntil(child, `nginx listened on ${plan.host}:${plan.port}`, readyTimeoutMs, () => pidFileNames(pidFile, child.pid)),
+    // nginx writes its pid file only after it has bound the listening socket; its worker is forked then.
+    ready: async (child) => {
+      await pollUntil(child, `nginx listened on ${plan.host}:${plan.port}`, readyTimeoutMs, () => pidFileNames(pidFile, child.pid));
+      await pollUntil(child, 'nginx started its worker', readyTimeoutMs, async () => (workers = await childPids(child.pid!)).length > 0);
+    },
   };
 }

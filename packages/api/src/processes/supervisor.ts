@@ -12,7 +12,7 @@ export interface SlotSpec {
   /** Shown in logs and given to the process (`api-1`, `nginx`). */
   readonly name: string;
   /** Starts the process (again). */
-  start(): ChildProcess;
+  start(): ChildProcess | Promise<ChildProcess>;
   /** Resolves once the process serves; rejects if it cannot (it exited, or took too long). */
   ready(child: ChildProcess): Promise<void>;
   readonly stopSignal?: NodeJS.Signals;
@@ -67,7 +67,7 @@ export class Supervisor {
     let lastError = '';
     for (let attempt = 1; attempt <= START_ATTEMPTS; attempt += 1) {
       if (this.stopping) throw new Error(`${spec.name}: not started, the server is stopping`);
-      const child = spec.start();
+      const child = await spec.start();
       try {
         await spec.ready(child);
         return child;
