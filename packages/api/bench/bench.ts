@@ -1,6 +1,7 @@
 /**
- * API benchmark (not a timed test): authenticated reads of the project list at 50 concurrent
- * connections against a real MariaDB, and the same while simulations run in the worker pool.
+ * API benchmark (not a timed test): authenticated reads of the project list and downloads of a
+ * release file at 50 concurrent connections against a real MariaDB, by one API process, the same
+ * while simulations run in the worker pool, and by two processes behind Debian's nginx.
  * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-api, seeds the demo scenario, runs
  * the real server (src/server.ts) as a child process on a free loopback port — as it runs in
  * production, and so the load generator does not share its event loop — and drives it with autocannon
@@ -26,6 +27,68 @@ const DURATION_S = 10;
 /** The issue's targets on 2 cores. */
 const TARGET_REQ_PER_S = 1000;
 const TARGET_P99_MS = 50;
+/** Issue 13: the project list and a release download, two processes behind the balancer, no errors. */
+const BALANCER_TARGET_REQ_PER_S = 1500;
+
+interface Layout {
+  readonly processes: number;
+  readonly balancer: 'none' | 'nginx';
+}
+
+interface Measured {
+  readonly result: autocannon.Result;
+  /** CPU per request of the server's process tree (API processes, nginx) and of MariaDB, in µs. */
+  readonly serverCpuUs: number | null;
+  readonly mariadbCpuUs: number | null;
+}
+
+/** One autocannon run, with the CPU the server and MariaDB spent on it. */
+async function measured(options: autocannon.Options, serverPid: number | undefined, dbPid: number | null): Promise<Measured> {
+  const server0 = serverPid ? await processTreeCpuUs(serverPid) : null;
+  const db0 = dbPid ? await cpuTimeUs(dbPid) : null;
+  const result = await run(options);
+  const server1 = serverPid ? await processTreeCpuUs(serverPid) : null;
+  const db1 = dbPid ? await cpuTimeUs(dbPid) : null;
+  const per = (a: number | null, b: number | null) => (a === null || b === null || result.requests.total === 0 ? null : Math.round((b - a) / result.requests.total));
+  return { result, serverCpuUs: per(server0, server1), mariadbCpuUs: per(db0, db1) };
+}
+
+/**
+ * The figures of a run, and what the CPU it cost says two idle cores would carry (server and MariaDB
+ * only; the load generator shares the cores in the run): the throughput itself moves with whatever
+ * else the shared machine is doing, the CPU per request much less.
+ */
+function figures(m: Measured, cores: number) {
+  const r = m.result;
+  const cpu = m.serverCpuUs !== null && m.mariadbCpuUs !== null ? m.serverCpuUs + m.mariadbCpuUs : null;
+  return {
+    reqPerS: Math.round(r.requests.average),
+    p50Ms: r.latency.p50,
+    p99Ms: r.latency.p99,
+    non2xx: r.non2xx,
+    errors: r.errors,
+    serverCpuUsPerRequest: m.serverCpuUs,
+    mariadbCpuUsPerRequest: m.mariadbCpuUs,
+    idleCoresReqPerSEstimate: cpu ? Math.round((cores * 1e6) / cpu) : null,
+  };
+}
+
+/** Cuts v1 of the demo mains-sync design through the API and returns the path of its C header. */
+async function releaseDownloadPath(baseUrl: string, cookie: string): Promise<string> {
+  const call = async <T>(pathname: string, method = 'GET'): Promise<T> => {
+    const response = await fetch(`${baseUrl}${pathname}`, { method, headers: { Cookie: cookie, [CSRF_HEADER]: CSRF_HEADER_VALUE } });
+    if (!response.ok) throw new Error(`${method} ${pathname} for the benchmark answered ${response.status}`);
+    return (await response.json()) as T;
+  };
+  const { projects } = await call<{ projects: { id: number; name: string }[] }>('/api/projects');
+  const project = projects.find((p) => p.name === 'Inverter mains sync');
+  if (!project) throw new Error('the demo project "Inverter mains sync" is missing');
+  const { designs } = await call<{ designs: { id: number }[] }>(`/api/projects/${project.id}/designs`);
+  const release = await call<{ id: number; files: { name: string }[] }>(`/api/designs/${designs[0]!.id}/releases`, 'POST');
+  const header = release.files.find((f) => f.name.endsWith('.h'));
+  if (!header) throw new Error('the release has no C header');
+  return `/api/releases/${release.id}/files/${header.name}`;
+}
 
 function run(options: autocannon.Options): Promise<autocannon.Result> {
   return new Promise((resolve, reject) => {
@@ -60,21 +123,22 @@ async function cpuTimeUs(pid: number): Promise<number | null> {
   }
 }
 
-/** CPU of the server and its forked serving processes (src/server.ts supervises, children serve). */
+/** CPU of the server and every process under it (serving processes, nginx and its worker). */
 async function processTreeCpuUs(rootPid: number): Promise<number | null> {
-  const pids = [rootPid];
+  const parents = new Map<number, number>();
   for (const entry of await fs.readdir('/proc')) {
     if (!/^\d+$/.test(entry)) continue;
     try {
       const stat = await fs.readFile(`/proc/${entry}/stat`, 'utf8');
-      const parentPid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
-      if (parentPid === rootPid) pids.push(Number(entry));
+      parents.set(Number(entry), Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]));
     } catch {
       // the process ended while we looked
     }
   }
+  const tree = [rootPid];
+  for (let i = 0; i < tree.length; i += 1) for (const [pid, parent] of parents) if (parent === tree[i]) tree.push(pid);
   let total = 0;
-  for (const pid of pids) {
+  for (const pid of tree) {
     const cpu = await cpuTimeUs(pid);
     if (cpu === null) return null;
     total += cpu;
@@ -137,10 +201,10 @@ export async function runApiBench(): Promise<object> {
     await runMigrations(dataSource);
     await seedDemo(dataSource, config.bcryptRounds);
     await dataSource.destroy();
-    const startServer = async (processes: number): Promise<{ server: ChildProcess; baseUrl: string; headers: { Cookie: string } }> => {
+    const startServer = async (layout: Layout): Promise<{ server: ChildProcess; baseUrl: string; headers: { Cookie: string } }> => {
       const child = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
         cwd: API_DIR,
-        env: { ...process.env, ...env, LW_API_PROCESSES: String(processes) },
+        env: { ...process.env, ...env, LW_API_PROCESSES: String(layout.processes), LW_BALANCER: layout.balancer, LW_DATA_DIR: path.join(dataDir, 'server') },
         stdio: ['ignore', 'ignore', 'inherit'],
       });
       server = child;
@@ -152,9 +216,11 @@ export async function runApiBench(): Promise<object> {
       return { server: child, baseUrl, headers };
     };
 
-    const single = await startServer(1);
+    const single = await startServer({ processes: 1, balancer: 'none' });
     const { baseUrl, headers } = single;
     const cookie = headers.Cookie;
+    // A release to download: the C header of the mains-sync loop's v1, as firmware fetches it.
+    const download = await releaseDownloadPath(baseUrl, cookie);
     // Other work on the machine skews the figures; report how busy it was.
     const loadAverage1m = os.loadavg()[0];
     const dbPid = await mariaDbPid(dataDir);
@@ -164,6 +230,7 @@ export async function runApiBench(): Promise<object> {
     const serverCpu1 = single.server.pid ? await processTreeCpuUs(single.server.pid) : null;
     const dbCpu1 = dbPid ? await cpuTimeUs(dbPid) : null;
     const perRequest = (a: number | null, b: number | null) => (a === null || b === null || list.requests.total === 0 ? null : Math.round((b - a) / list.requests.total));
+    const singleDownload = await measured({ url: `${baseUrl}${download}`, connections: CONNECTIONS, duration: DURATION_S, headers }, single.server.pid, dbPid);
 
     // The same read while a stream of simulations keeps the worker pool busy.
     const simBody = JSON.stringify({ spec: mainsSyncSpec, scenario: { kind: 'frequency-step', stepHz: 1, atS: 1, durationS: 20 }, mode: 'both', buckets: 200 });
@@ -185,9 +252,18 @@ export async function runApiBench(): Promise<object> {
     await simulationLoop;
     await stopServer(single.server);
 
-    // Two API processes on the same port (LW_API_PROCESSES=2): the scale-out path of DESIGN.md.
-    const double = await startServer(2);
-    const twoProcesses = await run({ url: `${double.baseUrl}/api/projects`, connections: CONNECTIONS, duration: DURATION_S, headers: double.headers });
+    // Two API processes on the same port (node:cluster).
+    const cluster = await startServer({ processes: 2, balancer: 'none' });
+    const twoProcesses = await run({ url: `${cluster.baseUrl}/api/projects`, connections: CONNECTIONS, duration: DURATION_S, headers: cluster.headers });
+    await stopServer(cluster.server);
+
+    // The scale-out layout: two API processes on ports of their own behind Debian's nginx, round-robin.
+    const balanced = await startServer({ processes: 2, balancer: 'nginx' });
+    const loadBeforeBalancer = os.loadavg()[0] ?? 0;
+    const balancedList = await measured({ url: `${balanced.baseUrl}/api/projects`, connections: CONNECTIONS, duration: DURATION_S, headers: balanced.headers }, balanced.server.pid, dbPid);
+    const balancedDownload = await measured({ url: `${balanced.baseUrl}${download}`, connections: CONNECTIONS, duration: DURATION_S, headers: balanced.headers }, balanced.server.pid, dbPid);
+    const cores = os.availableParallelism();
+    const singleList: Measured = { result: list, serverCpuUs: perRequest(serverCpu0, serverCpu1), mariadbCpuUs: perRequest(dbCpu0, dbCpu1) };
 
     const reqPerS = list.requests.average;
     const p99 = list.latency.p99;
@@ -215,6 +291,17 @@ export async function runApiBench(): Promise<object> {
         projectListP99Ms: twoProcesses.latency.p99,
         non2xx: twoProcesses.non2xx,
         met: twoProcesses.requests.average >= TARGET_REQ_PER_S && twoProcesses.latency.p99 < TARGET_P99_MS && twoProcesses.non2xx === 0,
+      },
+      /** Issue 13: two processes behind nginx, beside one process alone, measured in this run. */
+      behindBalancer: {
+        file: download,
+        loadAverage1mBefore: Math.round(loadBeforeBalancer * 100) / 100,
+        singleProcess: { projectList: figures(singleList, cores), download: figures(singleDownload, cores) },
+        twoProcessesNginx: { projectList: figures(balancedList, cores), download: figures(balancedDownload, cores) },
+        target: {
+          reqPerS: BALANCER_TARGET_REQ_PER_S,
+          met: [balancedList, balancedDownload].every((m) => m.result.requests.average >= BALANCER_TARGET_REQ_PER_S && m.result.non2xx === 0 && m.result.errors === 0),
+        },
       },
       computeThreads: config.compute.threads,
       loadAverage1mBefore: Math.round((loadAverage1m ?? 0) * 100) / 100,
