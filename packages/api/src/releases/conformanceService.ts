@@ -68,7 +68,7 @@ export class ConformanceService {
     if (!goldenFile) throw new AppError('internal', 'the release has no golden vectors', 500);
     const fileName = printableFileName(file.originalname);
     // Parsing and comparing megabytes of CSV happens in the compute pool, never on the event loop.
-    const outcome = await this.compute.run({ kind: 'conformance', golden: goldenFile.content, capture: file.buffer, scenario: stored.vectors.scenario, accumulatorBits: spec.nco.accumulatorBits });
+    const outcome = await this.compute.run({ kind: 'conformance', golden: goldenFile.content, capture: file.buffer, scenario: stored.vectors.scenario, ncoAccumulatorBits: spec.nco.accumulatorBits });
     if (!outcome.ok) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${fileName.slice(0, 120)}: ${outcome.issues.map((i) => i.message).join('; ')}`);
     if (outcome.kind !== 'conformance') throw new Error('compute pool answered a conformance check with another kind');
     const result = outcome.comparison;

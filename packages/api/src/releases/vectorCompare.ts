@@ -85,13 +85,13 @@ function checkedRow(record: string[], line: number): string[] {
 }
 
 /** A capture against a release's stored golden CSV, capped at the golden rows (run in the compute pool). */
-export async function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario: GoldenVectors['scenario'], accumulatorBits: number): Promise<Comparison> {
+export async function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario: GoldenVectors['scenario'], ncoAccumulatorBits: number): Promise<Comparison> {
   const goldenRows = await readVectorCsv(golden);
-  return compareWithGolden(goldenFromRows(goldenRows, scenario, accumulatorBits), await readVectorCsv(capture, goldenRows.length));
+  return compareWithGolden(goldenFromRows(goldenRows, scenario, ncoAccumulatorBits), await readVectorCsv(capture, goldenRows.length));
 }
 
 /** The stored golden CSV of a release as dsp's GoldenVectors (the stored bytes are the reference, not a recomputation). */
-export function goldenFromRows(rows: readonly string[][], scenario: GoldenVectors['scenario'], accumulatorBits: number): GoldenVectors {
+export function goldenFromRows(rows: readonly string[][], scenario: GoldenVectors['scenario'], ncoAccumulatorBits: number): GoldenVectors {
   const n = rows.length;
   const record = {
     length: n,
@@ -113,7 +113,7 @@ export function goldenFromRows(rows: readonly string[][], scenario: GoldenVector
     record.detectorCode[i] = Number(r[5]);
     record.filterCode[i] = Number(r[6]);
   });
-  return { scenario, accumulatorBits, record, checksum: 0 };
+  return { scenario, ncoAccumulatorBits, record, checksum: 0 };
 }
 
 /**

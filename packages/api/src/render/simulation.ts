@@ -32,7 +32,7 @@ export function simulateScenario(specInput: unknown, scenarioInput: unknown, vec
     const bitTrue = result.bitTrue;
     const record = bitTrue?.record;
     const csv = vectors !== undefined && bitTrue && record
-      ? firstVectorsCsv({ scenario: scenario.scenario, accumulatorBits: planned.plan.spec.nco.accumulatorBits, record, checksum: bitTrue.checksum }, vectors)
+      ? firstVectorsCsv({ scenario: scenario.scenario, ncoAccumulatorBits: planned.plan.spec.nco.accumulatorBits, record, checksum: bitTrue.checksum }, vectors)
       : '';
     return {
       ok: true,

@@ -22,7 +22,8 @@ export interface ConformanceTask {
   /** The uploaded capture. */
   readonly capture: Uint8Array;
   readonly scenario: GoldenVectors['scenario'];
-  readonly accumulatorBits: number;
+  /** nco.accumulatorBits of the release's spec. */
+  readonly ncoAccumulatorBits: number;
 }
 
 export type HandoffTask = ReleaseRenderTask | ConformanceTask;
@@ -47,7 +48,7 @@ export async function runHandoffTask(task: HandoffTask): Promise<HandoffOutcome>
     }
   }
   try {
-    const comparison = await compareCapture(task.golden, task.capture, task.scenario, task.accumulatorBits);
+    const comparison = await compareCapture(task.golden, task.capture, task.scenario, task.ncoAccumulatorBits);
     return { ok: true, kind: 'conformance', comparison, sha256: createHash('sha256').update(task.capture).digest('hex') };
   } catch (err) {
     if (err instanceof MalformedCapture) return { ok: false, issues: [{ field: '', message: err.message }], prefix: 'file' };

@@ -29,7 +29,8 @@ export function defaultGoldenScenario(spec: Pick<LoopSpec, 'sampleRateHz' | 'nco
 
 export interface GoldenVectors {
   readonly scenario: Scenario;
-  readonly accumulatorBits: number;
+  /** N, the NCO's phase accumulator (nco.accumulatorBits): the width of the nco_phase column. */
+  readonly ncoAccumulatorBits: number;
   readonly record: BitTrueRecord;
   /** FNV-1a over the record (src/sim/checksum.ts). */
   readonly checksum: number;
@@ -65,5 +66,5 @@ export function goldenVectorsOf(loop: SimLoop, scenario: Scenario): GoldenVector
   const r = simulateLoop(loop, scenario, { mode: 'bit-true', keepRecord: true });
   const bit = r.bitTrue;
   if (!bit?.record) throw new Error('bit-true run kept no record');
-  return { scenario, accumulatorBits: loop.spec.nco.accumulatorBits, record: bit.record, checksum: bit.checksum };
+  return { scenario, ncoAccumulatorBits: loop.spec.nco.accumulatorBits, record: bit.record, checksum: bit.checksum };
 }

@@ -3,7 +3,7 @@
  * integers, two's-complement codes written as signed values):
  *   sample         sample index n from 0
  *   input_code     input sample x[n], dataBits signed, fraction dataBits − 1
- *   nco_phase      phase accumulator at n before it advances, unsigned, accumulatorBits wide
+ *   nco_phase      phase accumulator at n before it advances, unsigned, ncoAccumulatorBits wide
  *   table_address  sine-table address of the NCO output, (phase >> (N − P)) + 2^(P−2) mod 2^P
  *   nco_code       NCO output code, amplitudeBits signed
  *   detector_code  detector output u[n], dataBits signed
