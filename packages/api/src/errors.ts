@@ -21,14 +21,15 @@ export class AppError extends Error {
 export const invalidInput = (field: string, message: string) => new AppError('invalid_input', message, 400, field);
 
 /**
- * The one way spec and scenario issues (dsp's `{ field, message }`, field a dot path inside the
- * document) become the API's error: 400 invalid_input naming the first field under `prefix` (`spec`,
- * `file`, `scenario`), with every issue's message. The terminal says the same in its own words
+ * The one way input issues become the API's error: dsp's spec and scenario issues (`{ field, message }`,
+ * field a dot path inside the document) and the request schemas' (routes/table.ts) alike. 400
+ * invalid_input naming the first field under `prefix` (`spec`, `file`, `scenario`, or "" for a field
+ * path that is already whole), with every issue's message. The terminal says the same in its own words
  * (cli/input.ts, issuesLine).
  */
 export function issuesError(issues: readonly { readonly field: string; readonly message: string }[], prefix: string): AppError {
-  const first = issues[0];
-  return invalidInput(first?.field ? `${prefix}.${first.field}` : prefix, issues.map((issue) => issue.message).join('; '));
+  const field = [prefix, issues[0]?.field ?? ''].filter((part) => part !== '').join('.');
+  return invalidInput(field, issues.map((issue) => issue.message).join('; '));
 }
 export const notFound = (what: string) => new AppError('not_found', `${what} not found`, 404);
 export const conflict = (message: string, field?: string) => new AppError('conflict', message, 409, field);

@@ -3,7 +3,7 @@ import multer from 'multer';
 import { plainMessages } from '@loopwright/dsp';
 import { z } from 'zod';
 import type { Role, SessionUser } from '@loopwright/contract';
-import { AppError, forbidden, invalidInput, unauthenticated } from '../errors.ts';
+import { AppError, forbidden, issuesError, unauthenticated } from '../errors.ts';
 import { requireCsrfHeader } from '../middleware/csrf.ts';
 import type { AuditActor } from '../services/audit.ts';
 import type { Services } from '../services/index.ts';
@@ -70,18 +70,18 @@ function checkAccess(access: Access): RequestHandler {
   };
 }
 
-/** "filter.tau1S: expected number" — the path of the first issue and every issue's text. */
+/** One request-schema issue as `{ field, message }`: "spec.filter.tau1S: expected number" (an unknown key is the field it names). */
+function requestIssue(i: z.core.$ZodIssue, prefix: string): { field: string; message: string } {
+  const where = [prefix, ...i.path.map(String)].filter((part) => part !== '').join('.');
+  const unknown = i.code === 'unrecognized_keys';
+  const text = unknown ? `unknown field(s): ${i.keys.join(', ')}` : i.message;
+  const field = unknown ? [where, i.keys[0] ?? ''].filter((part) => part !== '').join('.') : where;
+  return { field, message: where ? `${where}: ${text}` : text };
+}
+
+/** The first five issues of a request schema, through the one issues-to-error mapping (errors.ts). */
 export function zodToAppError(error: z.ZodError, prefix: string): AppError {
-  const issue = error.issues[0];
-  let path = (issue?.path ?? []).map(String);
-  if (issue?.code === 'unrecognized_keys') path = [...path, issue.keys[0] ?? ''];
-  const field = [prefix, ...path].filter((part) => part !== '').join('.');
-  const messages = error.issues.slice(0, 5).map((i) => {
-    const where = [prefix, ...i.path.map(String)].filter((part) => part !== '').join('.');
-    const text = i.code === 'unrecognized_keys' ? `unknown field(s): ${i.keys.join(', ')}` : i.message;
-    return where ? `${where}: ${text}` : text;
-  });
-  return invalidInput(field, messages.join('; '));
+  return issuesError(error.issues.slice(0, 5).map((i) => requestIssue(i, prefix)), '');
 }
 
 function parsePart(schema: z.ZodType | undefined, value: unknown, prefix: string): unknown {
