@@ -21,7 +21,6 @@ const NOT_CITATIONS: Readonly<Record<string, string>> = {
   C1: 'the C1 control characters (U+0080-U+009F)',
   E0: 'a byte of a percent-encoded path (%E0)',
   A4: 'a byte of a percent-encoded path (%A4)',
-  E402: 'a Python lint code (import not at the top of the file)',
 };
 
 function trackedFiles(): string[] {

@@ -25,7 +25,7 @@ import numpy as np
 from scipy import integrate, optimize, signal
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "reference"))
-from loop_formulas import bilinear_constant as bilinear_c, bracketed_root as brent, filter_zpk as loop_filter_zpk, serve  # noqa: E402
+from loop_formulas import bilinear_constant as bilinear_c, bracketed_root as brent, filter_zpk as loop_filter_zpk, serve
 
 GRID = 40000
 
