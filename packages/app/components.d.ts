@@ -51,6 +51,7 @@ declare module 'vue' {
     SimulationPanel: typeof import('./src/components/SimulationPanel.vue')['default']
     SpecForm: typeof import('./src/components/SpecForm.vue')['default']
     VerdictStrip: typeof import('./src/components/VerdictStrip.vue')['default']
+    VerificationPanel: typeof import('./src/components/VerificationPanel.vue')['default']
     WordLengthPanel: typeof import('./src/components/WordLengthPanel.vue')['default']
   }
   export interface GlobalDirectives {

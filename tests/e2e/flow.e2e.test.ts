@@ -17,7 +17,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from './harness/build.ts';
 import { launchBrowser, signIn, type Browser } from './harness/browser.ts';
 import { choose, degrees, screenshot, tableRows, textOf, waitForChange } from './harness/pageHelpers.ts';
-import { afterProcess, api, apiSignIn, PROCESS_HEADER } from './harness/api.ts';
+import { afterProcess, api, apiSignIn, PROCESS_HEADER, waitForVerdict } from './harness/api.ts';
 import { startStack, type Stack } from './harness/stack.ts';
 
 let stack: Stack;
@@ -58,6 +58,9 @@ async function openDesign(page: Page, title: string): Promise<void> {
   await page.waitForSelector('[data-test="bode-chart"] canvas', { timeout: 20_000 });
   await page.waitForSelector('[data-test="analysis-status"]:has-text("up to date")');
 }
+
+/** What the release and review pages say once the server has verified a demo release's reference RTL. */
+const BIT_EXACT = 'reference RTL bit-exact in GHDL and Icarus on 4096 samples';
 
 const state: { reviewLink: string; releaseSha: string; vectorsPath: string } = { reviewLink: '', releaseSha: '', vectorsPath: '' };
 
@@ -274,6 +277,8 @@ describe('Loopwright in the browser', () => {
     await page.waitForSelector('[data-test="word-length-result"]', { timeout: 120_000 });
     const cheapest = await textOf(page, '[data-test="word-length-cheapest"]');
     expect(cheapest).toMatch(/coefficientBits = \d+/);
+    // Beside the error figures, each width's cost: the server's yosys estimate, filled in as it comes.
+    await page.waitForSelector('[data-test="width-costs"] tr:has-text("coefficients")');
     await screenshot(page, '06-editor-word-length');
     await page.close();
   });
@@ -290,6 +295,13 @@ describe('Loopwright in the browser', () => {
     expect(await page.isVisible('[data-test="safety-notice"]')).toBe(true);
     state.releaseSha = (await textOf(page, '[data-test="selected-sha"]')).replace('SHA-256 ', '');
     expect(state.releaseSha).toMatch(/^[0-9a-f]{64}$/);
+    // The server verifies the reference RTL in the background; the page follows it to the verdict.
+    await page.waitForSelector(`[data-test="rtl-verification-summary"]:has-text("${BIT_EXACT}")`, { timeout: 180_000 });
+    await page.click('#tab-rtl');
+    await page.waitForSelector('[data-test="rtl-simulators"]:has-text("PASS")');
+    await page.waitForSelector('[data-test="rtl-estimate"]');
+    await screenshot(page, '07b-reference-rtl');
+    await page.click('#tab-numbers');
 
     await page.click('[data-test="request-review"]');
     await choose(page, 'reviewers', 'Robin Reviewer');
@@ -300,6 +312,7 @@ describe('Loopwright in the browser', () => {
     await screenshot(page, '07-releases');
 
     const mail = await stack.mail.waitFor((m) => m.to.includes('reviewer@example.test'));
+    expect(mail.text).toContain(`Server verification: ${BIT_EXACT}.`);
     const link = new RegExp(`${stack.baseUrl.replace(/[.:/]/g, '\\$&')}/review/[^\\s"'<>]+`).exec(mail.text);
     expect(link).not.toBeNull();
     state.reviewLink = link![0];
@@ -317,6 +330,7 @@ describe('Loopwright in the browser', () => {
     await page.waitForSelector('[data-test="bode-chart"] canvas');
     expect(await page.isVisible('[data-test="safety-notice"]')).toBe(true);
     expect(await textOf(page, '[data-test="review-title"]')).toContain('v1');
+    expect(await textOf(page, '[data-test="rtl-verification-summary"]')).toBe(BIT_EXACT);
     expect(posts).toEqual(['GET']);
     await screenshot(page, '08-review');
     await page.fill('textarea[data-test="review-comment"]', 'Margins and codes checked against the bench plan.');
@@ -473,6 +487,9 @@ describe('Loopwright in the browser', () => {
     const read = await api(baseUrl, `/api/review-links/${token}`);
     expect(read.status).toBe(200);
     await afterProcess(baseUrl, read.process!);
+    // Approval waits for the reference RTL's verification, which a process of the pair picked up.
+    const verifiedBy = await waitForVerdict(baseUrl, designer.cookie, v1.id);
+    expect(verifiedBy.verdict).toBe('passed');
     const decision = { decision: 'approve', manifestSha256: v1.manifestSha256 };
     const decided = await api<{ state: string }>(baseUrl, `/api/review-links/${token}`, { json: decision });
     expect(decided.process).not.toBe(read.process);

@@ -7,7 +7,13 @@ import { releasesApi } from '../src/api/releasesApi.ts';
 import { designsApi } from '../src/api/designsApi.ts';
 import { projectsApi } from '../src/api/projectsApi.ts';
 import { ApiError } from '../src/api/client.ts';
-import type { ReleaseRecord, ReleaseSummary } from '../src/api/types.ts';
+import type { ReleaseRecord, ReleaseSummary, ReleaseVerificationRecord } from '../src/api/types.ts';
+
+const PASSED: ReleaseVerificationRecord = {
+  state: 'done', progress: null, verdict: 'passed', summary: 'reference RTL bit-exact in GHDL and Icarus on 4096 samples', verification: null, estimate: null,
+  attempts: 1, startedAt: null, finishedAt: null, approvable: true, blockedReason: null,
+};
+
 
 function summary(id: number, number: number, stateChangedAt = '2026-01-01T00:00:00Z'): ReleaseSummary {
   return {
@@ -17,7 +23,7 @@ function summary(id: number, number: number, stateChangedAt = '2026-01-01T00:00:
 }
 
 function record(s: ReleaseSummary, projectId = 1): ReleaseRecord {
-  return { ...s, designName: 'Mains sync', projectId, spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 1, reviews: [], allowedEvents: [], caution: 'design aid' };
+  return { ...s, designName: 'Mains sync', projectId, spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 1, reviews: [], allowedEvents: [], caution: 'design aid', verification: PASSED };
 }
 
 describe('releases store', () => {
@@ -25,6 +31,18 @@ describe('releases store', () => {
     setActivePinia(createPinia());
     vi.restoreAllMocks();
     vi.spyOn(designsApi, 'get').mockResolvedValue({ id: 1, projectId: 1, name: 'Mains sync', revision: 4, ownerId: 1, ownerName: 'Dana', createdAt: '', updatedAt: '', spec: mainsSyncSpec });
+  });
+
+  it('follows a release verification until the server is done with it', async () => {
+    const running: ReleaseVerificationRecord = { ...PASSED, state: 'running', verdict: null, summary: 'reference RTL verification running: starting', approvable: false };
+    vi.spyOn(releasesApi, 'forDesign').mockResolvedValue([summary(10, 1)]);
+    vi.spyOn(releasesApi, 'get').mockResolvedValue({ ...record(summary(10, 1)), verification: running });
+    const polled = vi.spyOn(releasesApi, 'verification').mockResolvedValueOnce(running).mockResolvedValueOnce(PASSED);
+    const store = useReleasesStore();
+    await store.load(1);
+    await store.pollVerification(10, 1);
+    expect(polled).toHaveBeenCalledTimes(2);
+    expect(store.records[10]?.verification.summary).toBe('reference RTL bit-exact in GHDL and Icarus on 4096 samples');
   });
 
   it('lists the newest release first, with each full record', async () => {

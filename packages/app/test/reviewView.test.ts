@@ -5,13 +5,17 @@ import { createMemoryHistory, createRouter } from 'vue-router';
 import { mainsSyncSpec } from '@loopwright/dsp';
 import { reviewLinksApi } from '../src/api/reviewLinksApi.ts';
 import { ApiError } from '../src/api/client.ts';
-import type { ReviewLinkView } from '../src/api/types.ts';
+import type { ReleaseVerificationRecord, ReviewLinkView } from '../src/api/types.ts';
 
 // The release report draws plots through the worker; this test is about the decision.
 vi.mock('../src/components/ReleaseReport.vue', () => ({ default: { render: () => null } }));
 const { default: ReviewView } = await import('../src/views/ReviewView.vue');
 
 const SHA = 'f'.repeat(64);
+const PASSED: ReleaseVerificationRecord = {
+  state: 'done', progress: null, verdict: 'passed', summary: 'reference RTL bit-exact in GHDL and Icarus on 4096 samples', verification: null, estimate: null,
+  attempts: 1, startedAt: null, finishedAt: null, approvable: true, blockedReason: null,
+};
 const view: ReviewLinkView = {
   reviewerName: 'Robin Reviewer',
   expiresAt: '2026-12-09T00:00:00Z',
@@ -20,7 +24,7 @@ const view: ReviewLinkView = {
     id: 3, designId: 1, number: 1, label: 'v1', state: 'in-review', manifestSha256: SHA, specSha256: 'e'.repeat(64), designRevision: 2,
     createdById: 1, createdByName: 'Dana Designer', createdAt: '', stateChangedAt: '', designName: 'Mains sync PI loop', projectId: 1,
     spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 0, reviews: [], allowedEvents: ['approve', 'request-changes'],
-    caution: 'A release is a design aid.',
+    caution: 'A release is a design aid.', verification: PASSED,
   },
 };
 
@@ -74,5 +78,29 @@ describe('review page', () => {
     const wrapper = await mountAt('used');
     expect(wrapper.find('[data-test="review-error"]').text()).toContain('already used');
     expect(wrapper.find('[data-test="submit-decision"]').exists()).toBe(false);
+  });
+
+  it('shows the server verification and refuses to send an approval of RTL that failed it', async () => {
+    const failed: ReleaseVerificationRecord = {
+      ...PASSED,
+      verdict: 'failed',
+      summary: 'reference RTL FAILED: GHDL at sample 17, filter_code expected 5 got 6',
+      approvable: false,
+      blockedReason: 'reference RTL FAILED: GHDL at sample 17, filter_code expected 5 got 6; approval is blocked: the designer must withdraw this release and cut a new one',
+    };
+    vi.spyOn(reviewLinksApi, 'read').mockResolvedValue({ ...view, release: { ...view.release, verification: failed } });
+    const decide = vi.spyOn(reviewLinksApi, 'decide').mockResolvedValue({ decision: 'request-changes', state: 'changes-requested', approvals: 0, approvalsRequired: 1 });
+    const wrapper = await mountAt('t');
+    expect(wrapper.find('[data-test="rtl-verification-summary"]').text()).toBe(failed.summary);
+    expect(wrapper.find('[data-test="approval-blocked"]').text()).toContain('the designer must withdraw this release');
+    expect(wrapper.find('[data-test="submit-decision"]').attributes('disabled')).toBeDefined();
+    // Asking for changes stays possible.
+    await wrapper.find('input[value="request-changes"]').setValue(true);
+    await wrapper.find('textarea[data-test="review-comment"]').setValue('The RTL fails in GHDL.');
+    await settle();
+    expect(wrapper.find('[data-test="approval-blocked"]').exists()).toBe(false);
+    await wrapper.find('[data-test="submit-decision"]').trigger('click');
+    await flushPromises();
+    expect(decide).toHaveBeenCalledWith('t', { decision: 'request-changes', manifestSha256: SHA, comment: 'The RTL fails in GHDL.' });
   });
 });

@@ -56,3 +56,15 @@ export async function afterProcess(baseUrl: string, process: string, tries = 10)
   }
   throw new Error(`${process} did not answer ${tries} requests in a row`);
 }
+
+/** Asks for a release's verification until the simulations gave a verdict (the server runs them in the background). */
+export async function waitForVerdict(baseUrl: string, cookie: string, releaseId: number, timeoutMs = 180_000): Promise<{ verdict: string; summary: string }> {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const v = await api<{ verdict: string | null; summary: string }>(baseUrl, `/api/releases/${releaseId}/verification`, { cookie });
+    if (v.status !== 200) throw new Error(`verification of release ${releaseId} answered ${v.status}`);
+    if (v.body.verdict !== null) return { verdict: v.body.verdict, summary: v.body.summary };
+    if (Date.now() > until) throw new Error(`release ${releaseId} was not verified within ${timeoutMs} ms: ${v.body.summary}`);
+    await new Promise((resolve) => setTimeout(resolve, 500));
+  }
+}

@@ -102,6 +102,8 @@ export async function startStack(options: StackOptions = {}): Promise<Stack> {
       LW_SMTP_PORT: String(mailPort),
       LW_PUBLIC_URL: baseUrl,
       LW_OUTBOX_INTERVAL_MS: '500',
+      // Every process verifies the reference RTL of new releases in the background, as in production.
+      LW_VERIFY_INTERVAL_MS: '500',
       LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
       ...options.env,
     };

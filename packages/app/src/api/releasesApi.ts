@@ -5,6 +5,7 @@ import {
   releaseDiffSchema,
   releaseListResponseSchema,
   releaseRecordSchema,
+  releaseVerificationSchema,
   reviewerListResponseSchema,
 } from '@loopwright/contract';
 import { api } from './client.ts';
@@ -15,6 +16,8 @@ export const releasesApi = {
   /** The server recomputes everything from the stored spec; its numbers are the ones that count. */
   cut: (designId: number) => api.request(`/designs/${designId}/releases`, releaseRecordSchema, { method: 'POST', body: {} }),
   get: (id: number) => api.request(`/releases/${id}`, releaseRecordSchema),
+  /** The server's verification of the reference RTL, polled while it runs. */
+  verification: (id: number) => api.request(`/releases/${id}/verification`, releaseVerificationSchema),
   /** Approved releases across projects (what firmware sees by default). */
   approved: () => api.request('/releases', releaseListResponseSchema).then((b) => b.releases),
   diff: (id: number, againstId: number) => api.request(`/releases/${id}/diff`, releaseDiffSchema, { query: { against: againstId } }),

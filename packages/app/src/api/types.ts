@@ -32,6 +32,10 @@ export type {
   SignInRequest,
   ReleaseState,
   ReleaseEvent,
+  ReleaseVerificationRecord,
+  ResourceEstimate,
+  SimulatorRun,
+  CandidateEstimate,
 } from '@loopwright/contract';
 export { ROLES, isRole } from '@loopwright/contract';
 

@@ -49,11 +49,34 @@ export const useReleasesStore = defineStore('releases', () => {
     try {
       const record = await releasesApi.cut(id);
       records.value = { ...records.value, [record.id]: record };
-      const { designName: _n, projectId: _p, spec: _s, results: _r, files: _f, approvalsRequired: _a, approvals: _c, reviews: _v, allowedEvents: _e, caution: _k, ...summary } = record;
+      const { designName: _n, projectId: _p, spec: _s, results: _r, files: _f, approvalsRequired: _a, approvals: _c, reviews: _v, allowedEvents: _e, caution: _k, verification: _w, ...summary } = record;
       releases.value = [summary, ...releases.value.filter((r) => r.id !== record.id)];
       return record;
     } finally {
       cutting.value = false;
+    }
+  }
+
+  const polling = new Set<number>();
+
+  /**
+   * Ask for a release's verification every `intervalMs` until the server is done with it (or another
+   * design is loaded), so the page shows its progress and then its verdict.
+   */
+  async function pollVerification(releaseId: number, intervalMs = 2000): Promise<void> {
+    if (polling.has(releaseId)) return;
+    polling.add(releaseId);
+    const forDesign = designId.value;
+    try {
+      while (designId.value === forDesign && records.value[releaseId]?.verification.state !== 'done') {
+        await new Promise((resolve) => setTimeout(resolve, intervalMs));
+        const record = records.value[releaseId];
+        if (!record || designId.value !== forDesign) break;
+        const verification = await releasesApi.verification(releaseId);
+        records.value = { ...records.value, [releaseId]: { ...record, verification } };
+      }
+    } finally {
+      polling.delete(releaseId);
     }
   }
 
@@ -81,5 +104,5 @@ export const useReleasesStore = defineStore('releases', () => {
     }
   }
 
-  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, cut, loadReviewers, requestReview, withdraw, compare };
+  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, cut, pollVerification, loadReviewers, requestReview, withdraw, compare };
 });
