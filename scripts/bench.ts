@@ -20,6 +20,7 @@ const BENCHES: readonly BenchEntry[] = [
   { name: 'dsp', cwd: 'packages/dsp', module: 'bench/bench.ts', exportName: 'runDspBench' },
   { name: 'api', cwd: 'packages/api', module: 'bench/bench.ts', exportName: 'runApiBench' },
   { name: 'release', cwd: 'packages/api', module: 'bench/release-bench.ts', exportName: 'runReleaseBench' },
+  { name: 'rtl', cwd: 'packages/api', module: 'bench/rtl-bench.ts', exportName: 'runRtlBench' },
   // The app bench serves the built app from the real API, whose TypeORM entities need the API's
   // decorator settings; the app's own files compile the same under either tsconfig.
   { name: 'app', cwd: 'packages/app', module: 'bench/bench.ts', exportName: 'runAppBench', tsconfig: 'packages/api/tsconfig.json' },

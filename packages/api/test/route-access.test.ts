@@ -76,6 +76,8 @@ const CASES: Record<string, Case> = {
   'GET /designs/:id/releases': { allowed: 'signed-in', call: (a, f) => a.get(`/api/designs/${f.designId}/releases`) },
   'GET /releases': { allowed: 'signed-in', call: (a) => a.get('/api/releases') },
   'GET /releases/:id': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}`) },
+  'POST /estimates': { allowed: ['designer', 'reviewer'], call: (a) => a.post('/api/estimates').set(csrf).send({ specs: [mainsSyncSpec] }) },
+  'GET /releases/:id/verification': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/verification`) },
   'POST /releases/:id/withdraw': { allowed: DESIGNER, call: async (a, f) => a.post(`/api/releases/${await f.releases.freshDraft()}/withdraw`).set(csrf).send({}) },
   'GET /releases/:id/diff': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/diff?against=${f.releases.approvedId}`) },
   'GET /releases/:id/files/:name': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/files/manifest.json`) },

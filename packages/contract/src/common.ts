@@ -96,3 +96,11 @@ export type ErrorBody = z.infer<typeof errorBodySchema>;
 /** The header every state-changing browser request must carry (packages/api/README.md, "CSRF"). */
 export const CSRF_HEADER = 'x-requested-with';
 export const CSRF_HEADER_VALUE = 'loopwright';
+
+/** The first difference of a run against the golden vectors (conformance uploads, RTL testbenches). */
+export const mismatchSchema = z.object({
+  sampleIndex: z.number().int(),
+  column: z.string(),
+  expected: z.string(),
+  got: z.string(),
+});

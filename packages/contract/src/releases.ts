@@ -2,7 +2,8 @@
  * Releases, reviews, review links, downloads and conformance (/api/releases/..., /api/review-links/:token).
  */
 import { z } from 'zod';
-import { idParamsSchema, idSchema, sha256Schema } from './common.ts';
+import { idParamsSchema, idSchema, mismatchSchema, sha256Schema } from './common.ts';
+import { releaseVerificationSchema } from './rtl.ts';
 import { releaseEventSchema, releaseStateSchema, reviewDecisionValueSchema } from './vocabulary.ts';
 
 export const releaseFileRecordSchema = z.object({
@@ -68,6 +69,8 @@ export const releaseRecordSchema = releaseSummarySchema.extend({
   allowedEvents: z.array(releaseEventSchema),
   /** DESIGN.md "Safety": the app shows it on the release page. */
   caution: z.string(),
+  /** The server's verification of the reference RTL, made after the cut beside the immutable files. */
+  verification: releaseVerificationSchema,
 });
 export type ReleaseRecord = z.infer<typeof releaseRecordSchema>;
 export const releaseListResponseSchema = z.object({ releases: z.array(releaseSummarySchema) });
@@ -133,12 +136,6 @@ export const CONFORMANCE_UPLOAD_FIELD = 'file';
 /** A capture of a release's 4096 samples is about 200 KB; 8 MiB leaves room for padded exports and 64-bit phase words. */
 export const CONFORMANCE_UPLOAD_LIMIT_BYTES = 8 * 1024 * 1024;
 
-export const mismatchSchema = z.object({
-  sampleIndex: z.number().int(),
-  column: z.string(),
-  expected: z.string(),
-  got: z.string(),
-});
 export const conformanceRecordSchema = z.object({
   id: z.number().int(),
   releaseId: z.number().int(),

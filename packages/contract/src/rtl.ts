@@ -3,7 +3,7 @@
  * and the resource estimate (yosys).
  */
 import { z } from 'zod';
-import { mismatchSchema } from './releases.ts';
+import { mismatchSchema } from './common.ts';
 
 export const SIMULATORS = ['ghdl', 'icarus'] as const;
 export const simulatorSchema = z.enum(SIMULATORS);
@@ -72,3 +72,46 @@ export const resourceEstimateSchema = z.discriminatedUnion('state', [
   z.object({ state: z.literal('not-estimated'), reason: z.string() }),
 ]);
 export type ResourceEstimate = z.infer<typeof resourceEstimateSchema>;
+
+export const VERIFICATION_STATES = ['queued', 'running', 'done'] as const;
+
+/** A release's verification record as the API returns it (GET /api/releases/:id and …/verification). */
+export const releaseVerificationSchema = z.object({
+  state: z.enum(VERIFICATION_STATES),
+  /** What the job is doing now (while queued or running). */
+  progress: z.string().nullable(),
+  /** The simulations' verdict, once they finished (the estimate may still be running). */
+  verdict: rtlVerdictSchema.nullable(),
+  /** The sentence the release page, the review page and the review e-mail show. */
+  summary: z.string(),
+  verification: rtlVerificationSchema.nullable(),
+  estimate: resourceEstimateSchema.nullable(),
+  attempts: z.number().int(),
+  startedAt: z.string().nullable(),
+  finishedAt: z.string().nullable(),
+  /** Reviewers may approve only when the simulations finished and none failed. */
+  approvable: z.boolean(),
+  /** Why not, when approvable is false. */
+  blockedReason: z.string().nullable(),
+});
+export type ReleaseVerificationRecord = z.infer<typeof releaseVerificationSchema>;
+
+/** The word-length search asks for the cost of up to this many candidate specs at once. */
+export const ESTIMATE_REQUEST_MAX_SPECS = 40;
+
+export const estimateRequestSchema = z.strictObject({
+  /** Candidate specs (each validated on its own: a bad one is answered "invalid", naming its field). */
+  specs: z.array(z.unknown()).min(1).max(ESTIMATE_REQUEST_MAX_SPECS),
+});
+export type EstimateRequest = z.infer<typeof estimateRequestSchema>;
+
+/** The cost of one candidate: yosys's totals, pending (queued for a worker; ask again), or why none. */
+export const candidateEstimateSchema = z.discriminatedUnion('state', [
+  z.object({ state: z.literal('estimated'), tool: z.string(), label: z.string(), total: z.object({ generic: genericResourcesSchema, ice40: ice40ResourcesSchema }) }),
+  z.object({ state: z.literal('pending') }),
+  z.object({ state: z.literal('not-estimated'), reason: z.string() }),
+  z.object({ state: z.literal('invalid'), field: z.string(), message: z.string() }),
+]);
+export type CandidateEstimate = z.infer<typeof candidateEstimateSchema>;
+export const estimateResponseSchema = z.object({ estimates: z.array(candidateEstimateSchema) });
+export type EstimateResponse = z.infer<typeof estimateResponseSchema>;

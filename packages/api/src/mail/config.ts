@@ -20,6 +20,15 @@ const handoffEnvSchema = z.object({
   LW_OUTBOX_INTERVAL_MS: int(0, 3_600_000).optional(),
   /** Delay before a failed mail is tried again; it doubles with each failure, up to an hour. */
   LW_OUTBOX_FIRST_RETRY_S: int(1, 3600).default(30),
+  /** How often each API process looks for a release whose reference RTL awaits verification; 0 disables the timer. */
+  LW_VERIFY_INTERVAL_MS: int(0, 3_600_000).optional(),
+  /** A running verification whose process has not reported for this long is taken over by another. */
+  LW_VERIFY_LEASE_S: int(30, 24 * 3600).default(900),
+  /** Longest run of one simulator (compile and all samples), and of the two yosys flows. */
+  LW_VERIFY_SIMULATOR_TIMEOUT_S: int(5, 3600).default(300),
+  LW_VERIFY_ESTIMATE_TIMEOUT_S: int(5, 3600).default(600),
+  /** The PATH in which verification looks for ghdl, iverilog, vvp and yosys (default: the server's own). */
+  LW_VERIFY_PATH: z.string().optional(),
   NODE_ENV: z.string().optional(),
 });
 
@@ -36,6 +45,14 @@ export interface HandoffConfig {
   readonly reviewLinkTtlS: number;
   readonly outboxIntervalMs: number;
   readonly outboxFirstRetryS: number;
+  readonly verification: {
+    readonly intervalMs: number;
+    readonly leaseS: number;
+    readonly simulatorTimeoutMs: number;
+    readonly estimateTimeoutMs: number;
+    /** Environment of the simulators and yosys; undefined: the server's. */
+    readonly toolEnv: NodeJS.ProcessEnv | undefined;
+  };
 }
 
 export function loadHandoffConfig(source: NodeJS.ProcessEnv = process.env): HandoffConfig {
@@ -52,5 +69,13 @@ export function loadHandoffConfig(source: NodeJS.ProcessEnv = process.env): Hand
     reviewLinkTtlS: env.LW_REVIEW_LINK_TTL_S,
     outboxIntervalMs: env.LW_OUTBOX_INTERVAL_MS ?? defaultOutboxIntervalMs(env.NODE_ENV),
     outboxFirstRetryS: env.LW_OUTBOX_FIRST_RETRY_S,
+    verification: {
+      // 2 s, except under NODE_ENV=test, where a file's own calls run the job it is watching.
+      intervalMs: env.LW_VERIFY_INTERVAL_MS ?? (env.NODE_ENV === 'test' ? 0 : 2_000),
+      leaseS: env.LW_VERIFY_LEASE_S,
+      simulatorTimeoutMs: env.LW_VERIFY_SIMULATOR_TIMEOUT_S * 1000,
+      estimateTimeoutMs: env.LW_VERIFY_ESTIMATE_TIMEOUT_S * 1000,
+      toolEnv: env.LW_VERIFY_PATH === undefined ? undefined : { ...source, PATH: env.LW_VERIFY_PATH },
+    },
   };
 }

@@ -11,6 +11,8 @@ import { ConformanceService } from './conformanceService.ts';
 import { DownloadService } from './downloadService.ts';
 import { ReleaseService } from './releaseService.ts';
 import { ReviewService } from './reviewService.ts';
+import { EstimateCache } from './estimateCache.ts';
+import { VerificationService } from './verificationService.ts';
 
 export interface ReleaseServices {
   readonly config: HandoffConfig;
@@ -21,7 +23,9 @@ export interface ReleaseServices {
   readonly conformance: ConformanceService;
   /** Where release file bytes are stored (LW_FILE_STORE_DIR). */
   readonly files: FileStore;
-  /** Stops the outbox timer (part of the app's close()). */
+  readonly verification: VerificationService;
+  readonly estimates: EstimateCache;
+  /** Stops the outbox and verification timers (part of the app's close()). */
   close(): void;
 }
 
@@ -31,12 +35,17 @@ export function createReleaseServices(
   config: HandoffConfig = loadHandoffConfig(),
 ): ReleaseServices {
   const outbox = new MailOutbox(dataSource, createMailTransport(config.smtp), config.mailFrom, config.outboxFirstRetryS);
-  const releases = new ReleaseService(dataSource, deps.designs, deps.audit, deps.files, deps.compute);
+  const v = config.verification;
+  const toolEnv = v.toolEnv ? { env: v.toolEnv } : {};
+  const estimates = new EstimateCache(dataSource, { timeoutMs: v.estimateTimeoutMs, ...toolEnv });
+  const verification = new VerificationService(dataSource, deps.files, estimates, { intervalMs: v.intervalMs, leaseS: v.leaseS, simulatorTimeoutMs: v.simulatorTimeoutMs, ...toolEnv });
+  const releases = new ReleaseService(dataSource, deps.designs, deps.audit, deps.files, deps.compute, verification);
   deps.designs.addDeletionGuard(async (designId, manager) => {
     const n = await releases.releaseCount(designId, manager);
     return n > 0 ? `it has ${n} release(s), which are kept for the record` : null;
   });
-  const stopTimer = outbox.startTimer(config.outboxIntervalMs);
+  const stopOutbox = outbox.startTimer(config.outboxIntervalMs);
+  const stopVerification = verification.startTimer((err) => console.error('release verification failed to run:', err));
   return {
     config,
     outbox,
@@ -45,7 +54,12 @@ export function createReleaseServices(
     downloads: new DownloadService(dataSource, releases, deps.audit),
     conformance: new ConformanceService(dataSource, releases, deps.audit, deps.compute),
     files: deps.files,
-    close: stopTimer,
+    verification,
+    estimates,
+    close: () => {
+      stopOutbox();
+      stopVerification();
+    },
   };
 }
 

@@ -27,6 +27,8 @@ export interface ReviewMailInput {
   readonly expiresAt: Date;
   readonly approvalsRequired: number;
   readonly manifestSha256: string;
+  /** The verification record's sentence when the mail is written (it may still be running). */
+  readonly verificationSummary: string;
 }
 
 export function reviewRequestMail(m: ReviewMailInput): MailMessage {
@@ -39,6 +41,9 @@ export function reviewRequestMail(m: ReviewMailInput): MailMessage {
       '',
       `${plainName(m.requesterName)} asks you to review release ${m.label} of loop design ${m.specName}.`,
       `${m.approvalsRequired} approval(s) are needed.`,
+      '',
+      `Server verification: ${m.verificationSummary}.`,
+      'A release whose reference RTL fails verification cannot be approved; the review page shows the current verdict.',
       '',
       `Open the release to approve it or ask for changes:`,
       m.link,

@@ -16,14 +16,16 @@ import { sha256Hex } from '../render/digest.ts';
 import { StoredFileError, type FileStore } from '../storage/fileStore.ts';
 import type { ComputePool } from '../services/compute.ts';
 import { asBuffer } from '../workers/handoffTasks.ts';
-import type { ReleaseDiff, ReleaseRecord, ReleaseSummary } from '@loopwright/contract';
+import type { ReleaseDiff, ReleaseRecord, ReleaseSummary, ReleaseVerificationRecord } from '@loopwright/contract';
 import { releaseDiff } from './diff.ts';
 import { Release, ReleaseFile } from './entities/index.ts';
 import { releaseLabel, toFileRecord, toReviewRecord, toSummary, type FileRow, type ReleaseRow } from './records.ts';
-import { fileRowsWithContent, findRelease, listFiles, listReleases, listReviews, releaseStateTransaction } from './repository.ts';
+import { releaseFileBytes } from './fileBytes.ts';
+import { findRelease, listFiles, listReleases, listReviews, releaseStateTransaction } from './repository.ts';
 import type { ReleaseEvent } from '@loopwright/contract';
 import { allowedEvents, transition } from './stateMachine.ts';
 import { canSee, FIRMWARE_VISIBLE_STATES, seesAllStates } from './visibility.ts';
+import type { VerificationService } from './verificationService.ts';
 
 export type Actor = AuditActor & { id: number };
 
@@ -54,11 +56,13 @@ export class ReleaseService {
     private readonly audit: AuditService,
     private readonly files: FileStore,
     private readonly compute: ComputePool,
+    readonly verification: VerificationService,
   ) {}
 
   async cut(organizationId: number, designId: number, actor: Actor): Promise<ReleaseRecord> {
     const design = await this.designs.get(organizationId, designId);
     const id = await this.store(design, await this.render(design.spec), actor);
+    this.verification.wake();
     return this.getForUser(organizationId, id, { roles: ['designer'] });
   }
 
@@ -102,6 +106,7 @@ export class ReleaseService {
         ReleaseFile,
         rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: null })),
       );
+      await this.verification.queue(manager, releaseId);
       await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256 } }, manager);
       return releaseId;
     });
@@ -119,8 +124,13 @@ export class ReleaseService {
     return this.record(row);
   }
 
+  async verificationForUser(organizationId: number, id: number, user: Pick<SessionUser, 'roles'>): Promise<ReleaseVerificationRecord> {
+    const row = await this.visibleRow(organizationId, id, user);
+    return this.verification.recordFor(this.dataSource.manager, row.id);
+  }
+
   async record(row: ReleaseRow, manager: EntityManager = this.dataSource.manager): Promise<ReleaseRecord> {
-    const [files, reviews] = await Promise.all([listFiles(manager, row.id), listReviews(manager, row.id)]);
+    const [files, reviews, verification] = await Promise.all([listFiles(manager, row.id), listReviews(manager, row.id), this.verification.recordFor(manager, row.id)]);
     return {
       ...toSummary(row),
       designName: row.designName,
@@ -133,6 +143,7 @@ export class ReleaseService {
       reviews: reviews.map(toReviewRecord),
       allowedEvents: allowedEvents(row.state),
       caution: CAUTION,
+      verification,
     };
   }
 
@@ -219,15 +230,7 @@ export class ReleaseService {
    * from the file store, or from the row for releases cut before the store existed.
    */
   async fileBytes(releaseId: number, name?: string): Promise<(FileRow & { content: Buffer })[]> {
-    const rows = await fileRowsWithContent(this.dataSource.manager, releaseId, name);
-    return Promise.all(
-      rows.map(async (row) => {
-        if (row.content === null) return { ...row, content: await this.files.get(row.sha256) };
-        const content = Buffer.from(row.content);
-        if (sha256Hex(content) !== row.sha256) throw new StoredFileError('corrupt', row.sha256, `stored file ${row.sha256} failed its SHA-256 check (its bytes in the database were altered)`);
-        return { ...row, content };
-      }),
-    );
+    return releaseFileBytes(this.dataSource.manager, this.files, releaseId, name);
   }
 
   async manifestOf(releaseId: number): Promise<Manifest> {

@@ -124,6 +124,7 @@ export class ReviewService {
       const requester = await manager.findOne(User, { where: { id: actor.id }, select: { displayName: true } });
       const specName = (JSON.parse(row.specJson ?? '{}') as { name: string }).name;
       const expiresAt = new Date(Date.now() + this.config.reviewLinkTtlS * 1000);
+      const verification = await this.releases.verification.recordFor(manager, row.id);
       const mailIds: string[] = [];
       for (const reviewer of reviewers) {
         const issued = issueToken({ releaseId: row.id, reviewerId: reviewer.id, manifestSha256: row.manifestSha256 });
@@ -138,6 +139,7 @@ export class ReviewService {
             expiresAt,
             approvalsRequired: request.approvalsRequired,
             manifestSha256: row.manifestSha256,
+            verificationSummary: verification.summary,
           }),
         ]);
         // The review points at its mail, so the release page can say whether the link went out.
@@ -310,6 +312,11 @@ export class ReviewService {
   /** Marks the review decided and moves the release on; the caller has locked and verified both rows. */
   private async record(manager: EntityManager, link: LinkRow, release: ReleaseRow, organizationId: number, body: ReviewDecisionRequest, ip: string | null, via: 'link' | 'app'): Promise<Decided> {
     if (release.state !== 'in-review') throw conflict(`the release is ${release.state}; it no longer takes review decisions`, 'state');
+    if (body.decision === 'approve') {
+      // A reference RTL that failed (or has not finished) its verification cannot be approved.
+      const verification = await this.releases.verification.recordFor(manager, release.id);
+      if (!verification.approvable) throw conflict(verification.blockedReason ?? 'the reference RTL is not verified', 'verification');
+    }
     await manager.update(ReleaseReview, { id: link.id }, { usedAt: new Date(), decision: body.decision, comment: body.comment ?? null });
     const [{ approvals }] = (await manager.query("SELECT COUNT(*) AS approvals FROM `release_reviews` WHERE `releaseId` = ? AND `decision` = 'approve'", [release.id])) as [{ approvals: number | string }];
     const required = Number(release.approvalsRequired ?? 1);

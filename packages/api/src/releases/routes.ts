@@ -12,7 +12,9 @@ import {
   reviewDecisionSchema,
   reviewRequestSchema,
   reviewTokenParamsSchema,
+  estimateRequestSchema,
   type ConformanceListResponse,
+  type EstimateResponse,
   type DownloadListResponse,
   type ReleaseListResponse,
 } from '@loopwright/contract';
@@ -54,6 +56,26 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
     summary: 'a release: spec, results, files with SHA-256, reviews, allowed next steps, caution',
     params: releaseParamsSchema,
     handler: ({ services, user, params }) => services.handoff.releases.getForUser(user.organizationId, params.id, user),
+  }),
+  route({
+    method: 'post',
+    path: '/estimates',
+    access: ['designer', 'reviewer'],
+    summary: 'yosys resource estimates of candidate specs (the word-length search cost column): cached, or queued for a background worker',
+    body: estimateRequestSchema,
+    handler: async ({ services, body }): Promise<EstimateResponse> => {
+      const estimates = await services.handoff.estimates.candidates(body.specs);
+      if (estimates.some((e) => e.state === 'pending')) services.handoff.verification.wake();
+      return { estimates };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/releases/:id/verification',
+    access: 'signed-in',
+    summary: "the server's verification of the release's reference RTL (GHDL, Icarus, yosys estimate) and its progress",
+    params: releaseParamsSchema,
+    handler: ({ services, user, params }) => services.handoff.releases.verificationForUser(user.organizationId, params.id, user),
   }),
   route({
     method: 'post',

@@ -126,3 +126,19 @@ export const RTL_CONSTANTS = {
 export function rtlConstantNames(name: (suffix: string) => string): Record<keyof typeof RTL_CONSTANTS, string> {
   return Object.fromEntries(Object.entries(RTL_CONSTANTS).map(([k, s]) => [k, name(s)])) as Record<keyof typeof RTL_CONSTANTS, string>;
 }
+
+/** The section instances with their coefficient constants named in one language (the views' shared rows). */
+export function namedSections(rtl: RtlModel, name: (suffix: string) => string) {
+  return rtl.sections.map((s) => ({
+    instance: s.instance,
+    start: s.start,
+    input: s.input,
+    output: s.output,
+    done: s.done,
+    b0: name(s.coefficients.B0),
+    b1: name(s.coefficients.B1),
+    b2: name(s.coefficients.B2),
+    a1: name(s.coefficients.A1),
+    a2: name(s.coefficients.A2),
+  }));
+}

@@ -29,6 +29,12 @@ function keep(text: string, more: string): string {
   return s.length <= MAX_OUTPUT_CHARS ? s : s.slice(0, MAX_OUTPUT_CHARS / 4) + '\n…\n' + s.slice(s.length - (3 * MAX_OUTPUT_CHARS) / 4);
 }
 
+/** Children still running; killed when this process exits, so no simulator or yosys outlives the server. */
+const live = new Set<ReturnType<typeof spawn>>();
+process.once('exit', () => {
+  for (const child of live) child.kill('SIGKILL');
+});
+
 export function runProcess(command: string, args: readonly string[], options: RunOptions): Promise<ProcessResult> {
   const started = performance.now();
   return new Promise((resolve) => {
@@ -37,6 +43,7 @@ export function runProcess(command: string, args: readonly string[], options: Ru
     let timedOut = false;
     let settled = false;
     const child = spawn(command, args, { cwd: options.cwd, env: options.env ?? process.env, stdio: ['ignore', 'pipe', 'pipe'] });
+    live.add(child);
     const timer = setTimeout(() => {
       timedOut = true;
       child.kill('SIGKILL');
@@ -44,6 +51,7 @@ export function runProcess(command: string, args: readonly string[], options: Ru
     const finish = (code: number | null, missing: boolean) => {
       if (settled) return;
       settled = true;
+      live.delete(child);
       clearTimeout(timer);
       resolve({ code, stdout, stderr, missing, timedOut, durationMs: Math.round(performance.now() - started) });
     };

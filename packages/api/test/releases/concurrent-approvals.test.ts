@@ -36,6 +36,7 @@ afterAll(async () => {
 
 async function trial(count: number): Promise<void> {
   const cut = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  await h.built.services.handoff.verification.runOnce(cut.body.id);
   const { id, manifestSha256, label } = cut.body as { id: number; manifestSha256: string; label: string };
   const before = h.smtp.mails.length;
   const named = reviewers.slice(0, count);

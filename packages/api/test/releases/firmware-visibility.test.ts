@@ -19,6 +19,7 @@ let inReviewId: number;
 let unreleasedId: number;
 
 async function approve(releaseId: number): Promise<void> {
+  await h.built.services.handoff.verification.runOnce(releaseId);
   const before = h.smtp.mails.length;
   await h.designer.post(`/api/releases/${releaseId}/reviews`).set(csrf).send({ reviewerIds: [h.org.ids.reviewer], approvalsRequired: 1 }).expect(200);
   const mail = (await h.smtp.waitFor(before + 1)).slice(before).find((m) => m.to.includes(h.org.emails.reviewer))!;

@@ -23,6 +23,7 @@ export async function releaseFixtures(built: BuiltApp, org: TestOrg, designId: n
   const freshDraft = async () => (await handoff.releases.cut(org.organizationId, designId, designer)).id;
   const freshToken = async () => {
     const releaseId = await freshDraft();
+    await handoff.verification.runOnce(releaseId);
     const release = await handoff.reviews.requestReview(org.organizationId, releaseId, { reviewerIds: [org.ids.reviewer], approvalsRequired: 1 }, designer);
     const issued = issueToken({ releaseId, reviewerId: org.ids.reviewer, manifestSha256: release.manifestSha256 });
     await dataSource.query('UPDATE `release_reviews` SET `selector` = ?, `tokenHash` = ? WHERE `releaseId` = ? AND `reviewerId` = ?', [issued.selector, issued.tokenHash, releaseId, org.ids.reviewer]);

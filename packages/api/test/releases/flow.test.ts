@@ -40,6 +40,9 @@ describe('hand-off flow', () => {
     const res = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
     releaseId = res.body.id;
     manifestSha256 = res.body.manifestSha256;
+    expect(res.body.verification).toMatchObject({ state: 'queued', verdict: null, approvable: false, summary: 'reference RTL verification queued' });
+    // No simulator on this file's verification PATH: "not run", which does not block approval.
+    expect(await h.built.services.handoff.verification.runOnce(releaseId)).toBe(true);
     expect(res.body.label).toBe('v1');
     expect(res.body.state).toBe('draft');
     expect(res.body.caution).toBe(CAUTION);

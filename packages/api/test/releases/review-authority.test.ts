@@ -27,6 +27,7 @@ const anonymous = () => request(h.built.app);
 /** A release in review by `reviewerId` alone, with the token from that reviewer's e-mail. */
 async function releaseInReview(reviewerId: number, reviewerEmail: string): Promise<{ id: number; manifestSha256: string; token: string }> {
   const cut = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  await h.built.services.handoff.verification.runOnce(cut.body.id);
   const before = h.smtp.mails.length;
   await h.designer.post(`/api/releases/${cut.body.id}/reviews`).set(csrf).send({ reviewerIds: [reviewerId], approvalsRequired: 1 }).expect(200);
   const mails = await h.smtp.waitFor(before + 1);

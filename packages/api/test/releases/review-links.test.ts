@@ -22,6 +22,7 @@ afterAll(async () => {
 /** Cuts a release, asks the org's reviewer, returns the release and the token from the e-mail. */
 async function releaseInReview(): Promise<{ id: number; manifestSha256: string; token: string }> {
   const cut = await h.designer.post(`/api/designs/${designId}/releases`).set(csrf).expect(201);
+  await h.built.services.handoff.verification.runOnce(cut.body.id);
   const before = h.smtp.mails.length;
   await h.designer.post(`/api/releases/${cut.body.id}/reviews`).set(csrf).send({ reviewerIds: [h.org.ids.reviewer], approvalsRequired: 1 }).expect(200);
   const mails = await h.smtp.waitFor(before + 1);

@@ -2,7 +2,7 @@
 import type { HexMemoryFile } from '../hexVectors.ts';
 import { codeNames } from '../identifiers.ts';
 import { verilogLiteral } from '../literals.ts';
-import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, type RtlModel, type RtlPart } from '../rtl.ts';
+import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, namedSections, type RtlModel, type RtlPart } from '../rtl.ts';
 import type { ArtifactHeader } from './header.ts';
 
 type Widths = Record<keyof RtlModel['widths'], string>;
@@ -17,7 +17,7 @@ export interface RtlVerilogView {
   readonly ranges: Widths;
   readonly zeros: Widths;
   readonly names: Readonly<Record<keyof typeof RTL_CONSTANTS, string>>;
-  readonly sections: readonly { instance: string; start: string; input: string; output: string; done: string; b0: string; b1: string; b2: string; a1: string; a2: string }[];
+  readonly sections: ReturnType<typeof namedSections>;
   readonly last: { readonly output: string; readonly done: string };
 }
 
@@ -72,18 +72,7 @@ export function rtlVerilogView(rtl: RtlModel, header: ArtifactHeader, files: Ver
     ranges: ranges(rtl),
     zeros: zeros(rtl),
     names: rtlConstantNames(names.constant),
-    sections: rtl.sections.map((s) => ({
-      instance: s.instance,
-      start: s.start,
-      input: s.input,
-      output: s.output,
-      done: s.done,
-      b0: names.constant(s.coefficients.B0),
-      b1: names.constant(s.coefficients.B1),
-      b2: names.constant(s.coefficients.B2),
-      a1: names.constant(s.coefficients.A1),
-      a2: names.constant(s.coefficients.A2),
-    })),
+    sections: namedSections(rtl, names.constant),
     last: { output: last.output, done: last.done },
   };
 }

@@ -1,7 +1,7 @@
 /** View-models of templates/rtl-loop.vhd.hbs and rtl-testbench.vhd.hbs: the reference loop in VHDL-2008. */
 import type { HexMemoryFile } from '../hexVectors.ts';
 import { codeNames } from '../identifiers.ts';
-import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, type RtlModel, type RtlPart } from '../rtl.ts';
+import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, namedSections, type RtlModel, type RtlPart } from '../rtl.ts';
 import type { ArtifactHeader } from './header.ts';
 
 
@@ -16,7 +16,7 @@ export interface RtlVhdlView {
   readonly entities: Omit<RtlModel['entities'], 'testbench'>;
   readonly sineTable: string;
   readonly names: Names;
-  readonly sections: readonly { instance: string; start: string; input: string; output: string; done: string; b0: string; b1: string; b2: string; a1: string; a2: string }[];
+  readonly sections: ReturnType<typeof namedSections>;
   readonly last: { readonly output: string; readonly done: string };
 }
 
@@ -55,18 +55,7 @@ export function rtlVhdlView(rtl: RtlModel, header: ArtifactHeader, files: VhdlFi
     entities,
     sineTable: names.vhdlConstant('SINE'),
     names: rtlConstantNames(names.vhdlConstant),
-    sections: rtl.sections.map((s) => ({
-      instance: s.instance,
-      start: s.start,
-      input: s.input,
-      output: s.output,
-      done: s.done,
-      b0: names.vhdlConstant(s.coefficients.B0),
-      b1: names.vhdlConstant(s.coefficients.B1),
-      b2: names.vhdlConstant(s.coefficients.B2),
-      a1: names.vhdlConstant(s.coefficients.A1),
-      a2: names.vhdlConstant(s.coefficients.A2),
-    })),
+    sections: namedSections(rtl, names.vhdlConstant),
     last: { output: last.output, done: last.done },
   };
 }
