@@ -12,7 +12,7 @@
  */
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { afterProcess, api, apiSignIn, type ApiAnswer } from '../e2e/harness/api.ts';
+import { afterProcess, api, apiSignIn, waitForVerdict, type ApiAnswer } from '../e2e/harness/api.ts';
 import { ROOT } from '../e2e/harness/paths.ts';
 import { childrenOf } from '../e2e/harness/server.ts';
 import { startStack, type Stack } from '../e2e/harness/stack.ts';
@@ -116,6 +116,8 @@ describe('an API process killed', () => {
     const designId = await designIdOf(stack.baseUrl, cookie, 'Carrier tracker');
     const cut = await api<{ id: number; manifestSha256: string }>(stack.baseUrl, `/api/designs/${designId}/releases`, { method: 'POST', cookie });
     expect(cut.status).toBe(201);
+    // Approval waits for the server's verification of the reference RTL, which runs in the background.
+    expect((await waitForVerdict(stack.baseUrl, cookie, cut.body.id)).verdict).toBe('passed');
     const reviewers = await api<{ reviewers: { id: number; email: string }[] }>(stack.baseUrl, '/api/reviewers', { cookie });
     const reviewerId = reviewers.body.reviewers.find((r) => r.email === 'reviewer@example.test')!.id;
     expect((await api(stack.baseUrl, `/api/releases/${cut.body.id}/reviews`, { cookie, json: { reviewerIds: [reviewerId], approvalsRequired: 1 } })).status).toBe(200);
