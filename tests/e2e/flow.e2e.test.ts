@@ -478,6 +478,8 @@ describe('Loopwright in the browser', () => {
 
     // A review link read on one process decides on the other, and only once on either.
     const v1 = cuts.find((c) => c.body.number === 1)!.body;
+    // Approval waits for the reference RTL's verification, which a process of the pair picked up.
+    expect((await waitForVerdict(baseUrl, designer.cookie, v1.id)).verdict).toBe('passed');
     const reviewers = await api<{ reviewers: { id: number; email: string }[] }>(baseUrl, '/api/reviewers', { cookie: designer.cookie });
     const robin = reviewers.body.reviewers.find((r) => r.email === 'reviewer@example.test')!;
     const asked = await api(baseUrl, `/api/releases/${v1.id}/reviews`, { cookie: designer.cookie, json: { reviewerIds: [robin.id], approvalsRequired: 1 } });
@@ -487,9 +489,6 @@ describe('Loopwright in the browser', () => {
     const read = await api(baseUrl, `/api/review-links/${token}`);
     expect(read.status).toBe(200);
     await afterProcess(baseUrl, read.process!);
-    // Approval waits for the reference RTL's verification, which a process of the pair picked up.
-    const verifiedBy = await waitForVerdict(baseUrl, designer.cookie, v1.id);
-    expect(verifiedBy.verdict).toBe('passed');
     const decision = { decision: 'approve', manifestSha256: v1.manifestSha256 };
     const decided = await api<{ state: string }>(baseUrl, `/api/review-links/${token}`, { json: decision });
     expect(decided.process).not.toBe(read.process);

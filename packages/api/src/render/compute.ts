@@ -6,6 +6,7 @@
 import { tryPlanDesign, type AnalysisResult, type DesignPlan, type SpecIssue } from '@loopwright/dsp';
 import type { HexMemoryFile } from './hexVectors.ts';
 import { releaseVectors } from './vectors.ts';
+import { referenceRtlSummary } from './rtl.ts';
 
 /** A plan whose loop has a bit-true form: what the constants, the RTL and an estimate are made of. */
 export type BitTrueDesign = DesignPlan & {
@@ -75,7 +76,7 @@ export function computeRelease(input: unknown): ComputeReleaseResult {
     ok: true,
     release: {
       plan: releasable,
-      results: { analysis: manifestAnalysis(plan.analysis), vectors: vectors.summary },
+      results: { analysis: manifestAnalysis(plan.analysis), vectors: vectors.summary, referenceRtl: referenceRtlSummary(releasable.bitTrue) },
       vectorsCsv: vectors.csv,
       vectorColumns: vectors.columns,
       vectorHex: vectors.hex,

@@ -142,3 +142,16 @@ export function namedSections(rtl: RtlModel, name: (suffix: string) => string) {
     a2: name(s.coefficients.A2),
   }));
 }
+
+/**
+ * What the manifest records of the reference RTL: its timing and the multipliers and ROM bits it has
+ * by construction. The yosys estimate is not here: the server makes it after the cut, beside the
+ * release, and a manifest's hash is fixed at the cut.
+ */
+export function referenceRtlSummary(plan: BitTruePlan) {
+  return {
+    ...referenceRtlTiming(plan.sectionCount),
+    romBits: plan.waveform === 'square' ? 0 : plan.sineTable.length * plan.amplitudeBits,
+    resourceEstimate: 'yosys, made by the server after the cut: see the release verification record',
+  };
+}

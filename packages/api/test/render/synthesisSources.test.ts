@@ -1,5 +1,5 @@
 /** The Verilog an estimate synthesises is the release's own: the same bytes as the cut files (common practice, no source: estimate what you ship). */
-import { mainsSyncSpec, ultrasonicLagLeadSpec } from '@loopwright/dsp';
+import { mainsSyncSpec, referenceRtlTiming, ultrasonicLagLeadSpec } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
 import { computeDesign } from '../../src/render/compute.ts';
 import { synthesisSources } from '../../src/render/synthesisSources.ts';
@@ -14,5 +14,16 @@ describe.each([mainsSyncSpec, ultrasonicLagLeadSpec])('synthesis sources of $nam
     expect(sources.top).toBe(`${spec.name}_loop`);
     expect([...sources.files.keys()].sort()).toEqual([`${spec.name}.vh`, ...sources.modules].sort());
     for (const [name, text] of sources.files) expect(text, name).toBe(release.files.find((f) => f.name === name)?.bytes.toString('utf8'));
+  });
+});
+
+describe('the manifest of a release', () => {
+  it('records the reference RTL timing and what it has by construction, and leaves the yosys estimate to the verification record', () => {
+    const results = renderRelease(mainsSyncSpec).manifest.results as { referenceRtl: Record<string, unknown> };
+    expect(results.referenceRtl).toEqual({
+      ...referenceRtlTiming(2),
+      romBits: 4096 * 16,
+      resourceEstimate: 'yosys, made by the server after the cut: see the release verification record',
+    });
   });
 });
