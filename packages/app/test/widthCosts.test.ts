@@ -17,7 +17,7 @@ const result = {
     minBits: 16,
     note: null,
   },
-  data: { curve: [{ dataBits: 14, macBits: 40, locked: true, steadyStatePhaseErrorDeg: 0.1, phaseJitterDeg: 0.2, cycleSlips: 0, passes: true, reasons: [] }], minBits: 14, coefficientBits: 18, note: null },
+  data: { curve: [{ dataBits: 14, accumulatorBits: 40, locked: true, steadyStatePhaseErrorDeg: 0.1, phaseJitterDeg: 0.2, cycleSlips: 0, passes: true, reasons: [] }], minBits: 14, coefficientBits: 18, note: null },
 } as unknown as WordLengthResult;
 
 const estimated = { state: 'estimated' as const, tool: 'Yosys 0.23', label: 'Estimate for a generic small FPGA', total: { generic: { luts: 6643, flipFlops: 383, multipliers: 4, romBits: 65536 }, ice40: { luts: 842, flipFlops: 368, carries: 307, dspBlocks: 7, ramBlocks: 16 } } };

@@ -45,7 +45,7 @@ export function widthCandidates(r: WordLengthResult, spec: LoopSpec): WidthCandi
     bits: p.dataBits,
     passes: p.passes,
     error: `phase error ${p.steadyStatePhaseErrorDeg.toFixed(3)}°, jitter ${p.phaseJitterDeg.toFixed(3)}°`,
-    spec: { ...spec, fixedPoint: { ...fp, dataBits: p.dataBits, accumulatorBits: p.macBits } },
+    spec: { ...spec, fixedPoint: { ...fp, dataBits: p.dataBits, accumulatorBits: p.accumulatorBits } },
   }));
   return [...coefficients, ...data];
 }
