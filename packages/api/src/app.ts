@@ -64,6 +64,9 @@ export function createApp(options: AppOptions): BuiltApp {
           // Helmet's default asks browsers to fetch every subresource over HTTPS, which breaks a team
           // server reached over plain HTTP; ask for it only when the deployment says it has HTTPS.
           upgradeInsecureRequests: config.session.cookieSecure ? [] : null,
+          // The editor's worker compiles the bit-true kernel (packages/dsp, WebAssembly); this allows
+          // compiling WebAssembly only, not eval of script text.
+          scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
         },
       },
     }),

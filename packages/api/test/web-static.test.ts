@@ -39,9 +39,11 @@ describe('serving the testApp.built web app', () => {
     await request(testApp.built.app).get('/api').expect(404);
   });
 
-  it('sends a CSP that keeps scripts same-origin and does not force HTTPS on a plain-HTTP deployment', async () => {
+  it('sends a CSP that keeps scripts same-origin, lets the worker compile WebAssembly, and does not force HTTPS on a plain-HTTP deployment', async () => {
     const csp = String((await request(testApp.built.app).get('/projects')).headers['content-security-policy']);
-    expect(csp).toMatch(/script-src 'self'/);
+    // 'wasm-unsafe-eval' allows WebAssembly compilation only (CSP Level 3), not 'unsafe-eval' of script text.
+    expect(csp).toMatch(/script-src 'self' 'wasm-unsafe-eval'(;|$)/);
+    expect(csp).not.toMatch(/'unsafe-eval'/);
     expect(csp).not.toMatch(/upgrade-insecure-requests/);
   });
 

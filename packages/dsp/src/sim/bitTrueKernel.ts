@@ -5,7 +5,6 @@
  * ones are split into hi (N − 32 bits) and lo (32 bits) words.
  */
 import type { BitTruePlan, BitTrueRecord } from '../types/sim.ts';
-import { applyOverflow, roundReal } from '../fixed/rounding.ts';
 import { CHECKSUM_BASIS } from './checksum.ts';
 
 export interface BitTrueState {
@@ -148,8 +147,23 @@ export function runBitTrueChunk(plan: BitTruePlan, state: BitTrueState, input: I
   state.checksum = h >>> 0;
 }
 
-/** Quantise input sample values to D-bit codes: round(x·2^(D−1)) in the spec's mode, saturating (an ADC clips). */
+/**
+ * Quantise input sample values to D-bit codes: round(x·2^(D−1)) in the spec's mode, saturating (an ADC
+ * clips) — roundReal and applyOverflow (src/fixed/rounding.ts) written out for the per-sample loop:
+ * v − floor(v) is exact, so ties are found exactly.
+ */
 export function quantizeInput(plan: BitTruePlan, x: Float64Array, count: number, out: Int32Array): void {
   const scale = 2 ** (plan.dataBits - 1);
-  for (let i = 0; i < count; i++) out[i] = applyOverflow(roundReal((x[i] as number) * scale, plan.rounding), plan.dataBits, 'saturate');
+  const max = scale - 1;
+  const min = -scale;
+  const mode: number = MODE[plan.rounding];
+  for (let i = 0; i < count; i++) {
+    const v = (x[i] as number) * scale;
+    let q = Math.floor(v);
+    if (mode !== 0) {
+      const r = v - q;
+      if (r > 0.5 || (r === 0.5 && (mode === 1 ? v >= 0 : q % 2 !== 0))) q += 1;
+    }
+    out[i] = q > max ? max : q < min ? min : q;
+  }
 }

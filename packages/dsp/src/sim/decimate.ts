@@ -24,15 +24,30 @@ export class MinMaxDecimator {
     this.nextBoundary = Math.floor(total / this.count);
   }
 
-  /** Samples must arrive in order, one call per sample. */
-  push(n: number, v: number): void {
-    while (n >= this.nextBoundary && this.bucket < this.count - 1) {
-      this.bucket++;
-      this.nextBoundary = Math.floor(((this.bucket + 1) * this.total) / this.count);
+  /**
+   * Samples n0 … n0 + count − 1 (values[0..count)); ranges must arrive in order. Each bucket's part of
+   * the range is one tight loop, the values compared in order (so ties of −0 and +0 keep the first).
+   */
+  pushRange(n0: number, count: number, values: Float64Array): void {
+    const last = this.count - 1;
+    let i = 0;
+    while (i < count) {
+      while (n0 + i >= this.nextBoundary && this.bucket < last) {
+        this.bucket++;
+        this.nextBoundary = Math.floor(((this.bucket + 1) * this.total) / this.count);
+      }
+      const b = this.bucket;
+      const end = b < last ? Math.min(count, this.nextBoundary - n0) : count;
+      let lo = this.min[b] as number;
+      let hi = this.max[b] as number;
+      for (; i < end; i++) {
+        const v = values[i] as number;
+        if (v < lo) lo = v;
+        if (v > hi) hi = v;
+      }
+      this.min[b] = lo;
+      this.max[b] = hi;
     }
-    const b = this.bucket;
-    if (v < (this.min[b] as number)) this.min[b] = v;
-    if (v > (this.max[b] as number)) this.max[b] = v;
   }
 
   trace(): DecimatedTrace {

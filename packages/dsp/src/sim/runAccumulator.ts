@@ -23,6 +23,21 @@ export interface RunSetup {
   readonly fullTraces: boolean;
 }
 
+/** One chunk of a run's per-sample observations (arrays of at least the chunk's length). */
+export interface ChunkObservations {
+  /** Input phase, cycles. */
+  readonly inPhase: Float64Array;
+  /** NCO phase before it advances, cycles. */
+  readonly ncoPhase: Float64Array;
+  /** Input sample values. */
+  readonly x: Float64Array;
+  /** Filter output, control units. */
+  readonly y: Float64Array;
+  readonly ncoHz: Float64Array;
+  /** The scenario's frequency offset, Hz. */
+  readonly offsetHz: Float64Array;
+}
+
 export class RunAccumulator {
   private readonly phase: MinMaxDecimator;
   private readonly filter: MinMaxDecimator;
@@ -30,6 +45,8 @@ export class RunAccumulator {
   private readonly lock: MinMaxDecimator;
   private readonly settle: MinMaxDecimator;
   private readonly full: SimFullTraces | undefined;
+  /** Per-sample values of the current chunk that are decimated after its loop. */
+  private readonly scratch: { readonly phaseErr: Float64Array; readonly smooth: Float64Array; readonly lock: Float64Array };
   private readonly boxcar: Float64Array;
   private boxSum = 0;
   private boxIndex = 0;
@@ -47,8 +64,9 @@ export class RunAccumulator {
   private demodSum2 = 0;
   private demodCount = 0;
 
-  constructor(private readonly s: RunSetup) {
+  constructor(private readonly s: RunSetup, chunkSamples: number) {
     const { total, buckets, sampleRateHz } = s;
+    this.scratch = { phaseErr: new Float64Array(chunkSamples), smooth: new Float64Array(chunkSamples), lock: new Float64Array(chunkSamples) };
     this.phase = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.filter = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
@@ -69,47 +87,76 @@ export class RunAccumulator {
   }
 
   /**
-   * One sample: input and NCO phases in cycles, input sample x, filter output (control units),
-   * NCO frequency, and the scenario's frequency offset (Hz).
+   * Samples n0 … n0 + count − 1 of one chunk: input and NCO phases in cycles, input samples x, filter
+   * output (control units), NCO frequency, and the scenario's frequency offset (Hz). The recurrences
+   * (unwrapping, the boxcar, the lock indicator, the tail sums) run sample by sample in one loop; the
+   * traces are then decimated a bucket at a time.
    */
-  push(n: number, inPhase: number, ncoPhase: number, x: number, y: number, ncoHz: number, offsetHz: number): void {
-    let e = inPhase - ncoPhase;
-    e -= Math.round(e);
-    let de = e - this.prevWrapped;
-    de -= Math.round(de);
-    this.prevWrapped = e;
-    this.unwrapped = n === 0 ? e * TWO_PI : this.unwrapped + de * TWO_PI;
-    const eu = this.unwrapped;
+  pushChunk(n0: number, count: number, o: ChunkObservations): void {
+    const { inPhase, ncoPhase, x, y, ncoHz, offsetHz } = o;
+    const { phaseErr, smooth, lock } = this.scratch;
     const box = this.boxcar;
-    this.boxSum += eu - (box[this.boxIndex] as number);
-    box[this.boxIndex] = eu;
-    this.boxIndex = (this.boxIndex + 1) % box.length;
-    if (this.boxFilled < box.length) this.boxFilled++;
-    const smooth = this.boxSum / this.boxFilled;
-    // Quadrature arm: x·sin(θo)·2/A ≈ cos θe after the ripple is filtered (multiplier identity, G3 Ch. 2).
-    const q = (2 * x * Math.sin(TWO_PI * ncoPhase)) / this.s.amplitude;
-    this.lockState += this.lockAlpha * (q - this.lockState);
-    this.phase.push(n, e * TWO_PI);
-    this.filter.push(n, y);
-    this.freq.push(n, ncoHz);
-    this.lock.push(n, this.lockState);
-    this.settle.push(n, smooth);
-    if (n >= this.tailStart) {
-      this.tailSum += eu;
-      this.tailSum2 += eu * eu;
-      this.tailFreqSum += ncoHz - (this.s.centerHz + offsetHz);
-      this.tailCount++;
+    const boxLength = box.length;
+    const { amplitude, centerHz, gainHzPerUnit } = this.s;
+    const alpha = this.lockAlpha;
+    const tailStart = this.tailStart;
+    const demodStart = this.demodStart;
+    let prev = this.prevWrapped;
+    let unwrapped = this.unwrapped;
+    let boxSum = this.boxSum;
+    let boxIndex = this.boxIndex;
+    let boxFilled = this.boxFilled;
+    let lockState = this.lockState;
+    for (let i = 0; i < count; i++) {
+      const n = n0 + i;
+      const phaseNco = ncoPhase[i] as number;
+      // x − Math.round(x) for x in (−1, 1), written out (Math.round is a slow call here): ties 0.5 → −0.5
+      // and −0.5 → −0.5 as Math.round has them, and + 0 turns −0 into +0 as x − Math.round(x) does.
+      const d0 = (inPhase[i] as number) - phaseNco;
+      const e = d0 >= 0.5 ? d0 - 1 : d0 < -0.5 ? d0 + 1 : d0 + 0;
+      const d1 = e - prev;
+      const de = d1 >= 0.5 ? d1 - 1 : d1 < -0.5 ? d1 + 1 : d1 + 0;
+      prev = e;
+      unwrapped = n === 0 ? e * TWO_PI : unwrapped + de * TWO_PI;
+      const eu = unwrapped;
+      boxSum += eu - (box[boxIndex] as number);
+      box[boxIndex] = eu;
+      if (++boxIndex === boxLength) boxIndex = 0;
+      if (boxFilled < boxLength) boxFilled++;
+      smooth[i] = boxSum / boxFilled;
+      // Quadrature arm: x·sin(θo)·2/A ≈ cos θe after the ripple is filtered (multiplier identity, G3 Ch. 2).
+      const q = (2 * (x[i] as number) * Math.sin(TWO_PI * phaseNco)) / amplitude;
+      lockState += alpha * (q - lockState);
+      lock[i] = lockState;
+      phaseErr[i] = e * TWO_PI;
+      if (n >= tailStart) {
+        this.tailSum += eu;
+        this.tailSum2 += eu * eu;
+        this.tailFreqSum += (ncoHz[i] as number) - (centerHz + (offsetHz[i] as number));
+        this.tailCount++;
+      }
+      if (n >= demodStart) {
+        const d = (y[i] as number) * gainHzPerUnit - (offsetHz[i] as number);
+        this.demodSum2 += d * d;
+        this.demodCount++;
+      }
     }
-    if (n >= this.demodStart) {
-      const d = y * this.s.gainHzPerUnit - offsetHz;
-      this.demodSum2 += d * d;
-      this.demodCount++;
-    }
+    this.prevWrapped = prev;
+    this.unwrapped = unwrapped;
+    this.boxSum = boxSum;
+    this.boxIndex = boxIndex;
+    this.boxFilled = boxFilled;
+    this.lockState = lockState;
+    this.phase.pushRange(n0, count, phaseErr);
+    this.filter.pushRange(n0, count, y);
+    this.freq.pushRange(n0, count, ncoHz);
+    this.lock.pushRange(n0, count, lock);
+    this.settle.pushRange(n0, count, smooth);
     if (this.full) {
-      this.full.phaseErrorRad[n] = e * TWO_PI;
-      this.full.filterOutput[n] = y;
-      this.full.ncoFrequencyHz[n] = ncoHz;
-      this.full.offsetHz[n] = offsetHz;
+      this.full.phaseErrorRad.set(phaseErr.subarray(0, count), n0);
+      this.full.filterOutput.set(y.subarray(0, count), n0);
+      this.full.ncoFrequencyHz.set(ncoHz.subarray(0, count), n0);
+      this.full.offsetHz.set(offsetHz.subarray(0, count), n0);
     }
   }
 

@@ -4,16 +4,18 @@
  * `simulateAsync` yields to the event loop so a Web Worker can receive a cancel message.
  */
 import type { Sos } from '../types/filter.ts';
-import type { BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, SimRun } from '../types/sim.ts';
+import type { BitTrueKernelChoice, BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, SimRun } from '../types/sim.ts';
 import type { LoopSpec, SpecIssue } from '../spec/schema.ts';
 import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
 import { allocInputChunk, inputGenerator } from './inputSignal.ts';
-import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut } from './bitTrueKernel.ts';
+import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut, type BitTrueState } from './bitTrueKernel.ts';
+import { wasmBitTrueLoop, wasmKernelAvailable, WASM_CHUNK_SAMPLES } from './wasm/wasmKernel.ts';
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
 import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
 
-export const CHUNK_SAMPLES = 8192;
+/** Samples per chunk: progress and the abort flag between chunks; one call of the WebAssembly kernel each. */
+export const CHUNK_SAMPLES = WASM_CHUNK_SAMPLES;
 export const MAX_SIM_SAMPLES = 50_000_000;
 export const MAX_RECORD_SAMPLES = 1 << 22;
 export const DEFAULT_BUCKETS = 1000;
@@ -131,40 +133,67 @@ function floatRunner(spec: SimSpec, sections: readonly Sos[], acc: RunAccumulato
   const cfg = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections };
   const state = initialFloatState(cfg);
   const out = { ncoPhaseCycles: new Float64Array(CHUNK_SAMPLES), filterOutput: new Float64Array(CHUNK_SAMPLES) };
+  const ncoHz = new Float64Array(CHUNK_SAMPLES);
   return {
     chunk(input, n0, count) {
       runFloatChunk(cfg, state, input.x, count, out);
-      for (let i = 0; i < count; i++) {
-        const y = out.filterOutput[i] as number;
-        const ncoHz = cfg.centerHz + cfg.gainHzPerUnit * y;
-        acc.push(n0 + i, input.phaseCycles[i] as number, out.ncoPhaseCycles[i] as number, input.x[i] as number, y, ncoHz, input.offsetHz[i] as number);
-      }
+      const y = out.filterOutput;
+      for (let i = 0; i < count; i++) ncoHz[i] = cfg.centerHz + cfg.gainHzPerUnit * (y[i] as number);
+      acc.pushChunk(n0, count, { inPhase: input.phaseCycles, ncoPhase: out.ncoPhaseCycles, x: input.x, y, ncoHz, offsetHz: input.offsetHz });
     },
     finish: () => acc.finish(),
   };
 }
 
-function bitTrueRunner(plan: BitTruePlan, total: number, keepRecord: boolean, acc: RunAccumulator): LoopRunner<BitTrueRun> {
-  const state = initialBitTrueState(plan);
-  const record = keepRecord ? allocRecord(total) : null;
+function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly keepRecord: boolean; readonly kernel: BitTrueKernelChoice }, acc: RunAccumulator): LoopRunner<BitTrueRun> {
+  const record = options.keepRecord ? allocRecord(total) : null;
   const scratch = record ? null : allocRecord(CHUNK_SAMPLES);
+  const wasm = options.kernel === 'wasm' ? wasmBitTrueLoop(plan) : null;
+  const state = wasm ? null : initialBitTrueState(plan);
   const toCycles = 2 ** -plan.ncoAccumulatorBits;
   const hiWeight = 2 ** 32 * toCycles;
   const yScale = 2 ** -(plan.dataBits - 1);
-  const ncoHz = bitTrueNcoHzOf(plan);
+  const ncoHzOf = bitTrueNcoHzOf(plan);
+  const hzPerLsb = plan.sampleRateHz / 2 ** plan.ncoAccumulatorBits;
+  const centerHz = plan.tuning.actualHz;
+  const ncoPhase = new Float64Array(CHUNK_SAMPLES);
+  const y = new Float64Array(CHUNK_SAMPLES);
+  const ncoHz = new Float64Array(CHUNK_SAMPLES);
   return {
     chunk(input, n0, count) {
-      const out = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
-      quantizeInput(plan, input.x, count, out.inputCode);
-      runBitTrueChunk(plan, state, out.inputCode, count, out as BitTrueChunkOut);
-      for (let i = 0; i < count; i++) {
-        const phase = (out.phaseHi[i] as number) * hiWeight + (out.phaseLo[i] as number) * toCycles;
-        const y = out.filterCode[i] as number;
-        acc.push(n0 + i, input.phaseCycles[i] as number, phase, input.x[i] as number, y * yScale, ncoHz(y), input.offsetHz[i] as number);
+      const slice = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
+      quantizeInput(plan, input.x, count, slice.inputCode);
+      let out: BitTrueChunkOut = slice;
+      if (wasm) {
+        wasm.run(slice.inputCode, count);
+        out = wasm.out;
+        if (record) copyChunk(out, slice, count);
+        // (M + Δ)·fs/2^N with the kernel's own Δ: the number bitTrueNcoHzOf(plan)(y) gives.
+        const delta = wasm.out.delta;
+        for (let i = 0; i < count; i++) ncoHz[i] = centerHz + (delta[i] as number) * hzPerLsb;
+      } else {
+        runBitTrueChunk(plan, state as BitTrueState, slice.inputCode, count, slice);
+        for (let i = 0; i < count; i++) ncoHz[i] = ncoHzOf(slice.filterCode[i] as number);
       }
+      const { phaseHi, phaseLo, filterCode } = out;
+      for (let i = 0; i < count; i++) {
+        ncoPhase[i] = (phaseHi[i] as number) * hiWeight + (phaseLo[i] as number) * toCycles;
+        y[i] = (filterCode[i] as number) * yScale;
+      }
+      acc.pushChunk(n0, count, { inPhase: input.phaseCycles, ncoPhase, x: input.x, y, ncoHz, offsetHz: input.offsetHz });
     },
-    finish: () => ({ ...acc.finish(), checksum: state.checksum, ...(record ? { record } : {}) }),
+    finish: () => ({ ...acc.finish(), checksum: wasm ? wasm.checksum : (state as BitTrueState).checksum, ...(record ? { record } : {}) }),
   };
+}
+
+/** Copy the first `count` samples of a kernel's outputs into a record slice. */
+function copyChunk(from: BitTrueChunkOut, to: BitTrueChunkOut, count: number): void {
+  to.phaseHi.set(from.phaseHi.subarray(0, count));
+  to.phaseLo.set(from.phaseLo.subarray(0, count));
+  to.tableAddress.set(from.tableAddress.subarray(0, count));
+  to.ncoCode.set(from.ncoCode.subarray(0, count));
+  to.detectorCode.set(from.detectorCode.subarray(0, count));
+  to.filterCode.set(from.filterCode.subarray(0, count));
 }
 
 function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total: number): RunSetup {
@@ -192,8 +221,9 @@ export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: Sim
   }
   const plan = mode !== 'float' ? requireBitTrue(loop) : undefined;
   const setup = runSetup(spec, scenario, options, total);
-  const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup)) : null;
-  const bitLoop = plan ? bitTrueRunner(plan, total, keep, new RunAccumulator(setup)) : null;
+  const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
+  const kernel = options.bitTrueKernel ?? (wasmKernelAvailable() ? 'wasm' : 'typescript');
+  const bitLoop = plan ? bitTrueRunner(plan, total, { keepRecord: keep, kernel }, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
   const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, spec.input.amplitude);
   const input = allocInputChunk(CHUNK_SAMPLES);
   for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {

@@ -133,7 +133,14 @@ export interface SimOptions {
   readonly keepRecord?: boolean;
   /** Lock tolerance in rad (default 0.1). */
   readonly lockToleranceRad?: number;
+  /**
+   * Which implementation runs the bit-true loop: the WebAssembly kernel (default where WebAssembly
+   * can be compiled) or the TypeScript one. Both give the same record bit for bit.
+   */
+  readonly bitTrueKernel?: BitTrueKernelChoice;
 }
+
+export type BitTrueKernelChoice = 'wasm' | 'typescript';
 export type { GoldenVectors } from '../vectors/goldenVectors.ts';
 export type { VectorCsvColumn } from '../vectors/vectorsCsv.ts';
 
