@@ -220,6 +220,70 @@ describe('Loopwright in the browser', () => {
     await page.close();
   });
 
+  it('exports a spec, imports it as a new design, duplicates, archives, restores and deletes designs', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    const card = page.locator('section.project', { hasText: 'Ultrasonic flow meter' });
+    const row = (title: string) => card.locator('li[data-test^="design-row-"]', { hasText: title });
+    await row('Carrier tracker').waitFor();
+
+    const exported = page.waitForEvent('download');
+    await row('Carrier tracker').locator('a[data-test^="export-"]').click();
+    const specFile = await exported;
+    const specText = await fs.readFile((await specFile.path())!, 'utf8');
+    const spec = JSON.parse(specText) as { name: string; specVersion: number };
+    expect(spec.specVersion).toBe(1);
+    expect(specFile.suggestedFilename()).toBe(`${spec.name}.spec.json`);
+
+    // A file with a wrong field is refused, naming the field; nothing is created.
+    const broken = path.join(downloads, 'broken.spec.json');
+    await fs.writeFile(broken, JSON.stringify({ ...spec, sampleRateHz: -1 }));
+    await card.locator('[data-test="import-design"]').click();
+    await page.setInputFiles('input[data-test="import-file"]', broken);
+    await page.click('[data-test="confirm-import"]');
+    await page.waitForSelector('[data-test="import-error"]');
+    expect(await textOf(page, '[data-test="import-error"]')).toMatch(/sampleRateHz/);
+
+    const good = path.join(downloads, specFile.suggestedFilename());
+    await fs.writeFile(good, specText);
+    await page.setInputFiles('input[data-test="import-file"]', good);
+    await page.fill('input[data-test="import-title"]', 'Imported flow-meter loop');
+    await page.click('[data-test="confirm-import"]');
+    await page.waitForURL((u) => /^\/designs\/\d+$/.test(u.pathname));
+    await page.waitForSelector('[data-test="bode-chart"] canvas');
+    expect(await textOf(page, '[data-test="design-name"]')).toBe('Imported flow-meter loop');
+    expect(await page.inputValue('input[data-test="name"]')).toBe(spec.name);
+
+    await page.click('[data-test="nav-projects"]');
+    await row('Imported flow-meter loop').locator('[data-test^="design-menu-"]').click();
+    await page.click('.el-dropdown-menu:visible [data-test="design-duplicate"]');
+    await page.fill('input[data-test="duplicate-title"]', 'Flow-meter loop variant');
+    await page.click('[data-test="confirm-duplicate"]');
+    await row('Flow-meter loop variant').waitFor();
+    await screenshot(page, '15-projects-design-actions');
+
+    await row('Flow-meter loop variant').locator('[data-test^="design-menu-"]').click();
+    await page.click('.el-dropdown-menu:visible [data-test="design-archive"]');
+    await row('Flow-meter loop variant').waitFor({ state: 'detached' });
+    await page.click('[data-test="show-archived"]');
+    await row('Flow-meter loop variant').locator('[data-test="archived-tag"]').waitFor();
+    await row('Flow-meter loop variant').locator('a.design').click();
+    await page.waitForSelector('[data-test="archived-notice"]');
+    expect(await page.isVisible('[data-test="save-design"]')).toBe(false);
+    expect(await page.isDisabled('input[data-test="center-hz"]')).toBe(true);
+
+    await page.click('[data-test="nav-projects"]');
+    await row('Flow-meter loop variant').locator('[data-test^="design-menu-"]').click();
+    await page.click('.el-dropdown-menu:visible [data-test="design-restore"]');
+    await row('Flow-meter loop variant').locator('[data-test="archived-tag"]').waitFor({ state: 'detached' });
+
+    page.once('dialog', (d) => void d.accept());
+    await row('Imported flow-meter loop').locator('[data-test^="design-menu-"]').click();
+    await page.click('.el-dropdown-menu:visible [data-test="design-delete"]');
+    await row('Imported flow-meter loop').waitFor({ state: 'detached' });
+    await page.close();
+  });
+
   it('shows what changed when two designers save the same design, and merges on request', async () => {
     await browser.context.clearCookies();
     const a = await browser.newPage();

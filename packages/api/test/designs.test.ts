@@ -114,6 +114,33 @@ describe('designs', () => {
     expect(copy).toMatchObject({ name: `${design.name} (copy)`, revision: 1, spec: design.spec });
   });
 
+  it('archives a design out of the default list, refuses edits while archived, and duplicates it as an active copy', async () => {
+    const design = await createDesign({ name: 'Old mains loop', templateId: 'mains-sync' });
+    const archived = (await designer.patch(`/api/designs/${design.id}`).set(csrf).send({ archived: true }).expect(200)).body;
+    expect(archived).toMatchObject({ archived: true, revision: 1, spec: design.spec });
+    const ids = async (query: string) => (await designer.get(`/api/projects/${projectId}/designs${query}`).expect(200)).body.designs.map((d: { id: number }) => d.id);
+    expect(await ids('')).not.toContain(design.id);
+    expect(await ids('?archived=true')).toContain(design.id);
+    expect(await ids('?archived=all')).toContain(design.id);
+
+    const refused = await designer.put(`/api/designs/${design.id}`).set(csrf).send({ baseRevision: 1, spec: { ...design.spec, centerHz: 60 } }).expect(409);
+    expect(refused.body.error).toMatchObject({ code: 'conflict', field: 'archived' });
+    expect((await designer.get(`/api/designs/${design.id}`).expect(200)).body).toMatchObject({ revision: 1, spec: { centerHz: design.spec.centerHz } });
+
+    const copy = (await designer.post(`/api/designs/${design.id}/duplicate`).set(csrf).send({ name: 'New mains loop' }).expect(201)).body;
+    expect(copy).toMatchObject({ name: 'New mains loop', archived: false, revision: 1, spec: design.spec });
+    expect(await ids('')).toContain(copy.id);
+    expect(await auditActions('design', design.id)).toEqual(['design.create', 'design.archive']);
+  });
+
+  it('refuses an archive request without a boolean, naming archived', async () => {
+    const design = await createDesign();
+    const response = await designer.patch(`/api/designs/${design.id}`).set(csrf).send({ archived: 'yes' }).expect(400);
+    expect(response.body.error.field).toBe('archived');
+    const list = await designer.get(`/api/projects/${projectId}/designs?archived=maybe`).expect(400);
+    expect(list.body.error.field).toBe('archived');
+  });
+
   it('deletes a design without releases and answers 404 afterwards', async () => {
     const design = await createDesign();
     await designer.delete(`/api/designs/${design.id}`).set(csrf).expect(204);

@@ -58,6 +58,7 @@ const CASES: Record<string, Case> = {
   'GET /designs/:id': { allowed: 'signed-in', call: (a, f) => a.get(`/api/designs/${f.designId}`) },
   'GET /designs/:id/spec.json': { allowed: 'signed-in', call: (a, f) => a.get(`/api/designs/${f.designId}/spec.json`) },
   'PUT /designs/:id': { allowed: DESIGNER, call: async (a, f) => a.put(`/api/designs/${await f.freshDesign()}`).set(csrf).send({ baseRevision: 1, name: 'Edited' }) },
+  'PATCH /designs/:id': { allowed: DESIGNER, call: async (a, f) => a.patch(`/api/designs/${await f.freshDesign()}`).set(csrf).send({ archived: true }) },
   'POST /designs/:id/duplicate': { allowed: DESIGNER, call: (a, f) => a.post(`/api/designs/${f.designId}/duplicate`).set(csrf).send({}) },
   'DELETE /designs/:id': { allowed: DESIGNER, call: async (a, f) => a.delete(`/api/designs/${await f.freshDesign()}`).set(csrf) },
   'POST /analysis': { allowed: ANALYSTS, call: (a) => a.post('/api/analysis').set(csrf).send({ spec: ultrasonicSinglePoleSpec }) },

@@ -7,7 +7,7 @@ import { ApiError } from '../src/api/client.ts';
 import type { Design } from '../src/api/types.ts';
 
 function design(revision: number, spec = mainsSyncSpec, ownerName = 'Dana Designer'): Design {
-  return { id: 7, projectId: 1, name: 'Mains sync', revision, ownerId: 1, ownerName, createdAt: '2026-01-01T00:00:00Z', updatedAt: '2026-01-01T00:00:00Z', spec };
+  return { id: 7, projectId: 1, name: 'Mains sync', revision, ownerId: 1, ownerName, archived: false, createdAt: '2026-01-01T00:00:00Z', updatedAt: '2026-01-01T00:00:00Z', spec };
 }
 
 describe('design store', () => {

@@ -30,7 +30,7 @@ describe('releases store', () => {
   beforeEach(() => {
     setActivePinia(createPinia());
     vi.restoreAllMocks();
-    vi.spyOn(designsApi, 'get').mockResolvedValue({ id: 1, projectId: 1, name: 'Mains sync', revision: 4, ownerId: 1, ownerName: 'Dana', createdAt: '', updatedAt: '', spec: mainsSyncSpec });
+    vi.spyOn(designsApi, 'get').mockResolvedValue({ id: 1, projectId: 1, name: 'Mains sync', revision: 4, ownerId: 1, ownerName: 'Dana', archived: false, createdAt: '', updatedAt: '', spec: mainsSyncSpec });
   });
 
   it('follows a release verification until the server is done with it', async () => {

@@ -12,6 +12,8 @@ export const designSummarySchema = z.object({
   revision: z.number().int(),
   ownerId: z.number().int(),
   ownerName: z.string(),
+  /** Archived: out of the default list, read-only, never released again; kept with its releases. */
+  archived: z.boolean(),
   createdAt: isoDateSchema,
   updatedAt: isoDateSchema,
 });
@@ -19,7 +21,10 @@ export type DesignSummary = z.infer<typeof designSummarySchema>;
 
 export const designRecordSchema = designSummarySchema.extend({ spec: loopSpecSchema });
 export type DesignRecord = z.infer<typeof designRecordSchema>;
-export const designListResponseSchema = z.object({ designs: z.array(designSummarySchema) });
+/** A design in a project's list, with how many releases it has (the screen offers delete only without). */
+export const designListItemSchema = designSummarySchema.extend({ releaseCount: z.number().int() });
+export type DesignListItem = z.infer<typeof designListItemSchema>;
+export const designListResponseSchema = z.object({ designs: z.array(designListItemSchema) });
 export type DesignListResponse = z.infer<typeof designListResponseSchema>;
 
 export const templateRecordSchema = z.object({
@@ -44,6 +49,15 @@ export const designCreateRequestSchema = z
     path: ['templateId'],
   });
 export type DesignCreateRequest = z.input<typeof designCreateRequestSchema>;
+
+export const designListQuerySchema = z.strictObject({
+  archived: z.enum(['true', 'false', 'all']).default('false'),
+});
+export type DesignListQuery = z.infer<typeof designListQuerySchema>;
+
+/** Archive (true) or restore (false) a design; the spec and its revision are untouched. */
+export const designArchiveRequestSchema = z.strictObject({ archived: z.boolean() });
+export type DesignArchiveRequest = z.infer<typeof designArchiveRequestSchema>;
 
 /** Every update says which revision it was based on; a stale one is answered 409 stale_revision. */
 export const designUpdateRequestSchema = z.strictObject({

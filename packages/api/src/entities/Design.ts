@@ -40,6 +40,13 @@ export class Design {
   @JoinColumn({ name: 'ownerId' })
   owner: Relation<User>;
 
+  /**
+   * An archived design leaves the default list and can no longer be edited or released; it is kept with
+   * its releases (a design that has releases is never deleted). Restoring clears it.
+   */
+  @Column({ type: 'datetime', precision: 3, nullable: true })
+  archivedAt: Date | null;
+
   /** Starts at 1, +1 on every accepted update (compare-and-set in one UPDATE). */
   @Column({ type: 'int', unsigned: true, default: 1 })
   revision: number;

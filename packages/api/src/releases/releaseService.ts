@@ -6,7 +6,7 @@
  * and never collide; the unique (designId, number) index is the database's second line of defence.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import type { DesignRecord, DesignSummary, SessionUser } from '@loopwright/contract';
+import type { DesignListItem, DesignListQuery, DesignRecord, SessionUser } from '@loopwright/contract';
 import { AppError, conflict, invalidInput, issuesError, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
@@ -61,6 +61,7 @@ export class ReleaseService {
 
   async cut(organizationId: number, designId: number, actor: Actor): Promise<ReleaseRecord> {
     const design = await this.designs.get(organizationId, designId);
+    this.designs.assertNotArchived(design, 'cutting a release of it');
     const id = await this.store(design, await this.render(design.spec), actor);
     this.verification.wake();
     return this.getForUser(organizationId, id, { roles: ['designer'] });
@@ -160,17 +161,25 @@ export class ReleaseService {
     return asApproved(design, latest);
   }
 
-  /** A project's designs as `user` may see them (firmware: those with an approved release, as of it). */
-  async designsForUser(organizationId: number, projectId: number, user: Pick<SessionUser, 'roles'>): Promise<DesignSummary[]> {
-    const designs = await this.designs.list(organizationId, projectId);
-    if (seesAllStates(user)) return designs;
-    const approved = await listReleases(this.dataSource.manager, organizationId, { projectId, states: FIRMWARE_VISIBLE_STATES });
+  /**
+   * A project's designs as `user` may see them, each with its release count (firmware: the designs with
+   * an approved release, as of the latest, counting approved releases only).
+   */
+  async designsForUser(organizationId: number, projectId: number, user: Pick<SessionUser, 'roles'>, archived: DesignListQuery['archived'] = 'false'): Promise<DesignListItem[]> {
+    const designs = await this.designs.list(organizationId, projectId, archived);
+    const releases = await listReleases(this.dataSource.manager, organizationId, { projectId, ...(seesAllStates(user) ? {} : { states: FIRMWARE_VISIBLE_STATES }) });
+    const count = new Map<number, number>();
     // Newest first per design (listReleases orders by number descending).
     const latest = new Map<number, ReleaseRow>();
-    for (const r of approved) if (!latest.has(Number(r.designId))) latest.set(Number(r.designId), r);
+    for (const r of releases) {
+      const designId = Number(r.designId);
+      count.set(designId, (count.get(designId) ?? 0) + 1);
+      if (!latest.has(designId)) latest.set(designId, r);
+    }
+    if (seesAllStates(user)) return designs.map((d) => ({ ...d, releaseCount: count.get(d.id) ?? 0 }));
     return designs.flatMap((d) => {
       const r = latest.get(d.id);
-      return r ? [{ ...d, revision: Number(r.designRevision), updatedAt: new Date(r.createdAt).toISOString() }] : [];
+      return r ? [{ ...d, revision: Number(r.designRevision), updatedAt: new Date(r.createdAt).toISOString(), releaseCount: count.get(d.id) ?? 0 }] : [];
     });
   }
 

@@ -1,7 +1,9 @@
 import {
   DESIGN_UPLOAD_FIELD,
+  designArchiveRequestSchema,
   designCreateRequestSchema,
   designDuplicateRequestSchema,
+  designListQuerySchema,
   designUpdateRequestSchema,
   designUploadFieldsSchema,
   idParamsSchema,
@@ -27,9 +29,10 @@ export const designRoutes = [
     method: 'get',
     path: '/projects/:id/designs',
     access: 'signed-in',
-    summary: "list a project's designs (firmware: those with an approved release)",
+    summary: "list a project's designs with their release counts (?archived=false|true|all, default false; firmware: those with an approved release)",
     params: idParamsSchema,
-    handler: async ({ services, user, params }): Promise<DesignListResponse> => ({ designs: await services.handoff.releases.designsForUser(user.organizationId, params.id, user) }),
+    query: designListQuerySchema,
+    handler: async ({ services, user, params, query }): Promise<DesignListResponse> => ({ designs: await services.handoff.releases.designsForUser(user.organizationId, params.id, user, query.archived) }),
   }),
   route({
     method: 'post',
@@ -96,6 +99,15 @@ export const designRoutes = [
     params: idParamsSchema,
     body: designDuplicateRequestSchema,
     handler: ({ services, user, params, body, actor }): Promise<DesignRecord> => services.designs.duplicate(user.organizationId, params.id, body, { ...actor, id: user.id }),
+  }),
+  route({
+    method: 'patch',
+    path: '/designs/:id',
+    access: DESIGNER,
+    summary: 'archive (archived: true) or restore (false) a design; its spec, revision and releases stay',
+    params: idParamsSchema,
+    body: designArchiveRequestSchema,
+    handler: ({ services, user, params, body, actor }): Promise<DesignRecord> => services.designs.setArchived(user.organizationId, params.id, body.archived, { ...actor, id: user.id }),
   }),
   route({
     method: 'delete',

@@ -1,7 +1,7 @@
 import { parseLoopSpec, type LoopSpec } from '@loopwright/dsp';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { z } from 'zod';
-import type { DesignDuplicateRequest, DesignRecord, DesignSummary, designCreateRequestSchema, designUpdateRequestSchema } from '@loopwright/contract';
+import type { DesignDuplicateRequest, DesignListQuery, DesignRecord, DesignSummary, designCreateRequestSchema, designUpdateRequestSchema } from '@loopwright/contract';
 import { Design } from '../entities/index.ts';
 import { AppError, conflict, invalidInput, issuesError, notFound, staleRevision } from '../errors.ts';
 import type { AuditActor, AuditService } from './audit.ts';
@@ -21,6 +21,7 @@ interface DesignRow {
   revision: number;
   ownerId: number;
   ownerName: string;
+  archivedAt: Date | null;
   createdAt: Date;
   updatedAt: Date;
   specJson?: string;
@@ -34,6 +35,7 @@ function toSummary(row: DesignRow): DesignSummary {
     revision: Number(row.revision),
     ownerId: Number(row.ownerId),
     ownerName: row.ownerName,
+    archived: row.archivedAt !== null,
     createdAt: new Date(row.createdAt).toISOString(),
     updatedAt: new Date(row.updatedAt).toISOString(),
   };
@@ -75,7 +77,7 @@ export class DesignService {
   private select(manager: EntityManager, withSpec: boolean) {
     const qb = manager
       .createQueryBuilder()
-      .select(['d.id AS id', 'd.projectId AS projectId', 'd.name AS name', 'd.revision AS revision', 'd.ownerId AS ownerId', 'u.displayName AS ownerName', 'd.createdAt AS createdAt', 'd.updatedAt AS updatedAt'])
+      .select(['d.id AS id', 'd.projectId AS projectId', 'd.name AS name', 'd.revision AS revision', 'd.ownerId AS ownerId', 'u.displayName AS ownerName', 'd.archivedAt AS archivedAt', 'd.createdAt AS createdAt', 'd.updatedAt AS updatedAt'])
       .from(Design, 'd')
       .innerJoin('d.owner', 'u')
       .innerJoin('d.project', 'p');
@@ -83,9 +85,12 @@ export class DesignService {
     return qb;
   }
 
-  async list(organizationId: number, projectId: number): Promise<DesignSummary[]> {
+  async list(organizationId: number, projectId: number, archived: DesignListQuery['archived'] = 'false'): Promise<DesignSummary[]> {
     await this.projects.assertInOrganization(organizationId, projectId);
-    const rows = await this.select(this.dataSource.manager, false).where('d.projectId = :projectId', { projectId }).orderBy('d.name', 'ASC').addOrderBy('d.id', 'ASC').getRawMany<DesignRow>();
+    const qb = this.select(this.dataSource.manager, false).where('d.projectId = :projectId', { projectId });
+    if (archived === 'false') qb.andWhere('d.archivedAt IS NULL');
+    if (archived === 'true') qb.andWhere('d.archivedAt IS NOT NULL');
+    const rows = await qb.orderBy('d.name', 'ASC').addOrderBy('d.id', 'ASC').getRawMany<DesignRow>();
     return rows.map(toSummary);
   }
 
@@ -98,6 +103,11 @@ export class DesignService {
   private async assertWritableProject(organizationId: number, projectId: number): Promise<void> {
     const { archived } = await this.projects.assertInOrganization(organizationId, projectId);
     if (archived) throw conflict('the project is archived; restore it before changing its designs', 'projectId');
+  }
+
+  /** An archived design is kept as it is: restore it before changing or releasing it. */
+  assertNotArchived(design: Pick<DesignRecord, 'archived'>, doing: string): void {
+    if (design.archived) throw conflict(`the design is archived; restore it before ${doing}`, 'archived');
   }
 
   private async insert(projectId: number, name: string, spec: LoopSpec, actor: Actor, action: string, detail: unknown): Promise<number> {
@@ -152,6 +162,7 @@ export class DesignService {
   async update(organizationId: number, id: number, request: DesignUpdateRequest, actor: Actor): Promise<DesignRecord> {
     const before = await this.get(organizationId, id);
     await this.assertWritableProject(organizationId, before.projectId);
+    this.assertNotArchived(before, 'editing it');
     const changes: Partial<Pick<Design, 'name' | 'specJson'>> = {};
     if (request.name !== undefined) changes.name = request.name;
     if (request.spec !== undefined) changes.specJson = JSON.stringify(request.spec);
@@ -178,6 +189,27 @@ export class DesignService {
     const name = request.name ?? `${source.name} (copy)`.slice(0, 120);
     const newId = await this.insert(projectId, name, source.spec, actor, 'design.duplicate', { sourceId: id, sourceRevision: source.revision, projectId });
     return this.get(organizationId, newId);
+  }
+
+  /**
+   * Archive (archived: true) or restore (false). Neither touches the spec or the revision, so an open
+   * editor's next save is not refused as stale; archiving twice keeps the first time.
+   */
+  async setArchived(organizationId: number, id: number, archived: boolean, actor: Actor): Promise<DesignRecord> {
+    const design = await this.get(organizationId, id);
+    await this.assertWritableProject(organizationId, design.projectId);
+    if (design.archived !== archived) {
+      await this.dataSource.transaction(async (manager) => {
+        await manager
+          .createQueryBuilder()
+          .update(Design)
+          .set({ archivedAt: archived ? () => 'CURRENT_TIMESTAMP(3)' : null })
+          .where('id = :id', { id })
+          .execute();
+        await this.audit.record(actor, { action: archived ? 'design.archive' : 'design.restore', objectType: 'design', objectId: id, detail: { name: design.name, projectId: design.projectId, revision: design.revision } }, manager);
+      });
+    }
+    return this.get(organizationId, id);
   }
 
   async remove(organizationId: number, id: number, actor: Actor): Promise<void> {

@@ -192,3 +192,37 @@ describe('hand-off flow', () => {
     await expect(h.dataSource.query('DELETE FROM `releases` WHERE `id` = ?', [releaseId])).rejects.toThrow(/kept for the record/);
   });
 });
+
+describe('a design with releases', () => {
+  it('is never deleted; archiving freezes it (no edit, no cut) and keeps its releases; restoring thaws it', async () => {
+    const id = await designFromTemplate(h.designer);
+    const v1 = (await h.designer.post(`/api/designs/${id}/releases`).set(csrf).expect(201)).body;
+    const projectId = (await h.designer.get(`/api/designs/${id}`).expect(200)).body.projectId;
+    const listed = (await h.designer.get(`/api/projects/${projectId}/designs`).expect(200)).body.designs;
+    expect(listed.find((d: { id: number }) => d.id === id)).toMatchObject({ archived: false, releaseCount: 1 });
+
+    const refused = await h.designer.delete(`/api/designs/${id}`).set(csrf).expect(409);
+    expect(refused.body.error.message).toMatch(/1 release/);
+
+    const archived = (await h.designer.patch(`/api/designs/${id}`).set(csrf).send({ archived: true }).expect(200)).body;
+    expect(archived).toMatchObject({ archived: true, revision: 1 });
+    const active = (await h.designer.get(`/api/projects/${projectId}/designs`).expect(200)).body.designs.map((d: { id: number }) => d.id);
+    expect(active).not.toContain(id);
+    const onlyArchived = (await h.designer.get(`/api/projects/${projectId}/designs?archived=true`).expect(200)).body.designs;
+    expect(onlyArchived.map((d: { id: number }) => d.id)).toEqual([id]);
+
+    const edit = await h.designer.put(`/api/designs/${id}`).set(csrf).send({ baseRevision: 1, name: 'Edited while archived' }).expect(409);
+    expect(edit.body.error).toMatchObject({ code: 'conflict', field: 'archived' });
+    const cut = await h.designer.post(`/api/designs/${id}/releases`).set(csrf).expect(409);
+    expect(cut.body.error).toMatchObject({ code: 'conflict', field: 'archived' });
+    // Its release is still the record it was.
+    const kept = (await h.designer.get(`/api/releases/${v1.id}`).expect(200)).body;
+    expect(kept.manifestSha256).toBe(v1.manifestSha256);
+    expect((await h.designer.get(`/api/designs/${id}/releases`).expect(200)).body.releases).toHaveLength(1);
+
+    await h.designer.patch(`/api/designs/${id}`).set(csrf).send({ archived: false }).expect(200);
+    await h.designer.put(`/api/designs/${id}`).set(csrf).send({ baseRevision: 1, name: 'Edited after restore' }).expect(200);
+    const actions: { action: string }[] = await h.dataSource.query("SELECT action FROM audit_entries WHERE objectType = 'design' AND objectId = ? ORDER BY id", [String(id)]);
+    expect(actions.map((a) => a.action)).toEqual(['design.create', 'design.archive', 'design.restore', 'design.update']);
+  });
+});

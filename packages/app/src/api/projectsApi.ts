@@ -23,7 +23,9 @@ export const projectsApi = {
   list: () => api.request('/projects', projectListResponseSchema).then((b) => b.projects),
   create: (request: CreateProjectRequest) => api.request('/projects', projectRecordSchema, { method: 'POST', body: request }),
   templates: (): Promise<DesignTemplate[]> => api.request('/templates', templateListResponseSchema).then((b) => b.templates),
-  designs: (id: number) => api.request(`/projects/${id}/designs`, designListResponseSchema).then((b) => b.designs),
+  /** With `archived: 'all'` the archived designs come too (each says which it is). */
+  designs: (id: number, archived: 'false' | 'all' = 'false') =>
+    api.request(`/projects/${id}/designs`, designListResponseSchema, { query: { archived } }).then((b) => b.designs),
   createDesign: (id: number, request: CreateDesignRequest) =>
     api.request(`/projects/${id}/designs`, designSummarySchema, { method: 'POST', body: request }),
 };

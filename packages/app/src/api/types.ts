@@ -7,6 +7,7 @@ import type {
   AuditEntryRecord,
   AuditQuery as ContractAuditQuery,
   DesignRecord,
+  DesignListItem as ContractDesignListItem,
   DesignSummary as ContractDesignSummary,
   ProjectRecord,
   Role as ContractRole,
@@ -45,6 +46,8 @@ export type SessionUser = ContractSessionUser;
 
 export type Project = ProjectRecord;
 export type DesignSummary = ContractDesignSummary;
+/** A design as a project's list shows it: with its release count. */
+export type DesignListItem = ContractDesignListItem;
 export type Design = DesignRecord;
 
 export interface SaveDesignRequest {
