@@ -200,6 +200,23 @@ describe('Loopwright in the browser', () => {
     await page.close();
   });
 
+  it('explains each choice of the spec beside its field, with its source', async () => {
+    const page = await freshPage();
+    await signIn(page, stack.baseUrl, 'designer@example.test');
+    await openDesign(page, 'Mains sync PI loop');
+    await page.click('[data-test="why-filter-damping"]');
+    const damping = await textOf(page, '[data-test="guide-filter-damping"]');
+    expect(damping).toMatch(/phase margin/i);
+    expect(damping).toContain('Source: Og5');
+    await page.click('[data-test="why-fixed-point-rounding"]');
+    expect(await textOf(page, '[data-test="guide-fixed-point-rounding"]')).toMatch(/Truncation.*half an LSB/);
+    await page.locator('[data-test="guide-filter-damping"]').scrollIntoViewIfNeeded();
+    await screenshot(page, '16-editor-guidance');
+    await page.click('[data-test="guidance-all"]');
+    expect(await page.locator('.guide').count()).toBeGreaterThan(8);
+    await page.close();
+  });
+
   it('creates a project and a design from a template, and opens it in the editor', async () => {
     const page = await freshPage();
     await signIn(page, stack.baseUrl, 'designer@example.test');
