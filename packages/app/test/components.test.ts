@@ -9,6 +9,7 @@ import VerdictStrip from '../src/components/VerdictStrip.vue';
 import SignInView from '../src/views/SignInView.vue';
 import { specToDraft } from '../src/form/specDraft.ts';
 import { analyzeJob } from '../src/workers/dspJobs.ts';
+import { bodeMarkers } from '../src/components/analysisView.ts';
 import { sessionApi } from '../src/api/sessionApi.ts';
 import { ApiError } from '../src/api/client.ts';
 
@@ -87,6 +88,34 @@ describe('margins summary and verdict', () => {
     expect(wrapper.find('[data-test="verdict-label"]').text()).toBe('Stable — margins not met');
     expect(wrapper.text()).toContain('below 45°');
     expect(wrapper.text()).toContain('showing the last valid spec');
+  });
+
+  // 6-bit coefficients round the mains loop's filter until a closed-loop pole leaves the unit circle
+  // (the dsp verdict says so); a margin is only defined for a stable loop (common practice, no source).
+  const quantisedUnstable = analyzeJob({ ...mainsSyncSpec, fixedPoint: { ...mainsSyncSpec.fixedPoint, coefficientBits: 6 } });
+
+  it('shows no margin and no pass mark for a loop whose quantised coefficients make it unstable', () => {
+    expect(quantisedUnstable.analysis.quantization.loop?.stable).toBe(false);
+    const wrapper = mount(MarginsSummary, { props: { analysis: quantisedUnstable } });
+    for (const row of ['row-stability', 'row-phase-margin', 'row-gain-margin']) {
+      expect(wrapper.find(`[data-test="${row}"] td:last-child`).text()).toMatch(/^✗/);
+    }
+    const gm = wrapper.findAll('[data-test="row-gain-margin"] td');
+    expect(gm[2]!.text()).toBe('none (unstable)');
+    expect(wrapper.find('[data-test="row-phase-margin"]').findAll('td')[2]!.text()).toBe('none (unstable)');
+    expect(wrapper.find('[data-test="margins-table"]').text()).not.toContain('✓');
+    expect(wrapper.find('[data-test="margins-table"]').text()).not.toContain('unbounded');
+    const strip = mount(VerdictStrip, { props: { analysis: quantisedUnstable, stale: false, error: '' } });
+    expect(strip.find('[data-test="verdict-label"]').text()).toBe('Unstable');
+    expect(strip.find('[data-test="verdict-phase-margin"]').exists()).toBe(false);
+    expect(strip.find('[data-test="verdict-no-margin"]').text()).toBe('no margin: the loop is unstable');
+  });
+
+  it('marks no margin on the Bode plot of an unstable discrete loop', () => {
+    const m = bodeMarkers(unstable.analysis, 1e6);
+    expect(m.phaseMarginDeg).toBeNull();
+    expect(m.gainMarginDb).toBeNull();
+    expect(bodeMarkers(analysis.analysis, 1e4).phaseMarginDeg).toBe(analysis.analysis.margins.discrete.phaseMarginDeg);
   });
 
   it('says unstable for a loop whose discrete poles leave the unit circle', () => {

@@ -42,18 +42,31 @@ export function bodeTraces(a: AnalysisResult): BodeTrace[] {
 
 export function bodeMarkers(a: AnalysisResult, sampleRateHz: number): BodeMarkers {
   const m = a.margins.discrete;
+  // An unstable loop has no margin to speak of: the crossings stay marked, the figures do not.
+  const stable = a.stability.discreteStable;
   return {
     crossoverHz: m.crossoverHz,
-    phaseMarginDeg: m.phaseMarginDeg,
+    phaseMarginDeg: stable ? m.phaseMarginDeg : null,
     phaseCrossoverHz: m.phaseCrossoverHz,
-    gainMarginDb: m.gainMarginDb,
+    gainMarginDb: stable ? m.gainMarginDb : null,
     nyquistHz: sampleRateHz / 2,
   };
 }
 
-function gmText(m: LoopMargins | undefined): string {
+/** What a margin cell says for a loop that is unstable: a margin is only defined for a stable loop. */
+export const NO_MARGIN_UNSTABLE = 'none (unstable)';
+
+function gmText(m: LoopMargins | undefined, stable: boolean | undefined): string {
   if (!m) return '—';
-  return m.gainMarginDb === null ? 'unbounded' : fmtFixed(m.gainMarginDb, 1, 'dB');
+  if (stable === false) return NO_MARGIN_UNSTABLE;
+  // No −180° crossing: the margin is unlimited (common practice, no source).
+  return m.gainMarginDb === null ? 'unlimited (phase never reaches −180°)' : fmtFixed(m.gainMarginDb, 1, 'dB');
+}
+
+function pmText(m: LoopMargins | undefined, stable: boolean | undefined): string {
+  if (!m) return '—';
+  if (stable === false) return NO_MARGIN_UNSTABLE;
+  return m.phaseMarginDeg === null ? 'none (|L| never crosses 0 dB)' : fmtFixed(m.phaseMarginDeg, 1, '°');
 }
 
 export function marginRows(a: AnalysisNumbers): SummaryRow[] {
@@ -63,6 +76,9 @@ export function marginRows(a: AnalysisNumbers): SummaryRow[] {
   // The pass/fail rule is dsp's, the same one its verdict uses; this only lays it out per row.
   const { phaseMarginMet: pmOk, gainMarginMet: gmOk } = marginChecks(discrete, q ?? null, minPm, minGm);
   const stableOk = a.verdict.stable;
+  const st = { analog: a.stability.analogStable, discrete: a.stability.discreteStable, quantised: a.quantization.loop?.stable };
+  // A loop that is unstable fails every margin: no pass mark may stand beside it.
+  const judge = (ok: boolean): Judgement => (stableOk && ok ? 'pass' : 'fail');
   const yesNo = (v: boolean | undefined) => (v === undefined ? '—' : v ? 'stable' : 'UNSTABLE');
   return [
     {
@@ -85,20 +101,20 @@ export function marginRows(a: AnalysisNumbers): SummaryRow[] {
     },
     {
       label: 'Phase margin',
-      analog: fmtFixed(analog.phaseMarginDeg, 1, '°'),
-      discrete: fmtFixed(discrete.phaseMarginDeg, 1, '°'),
-      quantised: fmtFixed(q?.phaseMarginDeg, 1, '°'),
+      analog: pmText(analog, st.analog),
+      discrete: pmText(discrete, st.discrete),
+      quantised: pmText(q, st.quantised),
       target: `≥ ${minPm}°`,
-      judgement: pmOk ? 'pass' : 'fail',
+      judgement: judge(pmOk),
       testId: 'row-phase-margin',
     },
     {
       label: 'Gain margin',
-      analog: gmText(analog),
-      discrete: gmText(discrete),
-      quantised: gmText(q),
+      analog: gmText(analog, st.analog),
+      discrete: gmText(discrete, st.discrete),
+      quantised: gmText(q, st.quantised),
       target: `≥ ${minGm} dB`,
-      judgement: gmOk ? 'pass' : 'fail',
+      judgement: judge(gmOk),
       testId: 'row-gain-margin',
     },
     {
