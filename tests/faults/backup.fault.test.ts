@@ -13,7 +13,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMariaDb, type MariaDbInstance } from '../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
-import { afterProcess, api, apiSignIn } from '../e2e/harness/api.ts';
+import { afterProcess, api, apiSignIn, waitForVerdict } from '../e2e/harness/api.ts';
 import { ROOT } from '../e2e/harness/paths.ts';
 import { startServer, type ServerProcess } from '../e2e/harness/server.ts';
 import { apiDbEnv, startStack, type Stack } from '../e2e/harness/stack.ts';
@@ -67,6 +67,8 @@ async function makeRecord(): Promise<void> {
   expect((await api(stack.baseUrl, `/api/releases/${v1.body.id}/reviews`, { cookie: designer, json: { reviewerIds: [reviewerId], approvalsRequired: 1 } })).status).toBe(200);
   const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: mains_sync_50hz v1');
   const token = /\/review\/([^\s"'<>]+)/.exec(mail.text)![1]!;
+  // Approval waits for the server's verification of the release's reference RTL.
+  expect((await waitForVerdict(stack.baseUrl, designer, v1.body.id)).verdict).toBe('passed');
   expect((await api(stack.baseUrl, `/api/review-links/${token}`, { json: { decision: 'approve', manifestSha256: v1.body.manifestSha256, comment: 'Checked against the bench plan.' } })).status).toBe(200);
   const firmware = (await apiSignIn(stack.baseUrl, 'firmware@example.test')).cookie;
   expect((await api(stack.baseUrl, `/api/releases/${v1.body.id}/bundle`, { cookie: firmware })).status).toBe(200);

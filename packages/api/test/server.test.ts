@@ -26,14 +26,18 @@ async function running(pid: number): Promise<boolean> {
   return stat !== '' && stat.slice(stat.lastIndexOf(')') + 2)[0] !== 'Z';
 }
 
-/** Waits up to 5 s for every pid to stop; returns which still run. */
-async function stillRunning(pids: readonly number[]): Promise<boolean[]> {
-  let alive = await Promise.all(pids.map(running));
-  for (let waitedMs = 0; alive.some(Boolean) && waitedMs < 5000; waitedMs += 100) {
+/**
+ * Waits up to 15 s (a loaded CI machine schedules slowly) for every pid to stop; returns the command
+ * line of each that still runs, so a failure names the process left behind.
+ */
+async function leftRunning(pids: readonly number[]): Promise<string[]> {
+  const alive = async () => (await Promise.all(pids.map(async (pid) => ((await running(pid)) ? pid : undefined)))).filter((pid) => pid !== undefined);
+  let left = await alive();
+  for (let waitedMs = 0; left.length > 0 && waitedMs < 15_000; waitedMs += 100) {
     await new Promise((resolve) => setTimeout(resolve, 100));
-    alive = await Promise.all(pids.map(running));
+    left = await alive();
   }
-  return alive;
+  return Promise.all(left.map(async (pid) => `${pid} ${(await fs.readFile(`/proc/${pid}/cmdline`, 'utf8').catch(() => '')).replaceAll('\0', ' ').trim()}`));
 }
 
 function startServer(env: Record<string, string>) {
@@ -83,7 +87,7 @@ describe('src/server.ts', () => {
       expect(await exited).toBe(0);
       // Children (the serving process, tsx's esbuild service) end just after the supervisor: allow them
       // a few seconds, then every one must be gone.
-      expect(await stillRunning(workers)).toEqual(workers.map(() => false));
+      expect(await leftRunning(workers)).toEqual([]);
     } finally {
       if (server.exitCode === null) server.kill('SIGKILL');
     }
@@ -118,7 +122,7 @@ describe('src/server.ts', () => {
       expect(children.length).toBeGreaterThanOrEqual(3);
       server.kill('SIGTERM');
       expect(await exited).toBe(0);
-      expect(await stillRunning(children)).toEqual(children.map(() => false));
+      expect(await leftRunning(children)).toEqual([]);
       expect(output()).toMatch(/nginx on http:\/\/127\.0\.0\.1:\d+ → 127\.0\.0\.1:\d+, 127\.0\.0\.1:\d+/);
     } finally {
       if (server.exitCode === null) server.kill('SIGKILL');
