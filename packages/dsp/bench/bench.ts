@@ -22,6 +22,7 @@ import { CHUNK_SAMPLES } from '../src/sim/simulate.ts';
 import { planDesign, simulatePlan } from '../src/planDesign.ts';
 import { requireValidSpec } from '../src/spec/schema.ts';
 import { measureAcquisition } from '../src/analysis/acquisitionSim.ts';
+import { releaseGoldenVectors } from '../src/vectors/goldenVectors.ts';
 import { formatCParams } from './cParams.ts';
 import { runAnalysisBench, runWordLengthBench } from './analysis.ts';
 
@@ -134,6 +135,25 @@ function simulateFigure(mode: 'both' | 'float' | 'bit-true', bitTrueKernel: BitT
   return { samplesPerS: Math.round(samples / pass.cpuSeconds), wallSamplesPerS: Math.round(samples / pass.seconds) };
 }
 
+/** Issue 16: golden vectors at >= 5 M samples per second of CPU time. */
+const VECTOR_TARGET_SAMPLES_PER_S = 5_000_000;
+
+/** The release's golden vectors of each demo spec (record, checksum), samples per second of CPU time after a warm-up. */
+function goldenVectorFigures(runs = 200): { example: string; samples: number; samplesPerS: number; target: number; met: boolean }[] {
+  return exampleSpecs.map((e) => {
+    const plan = planDesign(requireValidSpec(e.spec));
+    const loop = { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
+    for (let i = 0; i < runs / 2; i++) releaseGoldenVectors(loop);
+    let samples = 0;
+    const pass = timed(() => {
+      for (let i = 0; i < runs; i++) samples += releaseGoldenVectors(loop).record.length;
+      return 0;
+    });
+    const samplesPerS = Math.round(samples / pass.cpuSeconds);
+    return { example: e.id, samples: samples / runs, samplesPerS, target: VECTOR_TARGET_SAMPLES_PER_S, met: samplesPerS >= VECTOR_TARGET_SAMPLES_PER_S };
+  });
+}
+
 /** Mean time of measureAcquisition over the example specs (after one warm-up pass). */
 function measureAcquisitionMs(): number {
   for (const e of exampleSpecs) measureAcquisition(e.spec);
@@ -202,6 +222,7 @@ export async function runDspBench(): Promise<Record<string, unknown>> {
     },
     analyzeDesign: runAnalysisBench(),
     wordLengthSearch: runWordLengthBench(),
+    goldenVectors: goldenVectorFigures(),
     measureAcquisitionMs: measureAcquisitionMs(),
     loadAverage1m: Math.round(loadavg()[0]! * 100) / 100,
   };

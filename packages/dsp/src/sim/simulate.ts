@@ -10,7 +10,7 @@ import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
 import { allocInputChunk, inputGenerator } from './inputSignal.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut, type BitTrueState } from './bitTrueKernel.ts';
-import { wasmBitTrueLoop, wasmKernelAvailable, WASM_CHUNK_SAMPLES } from './wasm/wasmKernel.ts';
+import { releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmKernelAvailable, WASM_CHUNK_SAMPLES } from './wasm/wasmKernel.ts';
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
 import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
 
@@ -182,7 +182,11 @@ function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly kee
       }
       acc.pushChunk(n0, count, { inPhase: input.phaseCycles, ncoPhase, x: input.x, y, ncoHz, offsetHz: input.offsetHz });
     },
-    finish: () => ({ ...acc.finish(), checksum: wasm ? wasm.checksum : (state as BitTrueState).checksum, ...(record ? { record } : {}) }),
+    finish: () => {
+      const checksum = wasm ? wasm.checksum : (state as BitTrueState).checksum;
+      if (wasm) releaseWasmBitTrueLoop(wasm);
+      return { ...acc.finish(), checksum, ...(record ? { record } : {}) };
+    },
   };
 }
 
@@ -194,6 +198,44 @@ function copyChunk(from: BitTrueChunkOut, to: BitTrueChunkOut, count: number): v
   to.ncoCode.set(from.ncoCode.subarray(0, count));
   to.detectorCode.set(from.detectorCode.subarray(0, count));
   to.filterCode.set(from.filterCode.subarray(0, count));
+}
+
+/**
+ * The bit-true loop's per-sample record and checksum alone (golden vectors): the same input, kernel
+ * and record as `simulateLoop` with keepRecord, without the traces and metrics nobody reads there,
+ * which cost several times the kernel itself.
+ */
+export function bitTrueRecordOf(loop: SimLoop, scenario: Scenario, kernel?: BitTrueKernelChoice): { readonly record: BitTrueRecord; readonly checksum: number } {
+  const { spec } = loop;
+  const total = sampleCount(spec, scenario);
+  if (total > MAX_RECORD_SAMPLES) {
+    throw new FieldError('durationS', `a per-sample record is limited to ${MAX_RECORD_SAMPLES} samples, the scenario has ${total}`);
+  }
+  const plan = requireBitTrue(loop);
+  const record = allocRecord(total);
+  const wasm = (kernel ?? defaultKernel()) === 'wasm' ? wasmBitTrueLoop(plan) : null;
+  const state = wasm ? null : initialBitTrueState(plan);
+  const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, spec.input.amplitude);
+  const input = allocInputChunk(Math.min(CHUNK_SAMPLES, total));
+  for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {
+    const count = Math.min(CHUNK_SAMPLES, total - n0);
+    gen.next(input, n0, count);
+    const slice = sliceRecord(record, n0, n0 + count);
+    quantizeInput(plan, input.x, count, slice.inputCode);
+    if (wasm) {
+      wasm.run(slice.inputCode, count);
+      copyChunk(wasm.out, slice, count);
+    } else {
+      runBitTrueChunk(plan, state as BitTrueState, slice.inputCode, count, slice);
+    }
+  }
+  const checksum = wasm ? wasm.checksum : (state as BitTrueState).checksum;
+  if (wasm) releaseWasmBitTrueLoop(wasm);
+  return { record, checksum };
+}
+
+function defaultKernel(): BitTrueKernelChoice {
+  return wasmKernelAvailable() ? 'wasm' : 'typescript';
 }
 
 function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total: number): RunSetup {
@@ -222,7 +264,7 @@ export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: Sim
   const plan = mode !== 'float' ? requireBitTrue(loop) : undefined;
   const setup = runSetup(spec, scenario, options, total);
   const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
-  const kernel = options.bitTrueKernel ?? (wasmKernelAvailable() ? 'wasm' : 'typescript');
+  const kernel = options.bitTrueKernel ?? defaultKernel();
   const bitLoop = plan ? bitTrueRunner(plan, total, { keepRecord: keep, kernel }, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
   const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, spec.input.amplitude);
   const input = allocInputChunk(CHUNK_SAMPLES);

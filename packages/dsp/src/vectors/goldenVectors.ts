@@ -6,7 +6,7 @@ import type { LoopSpec } from '../spec/schema.ts';
 import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
 import type { BitTrueRecord } from '../types/sim.ts';
-import { simulateLoop, type SimLoop } from '../sim/simulate.ts';
+import { bitTrueRecordOf, type SimLoop } from '../sim/simulate.ts';
 
 /** Samples in a release's golden vectors. */
 export const GOLDEN_VECTOR_SAMPLES = 4096;
@@ -60,11 +60,9 @@ export function releaseGoldenVectors(loop: SimLoop): GoldenVectors {
 
 /**
  * Run a planned loop's bit-true constants (planDesign's `bitTrue`, the ones the release renders) on
- * the scenario and keep every sample.
+ * the scenario and keep every sample (the record alone: traces and metrics are not part of vectors).
  */
 export function goldenVectorsOf(loop: SimLoop, scenario: Scenario): GoldenVectors {
-  const r = simulateLoop(loop, scenario, { mode: 'bit-true', keepRecord: true });
-  const bit = r.bitTrue;
-  if (!bit?.record) throw new Error('bit-true run kept no record');
-  return { scenario, ncoAccumulatorBits: loop.spec.nco.accumulatorBits, record: bit.record, checksum: bit.checksum };
+  const { record, checksum } = bitTrueRecordOf(loop, scenario);
+  return { scenario, ncoAccumulatorBits: loop.spec.nco.accumulatorBits, record, checksum };
 }

@@ -22,7 +22,7 @@ import { mulberry32, pick, randomLoopSpec, uniform } from '../reference/random.t
 import { allocInputChunk, inputGenerator } from '../../src/sim/inputSignal.ts';
 import { initialFloatState, runFloatChunk } from '../../src/sim/floatKernel.ts';
 import { quantizeInput } from '../../src/sim/bitTrueKernel.ts';
-import { bitTrueNcoHzOf, CHUNK_SAMPLES } from '../../src/sim/simulate.ts';
+import { bitTrueNcoHzOf, bitTrueRecordOf, CHUNK_SAMPLES } from '../../src/sim/simulate.ts';
 import type { RunSetup } from '../../src/sim/runAccumulator.ts';
 import type { DesignPlan } from '../../src/planDesign.ts';
 import { PerSampleAccumulator } from './reference/perSampleAccumulator.ts';
@@ -106,6 +106,11 @@ describe('the WebAssembly bit-true kernel', () => {
       const ts = simulatePlan(plan, c.scenario, { keepRecord: true, bitTrueKernel: 'typescript' });
       expect(wasm.bitTrue!.checksum).toBe(ts.bitTrue!.checksum);
       expect(sameRun(wasm, ts)).toBe(true);
+      // The record-only path of the golden vectors keeps the same record (either kernel; every fourth case the TypeScript one).
+      const loop = { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
+      const only = bitTrueRecordOf(loop, c.scenario, compared % 4 === 0 ? 'typescript' : 'wasm');
+      expect(only.checksum).toBe(ts.bitTrue!.checksum);
+      expect(only.record).toEqual(ts.bitTrue!.record);
       sectionCounts.add(plan.bitTrue.sectionCount);
       modes.add(`${plan.bitTrue.rounding}/${plan.bitTrue.overflow}/${plan.bitTrue.waveform}/${plan.bitTrue.ncoAccumulatorBits > 32 ? 'wide' : 'narrow'}`);
       compared++;

@@ -84,7 +84,7 @@ export class WasmBitTrueLoop {
   private readonly ints: Int32Array;
   private readonly runChunk: (count: number) => void;
 
-  constructor(instance: WasmInstance, plan: BitTruePlan) {
+  constructor(instance: WasmInstance) {
     this.runChunk = instance.exports.run;
     const buffer = instance.exports.memory.buffer;
     const i32 = (offset: number) => new Int32Array(buffer, offset, WASM_CHUNK_SAMPLES);
@@ -100,7 +100,6 @@ export class WasmBitTrueLoop {
     };
     this.words = new BigInt64Array(buffer);
     this.ints = new Int32Array(buffer);
-    this.load(plan);
   }
 
   /** Run `count` (≤ WASM_CHUNK_SAMPLES) input codes; the outputs are then in `out`. */
@@ -114,7 +113,8 @@ export class WasmBitTrueLoop {
     return (this.ints[LAYOUT.checksum / 4] as number) >>> 0;
   }
 
-  private load(plan: BitTruePlan): void {
+  /** Load the plan's constants and start from the initial state (the instance may have run another plan). */
+  load(plan: BitTruePlan): void {
     const n = plan.ncoAccumulatorBits;
     const p = plan.phaseBits;
     const big = (v: number) => BigInt(v);
@@ -151,10 +151,24 @@ export class WasmBitTrueLoop {
   }
 }
 
+/**
+ * Instances handed back by finished runs. A new instance allocates and clears its 576 KiB memory,
+ * which took longer than a whole 4096-sample golden-vector run; `load` resets every byte a run reads.
+ */
+const spare: WasmBitTrueLoop[] = [];
+const MAX_SPARE = 4;
+
 /** A WebAssembly bit-true loop for the plan, or null when this engine cannot run one. */
 export function wasmBitTrueLoop(plan: BitTruePlan): WasmBitTrueLoop | null {
   if (plan.sectionCount > MAX_SECTIONS) return null;
   const module = kernelModule();
   if (!module || !wasmApi) return null;
-  return new WasmBitTrueLoop(new wasmApi.Instance(module, {}), plan);
+  const loop = spare.pop() ?? new WasmBitTrueLoop(new wasmApi.Instance(module, {}));
+  loop.load(plan);
+  return loop;
+}
+
+/** Hand a loop whose run is over (its outputs and checksum read) back for the next run. */
+export function releaseWasmBitTrueLoop(loop: WasmBitTrueLoop): void {
+  if (spare.length < MAX_SPARE && !spare.includes(loop)) spare.push(loop);
 }
