@@ -357,7 +357,9 @@ describe('Loopwright in the browser', () => {
     await page.click('[data-test="run-word-length"]');
     await page.waitForSelector('[data-test="word-length-result"]', { timeout: 120_000 });
     const cheapest = await textOf(page, '[data-test="word-length-cheapest"]');
-    expect(cheapest).toMatch(/coefficientBits = \d+/);
+    expect(cheapest).toMatch(/^Coefficient width \d+ bits/);
+    // Each width tried, with why it passes or fails.
+    expect(await textOf(page, '[data-test="width-verdicts"]')).toMatch(/Coefficients \d+ bits\s*fails\s*[A-Z][^.]*\./);
     // Beside the error figures, each width's cost: the server's yosys estimate, filled in as it comes.
     await page.waitForSelector('[data-test="width-costs"] tr:has-text("coefficients")');
     await screenshot(page, '06-editor-word-length');

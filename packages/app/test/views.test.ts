@@ -7,7 +7,8 @@ import { envelope } from '../src/charts/traceOption.ts';
 import { twosComplementHex } from '../src/components/reportView.ts';
 import { diffRows, reviewRows, waitingMailNotice } from '../src/components/releaseView.ts';
 import type { ReviewRecord } from '../src/api/types.ts';
-import { widthEdits } from '../src/components/wordLengthView.ts';
+import { coefficientCurveOption, dataCurveOption, widthEdits, widthEditsText, widthVerdictRows } from '../src/components/wordLengthView.ts';
+import { wordLengthSearch } from '@loopwright/dsp';
 import { auditRows, filterAudit } from '../src/views/adminView.ts';
 import { checkScenario, draftToScenario } from '../src/form/scenarioDraft.ts';
 import { fmtEng } from '../src/lib/format.ts';
@@ -126,6 +127,50 @@ describe('word-length apply', () => {
   it('carries the fraction bits the search used when the Q format is explicit', () => {
     const spec = { ...mainsSyncSpec, fixedPoint: { ...mainsSyncSpec.fixedPoint, coefficientFractionBits: 14 } };
     expect(widthEdits(result, spec)).toMatchObject({ 'fixedPoint.coefficientFractionBits': '10' });
+  });
+});
+
+describe('word-length curves', () => {
+  // The dsp search itself on the mains demo, coefficients only (6..20 bits), so the curve is real.
+  const real = wordLengthSearch(mainsSyncSpec, { minCoefficientBits: 6, maxCoefficientBits: 20, data: false, points: 200 });
+
+  it('draws the three stacked charts on one x scale, with the cheapest width at that width on each', () => {
+    const option = coefficientCurveOption(real) as { xAxis: { type: string; min: number; max: number }[]; series: { data: [number, unknown][]; markLine: { data: { xAxis?: number }[] } }[] };
+    expect(option.xAxis.map((a) => [a.type, a.min, a.max])).toEqual([['value', 6, 20], ['value', 6, 20], ['value', 6, 20]]);
+    for (const series of option.series) {
+      expect(series.data.map((p) => p[0])).toEqual(real.coefficients.curve.map((p) => p.coefficientBits));
+      expect(series.markLine.data.filter((d) => d.xAxis !== undefined).map((d) => d.xAxis)).toEqual([real.coefficients.minBits]);
+    }
+  });
+
+  it('keeps the legend of the data-width chart away from the marker label above the grid', () => {
+    const r = { ...real, data: { minBits: 10, curve: [8, 10, 12].map((dataBits) => ({ dataBits, steadyStatePhaseErrorDeg: 0.1, phaseJitterDeg: 0.2 })) } } as unknown as WordLengthResult;
+    const option = dataCurveOption(r) as { legend: { top?: number; bottom?: number }; grid: { top: number }; xAxis: { type: string; min: number; max: number } };
+    // Common practice, no source: a label drawn above a chart and a legend at the top of it collide.
+    expect(option.legend.top).toBeUndefined();
+    expect(option.legend.bottom).toBe(0);
+    expect([option.xAxis.type, option.xAxis.min, option.xAxis.max]).toEqual(['value', 8, 12]);
+  });
+
+  it('states the widths to apply in the form labels, with a space and the unit', () => {
+    expect(widthEditsText({ 'fixedPoint.coefficientBits': '17', 'fixedPoint.dataBits': '14' })).toBe('Coefficient width 17 bits, data width 14 bits');
+  });
+
+  it('gives every width tried a row saying why it passes or fails', () => {
+    const rows = widthVerdictRows(real);
+    expect(rows).toHaveLength(15);
+    const failing = rows.filter((r) => r.result === 'fails');
+    expect(failing.length).toBeGreaterThan(0);
+    // 6-bit coefficients make the mains loop unstable (the margins test shows it too).
+    expect(rows[0]).toMatchObject({ width: 'Coefficients 6 bits', result: 'fails' });
+    expect(rows[0]!.reason).toMatch(/^Unstable/);
+    for (const r of failing) expect(r.reason).toMatch(/^[A-Z].*\.$/);
+    const cheapest = real.coefficients.minBits!;
+    expect(rows.find((r) => r.width === `Coefficients ${cheapest} bits`)).toMatchObject({ result: 'passes', reason: 'Meets every criterion.' });
+    // A width that passes below a failing wider one says why it is not the cheapest.
+    for (const r of rows.filter((row) => row.result === 'passes' && Number(row.width.split(' ')[1]) < cheapest)) {
+      expect(r.reason).toMatch(new RegExp(`but \\d+ bits fails, so the search does not take a width below ${cheapest} bits`));
+    }
   });
 });
 

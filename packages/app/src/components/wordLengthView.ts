@@ -2,15 +2,43 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import type { LoopSpec, WordLengthResult } from '@loopwright/dsp';
 import { CHART_COLORS, chartAnimation } from '../charts/echarts.ts';
+import { fieldAt } from '../form/specFields.ts';
 
 const finiteOrNull = (v: number | null): number | null => (v !== null && Number.isFinite(v) ? v : null);
+
+/**
+ * One x scale for every stacked chart of a curve: a value axis from the narrowest to the widest width
+ * tried, one tick per bit, so a marker at a width sits at that width on every chart.
+ */
+function widthAxis(widths: readonly number[], gridIndex: number, name: string, labelled: boolean) {
+  const min = Math.min(...widths);
+  const max = Math.max(...widths);
+  return {
+    type: 'value',
+    gridIndex,
+    min,
+    max,
+    interval: max - min > 24 ? 2 : 1,
+    name,
+    nameLocation: 'middle',
+    nameGap: 24,
+    axisLabel: { show: labelled, formatter: (v: number) => String(v) },
+    splitLine: { show: true, lineStyle: { color: CHART_COLORS.grid } },
+  };
+}
+
+function cheapestMark(bits: number | null, labelled: boolean) {
+  if (bits === null) return [];
+  return [{ xAxis: bits, label: labelled ? { formatter: `cheapest: ${bits} bits`, position: 'end' } : { show: false }, lineStyle: { color: CHART_COLORS.pass, width: 2, type: 'solid' } }];
+}
 
 /** Stability (1 stable, 0 not), phase margin and response error against coefficient width. */
 export function coefficientCurveOption(r: WordLengthResult): EChartsCoreOption {
   const curve = r.coefficients.curve;
   const x = curve.map((p) => p.coefficientBits);
   const mark = r.coefficients.minBits;
-  const markLine = mark === null ? undefined : { symbol: 'none', silent: true, data: [{ xAxis: String(mark), label: { formatter: `cheapest: ${mark} bits` } }], lineStyle: { color: CHART_COLORS.pass, width: 2 } };
+  const at = <T>(f: (p: (typeof curve)[number]) => T): [number, T][] => curve.map((p) => [p.coefficientBits, f(p)]);
+  // The top chart's marker carries the label, just above the grid; no legend shares that band.
   const grids = [
     { left: 64, right: 20, top: 30, height: '18%' },
     { left: 64, right: 20, top: '36%', height: '24%' },
@@ -21,34 +49,48 @@ export function coefficientCurveOption(r: WordLengthResult): EChartsCoreOption {
     tooltip: { trigger: 'axis' },
     axisPointer: { link: [{ xAxisIndex: 'all' }] },
     grid: grids,
-    xAxis: grids.map((_, i) => ({ type: 'category', gridIndex: i, data: x.map(String), name: i === 2 ? 'Coefficient width (bits)' : '', nameLocation: 'middle', nameGap: 24, axisLabel: { show: i === 2 } })),
+    xAxis: grids.map((_, i) => widthAxis(x, i, i === 2 ? 'Coefficient width (bits)' : '', i === 2)),
     yAxis: [
       { type: 'value', gridIndex: 0, min: 0, max: 1, interval: 1, name: 'Stable', nameLocation: 'middle', nameGap: 44, axisLabel: { formatter: (v: number) => (v === 1 ? 'yes' : 'no') } },
       { type: 'value', gridIndex: 1, name: 'Phase margin (°)', nameLocation: 'middle', nameGap: 44, scale: true },
       { type: 'log', gridIndex: 2, name: 'Response error (dB)', nameLocation: 'middle', nameGap: 44, logBase: 10 },
     ],
     series: [
-      { type: 'line', step: 'middle', name: 'Stable', xAxisIndex: 0, yAxisIndex: 0, data: curve.map((p) => (p.stable ? 1 : 0)), color: CHART_COLORS.float, markLine },
+      { type: 'line', step: 'middle', name: 'Stable', xAxisIndex: 0, yAxisIndex: 0, data: at((p) => (p.stable ? 1 : 0)), color: CHART_COLORS.float, markLine: { symbol: 'none', silent: true, data: cheapestMark(mark, true) } },
       {
         type: 'line',
         name: 'Phase margin',
         xAxisIndex: 1,
         yAxisIndex: 1,
-        data: curve.map((p) => finiteOrNull(p.phaseMarginDeg)),
+        data: at((p) => finiteOrNull(p.phaseMarginDeg)),
         color: CHART_COLORS.float,
-        markLine: r.reference.phaseMarginDeg === null ? markLine : { symbol: 'none', silent: true, data: [...(markLine?.data ?? []), { yAxis: r.reference.phaseMarginDeg, label: { formatter: 'unquantised' }, lineStyle: { color: CHART_COLORS.reference, type: 'dashed' } }] },
+        markLine: {
+          symbol: 'none',
+          silent: true,
+          data: [
+            ...cheapestMark(mark, false),
+            ...(r.reference.phaseMarginDeg === null ? [] : [{ yAxis: r.reference.phaseMarginDeg, label: { formatter: 'unquantised', position: 'insideEndTop' }, lineStyle: { color: CHART_COLORS.reference, type: 'dashed' } }]),
+          ],
+        },
       },
       {
         type: 'line',
         name: 'Response error',
         xAxisIndex: 2,
         yAxisIndex: 2,
-        data: curve.map((p) => {
+        data: at((p) => {
           const v = finiteOrNull(p.maxDeviationDb);
           return v === null ? null : Math.max(v, 1e-6);
         }),
         color: CHART_COLORS.fixed,
-        markLine: { symbol: 'none', silent: true, data: [{ yAxis: r.tolerances.responseDb, label: { formatter: `tolerance ${r.tolerances.responseDb} dB` } }], lineStyle: { color: CHART_COLORS.fail, type: 'dashed' } },
+        markLine: {
+          symbol: 'none',
+          silent: true,
+          data: [
+            ...cheapestMark(mark, false),
+            { yAxis: r.tolerances.responseDb, label: { formatter: `tolerance ${r.tolerances.responseDb} dB`, position: 'insideEndTop' }, lineStyle: { color: CHART_COLORS.fail, type: 'dashed' } },
+          ],
+        },
       },
     ],
   };
@@ -58,24 +100,24 @@ export function coefficientCurveOption(r: WordLengthResult): EChartsCoreOption {
 export function dataCurveOption(r: WordLengthResult): EChartsCoreOption | null {
   const d = r.data;
   if (!d) return null;
-  const x = d.curve.map((p) => String(p.dataBits));
-  const mark = d.minBits;
+  const x = d.curve.map((p) => p.dataBits);
   return {
     animation: chartAnimation(),
     tooltip: { trigger: 'axis' },
-    legend: { top: 0 },
-    grid: { left: 64, right: 20, top: 30, bottom: 40 },
-    xAxis: { type: 'category', data: x, name: 'Data width (bits)', nameLocation: 'middle', nameGap: 24 },
+    // The legend sits at the bottom, so the marker's label above the grid has the top band to itself.
+    legend: { bottom: 0 },
+    grid: { left: 64, right: 20, top: 30, bottom: 64 },
+    xAxis: widthAxis(x, 0, 'Data width (bits)', true),
     yAxis: { type: 'value', name: 'Phase error (°)', nameLocation: 'middle', nameGap: 44, scale: true },
     series: [
       {
         type: 'line',
         name: 'Steady-state error',
-        data: d.curve.map((p) => p.steadyStatePhaseErrorDeg),
+        data: d.curve.map((p) => [p.dataBits, p.steadyStatePhaseErrorDeg]),
         color: CHART_COLORS.fixed,
-        markLine: mark === null ? undefined : { symbol: 'none', silent: true, data: [{ xAxis: String(mark), label: { formatter: `cheapest: ${mark} bits` } }], lineStyle: { color: CHART_COLORS.pass, width: 2 } },
+        markLine: { symbol: 'none', silent: true, data: cheapestMark(d.minBits, true) },
       },
-      { type: 'line', name: 'Jitter (RMS)', data: d.curve.map((p) => p.phaseJitterDeg), color: CHART_COLORS.analog },
+      { type: 'line', name: 'Jitter (RMS)', data: d.curve.map((p) => [p.dataBits, p.phaseJitterDeg]), color: CHART_COLORS.analog },
     ],
   };
 }
@@ -96,4 +138,56 @@ export function widthEdits(r: WordLengthResult, spec: LoopSpec): Record<string, 
   }
   if (r.data?.minBits != null) edits['fixedPoint.dataBits'] = String(r.data.minBits);
   return edits;
+}
+
+/** "Coefficient width 17 bits, data width 14 bits": the edits in the form's own labels and units. */
+export function widthEditsText(edits: Readonly<Record<string, string>>): string {
+  return Object.entries(edits)
+    .map(([path, value], i) => {
+      const field = fieldAt(path);
+      const label = field ? (i === 0 ? field.label : field.label.toLowerCase()) : path;
+      return `${label} ${value}${field?.unit === 'bits' ? ' bits' : ''}`;
+    })
+    .join(', ');
+}
+
+export interface WidthVerdictRow {
+  readonly key: string;
+  readonly width: string;
+  readonly result: 'passes' | 'fails';
+  readonly reason: string;
+}
+
+/** A reason list as one sentence: "Unstable; phase margin off by 3.10° …" with a capital and a full stop. */
+function sentence(reasons: readonly string[]): string {
+  const text = reasons.join('; ');
+  return text ? `${text.charAt(0).toUpperCase()}${text.slice(1)}.` : '';
+}
+
+/**
+ * Why each width tried passes or fails, in the search's own words (its per-point reasons). A width that
+ * passes below a wider one that fails is not taken: the search's cheapest width is the one from which
+ * every wider width passes, so the row says which wider width fails.
+ */
+export function widthVerdictRows(r: WordLengthResult): WidthVerdictRow[] {
+  const rows = <P extends { readonly passes: boolean; readonly reasons: readonly string[] }>(
+    curve: readonly P[],
+    width: (p: P) => number,
+    kind: string,
+    minBits: number | null,
+  ): WidthVerdictRow[] =>
+    curve.map((p) => {
+      const bits = width(p);
+      const widerFail = p.passes && (minBits === null || bits < minBits) ? curve.filter((q) => !q.passes && width(q) > bits).map(width).pop() : undefined;
+      const reason = !p.passes
+        ? sentence(p.reasons)
+        : widerFail === undefined
+          ? 'Meets every criterion.'
+          : `Meets every criterion, but ${widerFail} bits fails, so the search does not take a width below ${widerFail + 1} bits.`;
+      return { key: `${kind}${bits}`, width: `${kind} ${bits} bits`, result: p.passes ? 'passes' : 'fails', reason };
+    });
+  return [
+    ...rows(r.coefficients.curve, (p) => p.coefficientBits, 'Coefficients', r.coefficients.minBits),
+    ...rows(r.data?.curve ?? [], (p) => p.dataBits, 'Data', r.data?.minBits ?? null),
+  ];
 }

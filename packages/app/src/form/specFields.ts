@@ -187,6 +187,12 @@ export function readableValue(field: FieldDef, text: string | undefined): string
   return `= ${fmtEng(value, field.unit, 6)}`;
 }
 
+/** The form's definition of a spec path (its label and unit), if the form shows that path. */
+export function fieldAt(path: string): FieldDef | undefined {
+  for (const section of SPEC_SECTIONS) for (const field of section.fields) if (field.path === path) return field;
+  return undefined;
+}
+
 export function visibleFields(section: SectionDef, draft: Readonly<Record<string, string>>): FieldDef[] {
   return section.fields.filter((field) => !field.when || field.when(draft));
 }
