@@ -2,8 +2,8 @@ import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { mainsSyncSpec, type WordLengthResult } from '@loopwright/dsp';
 import { decimateMinMax } from '../src/charts/decimate.ts';
-import { magnitudeAxisMin, type BodeTrace } from '../src/charts/bodeOption.ts';
-import { envelope } from '../src/charts/traceOption.ts';
+import { bodeOption, magnitudeAxisMin, type BodeTrace } from '../src/charts/bodeOption.ts';
+import { envelope, traceOption } from '../src/charts/traceOption.ts';
 import { twosComplementHex } from '../src/components/reportView.ts';
 import { diffRows, reviewRows, waitingMailNotice } from '../src/components/releaseView.ts';
 import type { ReviewRecord } from '../src/api/types.ts';
@@ -62,6 +62,23 @@ describe('engineering format', () => {
     expect(fmtEng(10.7e6, 'Hz')).toBe('10.7 MHz');
     expect(fmtEng(2.5e-4, 's')).toBe('250 µs');
     expect(fmtEng(null, 'Hz')).toBe('—');
+  });
+
+  it('reaches femto for a tiny NCO frequency error instead of "0.00004227 nHz" (SI9, Table 7)', () => {
+    expect(fmtEng(4.227e-14, 'Hz')).toBe('42.27 fHz');
+    expect(fmtEng(2e12, 'Hz')).toBe('2 THz');
+  });
+
+  it('writes every plot axis tick with an SI prefix and its unit (SI9, Table 7)', () => {
+    type Axis = { axisLabel: { formatter: (v: number) => string }; name: string };
+    const set = { phaseErrorRad: { bucketStartS: [0, 3e-5], min: [0, 0], max: [0.002, 0.001] }, filterOutput: { bucketStartS: [0, 3e-5], min: [0, 0], max: [1, 1] }, ncoFrequencyHz: { bucketStartS: [0, 3e-5], min: [8e4, 8e4], max: [8e4, 8e4] } } as unknown as Parameters<typeof traceOption>[0]['float'];
+    const trace = traceOption({ float: set, bitTrue: null, modulatingHz: null, gainHzPerUnit: 1, centerHz: 0 }) as { xAxis: Axis[]; yAxis: Axis[] };
+    expect(trace.xAxis[2]!.axisLabel.formatter(0.00003)).toBe('30 µs');
+    expect(trace.xAxis[2]!.axisLabel.formatter(0)).toBe('0 s');
+    expect(trace.yAxis[2]!.axisLabel.formatter(80000)).toBe('80 kHz');
+    expect(trace.yAxis[0]!.axisLabel.formatter(0.0015)).toBe('1.5 mrad');
+    const bode = bodeOption([], { crossoverHz: null, phaseMarginDeg: null, phaseCrossoverHz: null, gainMarginDb: null, nyquistHz: null }) as { xAxis: Axis[] };
+    expect(bode.xAxis[1]!.axisLabel.formatter(80000)).toBe('80 kHz');
   });
 });
 

@@ -102,6 +102,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
     nameLocation: 'middle',
     nameGap: 22,
     axisLabel: { formatter: (v: number) => fmtHz(v, 3), hideOverlap: true },
+    axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtHz(value, 4) } },
     splitLine: { show: true, lineStyle: { color: CHART_COLORS.grid } },
     minorSplitLine: { show: true, lineStyle: { color: '#f1eee7' } },
   });

@@ -6,6 +6,7 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import type { DecimatedTrace } from '@loopwright/dsp';
 import { CHART_COLORS, chartAnimation } from './echarts.ts';
+import { fmtEng, siTick } from '../lib/format.ts';
 
 export interface TraceSet {
   readonly phaseErrorRad: DecimatedTrace;
@@ -36,10 +37,13 @@ export function envelope(trace: DecimatedTrace, scale = 1, offset = 0): [number,
 
 type Row = 0 | 1 | 2;
 
+const ROW_UNITS: Readonly<Record<Row, string>> = { 0: 'rad', 1: 'Hz', 2: 'Hz' };
+
 function line(name: string, data: [number, number][] | readonly [number, number][], row: Row, color: string, type: 'solid' | 'dashed' = 'solid') {
   return {
     type: 'line',
     name,
+    tooltip: { valueFormatter: (v: unknown) => (typeof v === 'number' ? fmtEng(v, ROW_UNITS[row], 5) : String(v)) },
     data,
     xAxisIndex: row,
     yAxisIndex: row,
@@ -68,20 +72,22 @@ export function traceOption(input: TraceInput): EChartsCoreOption {
     { left: 70, right: 20, top: '37%', height: '22%' },
     { left: 70, right: 20, top: '67%', height: '22%' },
   ];
-  const yNames = ['Phase error (rad)', 'Demodulated (Hz)', 'NCO − centre (Hz)'];
+  // Units ride on the ticks with their SI prefix ("20 µs", "1.5 kHz"), so the names carry none.
+  const yNames = ['Phase error', 'Demodulated', 'NCO − centre'];
   return {
     animation: chartAnimation(),
     legend: { top: 0, data: ['Float', 'Bit-true', ...(input.modulatingHz ? ['Modulating signal'] : [])] },
-    tooltip: { trigger: 'axis', valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toPrecision(5) : String(v)) },
+    tooltip: { trigger: 'axis' },
     axisPointer: { link: [{ xAxisIndex: 'all' }] },
     grid: grids,
     xAxis: grids.map((_, i) => ({
       type: 'value',
       gridIndex: i,
-      name: i === 2 ? 'Time (s)' : '',
+      name: i === 2 ? 'Time' : '',
       nameLocation: 'middle',
       nameGap: 24,
-      axisLabel: { show: i === 2, formatter: (v: number) => v.toPrecision(3) },
+      axisLabel: { show: i === 2, formatter: siTick('s') },
+      axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtEng(value, 's', 5) } },
       splitLine: { lineStyle: { color: CHART_COLORS.grid } },
       scale: true,
     })),
@@ -93,7 +99,7 @@ export function traceOption(input: TraceInput): EChartsCoreOption {
       nameGap: 52,
       scale: true,
       splitLine: { lineStyle: { color: CHART_COLORS.grid } },
-      axisLabel: { formatter: (v: number) => Number(v.toPrecision(3)).toString() },
+      axisLabel: { formatter: siTick(ROW_UNITS[i as Row]) },
     })),
     dataZoom: [
       { type: 'inside', xAxisIndex: [0, 1, 2], filterMode: 'none' },

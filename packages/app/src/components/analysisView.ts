@@ -141,7 +141,7 @@ export function marginRows(a: AnalysisNumbers): SummaryRow[] {
 export function loopFigures(a: AnalysisNumbers): FigureRow[] {
   const rows: FigureRow[] = [
     { label: 'Loop type', value: String(a.loopType) },
-    { label: 'Loop gain K = Kd·Ko', value: `${fmtSig(a.loopGain.kRadPerS, 5)} 1/s`, note: `Kd ${fmtSig(a.loopGain.kd, 4)} /rad` },
+    { label: 'Loop gain K = Kd·Ko', value: fmtEng(a.loopGain.kRadPerS, 's⁻¹', 5), note: `Kd ${fmtSig(a.loopGain.kd, 4)} /rad` },
     {
       label: 'Noise bandwidth',
       value: `${fmtHz(a.noiseBandwidth.discreteHz)} discrete`,

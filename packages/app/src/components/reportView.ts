@@ -102,7 +102,7 @@ export function ncoRows(n: NcoSummary): NcoRow[] {
     rows.push(
       { label: 'Control gain code', value: `${n.control.gainCode} >> ${n.control.gainShift}` },
       { label: 'Control scale (ideal / realised)', value: `${fmtSig(n.control.idealScale, 8)} / ${fmtSig(n.control.quantizedScale, 8)}` },
-      { label: 'Realised NCO gain', value: `${fmtSig(n.control.actualGainHzPerUnit, 8)} Hz/unit` },
+      { label: 'Realised NCO gain', value: fmtEng(n.control.actualGainHzPerUnit, 'Hz/unit', 8) },
     );
   }
   return rows;

@@ -3,6 +3,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import type { LoopSpec, WordLengthResult } from '@loopwright/dsp';
 import { CHART_COLORS, chartAnimation } from '../charts/echarts.ts';
 import { fieldAt } from '../form/specFields.ts';
+import { siTick } from '../lib/format.ts';
 
 const finiteOrNull = (v: number | null): number | null => (v !== null && Number.isFinite(v) ? v : null);
 
@@ -53,7 +54,7 @@ export function coefficientCurveOption(r: WordLengthResult): EChartsCoreOption {
     yAxis: [
       { type: 'value', gridIndex: 0, min: 0, max: 1, interval: 1, name: 'Stable', nameLocation: 'middle', nameGap: 44, axisLabel: { formatter: (v: number) => (v === 1 ? 'yes' : 'no') } },
       { type: 'value', gridIndex: 1, name: 'Phase margin (°)', nameLocation: 'middle', nameGap: 44, scale: true },
-      { type: 'log', gridIndex: 2, name: 'Response error (dB)', nameLocation: 'middle', nameGap: 44, logBase: 10 },
+      { type: 'log', gridIndex: 2, name: 'Response error', nameLocation: 'middle', nameGap: 44, logBase: 10, axisLabel: { formatter: siTick('dB', 2) } },
     ],
     series: [
       { type: 'line', step: 'middle', name: 'Stable', xAxisIndex: 0, yAxisIndex: 0, data: at((p) => (p.stable ? 1 : 0)), color: CHART_COLORS.float, markLine: { symbol: 'none', silent: true, data: cheapestMark(mark, true) } },
