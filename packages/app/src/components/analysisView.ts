@@ -54,7 +54,7 @@ export function bodeMarkers(a: AnalysisResult, sampleRateHz: number): BodeMarker
 }
 
 /** What a margin cell says for a loop that is unstable: a margin is only defined for a stable loop. */
-export const NO_MARGIN_UNSTABLE = 'none (unstable)';
+const NO_MARGIN_UNSTABLE = 'none (unstable)';
 
 function gmText(m: LoopMargins | undefined, stable: boolean | undefined): string {
   if (!m) return '—';
