@@ -512,7 +512,8 @@ describe('Loopwright in the browser', () => {
     await page.click('[data-test="compare"]');
     await page.waitForSelector('[data-test="release-diff"] .el-table__row');
     const rows = (await tableRows(page, '[data-test="release-diff"]')).map((cells) => cells.join('|'));
-    expect(rows).toContain('Spec|filter.damping|0.35|0.6');
+    expect(rows).toContain('Spec|Damping ζ||0.35|0.6|filter.damping');
+    expect(await textOf(page, '[data-test="diff-summary"]')).toMatch(/^v1 → v2: changed .*Integer codes/);
     expect(rows.some((r) => r.startsWith('Integer codes'))).toBe(true);
     await screenshot(page, '14-release-diff');
 

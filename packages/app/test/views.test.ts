@@ -5,7 +5,8 @@ import { decimateMinMax } from '../src/charts/decimate.ts';
 import { bodeOption, magnitudeAxisMin, type BodeTrace } from '../src/charts/bodeOption.ts';
 import { envelope, traceOption } from '../src/charts/traceOption.ts';
 import { twosComplementHex } from '../src/components/reportView.ts';
-import { diffRows, reviewRows, waitingMailNotice } from '../src/components/releaseView.ts';
+import { diffRows, diffSummary, reviewRows, waitingMailNotice } from '../src/components/releaseView.ts';
+import { SPEC_SECTIONS } from '../src/form/specFields.ts';
 import type { ReviewRecord } from '../src/api/types.ts';
 import { coefficientCurveOption, dataCurveOption, widthEdits, widthEditsText, widthVerdictRows } from '../src/components/wordLengthView.ts';
 import { wordLengthSearch } from '@loopwright/dsp';
@@ -83,22 +84,24 @@ describe('engineering format', () => {
 });
 
 describe('release diff rows', () => {
-  it('lists spec changes, code changes and only the headline margins', () => {
-    const rows = diffRows({
+  it('labels spec paths as the editor does and keeps the server order (common practice, no source)', () => {
+    const diff = {
       from: { id: 1, label: 'v1' },
       to: { id: 2, label: 'v2' },
-      spec: [{ path: 'filter.damping', before: 0.707, after: 0.5 }],
-      codes: [{ name: 'S1_B0', before: '40', after: '41' }],
-      margins: [
-        { path: 'discrete.phaseMarginDeg', before: 65.51234, after: 52.1 },
-        { path: 'discrete.notes.0', before: 'a', after: 'b' },
+      sections: [
+        { id: 'formats', title: 'Word formats', rows: [] },
+        { id: 'widths', title: 'Widths and counts', rows: [{ key: 'X_NCO_GAIN_SHIFT', label: 'NCO gain shift (right)', unit: 'bits', before: '8', after: '10' }] },
+        { id: 'spec', title: 'Spec', rows: [{ key: 'filter.damping', label: 'filter.damping', unit: '', before: '0.707', after: '0.5' }, { key: 'nco.gainHzPerUnit', label: 'nco.gainHzPerUnit', unit: '', before: null, after: '5' }] },
       ],
-    });
-    expect(rows.map((r) => `${r.group}|${r.path}|${r.before}|${r.after}`)).toEqual([
-      'Spec|filter.damping|0.707|0.5',
-      'Integer codes|S1_B0|40|41',
-      'Margins|discrete.phaseMarginDeg|65.51234|52.1',
+    };
+    const rows = diffRows(diff);
+    expect(rows.map((r) => `${r.group}|${r.label}|${r.unit}|${r.before}|${r.after}|${r.key}`)).toEqual([
+      'Widths and counts|NCO gain shift (right)|bits|8|10|X_NCO_GAIN_SHIFT',
+      `Spec|${SPEC_SECTIONS.flatMap((s) => s.fields).find((f) => f.path === 'filter.damping')!.label}||0.707|0.5|filter.damping`,
+      'Spec|NCO gain|Hz/unit|—|5|nco.gainHzPerUnit',
     ]);
+    expect(diffSummary(diff)).toBe('v1 → v2: changed Widths and counts 1, Spec 2');
+    expect(diffSummary({ ...diff, sections: [] })).toBe('v1 → v2: nothing changed');
   });
 });
 

@@ -122,13 +122,29 @@ export type ReviewDecisionResponse = z.infer<typeof reviewDecisionResponseSchema
 
 export const diffQuerySchema = z.strictObject({ against: idSchema });
 
-export const valueChangeSchema = z.object({ path: z.string(), before: z.unknown(), after: z.unknown() });
+/** One figure that differs between two releases, as a reader sees it: label, unit, both values as text. */
+export const diffRowSchema = z.object({
+  /** Stable key: the constant's full name, or the spec / results dot path. */
+  key: z.string(),
+  label: z.string(),
+  /** '' when the figure has no unit (a mode, a code). */
+  unit: z.string(),
+  /** null: the figure does not exist on that side. */
+  before: z.string().nullable(),
+  after: z.string().nullable(),
+});
+export type DiffRow = z.infer<typeof diffRowSchema>;
+/**
+ * Sections in reading order: word formats and widths first, then integer codes, tables, spec fields
+ * and margins. New figures of a release (measured results) add a section of their own.
+ */
+export const diffSectionSchema = z.object({ id: z.string(), title: z.string(), rows: z.array(diffRowSchema) });
+export type DiffSection = z.infer<typeof diffSectionSchema>;
 export const releaseDiffSchema = z.object({
   from: z.object({ id: z.number().int(), label: z.string() }),
   to: z.object({ id: z.number().int(), label: z.string() }),
-  spec: z.array(valueChangeSchema),
-  codes: z.array(z.object({ name: z.string(), before: z.string().nullable(), after: z.string().nullable() })),
-  margins: z.array(valueChangeSchema),
+  /** Every section, empty ones included, so a reader sees what was compared. */
+  sections: z.array(diffSectionSchema),
 });
 export type ReleaseDiff = z.infer<typeof releaseDiffSchema>;
 

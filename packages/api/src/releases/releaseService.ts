@@ -255,7 +255,7 @@ export class ReleaseService {
       id: Number(row.id),
       label: releaseLabel(Number(row.number)),
       spec: JSON.parse(row.specJson ?? 'null') as unknown,
-      constants: (await this.manifestOf(row.id)).constants,
+      manifest: await this.manifestOf(row.id),
       margins: marginsOf(JSON.parse(row.resultsJson ?? 'null')),
     });
     return releaseDiff(await side(from), await side(to));

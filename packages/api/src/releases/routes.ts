@@ -90,7 +90,7 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
     method: 'get',
     path: '/releases/:id/diff',
     access: 'signed-in',
-    summary: 'difference to another release of the same design: spec fields, integer codes, margins',
+    summary: 'difference to another release of the same design: every changed constant (formats, widths, codes, tables), spec fields, margins',
     params: releaseParamsSchema,
     query: diffQuerySchema,
     handler: ({ services, user, params, query }) => services.handoff.releases.diff(user.organizationId, params.id, query.against, user),

@@ -27,6 +27,7 @@ export type { ArtifactFile } from './artifactFile.ts';
 
 export interface ManifestConstant {
   readonly name: string;
+  readonly label: string;
   readonly signedness: 'signed' | 'unsigned';
   readonly widthBits: number;
   /** Decimal integer code (a string: 64-bit codes do not survive a JSON number). */
@@ -40,10 +41,12 @@ export interface Manifest {
   readonly specSha256: string;
   readonly spec: LoopSpec;
   readonly results: Readonly<Record<string, unknown>>;
+  /** Word formats the files declare (VHDL subtypes, C typedefs). */
+  readonly types: readonly { name: string; label: string; signedness: 'signed' | 'unsigned'; widthBits: number; format: string }[];
   readonly constants: readonly ManifestConstant[];
-  readonly counts: readonly { name: string; value: number }[];
+  readonly counts: readonly { name: string; label: string; unit: string; value: number }[];
   /** ROMs (the sine table), every entry as a plain integer code. */
-  readonly tables: readonly { name: string; signedness: 'signed'; widthBits: number; codes: readonly number[] }[];
+  readonly tables: readonly { name: string; label: string; signedness: 'signed'; widthBits: number; codes: readonly number[] }[];
   readonly files: readonly { name: string; bytes: number; sha256: string }[];
   readonly caution: string;
 }
@@ -154,14 +157,16 @@ function buildManifest(
     specSha256,
     spec: computation.plan.spec,
     results: computation.results,
+    types: model.types.map((t) => ({ name: names.typeName(t.suffix), label: t.label, signedness: t.signedness, widthBits: t.widthBits, format: t.format })),
     constants: model.codes.map((c) => ({
       name: names.constant(c.suffix),
+      label: c.label,
       signedness: c.signedness,
       widthBits: c.widthBits,
       code: c.code.toString(),
     })),
-    counts: model.counts.map((c) => ({ name: names.constant(c.suffix), value: c.value })),
-    tables: model.tables.map((t) => ({ name: names.constant(t.suffix), signedness: t.signedness, widthBits: t.widthBits, codes: t.codes })),
+    counts: model.counts.map((c) => ({ name: names.constant(c.suffix), label: c.label, unit: c.unit, value: c.value })),
+    tables: model.tables.map((t) => ({ name: names.constant(t.suffix), label: t.label, signedness: t.signedness, widthBits: t.widthBits, codes: t.codes })),
     files: files.map((f) => ({ name: f.name, bytes: f.bytes.length, sha256: f.sha256 })),
     caution: CAUTION,
   };

@@ -12,6 +12,9 @@ export interface CountConstant {
   readonly value: number;
   /** Our own wording (never user text); passed through commentText before it reaches a comment. */
   readonly meaning: string;
+  /** What a reader calls it (release diff, manifest), and its unit ('' for a mode or a code). */
+  readonly label: string;
+  readonly unit: string;
 }
 
 /** An integer code of a fixed-width word (coefficient, tuning word, limit). */
@@ -21,6 +24,7 @@ export interface CodeConstant {
   readonly widthBits: number;
   readonly code: bigint;
   readonly meaning: string;
+  readonly label: string;
 }
 
 /** A word format the firmware declares (C typedef, VHDL subtype). */
@@ -30,6 +34,9 @@ export interface WordType {
   readonly signedness: Signedness;
   readonly widthBits: number;
   readonly meaning: string;
+  readonly label: string;
+  /** The word as a reader states it: "Q2.16, signed, 18 bits". */
+  readonly format: string;
 }
 
 /** A ROM of small signed codes (|code| < 2^31, so every language holds them as plain integers). */
@@ -39,6 +46,7 @@ export interface TableConstant {
   readonly widthBits: number;
   readonly codes: readonly number[];
   readonly meaning: string;
+  readonly label: string;
 }
 
 export interface HandoffModel {

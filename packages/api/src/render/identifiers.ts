@@ -19,6 +19,8 @@ export interface CodeNames {
   readonly vhdlConstant: (suffix: string) => string;
   /** C/Verilog name of a constant: prefix + suffix. */
   readonly constant: (suffix: string) => string;
+  /** C name of a word type (typedef), e.g. mains_sync_50hz_coef_t; VHDL wraps it in vhdlIdentifier. */
+  readonly typeName: (suffix: string) => string;
 }
 
 export function assertDesignName(name: string): void {
@@ -45,6 +47,7 @@ export function codeNames(name: string): CodeNames {
     vhdlPackage: vhdlIdentifier(`${name}_pkg`),
     vhdlConstant: (suffix) => vhdlIdentifier(constant(suffix)),
     constant,
+    typeName: (suffix) => `${name}_${suffix.toLowerCase()}_t`,
   };
 }
 

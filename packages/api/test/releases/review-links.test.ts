@@ -119,8 +119,9 @@ describe('the review page', () => {
     const second = await releaseInReview();
     const view = await anonymous().get(`/api/review-links/${second.token}`).expect(200);
     expect(view.body.diff.to.id).toBe(second.id);
-    expect(view.body.diff.spec).toEqual([]); // same spec, so the same codes: a re-cut changes nothing
-    expect(view.body.diff.codes).toEqual([]);
+    // Same spec, so the same constants: a re-cut changes nothing, and every section says so.
+    expect(view.body.diff.sections.map((s: { id: string }) => s.id)).toEqual(['formats', 'widths', 'codes', 'tables', 'spec', 'margins']);
+    expect(view.body.diff.sections.flatMap((s: { rows: unknown[] }) => s.rows)).toEqual([]);
   });
 });
 

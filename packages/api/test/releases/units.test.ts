@@ -1,7 +1,7 @@
 /** The pure parts: state machine, tokens, vector comparison, diff. */
 import { VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
 import { describe, expect, it } from 'vitest';
-import { valueChanges } from '../../src/releases/diff.ts';
+import { changedFigures } from '../../src/releases/diff.ts';
 import { issueToken, parseToken, tokenHash, tokenMatches } from '../../src/releases/reviewToken.ts';
 import { RELEASE_EVENTS, RELEASE_STATES } from '@loopwright/contract';
 import { allowedEvents, transition } from '../../src/releases/stateMachine.ts';
@@ -111,12 +111,13 @@ describe('golden vector comparison (dsp compareVectors on the stored CSV)', () =
   });
 });
 
-describe('diff of JSON documents', () => {
-  it('lists changed, added and removed leaves by dot path', () => {
-    expect(valueChanges({ a: 1, b: { c: 2, d: [1, 2] } }, { a: 1, b: { c: 3, d: [1] }, e: null })).toEqual([
-      { path: 'b.c', before: 2, after: 3 },
-      { path: 'b.d.1', before: 2, after: null },
-      { path: 'e', before: null, after: null },
+describe('diff of two lists of figures', () => {
+  it('lists changed, added and removed figures by key, labelled from the newer side (common practice, no source)', () => {
+    const f = (key: string, value: string, label = key) => ({ key, label, unit: 'bits', value });
+    expect(changedFigures([f('A', '1'), f('B', '2', 'old'), f('C', '3')], [f('A', '1'), f('B', '4', 'new'), f('D', '5')])).toEqual([
+      { key: 'B', label: 'new', unit: 'bits', before: '2', after: '4' },
+      { key: 'D', label: 'D', unit: 'bits', before: null, after: '5' },
+      { key: 'C', label: 'C', unit: 'bits', before: '3', after: null },
     ]);
   });
 });

@@ -1,6 +1,7 @@
 /** Display data for releases: state tags, hashes, sizes, the diff as rows. */
 import type { ReleaseDiff, ReleaseFileRecord, ReleaseRecord, ReleaseState, ReleaseSummary, ReviewRecord } from '../api/types.ts';
 import { formatDate } from '../views/projectsView.ts';
+import { SPEC_SECTIONS } from '../form/specFields.ts';
 
 export type TagType = 'primary' | 'success' | 'warning' | 'info' | 'danger';
 
@@ -117,24 +118,38 @@ export function waitingMailNotice(reviews: readonly ReviewRecord[]): string | nu
 
 export interface DiffRow {
   readonly group: string;
-  readonly path: string;
+  readonly label: string;
+  readonly unit: string;
+  /** The constant's name or the spec path, for whoever searches the files for it. */
+  readonly key: string;
   readonly before: string;
   readonly after: string;
 }
 
-function show(value: unknown): string {
-  if (value === null || value === undefined) return '—';
-  if (typeof value === 'number') return String(Number(value.toPrecision(10)));
-  return typeof value === 'string' ? value : JSON.stringify(value);
+/** Form label and unit of each spec path: a spec change reads as the editor names the field. */
+const SPEC_FIELDS = new Map(SPEC_SECTIONS.flatMap((s) => s.fields.map((f) => [f.path, f] as const)));
+
+function specLabel(path: string): { label: string; unit: string } {
+  const field = SPEC_FIELDS.get(path);
+  if (!field) return { label: path, unit: '' };
+  return { label: field.label, unit: field.unit === '—' || field.unit === 'id' ? '' : field.unit };
 }
 
-/** Margins lists hold many internal figures; the reviewer reads the headline ones first. */
-const MARGIN_PATHS = /(crossoverHz|phaseMarginDeg|gainMarginDb|phaseCrossoverHz)$/;
-
+/** Every changed figure in the server's order (formats and widths first), one row each. */
 export function diffRows(d: ReleaseDiff): DiffRow[] {
-  return [
-    ...d.spec.map((c) => ({ group: 'Spec', path: c.path, before: show(c.before), after: show(c.after) })),
-    ...d.codes.map((c) => ({ group: 'Integer codes', path: c.name, before: show(c.before), after: show(c.after) })),
-    ...d.margins.filter((c) => MARGIN_PATHS.test(c.path)).map((c) => ({ group: 'Margins', path: c.path, before: show(c.before), after: show(c.after) })),
-  ];
+  return d.sections.flatMap((s) =>
+    s.rows.map((r) => ({
+      group: s.title,
+      ...(s.id === 'spec' ? specLabel(r.key) : { label: r.label, unit: r.unit }),
+      key: r.key,
+      before: r.before ?? '—',
+      after: r.after ?? '—',
+    })),
+  );
+}
+
+/** "Word formats 2, Widths and counts 3, …": what changed, section by section. */
+export function diffSummary(d: ReleaseDiff): string {
+  const changed = d.sections.filter((s) => s.rows.length > 0).map((s) => `${s.title} ${s.rows.length}`);
+  return `${d.from.label} → ${d.to.label}: ${changed.length ? `changed ${changed.join(', ')}` : 'nothing changed'}`;
 }

@@ -30,7 +30,7 @@ export function cHeaderView(model: HandoffModel, header: ArtifactHeader): CHeade
       comment: commentText(`${cType(c.signedness, c.widthBits)}, ${c.widthBits} bits: ${c.meaning}`),
     })),
     types: model.types.map((t) => ({
-      name: `${model.name}_${t.suffix.toLowerCase()}_t`,
+      name: names.typeName(t.suffix),
       type: cType(t.signedness, t.widthBits),
       comment: commentText(t.meaning),
     })),

@@ -32,7 +32,7 @@ export function vhdlView(model: HandoffModel, header: ArtifactHeader): VhdlView 
       comment: commentText(`${c.code}: ${c.meaning}`),
     })),
     types: model.types.map((t) => ({
-      name: vhdlIdentifier(`${model.name}_${t.suffix.toLowerCase()}_t`),
+      name: vhdlIdentifier(names.typeName(t.suffix)),
       type: vhdlType(t.signedness, t.widthBits),
       comment: commentText(t.meaning),
     })),
