@@ -118,6 +118,13 @@ async function main(): Promise<void> {
   const processes = env.LW_API_PROCESSES ?? '1';
   const layout = env.LW_BALANCER === 'nginx' ? `${processes} API process(es) behind nginx` : `${processes} API process(es)`;
   log(`Loopwright is running at ${url} (${layout})`);
+  // The demo releases are made through the running server (its routes, its RTL verification), so
+  // they can only be seeded now; the script leaves a database whose demo designs have releases alone.
+  log('seeding the demo releases through the server (a minute or two on an idle machine: approval waits for the RTL verification)');
+  await runStep('the demo releases', 'packages/api', process.execPath, ['--import', 'tsx', 'src/demo-releases.ts', url], env).catch((err: unknown) => {
+    // The server itself is fine; say what failed and keep serving.
+    process.stderr.write(`loopwright: error: ${err instanceof Error ? err.message : String(err)}; the server keeps running without them\n`);
+  });
   log(`demo sign-ins (demo database only), password '${DEMO_PASSWORD}':`);
   for (const account of DEMO_ACCOUNTS) log(`  ${account}`);
   log('press Ctrl-C to stop');

@@ -23,7 +23,7 @@ function summary(id: number, number: number, stateChangedAt = '2026-01-01T00:00:
 }
 
 function record(s: ReleaseSummary, projectId = 1): ReleaseRecord {
-  return { ...s, designName: 'Mains sync', projectId, spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 1, reviews: [], allowedEvents: [], caution: 'design aid', verification: PASSED };
+  return { ...s, designName: 'Mains sync', projectId, spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 1, reviews: [], allowedEvents: [], caution: 'design aid', verification: PASSED, withdrawnReason: null };
 }
 
 describe('releases store', () => {

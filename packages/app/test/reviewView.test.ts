@@ -24,7 +24,7 @@ const view: ReviewLinkView = {
     id: 3, designId: 1, number: 1, label: 'v1', state: 'in-review', manifestSha256: SHA, specSha256: 'e'.repeat(64), designRevision: 2,
     createdById: 1, createdByName: 'Dana Designer', createdAt: '', stateChangedAt: '', designName: 'Mains sync PI loop', projectId: 1,
     spec: mainsSyncSpec, results: null, files: [], approvalsRequired: 1, approvals: 0, reviews: [], allowedEvents: ['approve', 'request-changes'],
-    caution: 'A release is a design aid.', verification: PASSED,
+    caution: 'A release is a design aid.', verification: PASSED, withdrawnReason: null,
   },
 };
 

@@ -71,6 +71,8 @@ export const releaseRecordSchema = releaseSummarySchema.extend({
   caution: z.string(),
   /** The server's verification of the reference RTL, made after the cut beside the immutable files. */
   verification: releaseVerificationSchema,
+  /** Why a withdrawn release was withdrawn (the reason its withdrawal recorded; null when none was given or it is not withdrawn). */
+  withdrawnReason: z.string().nullable(),
 });
 export type ReleaseRecord = z.infer<typeof releaseRecordSchema>;
 export const releaseListResponseSchema = z.object({ releases: z.array(releaseSummarySchema) });

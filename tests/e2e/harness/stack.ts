@@ -26,6 +26,8 @@ export interface StackOptions {
   readonly app?: boolean;
   /** More settings for the server (they win over the stack's). */
   readonly env?: Readonly<Record<string, string>>;
+  /** Also seed the demo releases through the running server, as `npm start` does (default false). */
+  readonly demoReleases?: boolean;
 }
 
 export interface Stack {
@@ -35,6 +37,8 @@ export interface Stack {
   readonly dataDir: string;
   /** The server's settings (LW_DB_*, LW_SMTP_*, PORT, …), for tools run against the same stack. */
   readonly env: Readonly<Record<string, string>>;
+  /** What the demo-release seed printed (empty without demoReleases). */
+  readonly demoLog: string;
   server: ServerProcess;
   /** Stops the server (all its processes) and starts it again on the same port and data. */
   restartServer(): Promise<void>;
@@ -58,13 +62,14 @@ export async function apiDbEnv(db: MariaDbInstance): Promise<Record<string, stri
   return dbEnv(db);
 }
 
-function runPrepareDb(env: Record<string, string>): Promise<void> {
+/** Runs one of the API's start-up scripts (as `npm start` does) to completion; returns its output. */
+function runApiScript(script: string, args: readonly string[], env: Record<string, string>): Promise<string> {
   return new Promise((resolve, reject) => {
     let output = '';
-    const child = spawn(process.execPath, ['--import', 'tsx', 'src/prepare-db.ts'], { cwd: API_DIR, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, ['--import', 'tsx', script, ...args], { cwd: API_DIR, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
     child.stdout.on('data', (chunk: Buffer) => (output += chunk.toString()));
     child.stderr.on('data', (chunk: Buffer) => (output += chunk.toString()));
-    child.once('exit', (code) => (code === 0 ? resolve() : reject(new Error(`prepare-db failed (exit ${code}):\n${output}`))));
+    child.once('exit', (code) => (code === 0 ? resolve(output) : reject(new Error(`${script} failed (exit ${code}):\n${output}`))));
   });
 }
 
@@ -107,9 +112,10 @@ export async function startStack(options: StackOptions = {}): Promise<Stack> {
       LW_SIGNIN_LIMIT_PER_WINDOW: '1000',
       ...options.env,
     };
-    await runPrepareDb(env);
+    await runApiScript('src/prepare-db.ts', [], env);
     let server = await startServer(env, { expectedProcesses: processes });
     stops.push(() => stack.server.stop());
+    const demoLog = options.demoReleases ? await runApiScript('src/demo-releases.ts', [baseUrl], env) : '';
 
     const stack: Stack = {
       baseUrl,
@@ -119,6 +125,7 @@ export async function startStack(options: StackOptions = {}): Promise<Stack> {
       db,
       dataDir,
       env,
+      demoLog,
       server,
       async restartServer() {
         await stack.server.stop();

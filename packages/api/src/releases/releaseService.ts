@@ -29,6 +29,16 @@ import type { VerificationService } from './verificationService.ts';
 
 export type Actor = AuditActor & { id: number };
 
+/** The reason the withdrawal recorded in the audit trail (the one place it is kept), or null. */
+async function withdrawalReason(manager: EntityManager, releaseId: number): Promise<string | null> {
+  const rows = (await manager.query(
+    "SELECT `detailJson` FROM `audit_entries` WHERE `objectType` = 'release' AND `objectId` = ? AND `action` = 'release.withdraw' ORDER BY `id` DESC LIMIT 1",
+    [String(releaseId)],
+  )) as { detailJson: string | null }[];
+  const detail = rows[0]?.detailJson ? (JSON.parse(rows[0].detailJson) as { reason?: unknown }) : null;
+  return typeof detail?.reason === 'string' && detail.reason !== '' ? detail.reason : null;
+}
+
 /** A rendered release as it comes back from a worker thread, its bytes as Buffers again. */
 function fromWorker(r: RenderedRelease): RenderedRelease {
   return { ...r, files: r.files.map((f) => ({ ...f, bytes: asBuffer(f.bytes) })) };
@@ -131,7 +141,12 @@ export class ReleaseService {
   }
 
   async record(row: ReleaseRow, manager: EntityManager = this.dataSource.manager): Promise<ReleaseRecord> {
-    const [files, reviews, verification] = await Promise.all([listFiles(manager, row.id), listReviews(manager, row.id), this.verification.recordFor(manager, row.id)]);
+    const [files, reviews, verification, withdrawnReason] = await Promise.all([
+      listFiles(manager, row.id),
+      listReviews(manager, row.id),
+      this.verification.recordFor(manager, row.id),
+      row.state === 'withdrawn' ? withdrawalReason(manager, row.id) : Promise.resolve(null),
+    ]);
     return {
       ...toSummary(row),
       designName: row.designName,
@@ -145,6 +160,7 @@ export class ReleaseService {
       allowedEvents: allowedEvents(row.state),
       caution: CAUTION,
       verification,
+      withdrawnReason,
     };
   }
 

@@ -49,7 +49,7 @@ export const useReleasesStore = defineStore('releases', () => {
     try {
       const record = await releasesApi.cut(id);
       records.value = { ...records.value, [record.id]: record };
-      const { designName: _n, projectId: _p, spec: _s, results: _r, files: _f, approvalsRequired: _a, approvals: _c, reviews: _v, allowedEvents: _e, caution: _k, verification: _w, ...summary } = record;
+      const { designName: _n, projectId: _p, spec: _s, results: _r, files: _f, approvalsRequired: _a, approvals: _c, reviews: _v, allowedEvents: _e, caution: _k, verification: _w, withdrawnReason: _x, ...summary } = record;
       releases.value = [summary, ...releases.value.filter((r) => r.id !== record.id)];
       return record;
     } finally {
