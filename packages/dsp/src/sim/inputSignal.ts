@@ -60,6 +60,10 @@ export function inputGenerator(
   const sigma = s.snrDb === undefined ? 0 : Math.sqrt((amplitude * amplitude) / 2 / 10 ** (s.snrDb / 10));
   const stepSample = s.kind === 'phase-step' ? Math.ceil(s.atS * sampleRateHz) : -1;
   const stepCycles = s.kind === 'phase-step' ? s.stepDeg / 360 : 0;
+  // A tone or a phase step has one frequency offset throughout: its per-sample step is computed once
+  // (the same division, so the same double as per sample).
+  const constantHz = offsetFnHz ? null : s.kind === 'tone' ? s.offsetHz : s.kind === 'phase-step' ? 0 : null;
+  const constantStep = constantHz === null ? 0 : (centerHz + constantHz) / sampleRateHz;
   let phase = (s.initialPhaseDeg ?? 0) / 360;
   phase -= Math.floor(phase);
   let noiseBuf = new Float64Array(0);
@@ -73,12 +77,13 @@ export function inputGenerator(
           phase += stepCycles;
           phase -= Math.floor(phase);
         }
-        const off = offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
+        const off = constantHz !== null ? constantHz : offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
         chunk.phaseCycles[i] = phase;
         chunk.offsetHz[i] = off;
         chunk.x[i] = amplitude * Math.sin(2 * Math.PI * phase) + (noise ? (noiseBuf[i] as number) : 0);
-        phase += (centerHz + off) / sampleRateHz;
-        phase -= Math.floor(phase);
+        phase += constantHz !== null ? constantStep : (centerHz + off) / sampleRateHz;
+        // phase − floor(phase) only off [0, 1) (it is the identity on (0, 1); +0 and −0 take it, as before).
+        if (!(phase > 0 && phase < 1)) phase -= Math.floor(phase);
       }
     },
   };

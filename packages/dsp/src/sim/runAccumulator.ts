@@ -46,7 +46,7 @@ export class RunAccumulator {
   private readonly settle: MinMaxDecimator;
   private readonly full: SimFullTraces | undefined;
   /** Per-sample values of the current chunk that are decimated after its loop. */
-  private readonly scratch: { readonly phaseErr: Float64Array; readonly smooth: Float64Array; readonly lock: Float64Array };
+  private readonly scratch: { readonly phaseErr: Float64Array; readonly smooth: Float64Array; readonly lock: Float64Array; readonly unwrappedRad: Float64Array };
   private readonly boxcar: Float64Array;
   private boxSum = 0;
   private boxIndex = 0;
@@ -66,7 +66,12 @@ export class RunAccumulator {
 
   constructor(private readonly s: RunSetup, chunkSamples: number) {
     const { total, buckets, sampleRateHz } = s;
-    this.scratch = { phaseErr: new Float64Array(chunkSamples), smooth: new Float64Array(chunkSamples), lock: new Float64Array(chunkSamples) };
+    this.scratch = {
+      phaseErr: new Float64Array(chunkSamples),
+      smooth: new Float64Array(chunkSamples),
+      lock: new Float64Array(chunkSamples),
+      unwrappedRad: new Float64Array(chunkSamples),
+    };
     this.phase = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.filter = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
@@ -89,18 +94,17 @@ export class RunAccumulator {
   /**
    * Samples n0 … n0 + count − 1 of one chunk: input and NCO phases in cycles, input samples x, filter
    * output (control units), NCO frequency, and the scenario's frequency offset (Hz). The recurrences
-   * (unwrapping, the boxcar, the lock indicator, the tail sums) run sample by sample in one loop; the
-   * traces are then decimated a bucket at a time.
+   * (unwrapping, the boxcar, the lock indicator) run sample by sample in one loop; the tail and
+   * demodulation sums in loops of their own over the part of the chunk they cover (no per-sample test
+   * of the sample index), in the same order; the traces are then decimated a bucket at a time.
    */
   pushChunk(n0: number, count: number, o: ChunkObservations): void {
     const { inPhase, ncoPhase, x, y, ncoHz, offsetHz } = o;
-    const { phaseErr, smooth, lock } = this.scratch;
+    const { phaseErr, smooth, lock, unwrappedRad } = this.scratch;
     const box = this.boxcar;
     const boxLength = box.length;
-    const { amplitude, centerHz, gainHzPerUnit } = this.s;
+    const amplitude = this.s.amplitude;
     const alpha = this.lockAlpha;
-    const tailStart = this.tailStart;
-    const demodStart = this.demodStart;
     let prev = this.prevWrapped;
     let unwrapped = this.unwrapped;
     let boxSum = this.boxSum;
@@ -108,7 +112,6 @@ export class RunAccumulator {
     let boxFilled = this.boxFilled;
     let lockState = this.lockState;
     for (let i = 0; i < count; i++) {
-      const n = n0 + i;
       const phaseNco = ncoPhase[i] as number;
       // x − Math.round(x) for x in (−1, 1), written out (Math.round is a slow call here): ties 0.5 → −0.5
       // and −0.5 → −0.5 as Math.round has them, and + 0 turns −0 into +0 as x − Math.round(x) does.
@@ -117,8 +120,9 @@ export class RunAccumulator {
       const d1 = e - prev;
       const de = d1 >= 0.5 ? d1 - 1 : d1 < -0.5 ? d1 + 1 : d1 + 0;
       prev = e;
-      unwrapped = n === 0 ? e * TWO_PI : unwrapped + de * TWO_PI;
+      unwrapped = n0 + i === 0 ? e * TWO_PI : unwrapped + de * TWO_PI;
       const eu = unwrapped;
+      unwrappedRad[i] = eu;
       boxSum += eu - (box[boxIndex] as number);
       box[boxIndex] = eu;
       if (++boxIndex === boxLength) boxIndex = 0;
@@ -129,18 +133,9 @@ export class RunAccumulator {
       lockState += alpha * (q - lockState);
       lock[i] = lockState;
       phaseErr[i] = e * TWO_PI;
-      if (n >= tailStart) {
-        this.tailSum += eu;
-        this.tailSum2 += eu * eu;
-        this.tailFreqSum += (ncoHz[i] as number) - (centerHz + (offsetHz[i] as number));
-        this.tailCount++;
-      }
-      if (n >= demodStart) {
-        const d = (y[i] as number) * gainHzPerUnit - (offsetHz[i] as number);
-        this.demodSum2 += d * d;
-        this.demodCount++;
-      }
     }
+    this.tailSums(n0, count, o);
+    this.demodSums(n0, count, o);
     this.prevWrapped = prev;
     this.unwrapped = unwrapped;
     this.boxSum = boxSum;
@@ -158,6 +153,43 @@ export class RunAccumulator {
       this.full.ncoFrequencyHz.set(ncoHz.subarray(0, count), n0);
       this.full.offsetHz.set(offsetHz.subarray(0, count), n0);
     }
+  }
+
+  /** Sums of the last tenth (steady state): unwrapped error, its square, frequency error; in sample order. */
+  private tailSums(n0: number, count: number, o: ChunkObservations): void {
+    const from = Math.max(0, this.tailStart - n0);
+    if (from >= count) return;
+    const { ncoHz, offsetHz } = o;
+    const eu = this.scratch.unwrappedRad;
+    const centerHz = this.s.centerHz;
+    let sum = this.tailSum;
+    let sum2 = this.tailSum2;
+    let freqSum = this.tailFreqSum;
+    for (let i = from; i < count; i++) {
+      const v = eu[i] as number;
+      sum += v;
+      sum2 += v * v;
+      freqSum += (ncoHz[i] as number) - (centerHz + (offsetHz[i] as number));
+    }
+    this.tailSum = sum;
+    this.tailSum2 = sum2;
+    this.tailFreqSum = freqSum;
+    this.tailCount += count - from;
+  }
+
+  /** Squared demodulation error of the second half (filter output × gainHzPerUnit against the offset); in sample order. */
+  private demodSums(n0: number, count: number, o: ChunkObservations): void {
+    const from = Math.max(0, this.demodStart - n0);
+    if (from >= count) return;
+    const { y, offsetHz } = o;
+    const gainHzPerUnit = this.s.gainHzPerUnit;
+    let sum2 = this.demodSum2;
+    for (let i = from; i < count; i++) {
+      const d = (y[i] as number) * gainHzPerUnit - (offsetHz[i] as number);
+      sum2 += d * d;
+    }
+    this.demodSum2 = sum2;
+    this.demodCount += count - from;
   }
 
   finish(): SimRun {

@@ -16,6 +16,7 @@ import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
 
 /** Samples per chunk: progress and the abort flag between chunks; one call of the WebAssembly kernel each. */
 export const CHUNK_SAMPLES = WASM_CHUNK_SAMPLES;
+
 export const MAX_SIM_SAMPLES = 50_000_000;
 export const MAX_RECORD_SAMPLES = 1 << 22;
 export const DEFAULT_BUCKETS = 1000;
@@ -147,8 +148,8 @@ function floatRunner(spec: SimSpec, sections: readonly Sos[], acc: RunAccumulato
 
 function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly keepRecord: boolean; readonly kernel: BitTrueKernelChoice }, acc: RunAccumulator): LoopRunner<BitTrueRun> {
   const record = options.keepRecord ? allocRecord(total) : null;
-  const scratch = record ? null : allocRecord(CHUNK_SAMPLES);
   const wasm = options.kernel === 'wasm' ? wasmBitTrueLoop(plan) : null;
+  const scratch = record || wasm ? null : allocRecord(CHUNK_SAMPLES);
   const state = wasm ? null : initialBitTrueState(plan);
   const toCycles = 2 ** -plan.ncoAccumulatorBits;
   const hiWeight = 2 ** 32 * toCycles;
@@ -161,24 +162,30 @@ function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly kee
   const ncoHz = new Float64Array(CHUNK_SAMPLES);
   return {
     chunk(input, n0, count) {
-      const slice = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
-      quantizeInput(plan, input.x, count, slice.inputCode);
-      let out: BitTrueChunkOut = slice;
       if (wasm) {
-        wasm.run(slice.inputCode, count);
-        out = wasm.out;
-        if (record) copyChunk(out, slice, count);
+        // Without a record the codes are quantised straight into the kernel's input area.
+        const slice = record ? sliceRecord(record, n0, n0 + count) : null;
+        quantizeInput(plan, input.x, count, slice ? slice.inputCode : wasm.input);
+        if (slice) wasm.run(slice.inputCode, count);
+        else wasm.runInPlace(count);
+        if (slice) copyChunk(wasm.out, slice, count);
         // (M + Δ)·fs/2^N with the kernel's own Δ: the number bitTrueNcoHzOf(plan)(y) gives.
-        const delta = wasm.out.delta;
-        for (let i = 0; i < count; i++) ncoHz[i] = centerHz + (delta[i] as number) * hzPerLsb;
+        const { delta, phaseHi, phaseLo, filterCode } = wasm.out;
+        for (let i = 0; i < count; i++) {
+          ncoHz[i] = centerHz + (delta[i] as number) * hzPerLsb;
+          ncoPhase[i] = (phaseHi[i] as number) * hiWeight + (phaseLo[i] as number) * toCycles;
+          y[i] = (filterCode[i] as number) * yScale;
+        }
       } else {
+        const slice = record ? sliceRecord(record, n0, n0 + count) : (scratch as BitTrueRecord);
+        quantizeInput(plan, input.x, count, slice.inputCode);
         runBitTrueChunk(plan, state as BitTrueState, slice.inputCode, count, slice);
-        for (let i = 0; i < count; i++) ncoHz[i] = ncoHzOf(slice.filterCode[i] as number);
-      }
-      const { phaseHi, phaseLo, filterCode } = out;
-      for (let i = 0; i < count; i++) {
-        ncoPhase[i] = (phaseHi[i] as number) * hiWeight + (phaseLo[i] as number) * toCycles;
-        y[i] = (filterCode[i] as number) * yScale;
+        const { phaseHi, phaseLo, filterCode } = slice;
+        for (let i = 0; i < count; i++) {
+          ncoHz[i] = ncoHzOf(filterCode[i] as number);
+          ncoPhase[i] = (phaseHi[i] as number) * hiWeight + (phaseLo[i] as number) * toCycles;
+          y[i] = (filterCode[i] as number) * yScale;
+        }
       }
       acc.pushChunk(n0, count, { inPhase: input.phaseCycles, ncoPhase, x: input.x, y, ncoHz, offsetHz: input.offsetHz });
     },

@@ -79,7 +79,8 @@ export function wasmKernelAvailable(): boolean {
 export class WasmBitTrueLoop {
   /** Views of the outputs of the last chunk (valid until the next call of `run`). */
   readonly out: WasmChunkOut;
-  private readonly input: Int32Array;
+  /** The kernel's input area: codes written here run with `runInPlace`, without the copy of `run`. */
+  readonly input: Int32Array;
   private readonly words: BigInt64Array;
   private readonly ints: Int32Array;
   private readonly runChunk: (count: number) => void;
@@ -105,6 +106,11 @@ export class WasmBitTrueLoop {
   /** Run `count` (≤ WASM_CHUNK_SAMPLES) input codes; the outputs are then in `out`. */
   run(input: Int32Array, count: number): void {
     this.input.set(count === input.length ? input : input.subarray(0, count));
+    this.runChunk(count);
+  }
+
+  /** Run the first `count` codes already written to `input`. */
+  runInPlace(count: number): void {
     this.runChunk(count);
   }
 
