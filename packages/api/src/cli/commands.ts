@@ -4,7 +4,7 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { tryPlanDesign } from '@loopwright/dsp';
+import { compareAcquisition, measureAcquisition, tryPlanDesign } from '@loopwright/dsp';
 import { renderArtifacts } from '../render/artifacts.ts';
 import { computeDesign, computeRelease, RenderInputError } from '../render/compute.ts';
 import { synthesisSources } from '../render/synthesisSources.ts';
@@ -27,6 +27,14 @@ export function designCommand(specPath: string): string {
   const r = tryPlanDesign(readJsonFile('SPEC.json', specPath));
   if (!r.ok) throw new UsageError(issuesLine('SPEC.json', r.issues));
   return toJson(r.plan.analysis);
+}
+
+/** Each acquisition figure as estimate (the analysis's formula) and measured (the nonlinear loop simulated). */
+export function acquireCommand(specPath: string): string {
+  const r = tryPlanDesign(readJsonFile('SPEC.json', specPath));
+  if (!r.ok) throw new UsageError(issuesLine('SPEC.json', r.issues));
+  const comparison = compareAcquisition(r.plan.analysis.estimates, measureAcquisition(r.plan.spec));
+  return toJson({ specName: r.plan.spec.name, ...comparison });
 }
 
 export function simulateCommand(specPath: string, scenarioPath: string, vectors: number | undefined): string {

@@ -1,5 +1,5 @@
 /**
- * `loopwright design SPEC.json` | `simulate SPEC.json SCENARIO.json [--vectors N]` | `render SPEC.json OUTDIR`
+ * `loopwright design SPEC.json` | `acquire SPEC.json` | `simulate SPEC.json SCENARIO.json [--vectors N]` | `render SPEC.json OUTDIR`
  * | `verify OUTDIR [--samples N]` | `estimate SPEC.json` | `backup FILE` | `restore FILE`.
  * stdout carries only the JSON or CSV; errors are one line on stderr. Exit codes: 0 ok, 2 bad input
  * or usage, 1 an internal failure; verify: 1 when a testbench FAILs or gives no verdict, 3 when no
@@ -7,11 +7,11 @@
  */
 import { pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
-import { designCommand, estimateCommand, renderCommand, simulateCommand, verifyCommand, type CommandOutput } from './commands.ts';
+import { acquireCommand, designCommand, estimateCommand, renderCommand, simulateCommand, verifyCommand, type CommandOutput } from './commands.ts';
 import { UsageError } from './input.ts';
 
 const USAGE =
-  'usage: loopwright design SPEC.json | simulate SPEC.json SCENARIO.json [--vectors N] | render SPEC.json OUTDIR | verify OUTDIR [--samples N] | estimate SPEC.json | backup FILE | restore FILE';
+  'usage: loopwright design SPEC.json | acquire SPEC.json | simulate SPEC.json SCENARIO.json [--vectors N] | render SPEC.json OUTDIR | verify OUTDIR [--samples N] | estimate SPEC.json | backup FILE | restore FILE';
 
 export async function runCli(argv: readonly string[]): Promise<CommandOutput> {
   let parsed;
@@ -31,6 +31,9 @@ export async function runCli(argv: readonly string[]): Promise<CommandOutput> {
     case 'design':
       arity(1);
       return ok(designCommand(rest[0]!));
+    case 'acquire':
+      arity(1);
+      return ok(acquireCommand(rest[0]!));
     case 'simulate':
       arity(2);
       return ok(simulateCommand(rest[0]!, rest[1]!, vectorCount(parsed.values.vectors)));

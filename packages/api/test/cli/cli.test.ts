@@ -70,6 +70,38 @@ describe('loopwright CLI', () => {
     expect(lines.slice(1).map((l) => l.split(',')[0])).toEqual(['0', '1', '2', '3', '4']);
   });
 
+  it('acquire prints each acquisition figure as estimate and measured side by side, a limit named instead of a figure', () => {
+    const dir = workspace();
+    const r = cli(['acquire', 'spec.json'], dir);
+    expect(r.code, r.stderr).toBe(0);
+    type Row = { name: string; estimate: { label: string; valueHz: number | null }; measured: { label: string; valueHz: number | null; passHz: number; failHz: number | null; limitedBy: string | null } };
+    const out = JSON.parse(r.stdout) as { specName: string; figures: Row[]; search: { searchLimitHz: number } };
+    expect(out.specName).toBe('mains_sync_50hz');
+    expect(out.figures.map((f) => f.name)).toEqual(['lock-in', 'pull-out', 'hold-in', 'pull-in']);
+    const [lockIn, , holdIn] = out.figures;
+    expect(lockIn!.estimate.label).toBe('estimate');
+    expect(lockIn!.measured.label).toBe('simulated');
+    // 2ζωn/2π = 2·0.707·5 Hz for the PI targets (G3, B6).
+    expect(lockIn!.estimate.valueHz).toBeCloseTo(7.07, 6);
+    expect(lockIn!.measured.valueHz).toBeGreaterThan(lockIn!.measured.passHz - 1e-9);
+    // Ideal PI: hold-in is unbounded (G3); the search stops at the control word's range ±gainHzPerUnit and says so.
+    expect(holdIn!.measured.valueHz).toBeNull();
+    expect(holdIn!.measured.limitedBy).toBe('control-range');
+    expect(out.search.searchLimitHz).toBe(mainsSyncSpec.nco.gainHzPerUnit);
+  });
+
+  it('simulate runs a sweep and reports where lock was lost and regained, float and bit-true', () => {
+    const dir = workspace();
+    writeFileSync(join(dir, 'sweep.json'), JSON.stringify({ kind: 'sweep', fromHz: 0, toHz: 3, rateHzPerS: 3, durationS: 2.2 }));
+    const r = cli(['simulate', 'spec.json', 'sweep.json'], dir);
+    expect(r.code, r.stderr).toBe(0);
+    const m = JSON.parse(r.stdout) as { float: { sweep: { turnS: number; heldThroughout: boolean } }; bitTrue: { sweep: { lockLostHz: number | null } } };
+    expect(m.float.sweep.turnS).toBeCloseTo(1, 9);
+    // 3 Hz is well inside the PI loop's pull-out range (≈ 14 Hz measured): no slip (G3).
+    expect(m.float.sweep.heldThroughout).toBe(true);
+    expect(m.bitTrue.sweep.lockLostHz).toBeNull();
+  });
+
   it('render writes exactly the files the manifest lists, with the sums it states', () => {
     const dir = workspace();
     const r = cli(['render', 'spec.json', 'out'], dir);

@@ -3,7 +3,7 @@
  * the input phase φi in cycles advanced by f_i[n]/fs per sample, f_i = centerHz + the scenario's
  * frequency offset. Phase is kept modulo 1 cycle so long runs lose no precision.
  */
-import type { Scenario } from '../spec/scenario.ts';
+import { sweepLegS, type Scenario } from '../spec/scenario.ts';
 import { gaussianSource, type GaussianSource } from './prng.ts';
 
 export const DEFAULT_SEED = 1;
@@ -30,6 +30,12 @@ function modulation(kind: 'sine' | 'triangle' | 'square', p: number): number {
   return c < 0.25 ? 4 * c : c < 0.75 ? 2 - 4 * c : 4 * c - 4;
 }
 
+/** A linear ramp from fromHz to toHz over legS, back over the next legS, then fromHz. */
+function sweepOffsetHz(fromHz: number, toHz: number, legS: number, tS: number): number {
+  const x = tS <= legS ? tS / legS : tS <= 2 * legS ? 2 - tS / legS : 0;
+  return fromHz + (toHz - fromHz) * x;
+}
+
 /** The scenario's frequency offset (Hz) at time t, excluding phase steps. */
 export function scenarioOffsetHz(s: Scenario, tS: number): number {
   switch (s.kind) {
@@ -41,6 +47,8 @@ export function scenarioOffsetHz(s: Scenario, tS: number): number {
       return 0;
     case 'fm':
       return s.deviationHz * modulation(s.modulation, s.rateHz * tS);
+    case 'sweep':
+      return sweepOffsetHz(s.fromHz, s.toHz, sweepLegS(s), tS);
   }
 }
 

@@ -5,6 +5,7 @@
  */
 import type { SimFullTraces, SimMetrics, SimRun } from '../types/sim.ts';
 import { MinMaxDecimator } from './decimate.ts';
+import { SweepTracker } from './sweepMetrics.ts';
 
 const TWO_PI = 2 * Math.PI;
 /** Lock time is resolved to total/LOCK_BUCKETS samples. */
@@ -21,6 +22,8 @@ export interface RunSetup {
   readonly lockToleranceRad: number;
   readonly deviationHz: number | null;
   readonly fullTraces: boolean;
+  /** A sweep's first sample of the way back: the run then traces the input frequency and measures where lock went. */
+  readonly sweepTurnSample: number | null;
 }
 
 /** One chunk of a run's per-sample observations (arrays of at least the chunk's length). */
@@ -45,6 +48,8 @@ export class RunAccumulator {
   private readonly lock: MinMaxDecimator;
   private readonly settle: MinMaxDecimator;
   private readonly full: SimFullTraces | undefined;
+  /** Sweep runs only: the input frequency trace and where lock was lost and regained. */
+  private readonly sweep: { readonly inputHz: MinMaxDecimator; readonly tracker: SweepTracker; readonly scratch: Float64Array } | null;
   /** Per-sample values of the current chunk that are decimated after its loop. */
   private readonly scratch: { readonly phaseErr: Float64Array; readonly smooth: Float64Array; readonly lock: Float64Array; readonly unwrappedRad: Float64Array };
   private readonly boxcar: Float64Array;
@@ -85,6 +90,10 @@ export class RunAccumulator {
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
     this.tailStart = Math.floor(0.9 * total);
     this.demodStart = Math.floor(total / 2);
+    this.sweep =
+      s.sweepTurnSample === null
+        ? null
+        : { inputHz: new MinMaxDecimator(total, buckets, sampleRateHz), tracker: new SweepTracker(s.sweepTurnSample, sampleRateHz), scratch: new Float64Array(chunkSamples) };
     this.full =
       s.fullTraces && total <= MAX_FULL_TRACE_SAMPLES
         ? { phaseErrorRad: new Float64Array(total), filterOutput: new Float64Array(total), ncoFrequencyHz: new Float64Array(total), offsetHz: new Float64Array(total) }
@@ -147,6 +156,13 @@ export class RunAccumulator {
     this.freq.pushRange(n0, count, ncoHz);
     this.lock.pushRange(n0, count, lock);
     this.settle.pushRange(n0, count, smooth);
+    if (this.sweep) {
+      const { scratch, inputHz, tracker } = this.sweep;
+      const centerHz = this.s.centerHz;
+      for (let i = 0; i < count; i++) scratch[i] = centerHz + (offsetHz[i] as number);
+      inputHz.pushRange(n0, count, scratch);
+      tracker.push(n0, count, smooth, offsetHz);
+    }
     if (this.full) {
       this.full.phaseErrorRad.set(phaseErr.subarray(0, count), n0);
       this.full.filterOutput.set(y.subarray(0, count), n0);
@@ -199,6 +215,7 @@ export class RunAccumulator {
         filterOutput: this.filter.trace(),
         ncoFrequencyHz: this.freq.trace(),
         lockIndicator: this.lock.trace(),
+        ...(this.sweep ? { inputFrequencyHz: this.sweep.inputHz.trace() } : {}),
       },
       metrics: this.metrics(),
     };
@@ -222,6 +239,7 @@ export class RunAccumulator {
       finalFrequencyErrorHz: this.tailFreqSum / c,
       demodErrorRmsHz,
       demodErrorRelative: this.s.deviationHz ? demodErrorRmsHz / this.s.deviationHz : null,
+      ...(this.sweep ? { sweep: this.sweep.tracker.result(lockTimeS !== null) } : {}),
     };
   }
 

@@ -13,7 +13,7 @@ export interface JsonTrace {
 }
 
 export interface JsonSimRun {
-  readonly traces: Readonly<Record<keyof SimTraces, JsonTrace>>;
+  readonly traces: Readonly<Record<Exclude<keyof SimTraces, 'inputFrequencyHz'>, JsonTrace>> & { readonly inputFrequencyHz?: JsonTrace };
   readonly metrics: SimRun['metrics'];
   readonly checksum?: number;
 }
@@ -39,6 +39,7 @@ function run(r: SimRun, checksum?: number): JsonSimRun {
     filterOutput: trace(t.filterOutput),
     ncoFrequencyHz: trace(t.ncoFrequencyHz),
     lockIndicator: trace(t.lockIndicator),
+    ...(t.inputFrequencyHz ? { inputFrequencyHz: trace(t.inputFrequencyHz) } : {}),
   };
   return checksum === undefined ? { traces, metrics: r.metrics } : { traces, metrics: r.metrics, checksum };
 }

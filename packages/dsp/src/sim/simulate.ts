@@ -6,7 +6,7 @@
 import type { Sos } from '../types/filter.ts';
 import type { BitTrueKernelChoice, BitTruePlan, BitTrueRecord, BitTrueRun, SimOptions, SimResult, SimRun } from '../types/sim.ts';
 import type { LoopSpec, SpecIssue } from '../spec/schema.ts';
-import { scenarioRateIssue, type Scenario } from '../spec/scenario.ts';
+import { scenarioRateIssue, sweepLegS, type Scenario } from '../spec/scenario.ts';
 import { FieldError } from '../fixed/fieldError.ts';
 import { allocInputChunk, inputGenerator } from './inputSignal.ts';
 import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE, type BitTrueChunkOut, type BitTrueState } from './bitTrueKernel.ts';
@@ -256,6 +256,7 @@ function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total:
     lockToleranceRad: options.lockToleranceRad ?? DEFAULT_LOCK_TOLERANCE_RAD,
     deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
     fullTraces: options.fullTraces === true,
+    sweepTurnSample: scenario.kind === 'sweep' ? Math.ceil(sweepLegS(scenario) * spec.sampleRateHz) : null,
   };
 }
 

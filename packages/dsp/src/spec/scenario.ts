@@ -1,7 +1,8 @@
 /**
  * Simulation scenario (DESIGN.md): a second small JSON document beside the loop spec.
  * kind "tone" (offsetHz), "frequency-step" (stepHz, atS), "phase-step" (stepDeg, atS),
- * "fm" (modulation sine/triangle/square, rateHz, deviationHz); durationS; optional snrDb, seed,
+ * "fm" (modulation sine/triangle/square, rateHz, deviationHz), "sweep" (fromHz, toHz, rateHzPerS: the
+ * offset ramps linearly out from fromHz to toHz and back, then stays at fromHz); durationS; optional snrDb, seed,
  * initialPhaseDeg. Strict objects: a misspelt field is an error naming it.
  */
 import { z } from 'zod';
@@ -38,12 +39,35 @@ export const fmScenarioSchema = z.strictObject({
   ...common,
 });
 
-/** A step at or after the end of the run never happens: say so rather than simulate nothing. */
+export const sweepScenarioSchema = z.strictObject({
+  kind: z.literal('sweep'),
+  fromHz: z.number(),
+  toHz: z.number(),
+  rateHzPerS: z.number().positive(),
+  ...common,
+});
+
+/** Seconds of one leg of a sweep, fromHz to toHz (the way back takes as long). */
+export function sweepLegS(s: { readonly fromHz: number; readonly toHz: number; readonly rateHzPerS: number }): number {
+  return Math.abs(s.toHz - s.fromHz) / s.rateHzPerS;
+}
+
+/**
+ * A step at or after the end of the run never happens, and a sweep that does not come back cannot show
+ * where lock is regained: say so rather than simulate something else.
+ */
 export const scenarioSchema = z
-  .discriminatedUnion('kind', [toneScenarioSchema, frequencyStepScenarioSchema, phaseStepScenarioSchema, fmScenarioSchema])
+  .discriminatedUnion('kind', [toneScenarioSchema, frequencyStepScenarioSchema, phaseStepScenarioSchema, fmScenarioSchema, sweepScenarioSchema])
   .superRefine((s, ctx) => {
     if ((s.kind === 'frequency-step' || s.kind === 'phase-step') && s.atS >= s.durationS) {
       ctx.addIssue({ code: 'custom', path: ['atS'], message: `atS ${s.atS} must be before the end of the run (durationS ${s.durationS})` });
+    }
+    if (s.kind === 'sweep' && s.toHz === s.fromHz) {
+      ctx.addIssue({ code: 'custom', path: ['toHz'], message: `toHz ${s.toHz} must differ from fromHz: a sweep needs somewhere to go` });
+    }
+    if (s.kind === 'sweep' && s.toHz !== s.fromHz && s.durationS < 2 * sweepLegS(s) * (1 - 1e-12)) {
+      const needS = Number((2 * sweepLegS(s)).toPrecision(6));
+      ctx.addIssue({ code: 'custom', path: ['durationS'], message: `durationS ${s.durationS} ends before the sweep is back at fromHz: out and back at rateHzPerS ${s.rateHzPerS} takes ${needS} s` });
     }
   });
 
@@ -67,6 +91,9 @@ export function scenarioRateIssue(
       return inBand(spec.centerHz + s.stepHz) ? null : { field: 'stepHz', message: `stepHz ${s.stepHz} puts the input at ${spec.centerHz + s.stepHz} Hz, outside ${band}` };
     case 'phase-step':
       return null;
+    case 'sweep':
+      if (!inBand(spec.centerHz + s.fromHz)) return { field: 'fromHz', message: `fromHz ${s.fromHz} puts the input at ${spec.centerHz + s.fromHz} Hz, outside ${band}` };
+      return inBand(spec.centerHz + s.toHz) ? null : { field: 'toHz', message: `toHz ${s.toHz} puts the input at ${spec.centerHz + s.toHz} Hz, outside ${band}` };
     case 'fm':
       if (s.rateHz >= nyquistHz) return { field: 'rateHz', message: `rateHz ${s.rateHz} must be below sampleRateHz/2 = ${nyquistHz} Hz` };
       return inBand(spec.centerHz - s.deviationHz) && inBand(spec.centerHz + s.deviationHz)
@@ -76,7 +103,7 @@ export function scenarioRateIssue(
 }
 
 const SCENARIO_FIELDS: ReadonlySet<string> = new Set(
-  [toneScenarioSchema, frequencyStepScenarioSchema, phaseStepScenarioSchema, fmScenarioSchema].flatMap((schema) => Object.keys(schema.shape)),
+  [toneScenarioSchema, frequencyStepScenarioSchema, phaseStepScenarioSchema, fmScenarioSchema, sweepScenarioSchema].flatMap((schema) => Object.keys(schema.shape)),
 );
 
 /**

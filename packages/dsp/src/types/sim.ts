@@ -65,6 +65,33 @@ export interface SimTraces {
   readonly ncoFrequencyHz: DecimatedTrace;
   /** Quadrature lock indicator ≈ cos θe (1 locked in phase, ≈ 0 not locked). */
   readonly lockIndicator: DecimatedTrace;
+  /** Input frequency centerHz + the scenario's offset (sweep scenarios only, beside ncoFrequencyHz). */
+  readonly inputFrequencyHz?: DecimatedTrace;
+}
+
+/**
+ * Where a sweep lost and regained lock (src/sim/sweepMetrics.ts). A cycle slips when the ripple-free
+ * phase error crosses an odd multiple of π (the multiplier detector's unstable equilibria, G3 Ch. 2);
+ * lock is lost where the error last left the stable half-cycle |θe − 2πk| < π/2 before the way out's
+ * first slip, and regained where it first re-entered it after the run's last slip.
+ */
+export interface SweepMetrics {
+  /** Time the input turns back toward fromHz. */
+  readonly turnS: number;
+  /** Input offset where lock was lost going out; null when no cycle slipped before the turn. */
+  readonly lockLostHz: number | null;
+  readonly lockLostS: number | null;
+  /**
+   * Input offset where lock was regained after the run's last slip (normally on the way back); null when
+   * lock was never lost or the run does not end locked.
+   */
+  readonly lockRegainedHz: number | null;
+  readonly lockRegainedS: number | null;
+  /** Cycles slipped before and after the turn. */
+  readonly slipsOut: number;
+  readonly slipsBack: number;
+  /** No cycle slipped over the whole run. */
+  readonly heldThroughout: boolean;
 }
 
 export interface SimMetrics {
@@ -84,6 +111,8 @@ export interface SimMetrics {
   readonly demodErrorRmsHz: number;
   /** demodErrorRmsHz / deviationHz for FM (null otherwise). */
   readonly demodErrorRelative: number | null;
+  /** Sweep scenarios only: where lock was lost going out and regained coming back. */
+  readonly sweep?: SweepMetrics;
 }
 
 export interface SimFullTraces {
@@ -144,15 +173,29 @@ export type BitTrueKernelChoice = 'wasm' | 'typescript';
 export type { GoldenVectors } from '../vectors/goldenVectors.ts';
 export type { VectorCsvColumn } from '../vectors/vectorsCsv.ts';
 
+/**
+ * Why a measured acquisition figure has no value: the loop still passed at the search limit (the
+ * bit-true control word's range ±gainHzPerUnit, or the search range 1.5·K·F(0)), the sample budget was
+ * spent, or the bisection's step limit came before the bracket was tight.
+ */
+export type AcquisitionLimit = 'control-range' | 'search-range' | 'sample-budget' | 'bisection-steps';
+
 /** One acquisition figure measured by simulation of the nonlinear float loop. */
 export interface AcquisitionMeasurement {
-  /** The measured frequency offset in Hz (bisection midpoint), or null when even the smallest offset failed. */
+  /**
+   * The measured frequency offset in Hz (the bracket's midpoint), or null when the search hit a limit
+   * (limitedBy) or even the smallest offset failed: a limit is never reported as a figure.
+   */
   readonly valueHz: number | null;
-  /** True when the loop still passed at the search limit: the true figure is at least valueHz. */
-  readonly atSearchLimit: boolean;
-  /** Bisection bracket [passHz, failHz] (failHz null at the limit). */
+  /** The bracket [passHz, failHz]: the largest offset seen to pass, the smallest seen to fail (null: none failed). */
   readonly passHz: number;
   readonly failHz: number | null;
+  /** The width the bracket aimed for: max(relativeTolerance·passHz, floorToleranceHz). */
+  readonly toleranceHz: number;
+  /** The limit the search hit, or null when the bracket is within its tolerance. */
+  readonly limitedBy: AcquisitionLimit | null;
+  /** True when the loop still passed at the search limit: the true figure is at least passHz. */
+  readonly atSearchLimit: boolean;
   /** How the figure was measured, in words. */
   readonly definition: string;
 }
@@ -164,21 +207,48 @@ export interface AcquisitionSimResult {
   readonly pullOutHz: AcquisitionMeasurement;
   readonly holdInHz: AcquisitionMeasurement;
   readonly pullInHz: AcquisitionMeasurement;
-  /** Offsets searched in [0, searchLimitHz]. */
+  /** Offsets searched in [0, searchLimitHz]; searchLimitKind says what bounds it. */
   readonly searchLimitHz: number;
+  readonly searchLimitKind: 'control-range' | 'search-range';
+  readonly relativeTolerance: number;
+  readonly floorToleranceHz: number;
   readonly initialPhasesDeg: readonly number[];
   readonly runs: number;
   readonly samplesSimulated: number;
+  readonly sampleBudget: number;
   /** True when the sample budget ran out and later searches were cut short. */
   readonly budgetExhausted: boolean;
   readonly notes: readonly string[];
 }
 
+export type AcquisitionFigureKey = 'lockInHz' | 'pullOutHz' | 'holdInHz' | 'pullInHz';
+
+/** One acquisition figure as estimate and as measurement (src/analysis/acquisitionReport.ts). */
+export interface AcquisitionFigureRow {
+  readonly key: AcquisitionFigureKey;
+  /** lock-in, pull-out, hold-in, pull-in. */
+  readonly name: string;
+  readonly estimate: { readonly label: 'estimate'; readonly valueHz: number | null; readonly formula: string };
+  readonly measured: AcquisitionMeasurement & { readonly label: 'simulated' };
+  /** estimate / measured where both exist (Ku23: up to 2x either way). */
+  readonly estimateOverMeasured: number | null;
+}
+
+/** Every figure side by side, how the search ran, and the estimates' notes. */
+export interface AcquisitionComparison {
+  readonly figures: readonly AcquisitionFigureRow[];
+  readonly search: Omit<AcquisitionSimResult, AcquisitionFigureKey>;
+  readonly estimateNotes: readonly string[];
+}
+
 export interface AcquisitionOptions {
-  /** Total samples the search may simulate (default 2 000 000: a few hundred ms). */
+  /** Total samples the search may simulate (default DEFAULT_ACQUISITION_SAMPLES, 4·10^6: about 0.5 s). */
   readonly maxSamples?: number;
-  /** Bisection steps per figure (default 7: 1/128 of the search limit). */
+  /** Most bisection steps per figure (default 20); the bracket usually reaches its tolerance sooner. */
   readonly bisectionSteps?: number;
+  /** Bracket target relative to the figure (default 0.01) and its floor in Hz (default 0.5). */
+  readonly relativeTolerance?: number;
+  readonly floorToleranceHz?: number;
   readonly initialPhasesDeg?: readonly number[];
   readonly onProgress?: (fraction: number) => void;
   readonly signal?: AbortFlag;

@@ -12,11 +12,13 @@ describe('acquisition', () => {
   const r = analyzeDesign(sp);
   const holdInHz = r.loopGain.kRadPerS / (2 * Math.PI); // K·F(0)/2π, F(0) = 1 (G3)
 
-  it('simulated single-pole figures: the safe side of each bracket stays within hold-in K/2π (G3)', () => {
-    for (const f of [a.lockInHz, a.pullOutHz, a.holdInHz, a.pullInHz]) expect(f.passHz!).toBeLessThanOrEqual(holdInHz * (1 + 1e-9));
-    // the simulated hold-in agrees with K·F(0) within its bisection bracket
-    expect(a.holdInHz.passHz!).toBeLessThanOrEqual(holdInHz);
+  it('simulated single-pole figures: the safe side of each bracket stays within hold-in K/2π (G3), to the search tolerance', () => {
+    // Just past the saddle-node at K·F(0) the phase drifts ever more slowly (the time to slip grows as
+    // 1/√(Δω − K·F(0))), so a finite run may pass an offset a fraction of a per cent beyond it: the
+    // search promises 1 % (README "Acquisition").
+    for (const f of [a.lockInHz, a.pullOutHz, a.holdInHz, a.pullInHz]) expect(f.passHz).toBeLessThanOrEqual(holdInHz * 1.01);
     expect(a.holdInHz.failHz!).toBeGreaterThanOrEqual(holdInHz);
+    expect(Math.abs(a.holdInHz.valueHz! - holdInHz) / holdInHz).toBeLessThan(0.01);
   });
 
   it('type-1 estimates respect lock-in ≤ hold-in and pull-out ≤ hold-in (G3; B6 formulas are high-gain)', () => {

@@ -32,8 +32,12 @@ describe('measureAcquisition (simulated nonlinear float loop)', () => {
     // Gardner's pull-out formula is an empirical fit for ζ ≈ 0.5–1.4 (memory): allow 20 %.
     expect(r.pullOutHz.valueHz! / pullOutEstimateHz).toBeGreaterThan(0.8);
     expect(r.pullOutHz.valueHz! / pullOutEstimateHz).toBeLessThan(1.25);
-    // Ideal PI: hold-in unbounded (G3) → the search reaches its limit.
+    // Ideal PI: hold-in unbounded (G3) → the search reaches the control word's range and says so
+    // instead of reporting the limit as a figure.
     expect(r.holdInHz.atSearchLimit).toBe(true);
+    expect(r.holdInHz.limitedBy).toBe('control-range');
+    expect(r.holdInHz.valueHz).toBeNull();
+    expect(r.holdInHz.passHz).toBe(spec.nco.gainHzPerUnit);
     expect(r.notes.join(' ')).toMatch(/type-2/);
   });
 
@@ -41,6 +45,10 @@ describe('measureAcquisition (simulated nonlinear float loop)', () => {
     const seen: number[] = [];
     const r = measureAcquisition(ultrasonicSinglePoleSpec, { maxSamples: 50_000, onProgress: (f) => seen.push(f) });
     expect(r.budgetExhausted).toBe(true);
+    // A search the budget cut short keeps its bracket and reports no figure.
+    const cut = [r.lockInHz, r.pullOutHz, r.holdInHz, r.pullInHz].filter((m) => m.limitedBy === 'sample-budget');
+    expect(cut.length).toBeGreaterThan(0);
+    for (const m of cut) expect(m.valueHz).toBeNull();
     // At most one run past the budget (the run in progress when it ran out).
     expect(r.samplesSimulated).toBeLessThan(2 * 50_000);
     expect(seen.at(-1)).toBe(1);

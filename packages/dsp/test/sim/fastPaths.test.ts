@@ -136,6 +136,7 @@ function oracleRuns(plan: DesignPlan, scenario: Scenario, options: { buckets: nu
     lockToleranceRad: 0.1,
     deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
     fullTraces: options.fullTraces,
+    sweepTurnSample: null,
   };
   const floatAcc = new PerSampleAccumulator(setup);
   const bitAcc = new PerSampleAccumulator(setup);
