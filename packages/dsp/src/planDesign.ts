@@ -104,6 +104,11 @@ export function tryPlanDesign(input: unknown, options: PlanOptions = {}): PlanDe
 function deepFreeze<T>(value: T): T {
   if (value === null || typeof value !== 'object' || ArrayBuffer.isView(value) || Object.isFrozen(value)) return value;
   Object.freeze(value);
+  if (Array.isArray(value)) {
+    // Most arrays are hundreds of plain numbers: only their object elements need a visit.
+    for (const child of value as unknown[]) if (child !== null && typeof child === 'object') deepFreeze(child);
+    return value;
+  }
   for (const child of Object.values(value as Record<string, unknown>)) deepFreeze(child);
   return value;
 }

@@ -43,7 +43,10 @@ export function numericNoiseBandwidthHz(
   };
   const u0 = Math.log(fMinHz);
   const span = Math.log(fMaxHz) - u0;
-  const g = (u: number) => m2(Math.exp(u)) * Math.exp(u);
+  const g = (u: number) => {
+    const f = Math.exp(u);
+    return m2(f) * f;
+  };
   let n = Math.max(2, options.intervals ?? DEFAULT_INTERVALS);
   // Trapezoid sum T(n) and Simpson S(2n) = (4·T(2n) − T(n))/3; each doubling evaluates only the new midpoints.
   let sumEnds = 0.5 * (g(u0) + g(u0 + span));

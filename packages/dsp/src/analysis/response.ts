@@ -107,13 +107,40 @@ export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: numb
   });
 }
 
-/** Discrete open loop K·T·F(z)/(z − 1), K = Kd·Ko, T = 1/fs. */
+/** Scratch of the product over sections in discreteLoopResponse (single-threaded, never re-entered). */
+const PRODUCT = { re: 1, im: 0 };
+
+/**
+ * Discrete open loop K·T·F(z)/(z − 1), K = Kd·Ko, T = 1/fs. For sections the NCO's z = e^{jω} is the
+ * cos ω, sin ω the sections are evaluated with (the same ω), and the quotient and product are written
+ * out: the same operations, in the same order, as cdiv and cmul on objects (so the same doubles), in
+ * the innermost loop of the margins, the quantised loop and the noise bandwidth.
+ */
 export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sampleRateHz: number): ResponseFn {
   const kt = kRadPerS / sampleRateHz;
+  if (!isSections(filter)) {
+    return finite((f) => {
+      const z = cexpj((2 * Math.PI * f) / sampleRateHz);
+      const nco = cdiv({ re: kt, im: 0 }, { re: z.re - 1, im: z.im });
+      return cmul(nco, digitalResponse(filter, f, sampleRateHz));
+    });
+  }
   return finite((f) => {
-    const z = cexpj((2 * Math.PI * f) / sampleRateHz);
-    const nco = cdiv({ re: kt, im: 0 }, { re: z.re - 1, im: z.im });
-    return cmul(nco, digitalResponse(filter, f, sampleRateHz));
+    const p = unitCirclePoint((2 * Math.PI * f) / sampleRateHz);
+    // nco = kt/(z − 1): cdiv({kt, 0}, {c1 − 1, s1}) written out.
+    const br = p.c1 - 1;
+    const bi = p.s1;
+    const d = br * br + bi * bi;
+    const ncoRe = (kt * br + 0 * bi) / d;
+    const ncoIm = (0 * br - kt * bi) / d;
+    const h = PRODUCT;
+    h.re = 1;
+    h.im = 0;
+    for (const s of filter) {
+      sectionOnUnitCircle(s, p, SECTION);
+      multiplyQuotient(h, SECTION);
+    }
+    return { re: ncoRe * h.re - ncoIm * h.im, im: ncoRe * h.im + ncoIm * h.re };
   });
 }
 
@@ -133,6 +160,10 @@ export const DB_CEILING = 3000;
 
 /** 20·log10|h| in dB, within [DB_FLOOR, DB_CEILING]. */
 export function toDb(h: Complex): number {
+  // 10·log10(re² + im²) where the square neither overflows nor underflows: Math.hypot was a seventh of
+  // analyzeDesign's time. Elsewhere (|h| beyond about 1e±150, clamped anyway) the magnitude itself.
+  const p = h.re * h.re + h.im * h.im;
+  if (p > 1e-290 && p < 1e290) return Math.min(Math.max(10 * Math.log10(p), DB_FLOOR), DB_CEILING);
   const m = Math.hypot(h.re, h.im);
   if (!(m > 0)) return DB_FLOOR; // zero, or NaN from 0/0
   return Math.min(Math.max(20 * Math.log10(m), DB_FLOOR), DB_CEILING);
