@@ -19,7 +19,7 @@ const DEBIAN_PACKAGES = {
   // The server verifies every release's reference RTL (GHDL, Icarus) and estimates it (yosys).
   start: ['mariadb-server', 'nginx-light', 'ghdl', 'iverilog', 'yosys'],
   test: ['mariadb-server', 'nginx-light', 'chromium', 'ghdl', 'iverilog', 'verilator', 'yosys', 'python3-scipy', 'gcc'],
-  bench: ['mariadb-server', 'nginx-light', 'chromium', 'gcc', 'ghdl', 'iverilog', 'yosys'],
+  bench: ['mariadb-server', 'nginx-light', 'chromium', 'gcc', 'ghdl', 'iverilog', 'yosys', 'python3-scipy'],
   // verify and estimate use whichever of ghdl, iverilog and yosys are installed; nothing is forced.
   loopwright: [],
 };
