@@ -33,7 +33,7 @@ const ADMIN: readonly Role[] = ['admin'];
 
 const CASES: Record<string, Case> = {
   'GET /health': { allowed: 'public', call: (a) => a.get('/api/health') },
-  'GET /session': { allowed: 'signed-in', call: (a) => a.get('/api/session') },
+  'GET /session': { allowed: 'public', call: (a) => a.get('/api/session') },
   'POST /session': { allowed: 'public', call: (a) => a.post('/api/session').set(csrf).send({ email: org.emails.firmware, password: PASSWORD }) },
   'DELETE /session': { allowed: 'public', call: (a) => a.delete('/api/session').set(csrf) },
   'PUT /session/password': { allowed: 'signed-in', call: (a) => a.put('/api/session/password').set(csrf).send({ currentPassword: PASSWORD, newPassword: PASSWORD }) },

@@ -23,6 +23,9 @@ export type SessionUser = z.infer<typeof sessionUserSchema>;
 
 export const sessionResponseSchema = z.object({ user: sessionUserSchema });
 export type SessionResponse = z.infer<typeof sessionResponseSchema>;
+/** GET /session: who is signed in; user null when nobody is (an ordinary answer, not an error status). */
+export const currentSessionResponseSchema = z.object({ user: sessionUserSchema.nullable() });
+export type CurrentSessionResponse = z.infer<typeof currentSessionResponseSchema>;
 
 export const signInRequestSchema = z.strictObject({
   email: emailSchema,

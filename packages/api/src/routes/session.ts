@@ -1,5 +1,5 @@
 import type { RequestHandler } from 'express';
-import { passwordChangeRequestSchema, signInRequestSchema, type SessionResponse, type SessionUser } from '@loopwright/contract';
+import { passwordChangeRequestSchema, signInRequestSchema, type CurrentSessionResponse, type SessionResponse, type SessionUser } from '@loopwright/contract';
 import { unauthenticated } from '../errors.ts';
 import type { Authenticator } from '../middleware/auth.ts';
 import { route, type RouteSpec } from './table.ts';
@@ -9,9 +9,11 @@ export function sessionRoutes(auth: Authenticator, signInLimiter: RequestHandler
     route({
       method: 'get',
       path: '/session',
-      access: 'signed-in',
-      summary: 'who am I',
-      handler: ({ user }): SessionResponse => ({ user }),
+      // Public: "nobody is signed in" is an answer, not a failure, so the signed-out sign-in page
+      // logs no 401 in the browser console on every load.
+      access: 'public',
+      summary: 'who am I ({user: null} when signed out)',
+      handler: (ctx): CurrentSessionResponse => ({ user: ctx.signedIn ? ctx.user : null }),
     }),
     route({
       method: 'post',

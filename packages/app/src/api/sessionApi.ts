@@ -1,16 +1,11 @@
-import { sessionResponseSchema } from '@loopwright/contract';
-import { api, ApiError } from './client.ts';
+import { currentSessionResponseSchema, sessionResponseSchema } from '@loopwright/contract';
+import { api } from './client.ts';
 import type { SessionUser, SignInRequest } from './types.ts';
 
 export const sessionApi = {
-  /** Who am I; null when nobody is signed in (the server answers 401). */
+  /** Who am I; null when nobody is signed in (the server says so with 200 and user null). */
   async current(): Promise<SessionUser | null> {
-    try {
-      return (await api.request('/session', sessionResponseSchema)).user;
-    } catch (cause) {
-      if (cause instanceof ApiError && cause.status === 401) return null;
-      throw cause;
-    }
+    return (await api.request('/session', currentSessionResponseSchema)).user;
   },
   async signIn(request: SignInRequest): Promise<SessionUser> {
     return (await api.request('/session', sessionResponseSchema, { method: 'POST', body: request })).user;
