@@ -50,7 +50,7 @@ describe('spec form', () => {
 
   it('lists a schema message that no visible field shows, rather than dropping it', () => {
     const wrapper = mount(SpecForm, { props: { draft: specToDraft(mainsSyncSpec), errors: { 'filter.tau1S': 'needs tau2S' } } });
-    expect(wrapper.text()).toContain('filter.tau1S: needs tau2S');
+    expect(wrapper.text()).toContain('τ1 needs τ2.');
   });
 });
 
@@ -121,7 +121,7 @@ describe('margins summary and verdict', () => {
   it('says unstable for a loop whose discrete poles leave the unit circle', () => {
     const wrapper = mount(VerdictStrip, { props: { analysis: unstable, stale: false, error: '' } });
     expect(wrapper.find('[data-test="verdict-label"]').text()).toBe('Unstable');
-    expect(wrapper.text()).toContain('the discrete loop is unstable');
+    expect(wrapper.text()).toContain('The discrete loop is unstable');
   });
 });
 
@@ -136,7 +136,7 @@ describe('sign-in view', () => {
     await wrapper.find('input[data-test="password"]').setValue('nope');
     await wrapper.find('[data-test="sign-in"]').trigger('click');
     await settle();
-    expect(wrapper.find('[data-test="sign-in-error"]').text()).toContain('wrong e-mail or password');
+    expect(wrapper.find('[data-test="sign-in-error"]').text()).toBe('Wrong e-mail or password, or the account is disabled.');
     expect(router.currentRoute.value.name).toBe('sign-in');
     wrapper.unmount();
   });

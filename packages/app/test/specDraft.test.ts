@@ -31,7 +31,8 @@ describe('spec draft', () => {
 
   it('reports a cross-field rule on the field to change (loop rate above the clock)', () => {
     const draft = { ...specToDraft(exampleSpecs[0]!.spec), clockHz: '1000', sampleRateHz: '10000' };
-    expect(checkDraft(draft).errors['sampleRateHz']).toMatch(/exceeds clockHz/);
+    // Named by the form's labels, values with their units.
+    expect(checkDraft(draft).errors['sampleRateHz']).toMatch(/^Loop update rate \(10 kHz\) exceeds fabric clock \(1 kHz\)/);
   });
 
   it('sends only the fields of the chosen filter kind and mode', () => {

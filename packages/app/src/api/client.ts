@@ -6,6 +6,7 @@
  * breaks the contract fails here, naming the field, instead of somewhere in a view.
  */
 import type { z } from 'zod';
+import { asSentence, fieldMessage } from '../lib/messages.ts';
 
 export class ApiError extends Error {
   readonly status: number;
@@ -154,9 +155,9 @@ function isAbort(cause: unknown): boolean {
 /** The client every xxxApi module uses; tests build their own with createApiClient. */
 export const api = createApiClient();
 
-/** One sentence for a failed call, for views that show errors inline. */
+/** One sentence for a failed call, for views that show errors inline; the field is named by its label. */
 export function describeError(cause: unknown): string {
-  if (cause instanceof ApiError) return cause.field ? `${cause.field}: ${cause.message}` : cause.message;
-  if (cause instanceof Error) return cause.message;
+  if (cause instanceof ApiError) return cause.field ? fieldMessage(cause.field, cause.message) : asSentence(cause.message);
+  if (cause instanceof Error) return asSentence(cause.message);
   return 'Something went wrong.';
 }

@@ -1,5 +1,6 @@
 import { parseLoopSpec, type LoopSpec, type SpecIssue, type SpecWarning } from '@loopwright/dsp';
 import { draftToSpec, type SpecDraft } from './specDraft.ts';
+import { fieldMessage, labelOf } from '../lib/messages.ts';
 
 export interface DraftCheck {
   /** The validated spec, or null while any field is wrong. */
@@ -10,10 +11,9 @@ export interface DraftCheck {
   readonly issueCount: number;
 }
 
-// The form shows which field a message belongs to by its place, so the schema's "path: " prefix goes.
-function withoutPrefix(issue: SpecIssue): string {
-  const prefix = `${issue.field}: `;
-  return issue.message.startsWith(prefix) ? issue.message.slice(prefix.length) : issue.message;
+// The schema's "path: " prefix gives way to the field's label, in a sentence with the bound's unit.
+function sentenceOf(issue: SpecIssue): string {
+  return fieldMessage(issue.field, issue.message);
 }
 
 /** Validate the draft with the shared zod schema (parseLoopSpec) and spread issues over the fields. */
@@ -23,7 +23,7 @@ export function checkDraft(draft: Readonly<SpecDraft>): DraftCheck {
   const errors: Record<string, string> = {};
   for (const issue of result.issues) {
     const field = issue.field === 'filter' ? 'filter.kind' : issue.field;
-    errors[field] = errors[field] ? `${errors[field]}; ${withoutPrefix(issue)}` : withoutPrefix(issue);
+    errors[field] = errors[field] ? `${errors[field]} ${sentenceOf(issue)}` : sentenceOf(issue);
   }
   return { spec: null, errors, warnings: [], issueCount: result.issues.length };
 }
@@ -32,5 +32,5 @@ export function checkDraft(draft: Readonly<SpecDraft>): DraftCheck {
 export function unplacedErrors(errors: Readonly<Record<string, string>>, visiblePaths: ReadonlySet<string>): string[] {
   return Object.entries(errors)
     .filter(([path]) => !visiblePaths.has(path))
-    .map(([path, message]) => (path ? `${path}: ${message}` : message));
+    .map(([path, message]) => (path ? (message.startsWith(labelOf(path).label) ? message : fieldMessage(path, message)) : message));
 }
