@@ -71,6 +71,8 @@ const CASES: Record<string, Case> = {
     allowed: ANALYSTS,
     call: (a, f) => a.post(`/api/designs/${f.designId}/simulations`).set(csrf).send({ scenario: { kind: 'tone', offsetHz: 10, durationS: 0.001 }, mode: 'float', buckets: 10 }),
   },
+  'POST /acquisitions': { allowed: ANALYSTS, call: (a) => a.post('/api/acquisitions').set(csrf).send({ spec: ultrasonicSinglePoleSpec }) },
+  'POST /designs/:id/acquisitions': { allowed: ANALYSTS, call: (a, f) => a.post(`/api/designs/${f.designId}/acquisitions`).set(csrf) },
   'GET /audit': { allowed: ADMIN, call: (a) => a.get('/api/audit') },
   // Releases (src/releases/routes.ts). The approved fixture release is visible to every role.
   'POST /designs/:id/releases': { allowed: DESIGNER, call: (a, f) => a.post(`/api/designs/${f.designId}/releases`).set(csrf) },

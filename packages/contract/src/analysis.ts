@@ -1,6 +1,6 @@
 /** Analyses and simulations computed by the server (/api/analysis, /api/simulations, per design). */
 import { z } from 'zod';
-import { loopSpecSchema, scenarioSchema, type AnalysisResult, type SimResult } from '@loopwright/dsp';
+import { loopSpecSchema, scenarioSchema, type AcquisitionComparison, type AnalysisResult, type SimResult } from '@loopwright/dsp';
 
 export { scenarioSchema };
 
@@ -35,3 +35,24 @@ export interface SimulationResponse {
   readonly designId?: number;
   readonly revision?: number;
 }
+
+/** An unsaved spec's acquisition figures (POST /api/acquisitions); a stored design's takes no body. */
+export const acquisitionRequestSchema = z.strictObject({ spec: loopSpecSchema });
+
+/** Each acquisition figure as estimate and as measured by simulation (dsp compareAcquisition). */
+export interface AcquisitionResponse {
+  readonly acquisition: AcquisitionComparison;
+  readonly designId?: number;
+  readonly revision?: number;
+}
+
+/**
+ * Asked for with `Accept: application/x-ndjson`, the acquisition routes answer one JSON object per
+ * line: progress lines while the search runs, then the result or the error (the status is already 200
+ * by then). Closing the connection cancels the search.
+ */
+export const ACQUISITION_STREAM_TYPE = 'application/x-ndjson';
+export type AcquisitionStreamLine =
+  | { readonly type: 'progress'; readonly fraction: number }
+  | ({ readonly type: 'result' } & AcquisitionResponse)
+  | { readonly type: 'error'; readonly error: { readonly code: string; readonly message: string; readonly field?: string } };

@@ -1,5 +1,6 @@
 import type { AnalysisResult, LoopSpec } from '@loopwright/dsp';
-import type { AnalysisResponse, SimulationRequest, SimulationResponse } from '@loopwright/contract';
+import { MessageChannel } from 'node:worker_threads';
+import type { AcquisitionResponse, AnalysisResponse, SimulationRequest, SimulationResponse } from '@loopwright/contract';
 import { invalidInput, issuesError } from '../errors.ts';
 import type { ComputePool } from './compute.ts';
 import type { DesignService } from './designs.ts';
@@ -22,6 +23,29 @@ export class AnalysisService {
   async analyzeStoredDesign(organizationId: number, designId: number, cancel?: AbortSignal): Promise<AnalysisResponse> {
     const design = await this.designs.get(organizationId, designId);
     return { analysis: await this.analyzeSpec(design.spec, cancel), designId: design.id, revision: design.revision };
+  }
+
+  /**
+   * The acquisition figures, estimated and measured (dsp measureAcquisition, under a second per demo
+   * spec), in the compute pool like a simulation; `onProgress` hears the fraction done from the worker.
+   */
+  async measureAcquisition(spec: LoopSpec, cancel?: AbortSignal, onProgress?: (fraction: number) => void): Promise<AcquisitionResponse> {
+    const channel = onProgress ? new MessageChannel() : null;
+    channel?.port1.on('message', (fraction: number) => onProgress?.(fraction));
+    try {
+      const task = { kind: 'acquisition' as const, spec, ...(channel ? { progress: channel.port2 } : {}) };
+      const outcome = await this.compute.run(task, cancel, channel ? [channel.port2] : undefined);
+      if (!outcome.ok) throw issuesError(outcome.issues, outcome.prefix);
+      if (outcome.kind !== 'acquisition') throw new Error('compute pool answered an acquisition with another kind');
+      return { acquisition: outcome.acquisition };
+    } finally {
+      channel?.port1.close();
+    }
+  }
+
+  async measureStoredAcquisition(organizationId: number, designId: number, cancel?: AbortSignal, onProgress?: (fraction: number) => void): Promise<AcquisitionResponse> {
+    const design = await this.designs.get(organizationId, designId);
+    return { ...(await this.measureAcquisition(design.spec, cancel, onProgress)), designId: design.id, revision: design.revision };
   }
 
   /** One request may simulate at most maxSimulationSamples loop samples (durationS × sampleRateHz). */

@@ -1,4 +1,5 @@
 import { availableParallelism } from 'node:os';
+import type { MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { ComputeOutcome, ComputeTask } from '../workers/compute.ts';
 import { AppError } from '../errors.ts';
@@ -30,15 +31,18 @@ export class ComputePool {
     });
   }
 
-  /** `cancel` (e.g. the client went away) stops the task; so does the time limit. */
-  async run(task: ComputeTask, cancel?: AbortSignal): Promise<ComputeOutcome> {
+  /**
+   * `cancel` (e.g. the client went away) stops the task; so does the time limit. `transfer` lists the
+   * task's MessagePorts (a progress channel), which move to the worker thread.
+   */
+  async run(task: ComputeTask, cancel?: AbortSignal, transfer?: readonly MessagePort[]): Promise<ComputeOutcome> {
     if (this.pool.queueSize >= this.options.maxQueue) {
       throw new AppError('server_busy', 'the server is busy computing; try again shortly', 503);
     }
     const timeout = AbortSignal.timeout(this.options.timeoutMs);
     const signal = cancel ? AbortSignal.any([timeout, cancel]) : timeout;
     try {
-      return await this.pool.run(task, { signal });
+      return await this.pool.run(task, transfer ? { signal, transferList: [...transfer] } : { signal });
     } catch (err) {
       if (timeout.aborted) {
         throw new AppError('timeout', `the computation took longer than ${Math.round(this.options.timeoutMs / 1000)} s and was stopped`, 503);

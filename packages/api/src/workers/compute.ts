@@ -3,13 +3,16 @@
  * main event loop stay fast. Plain data in, plain data out; validation failures are returned, not
  * thrown, because an Error crossing the thread boundary keeps only its message.
  */
-import { threadId } from 'node:worker_threads';
+import { threadId, type MessagePort } from 'node:worker_threads';
 import {
+  compareAcquisition,
   FieldError,
+  measureAcquisition,
   isScenarioField,
   parseScenario,
   simulatePlan,
   tryPlanDesign,
+  type AcquisitionComparison,
   type AnalysisResult,
   type SimOptions,
   type SimResult,
@@ -26,6 +29,12 @@ export type ComputeTask =
       readonly spec: unknown;
       readonly scenario: unknown;
       readonly options: Pick<SimOptions, 'mode' | 'buckets'>;
+    }
+  | {
+      readonly kind: 'acquisition';
+      readonly spec: unknown;
+      /** Where the fraction done is posted (a number in (0, 1]) while the search runs; transferred in. */
+      readonly progress?: MessagePort;
     };
 
 export type ComputeFailure = { readonly ok: false; readonly issues: readonly SpecIssue[]; readonly prefix: 'spec' | 'scenario' };
@@ -35,6 +44,7 @@ export type ComputeOutcome = { readonly threadId: number } & (
   | HandoffOutcome
   | { readonly ok: true; readonly kind: 'analysis'; readonly analysis: AnalysisResult }
   | { readonly ok: true; readonly kind: 'simulation'; readonly simulation: SimResult }
+  | { readonly ok: true; readonly kind: 'acquisition'; readonly acquisition: AcquisitionComparison }
   | ComputeFailure
 );
 
@@ -44,6 +54,7 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<Comp
   const planned = tryPlanDesign(task.spec);
   if (!planned.ok) return { threadId, ok: false, issues: planned.issues, prefix: 'spec' };
   if (task.kind === 'analysis') return { threadId, ok: true, kind: 'analysis', analysis: planned.plan.analysis };
+  if (task.kind === 'acquisition') return { threadId, ok: true, kind: 'acquisition', acquisition: acquisitionOf(planned.plan, task.progress) };
   const scenario = parseScenario(task.scenario);
   if (!scenario.ok) return { threadId, ok: false, issues: scenario.issues, prefix: 'scenario' };
   try {
@@ -52,6 +63,23 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<Comp
     // Checks that need the spec and the scenario together (the input band, the record size) throw.
     if (err instanceof FieldError) return fieldFailure(err);
     throw err;
+  }
+}
+
+/** Estimates beside the measurement; progress is posted at most every 2 % so the port stays quiet. */
+function acquisitionOf(plan: Parameters<typeof simulatePlan>[0], port: MessagePort | undefined): AcquisitionComparison {
+  let sent = 0;
+  const onProgress = port
+    ? (fraction: number) => {
+        if (fraction - sent < 0.02 && fraction < 1) return;
+        sent = fraction;
+        port.postMessage(fraction);
+      }
+    : undefined;
+  try {
+    return compareAcquisition(plan.analysis.estimates, measureAcquisition(plan.spec, onProgress ? { onProgress } : {}));
+  } finally {
+    port?.close();
   }
 }
 
