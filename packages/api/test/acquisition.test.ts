@@ -24,11 +24,13 @@ beforeAll(async () => {
   designId = (await designer.post(`/api/projects/${project.id}/designs`).set(csrf).send({ name: 'IF', spec }).expect(201)).body.id;
 });
 
-const ndjson = (res: NodeJS.ReadableStream, done: (err: Error | null, body: string) => void) => {
+/** supertest's parser for a body it does not know: the NDJSON text as it came. */
+const ndjson = (res: import('supertest').Response, done: (err: Error | null, body: unknown) => void) => {
+  const stream = res as unknown as NodeJS.ReadableStream;
   let text = '';
-  res.setEncoding('utf8');
-  res.on('data', (chunk: string) => (text += chunk));
-  res.on('end', () => done(null, text));
+  stream.setEncoding('utf8');
+  stream.on('data', (chunk: string) => (text += chunk));
+  stream.on('end', () => done(null, text));
 };
 
 describe('acquisition in the worker pool', () => {
