@@ -35,6 +35,7 @@ export { routhHurwitzStable, discreteLoopStable, schurCohnStable } from './analy
 export { scenarioSchema, parseScenario, scenarioRateIssue, isScenarioField, sweepLegS } from './spec/scenario.ts';
 export { plainMessages } from './spec/messages.ts';
 export { simulateLoop, simulateLoopAsync, simulationSteps, bitTrueNcoHzOf, SimulationAbortedError } from './sim/simulate.ts';
+export { LOCK_DEFINITION } from './sim/lockMetric.ts';
 export { planBitTrue, bitTrueFormats } from './sim/bitTruePlan.ts';
 export { runBitTrueChunk, initialBitTrueState, quantizeInput } from './sim/bitTrueKernel.ts';
 export { checksumRecord, CHECKSUM_BASIS } from './sim/checksum.ts';

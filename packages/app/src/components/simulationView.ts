@@ -1,4 +1,4 @@
-import type { SimMetrics, SimResult } from '@loopwright/dsp';
+import { LOCK_DEFINITION, type SimMetrics, type SimResult } from '@loopwright/dsp';
 import { fmtEng, fmtFixed, fmtHz } from '../lib/format.ts';
 
 export interface MetricRow {
@@ -10,7 +10,7 @@ export interface MetricRow {
 
 const METRICS: readonly { label: string; testId: string; text: (m: SimMetrics) => string }[] = [
   { label: 'Locked', testId: 'metric-locked', text: (m) => (m.locked ? 'yes' : 'NO') },
-  { label: 'Lock time', testId: 'metric-lock-time', text: (m) => (m.lockTimeS === null ? 'never' : fmtEng(m.lockTimeS, 's', 4)) },
+  { label: 'Lock time', testId: 'metric-lock-time', text: (m) => (m.lockTimeS === null ? 'not locked in this run' : fmtEng(m.lockTimeS, 's', 4)) },
   { label: 'Steady-state phase error', testId: 'metric-phase-error', text: (m) => fmtFixed(m.steadyStatePhaseErrorDeg, 3, '°') },
   { label: 'Phase jitter (RMS)', testId: 'metric-jitter', text: (m) => fmtFixed(m.steadyStatePhaseJitterDeg, 3, '°') },
   { label: 'Cycle slips', testId: 'metric-slips', text: (m) => String(m.cycleSlips) },
@@ -22,6 +22,13 @@ export function metricRows(result: SimResult): MetricRow[] {
   const f = result.float?.metrics;
   const b = result.bitTrue?.metrics;
   return METRICS.map((m) => ({ label: m.label, testId: m.testId, float: f ? m.text(f) : '—', bitTrue: b ? m.text(b) : '—' }));
+}
+
+/** What Locked and Lock time mean, with the tolerance this run used (the one definition, from dsp). */
+export function lockDefinitionText(result: SimResult): string {
+  const tolRad = (result.float ?? result.bitTrue)?.metrics.lockToleranceRad;
+  const tol = tolRad === undefined ? '' : ` Lock tolerance in this run: ±${fmtFixed(tolRad, 2, 'rad')} (±${((tolRad * 180) / Math.PI).toFixed(1)}°).`;
+  return LOCK_DEFINITION + tol;
 }
 
 export function runSummary(result: SimResult, elapsedMs: number | null): string {

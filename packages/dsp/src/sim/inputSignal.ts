@@ -23,7 +23,7 @@ export interface InputGenerator {
 }
 
 /** Modulating waveform of unit peak at phase p in cycles: sine, triangle (starts at 0 rising), square. */
-function modulation(kind: 'sine' | 'triangle' | 'square', p: number): number {
+export function modulationWaveform(kind: 'sine' | 'triangle' | 'square', p: number): number {
   const c = p - Math.floor(p);
   if (kind === 'sine') return Math.sin(2 * Math.PI * c);
   if (kind === 'square') return c < 0.5 ? 1 : -1;
@@ -46,7 +46,7 @@ export function scenarioOffsetHz(s: Scenario, tS: number): number {
     case 'phase-step':
       return 0;
     case 'fm':
-      return s.deviationHz * modulation(s.modulation, s.rateHz * tS);
+      return s.deviationHz * modulationWaveform(s.modulation, s.rateHz * tS);
     case 'sweep':
       return sweepOffsetHz(s.fromHz, s.toHz, sweepLegS(s), tS);
   }

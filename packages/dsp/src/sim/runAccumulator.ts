@@ -1,15 +1,14 @@
 /**
  * Per-sample observations of one loop run (float or bit-true) turned into decimated traces and the
- * metrics: lock time, steady-state phase error and jitter, cycle slips, final frequency error and the
+ * metrics: lock time (lockMetric.ts), steady-state phase error and jitter, cycle slips, final frequency error and the
  * demodulation error (filter output × gainHzPerUnit against the scenario's frequency offset).
  */
 import type { SimFullTraces, SimMetrics, SimRun } from '../types/sim.ts';
 import { MinMaxDecimator } from './decimate.ts';
 import { SweepTracker } from './sweepMetrics.ts';
+import { LockTracker, type LockModel } from './lockMetric.ts';
 
 const TWO_PI = 2 * Math.PI;
-/** Lock time is resolved to total/LOCK_BUCKETS samples. */
-const LOCK_BUCKETS = 4096;
 export const MAX_FULL_TRACE_SAMPLES = 1 << 21;
 
 export interface RunSetup {
@@ -21,6 +20,8 @@ export interface RunSetup {
   readonly amplitude: number;
   readonly lockToleranceRad: number;
   readonly deviationHz: number | null;
+  /** What the lock test knows of the loop and scenario (lockMetric.ts). */
+  readonly lockModel: LockModel;
   readonly fullTraces: boolean;
   /** A sweep's first sample of the way back: the run then traces the input frequency and measures where lock went. */
   readonly sweepTurnSample: number | null;
@@ -46,7 +47,7 @@ export class RunAccumulator {
   private readonly filter: MinMaxDecimator;
   private readonly freq: MinMaxDecimator;
   private readonly lock: MinMaxDecimator;
-  private readonly settle: MinMaxDecimator;
+  private readonly settle: LockTracker;
   private readonly full: SimFullTraces | undefined;
   /** Sweep runs only: the input frequency trace and where lock was lost and regained. */
   private readonly sweep: { readonly inputHz: MinMaxDecimator; readonly tracker: SweepTracker; readonly scratch: Float64Array } | null;
@@ -81,11 +82,11 @@ export class RunAccumulator {
     this.filter = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.lock = new MinMaxDecimator(total, buckets, sampleRateHz);
-    this.settle = new MinMaxDecimator(total, LOCK_BUCKETS, sampleRateHz);
     // A boxcar of one period of the 2·centerHz detector ripple removes it from the settle test. One
     // longer than the run never fills and averages the same samples as one of the run's length, so it
     // is cut there (a centerHz of 1e-4 Hz would otherwise ask for ~1e11 entries).
     this.boxcar = new Float64Array(Math.max(1, Math.min(total, Math.round(sampleRateHz / (2 * s.centerHz)))));
+    this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength: this.boxcar.length, model: s.lockModel });
     // Lock indicator: one-pole low-pass at centerHz/8 of the quadrature arm (common practice, no source).
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
     this.tailStart = Math.floor(0.9 * total);
@@ -155,7 +156,7 @@ export class RunAccumulator {
     this.filter.pushRange(n0, count, y);
     this.freq.pushRange(n0, count, ncoHz);
     this.lock.pushRange(n0, count, lock);
-    this.settle.pushRange(n0, count, smooth);
+    this.settle.pushRange(n0, count, smooth, offsetHz);
     if (this.sweep) {
       const { scratch, inputHz, tracker } = this.sweep;
       const centerHz = this.s.centerHz;
@@ -226,12 +227,12 @@ export class RunAccumulator {
     const c = Math.max(1, this.tailCount);
     const mean = this.tailSum / c;
     const jitter = Math.sqrt(Math.max(0, this.tailSum2 / c - mean * mean));
-    const lockTimeS = this.lockTime(mean);
+    const { lockTimeS, locked } = this.settle.finish();
     const wrappedDeg = ((mean - TWO_PI * Math.round(mean / TWO_PI)) * 180) / Math.PI;
     const demodErrorRmsHz = Math.sqrt(this.demodSum2 / Math.max(1, this.demodCount));
     return {
       lockTimeS,
-      locked: lockTimeS !== null,
+      locked,
       lockToleranceRad: this.s.lockToleranceRad,
       steadyStatePhaseErrorDeg: wrappedDeg === -180 ? 180 : wrappedDeg,
       steadyStatePhaseJitterDeg: (jitter * 180) / Math.PI,
@@ -239,17 +240,7 @@ export class RunAccumulator {
       finalFrequencyErrorHz: this.tailFreqSum / c,
       demodErrorRmsHz,
       demodErrorRelative: this.s.deviationHz ? demodErrorRmsHz / this.s.deviationHz : null,
-      ...(this.sweep ? { sweep: this.sweep.tracker.result(lockTimeS !== null) } : {}),
+      ...(this.sweep ? { sweep: this.sweep.tracker.result(locked) } : {}),
     };
-  }
-
-  /** Start of the final stretch of settle buckets whose smoothed error stays within tolerance of `target`. */
-  private lockTime(target: number): number | null {
-    const { min, max, bucketStartS } = this.settle.trace();
-    const tol = this.s.lockToleranceRad;
-    let k = min.length;
-    while (k > 0 && Math.abs((min[k - 1] as number) - target) <= tol && Math.abs((max[k - 1] as number) - target) <= tol) k--;
-    if (k === min.length) return null;
-    return bucketStartS[k] as number;
   }
 }

@@ -13,6 +13,7 @@ import { initialBitTrueState, quantizeInput, runBitTrueChunk, roundScaled, MODE,
 import { releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmKernelAvailable, WASM_CHUNK_SAMPLES } from './wasm/wasmKernel.ts';
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
 import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
+import { lockModel } from './lockMetric.ts';
 
 /** Samples per chunk: progress and the abort flag between chunks; one call of the WebAssembly kernel each. */
 export const CHUNK_SAMPLES = WASM_CHUNK_SAMPLES;
@@ -245,7 +246,8 @@ function defaultKernel(): BitTrueKernelChoice {
   return wasmKernelAvailable() ? 'wasm' : 'typescript';
 }
 
-function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total: number): RunSetup {
+function runSetup(loop: SimLoop, scenario: Scenario, options: SimOptions, total: number): RunSetup {
+  const { spec } = loop;
   return {
     total,
     buckets: options.buckets ?? DEFAULT_BUCKETS,
@@ -255,6 +257,7 @@ function runSetup(spec: SimSpec, scenario: Scenario, options: SimOptions, total:
     amplitude: spec.input.amplitude,
     lockToleranceRad: options.lockToleranceRad ?? DEFAULT_LOCK_TOLERANCE_RAD,
     deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
+    lockModel: lockModel(loop, scenario),
     fullTraces: options.fullTraces === true,
     sweepTurnSample: scenario.kind === 'sweep' ? Math.ceil(sweepLegS(scenario) * spec.sampleRateHz) : null,
   };
@@ -270,7 +273,7 @@ export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: Sim
     throw new FieldError('durationS', `a per-sample record is limited to ${MAX_RECORD_SAMPLES} samples, the scenario has ${total}`);
   }
   const plan = mode !== 'float' ? requireBitTrue(loop) : undefined;
-  const setup = runSetup(spec, scenario, options, total);
+  const setup = runSetup(loop, scenario, options, total);
   const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
   const kernel = options.bitTrueKernel ?? defaultKernel();
   const bitLoop = plan ? bitTrueRunner(plan, total, { keepRecord: keep, kernel }, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;

@@ -95,8 +95,13 @@ export interface SweepMetrics {
 }
 
 export interface SimMetrics {
-  /** Time after which the smoothed phase error stays within lockToleranceRad of its final value; null if never. */
+  /**
+   * When the ripple-free phase error, less the tracking error the designed loop has under the
+   * scenario's FM, enters ±lockToleranceRad of its final value for good (src/sim/lockMetric.ts,
+   * LOCK_DEFINITION); the same for any run long enough to show it. null when not locked.
+   */
   readonly lockTimeS: number | null;
+  /** The band held from lockTimeS to the end, for at least the last tenth of the run and six loop time constants. */
   readonly locked: boolean;
   readonly lockToleranceRad: number;
   /** Mean phase error over the last 10 % of the run, degrees in (−180, 180]. */

@@ -24,6 +24,7 @@ import { initialFloatState, runFloatChunk } from '../../src/sim/floatKernel.ts';
 import { quantizeInput } from '../../src/sim/bitTrueKernel.ts';
 import { bitTrueNcoHzOf, bitTrueRecordOf, CHUNK_SAMPLES } from '../../src/sim/simulate.ts';
 import type { RunSetup } from '../../src/sim/runAccumulator.ts';
+import { lockModel } from '../../src/sim/lockMetric.ts';
 import type { DesignPlan } from '../../src/planDesign.ts';
 import { PerSampleAccumulator } from './reference/perSampleAccumulator.ts';
 
@@ -135,6 +136,7 @@ function oracleRuns(plan: DesignPlan, scenario: Scenario, options: { buckets: nu
     amplitude: spec.input.amplitude,
     lockToleranceRad: 0.1,
     deviationHz: scenario.kind === 'fm' ? scenario.deviationHz : null,
+    lockModel: lockModel({ spec, sections: plan.filter.sections }, scenario),
     fullTraces: options.fullTraces,
     sweepTurnSample: null,
   };

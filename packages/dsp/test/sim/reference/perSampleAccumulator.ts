@@ -8,10 +8,9 @@
 import type { SimFullTraces, SimMetrics, SimRun } from '../../../src/types/sim.ts';
 import type { RunSetup } from '../../../src/sim/runAccumulator.ts';
 import { MinMaxDecimator } from './perSampleDecimator.ts';
+import { LockTracker } from '../../../src/sim/lockMetric.ts';
 
 const TWO_PI = 2 * Math.PI;
-/** Lock time is resolved to total/LOCK_BUCKETS samples. */
-const LOCK_BUCKETS = 4096;
 const MAX_FULL_TRACE_SAMPLES = 1 << 21;
 
 export class PerSampleAccumulator {
@@ -19,7 +18,10 @@ export class PerSampleAccumulator {
   private readonly filter: MinMaxDecimator;
   private readonly freq: MinMaxDecimator;
   private readonly lock: MinMaxDecimator;
-  private readonly settle: MinMaxDecimator;
+  /** Lock and lock time have one definition (src/sim/lockMetric.ts), fed here a sample at a time. */
+  private readonly settle: LockTracker;
+  private readonly one = new Float64Array(1);
+  private readonly oneOffset = new Float64Array(1);
   private readonly full: SimFullTraces | undefined;
   private readonly boxcar: Float64Array;
   private boxSum = 0;
@@ -44,11 +46,11 @@ export class PerSampleAccumulator {
     this.filter = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.lock = new MinMaxDecimator(total, buckets, sampleRateHz);
-    this.settle = new MinMaxDecimator(total, LOCK_BUCKETS, sampleRateHz);
     // A boxcar of one period of the 2·centerHz detector ripple removes it from the settle test. One
     // longer than the run never fills and averages the same samples as one of the run's length, so it
     // is cut there (a centerHz of 1e-4 Hz would otherwise ask for ~1e11 entries).
     this.boxcar = new Float64Array(Math.max(1, Math.min(total, Math.round(sampleRateHz / (2 * s.centerHz)))));
+    this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength: this.boxcar.length, model: s.lockModel });
     // Lock indicator: one-pole low-pass at centerHz/8 of the quadrature arm (common practice, no source).
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
     this.tailStart = Math.floor(0.9 * total);
@@ -84,7 +86,9 @@ export class PerSampleAccumulator {
     this.filter.push(n, y);
     this.freq.push(n, ncoHz);
     this.lock.push(n, this.lockState);
-    this.settle.push(n, smooth);
+    this.one[0] = smooth;
+    this.oneOffset[0] = offsetHz;
+    this.settle.pushRange(n, 1, this.one, this.oneOffset);
     if (n >= this.tailStart) {
       this.tailSum += eu;
       this.tailSum2 += eu * eu;
@@ -121,12 +125,12 @@ export class PerSampleAccumulator {
     const c = Math.max(1, this.tailCount);
     const mean = this.tailSum / c;
     const jitter = Math.sqrt(Math.max(0, this.tailSum2 / c - mean * mean));
-    const lockTimeS = this.lockTime(mean);
+    const { lockTimeS, locked } = this.settle.finish();
     const wrappedDeg = ((mean - TWO_PI * Math.round(mean / TWO_PI)) * 180) / Math.PI;
     const demodErrorRmsHz = Math.sqrt(this.demodSum2 / Math.max(1, this.demodCount));
     return {
       lockTimeS,
-      locked: lockTimeS !== null,
+      locked,
       lockToleranceRad: this.s.lockToleranceRad,
       steadyStatePhaseErrorDeg: wrappedDeg === -180 ? 180 : wrappedDeg,
       steadyStatePhaseJitterDeg: (jitter * 180) / Math.PI,
@@ -135,15 +139,5 @@ export class PerSampleAccumulator {
       demodErrorRmsHz,
       demodErrorRelative: this.s.deviationHz ? demodErrorRmsHz / this.s.deviationHz : null,
     };
-  }
-
-  /** Start of the final stretch of settle buckets whose smoothed error stays within tolerance of `target`. */
-  private lockTime(target: number): number | null {
-    const { min, max, bucketStartS } = this.settle.trace();
-    const tol = this.s.lockToleranceRad;
-    let k = min.length;
-    while (k > 0 && Math.abs((min[k - 1] as number) - target) <= tol && Math.abs((max[k - 1] as number) - target) <= tol) k--;
-    if (k === min.length) return null;
-    return bucketStartS[k] as number;
   }
 }
