@@ -30,6 +30,20 @@ describe('design store', () => {
     expect(store.dirty).toBe(false);
   });
 
+  it('fills the fields a "set by" switch brings up from the design, so the spec stays valid', async () => {
+    vi.spyOn(designsApi, 'get').mockResolvedValue(design(1));
+    const store = useDesignStore();
+    await store.load(7);
+    store.setField('filter.mode', 'time-constants');
+    // τ1 = K/ωn², τ2 = 2ζ/ωn with K = 62.832 1/s, ωn = 2π·5 Hz (G3 Ch. 2; test/filterSwitch.test.ts works them out).
+    expect(Number(store.draft['filter.tau1S'])).toBeCloseTo(0.063662, 5);
+    expect(Number(store.draft['filter.tau2S'])).toBeCloseTo(0.045009, 5);
+    expect(store.check.errors).toEqual({});
+    store.setField('filter.kind', 'single-pole');
+    expect(Number(store.draft['filter.cutoffHz'])).toBeCloseTo(2.5, 5);
+    expect(store.check.errors).toEqual({});
+  });
+
   it('refuses to save an invalid draft without calling the server', async () => {
     vi.spyOn(designsApi, 'get').mockResolvedValue(design(1));
     const save = vi.spyOn(designsApi, 'save');

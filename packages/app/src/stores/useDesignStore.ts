@@ -6,6 +6,7 @@ import type { Design } from '../api/types.ts';
 import { draftToSpec, specToDraft, type SpecDraft } from '../form/specDraft.ts';
 import { checkDraft } from '../form/specValidation.ts';
 import { threeWay, type ThreeWayChange } from '../lib/specDiff.ts';
+import { filterSwitchEdits } from '../form/filterSwitch.ts';
 
 export interface SaveConflict {
   readonly theirs: Design;
@@ -45,7 +46,9 @@ export const useDesignStore = defineStore('design', () => {
   }
 
   function setField(path: string, value: string): void {
-    draft.value = { ...draft.value, [path]: value };
+    // A new filter kind or "set by" brings up fields filled from the design on screen (filterSwitch.ts).
+    const filled = filterSwitchEdits(check.value.spec, draft.value, path, value);
+    draft.value = { ...draft.value, [path]: value, ...filled };
   }
 
   /** Save the draft; on a stale revision keep the draft and describe the clash instead. */
