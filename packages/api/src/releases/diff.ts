@@ -97,12 +97,41 @@ export function marginFigures(margins: unknown): Figure[] {
   );
 }
 
+/** A measured figure as a reader compares it: the value, or the limit the search hit, with its bracket. */
+function measuredValue(m: Record<string, unknown>): string {
+  const pass = figure(m.passHz);
+  const fail = m.failHz === null || m.failHz === undefined ? 'none failed' : figure(m.failHz);
+  const bracket = `bracket ${pass} to ${fail}`;
+  if (typeof m.valueHz === 'number') return `${figure(m.valueHz)} (${bracket})`;
+  return m.limitedBy ? `not measured: ${String(m.limitedBy)} (${bracket})` : `none (${bracket})`;
+}
+
+/**
+ * Each acquisition figure of the release (results.acquisition, dsp compareAcquisition), measured and
+ * estimated; a release cut before the figures were stored has none, and the diff says so.
+ */
+export function acquisitionFigures(acquisition: unknown): Figure[] {
+  const rows = ((acquisition ?? {}) as { figures?: readonly Record<string, unknown>[] }).figures;
+  if (!rows) return [{ key: 'acquisition', label: 'Acquisition figures', unit: '', value: 'not stored in this release' }];
+  return rows.flatMap((row) => {
+    const name = String(row.name);
+    const measured = (row.measured ?? {}) as Record<string, unknown>;
+    const estimate = (row.estimate ?? {}) as Record<string, unknown>;
+    return [
+      { key: `${String(row.key)}.measured`, label: `${name[0]!.toUpperCase()}${name.slice(1)}, measured`, unit: 'Hz', value: measuredValue(measured) },
+      { key: `${String(row.key)}.estimate`, label: `${name[0]!.toUpperCase()}${name.slice(1)}, estimate`, unit: 'Hz', value: figure(estimate.valueHz) },
+    ];
+  });
+}
+
 export interface DiffSide {
   readonly id: number;
   readonly label: string;
   readonly spec: unknown;
   readonly manifest: ManifestSide;
   readonly margins: unknown;
+  /** results.acquisition (null for a release cut before it was stored). */
+  readonly acquisition?: unknown;
 }
 
 const SECTIONS = [
@@ -112,12 +141,13 @@ const SECTIONS = [
   { id: 'tables', title: 'Tables' },
   { id: 'spec', title: 'Spec' },
   { id: 'margins', title: 'Margins' },
+  { id: 'acquisition', title: 'Acquisition' },
 ] as const;
 
 type SectionId = (typeof SECTIONS)[number]['id'];
 
 function figuresOf(side: DiffSide): Record<SectionId, Figure[]> {
-  return { ...constantFigures(side.manifest), spec: specFigures(side.spec), margins: marginFigures(side.margins) };
+  return { ...constantFigures(side.manifest), spec: specFigures(side.spec), margins: marginFigures(side.margins), acquisition: acquisitionFigures(side.acquisition) };
 }
 
 export function releaseDiff(from: DiffSide, to: DiffSide): ReleaseDiff {

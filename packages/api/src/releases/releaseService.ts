@@ -273,6 +273,7 @@ export class ReleaseService {
       spec: JSON.parse(row.specJson ?? 'null') as unknown,
       manifest: await this.manifestOf(row.id),
       margins: marginsOf(JSON.parse(row.resultsJson ?? 'null')),
+      acquisition: (JSON.parse(row.resultsJson ?? 'null') as { acquisition?: unknown } | null)?.acquisition ?? null,
     });
     return releaseDiff(await side(from), await side(to));
   }

@@ -39,7 +39,14 @@ function changedNames(a: Map<string, string>, b: Map<string, string>): string[] 
 function side(id: number, label: string, r: RenderedRelease): DiffSide {
   const m = r.manifest;
   const analysis = m.results['analysis'] as { margins: { analog: unknown; discrete: unknown }; quantization: { loop: { margins: unknown } | null } };
-  return { id, label, spec: m.spec, manifest: m, margins: { analog: analysis.margins.analog, discrete: analysis.margins.discrete, quantized: analysis.quantization.loop?.margins ?? null } };
+  return {
+    id,
+    label,
+    spec: m.spec,
+    manifest: m,
+    margins: { analog: analysis.margins.analog, discrete: analysis.margins.discrete, quantized: analysis.quantization.loop?.margins ?? null },
+    acquisition: m.results['acquisition'],
+  };
 }
 
 // v2 widens the coefficients from 18 to 20 bits: COEF_FRACTION_BITS goes 16 -> 18, NCO_GAIN_SHIFT
@@ -96,5 +103,38 @@ describe('release diff', () => {
   it('is empty for a re-cut of the same spec', () => {
     const again = releaseDiff(side(1, 'v1', v1), side(2, 'v2', renderRelease(mainsSyncSpec)));
     expect(again.sections.flatMap((s) => s.rows)).toEqual([]);
+  });
+});
+
+describe('release diff: acquisition', () => {
+  // v3 raises the NCO gain 20 -> 25 Hz per unit. The PI filter is designed from its targets ωn, ζ, so
+  // the estimates 2ζωn and 1.8ωn(ζ+1) (G3, B6) do not move; the nonlinear loop does (the ripple filter
+  // now sits in a loop of higher gain), and the control word's range ±gainHzPerUnit, where the PI
+  // loop's hold-in search stops, moves with it.
+  const v3 = renderRelease({ ...mainsSyncSpec, nco: { ...mainsSyncSpec.nco, gainHzPerUnit: 25 } });
+  const rows = (d: ReturnType<typeof releaseDiff>) => d.sections.find((s) => s.id === 'acquisition')!.rows;
+
+  it('stores the measured figures in the release and lists each one that moved, measured and estimated', () => {
+    const stored = v3.manifest.results['acquisition'] as { figures: { name: string; measured: { valueHz: number | null } }[] };
+    expect(stored.figures.map((f) => f.name)).toEqual(['lock-in', 'pull-out', 'hold-in', 'pull-in']);
+    const changed = rows(releaseDiff(side(1, 'v1', v1), side(3, 'v3', v3)));
+    const keysOf = changed.map((r) => r.key);
+    expect(keysOf).toContain('lockInHz.measured');
+    expect(keysOf).not.toContain('lockInHz.estimate');
+    const hold = changed.find((r) => r.key === 'holdInHz.measured')!;
+    // The search limit is never reported as a figure: the row names the limit and its bracket.
+    expect(hold.before).toMatch(/^not measured: control-range \(bracket 20 to none failed\)$/);
+    expect(hold.after).toMatch(/^not measured: control-range \(bracket 25 to none failed\)$/);
+  });
+
+  it('has no acquisition rows when only the widths changed (the float loop measured is the same)', () => {
+    expect(rows(diff)).toEqual([]);
+  });
+
+  it('says a release cut before the figures were stored has none', () => {
+    const old = { ...side(1, 'v1', v1), acquisition: undefined };
+    const r = rows(releaseDiff(old, side(3, 'v3', v3)));
+    expect(r[0]).toMatchObject({ before: null });
+    expect(r.find((x) => x.key === 'acquisition')).toMatchObject({ before: 'not stored in this release', after: null });
   });
 });
