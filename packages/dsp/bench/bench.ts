@@ -22,7 +22,8 @@ import { CHUNK_SAMPLES } from '../src/sim/simulate.ts';
 import { planDesign, simulatePlan } from '../src/planDesign.ts';
 import { requireValidSpec } from '../src/spec/schema.ts';
 import { measureAcquisition } from '../src/analysis/acquisitionSim.ts';
-import { releaseGoldenVectors } from '../src/vectors/goldenVectors.ts';
+import { defaultGoldenScenario, goldenVectorsOf, releaseGoldenVectors } from '../src/vectors/goldenVectors.ts';
+import { formatVectorsCsv } from '../src/vectors/vectorsCsv.ts';
 import { formatCParams } from './cParams.ts';
 import { runAnalysisBench, runWordLengthBench } from './analysis.ts';
 
@@ -154,6 +155,41 @@ function goldenVectorFigures(runs = 200): { example: string; samples: number; sa
   });
 }
 
+/** The longer record the issue asks a release to be able to carry (acquisition and settling). */
+const LONG_RECORD_SAMPLES = 65_536;
+
+/**
+ * What a 65 536-sample record would cost a cut (releases carry 4096 today): its vector run and its
+ * CSV, CPU ms per demo spec (median of 7 after a warm-up).
+ */
+function longRecordFigures(): { samples: number; examples: { example: string; vectorsCpuMs: number; csvCpuMs: number; csvBytes: number }[] } {
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+  const examples = exampleSpecs.map((e) => {
+    const plan = planDesign(requireValidSpec(e.spec));
+    const loop = { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
+    const scenario = { ...defaultGoldenScenario(plan.spec), durationS: LONG_RECORD_SAMPLES / plan.spec.sampleRateHz };
+    const vectors: number[] = [];
+    const csv: number[] = [];
+    let bytes = 0;
+    for (let r = 0; r < 9; r++) {
+      let v: ReturnType<typeof goldenVectorsOf> | undefined;
+      const a = timed(() => {
+        v = goldenVectorsOf(loop, scenario);
+        return 0;
+      });
+      const b = timed(() => {
+        bytes = formatVectorsCsv(v!).length;
+        return 0;
+      });
+      if (r < 2) continue;
+      vectors.push(a.cpuSeconds * 1000);
+      csv.push(b.cpuSeconds * 1000);
+    }
+    return { example: e.id, vectorsCpuMs: round3(median(vectors)), csvCpuMs: round3(median(csv)), csvBytes: bytes };
+  });
+  return { samples: LONG_RECORD_SAMPLES, examples };
+}
+
 /** Issue target: one demo spec's measured acquisition in under a second (median). */
 const ACQUISITION_TARGET_MS = 1000;
 
@@ -242,6 +278,7 @@ export async function runDspBench(): Promise<Record<string, unknown>> {
     analyzeDesign: runAnalysisBench(),
     wordLengthSearch: runWordLengthBench(),
     goldenVectors: goldenVectorFigures(),
+    longRecord: longRecordFigures(),
     measureAcquisition: measureAcquisitionBench(),
     loadAverage1m: Math.round(loadavg()[0]! * 100) / 100,
   };

@@ -81,6 +81,8 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
     return [
       {
         ...common,
+        // Ids let an update replace each trace in place (LwChart mergeSeries).
+        id: `${t.label}/magnitude`,
         xAxisIndex: 0,
         yAxisIndex: 0,
         data: pairs(t.freqHz, t.magnitudeDb),
@@ -88,6 +90,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
       },
       {
         ...common,
+        id: `${t.label}/phase`,
         xAxisIndex: 1,
         yAxisIndex: 1,
         data: pairs(t.freqHz, t.phaseDeg),
