@@ -4,6 +4,7 @@
  * measured in Debian's Chromium against the built app served by the API (tests/e2e harness).
  */
 import fs from 'node:fs/promises';
+import os from 'node:os';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { buildApp } from '../../../tests/e2e/harness/build.ts';
@@ -91,8 +92,9 @@ async function measureAnalysisUpdate(rounds: number): Promise<{ updateMs: number
   }
 }
 
-/** Issue target: keystroke to redrawn plot on this 2-core machine. */
-const ANALYSIS_UPDATE_TARGET_MS = 50;
+/** Issue 16: keystroke to redrawn plot on this 2-core machine, median and worst of the edits. */
+const ANALYSIS_UPDATE_TARGET_MS = 30;
+const ANALYSIS_UPDATE_WORST_TARGET_MS = 50;
 
 export async function runAppBench(): Promise<object> {
   buildApp();
@@ -106,9 +108,11 @@ export async function runAppBench(): Promise<object> {
     signInJsFiles: (await signInJsFiles()).length,
     analysisUpdateMs: Math.round(median(updateMs) * 10) / 10,
     analysisUpdateTargetMs: ANALYSIS_UPDATE_TARGET_MS,
-    analysisUpdateMet: median(updateMs) < ANALYSIS_UPDATE_TARGET_MS,
+    analysisUpdateWorstTargetMs: ANALYSIS_UPDATE_WORST_TARGET_MS,
+    analysisUpdateMet: median(updateMs) < ANALYSIS_UPDATE_TARGET_MS && Math.max(...updateMs) < ANALYSIS_UPDATE_WORST_TARGET_MS,
     analysisUpdateNote: 'median of 15 edits of filter.damping on the demo mains-sync loop: keystroke → worker analysis → margins text changed → two animation frames (Bode canvas painted)',
     analysisWorkerRoundTripMs: Math.round(median(roundTripMs) * 10) / 10,
     analysisUpdateMaxMs: Math.round(Math.max(...updateMs) * 10) / 10,
+    loadAverage1m: Math.round(os.loadavg()[0]! * 100) / 100,
   };
 }
