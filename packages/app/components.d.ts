@@ -12,6 +12,7 @@ export {}
 declare module 'vue' {
   export interface GlobalComponents {
     AppShell: typeof import('./src/components/AppShell.vue')['default']
+    BodeOverlay: typeof import('./src/components/BodeOverlay.vue')['default']
     BodePanel: typeof import('./src/components/BodePanel.vue')['default']
     ConflictDialog: typeof import('./src/components/ConflictDialog.vue')['default']
     ElAlert: typeof import('element-plus/es')['ElAlert']
@@ -40,10 +41,14 @@ declare module 'vue' {
     ElTooltip: typeof import('element-plus/es')['ElTooltip']
     FigureList: typeof import('./src/components/FigureList.vue')['default']
     LoopMark: typeof import('./src/components/LoopMark.vue')['default']
+    LoopResponsePlots: typeof import('./src/components/LoopResponsePlots.vue')['default']
     LwChart: typeof import('./src/components/LwChart.vue')['default']
     MarginsSummary: typeof import('./src/components/MarginsSummary.vue')['default']
     MarginsTable: typeof import('./src/components/MarginsTable.vue')['default']
+    MismatchPlot: typeof import('./src/components/MismatchPlot.vue')['default']
     NcoReport: typeof import('./src/components/NcoReport.vue')['default']
+    NcoSpectrumPanel: typeof import('./src/components/NcoSpectrumPanel.vue')['default']
+    PoleZeroPanel: typeof import('./src/components/PoleZeroPanel.vue')['default']
     QuantisationReport: typeof import('./src/components/QuantisationReport.vue')['default']
     ReleaseDiffTable: typeof import('./src/components/ReleaseDiffTable.vue')['default']
     ReleaseFilesTable: typeof import('./src/components/ReleaseFilesTable.vue')['default']

@@ -20,6 +20,7 @@ const view: ReviewLinkView = {
   reviewerName: 'Robin Reviewer',
   expiresAt: '2026-12-09T00:00:00Z',
   diff: null,
+  previous: null,
   release: {
     id: 3, designId: 1, number: 1, label: 'v1', state: 'in-review', manifestSha256: SHA, specSha256: 'e'.repeat(64), designRevision: 2,
     createdById: 1, createdByName: 'Dana Designer', createdAt: '', stateChangedAt: '', designName: 'Mains sync PI loop', projectId: 1,

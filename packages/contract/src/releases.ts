@@ -111,6 +111,8 @@ export const reviewLinkViewSchema = z.object({
   release: releaseRecordSchema,
   /** Diff against the design's previous release, when there is one. */
   diff: z.unknown().nullable(),
+  /** That previous release's label and stored spec, so the page can overlay both releases' plots. */
+  previous: z.object({ id: z.number().int(), label: z.string(), spec: z.unknown() }).nullable().default(null),
 });
 export type ReviewLinkView = z.infer<typeof reviewLinkViewSchema>;
 

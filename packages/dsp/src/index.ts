@@ -21,7 +21,9 @@ export { analogLoopFilter, secondOrderTimeConstants } from './filters/loopFilter
 export { analogButterworthSections, normalisedButterworthPolynomial } from './filters/butterworth.ts';
 export { bilinearConstant, bilinearTf, bilinearSection } from './filters/bilinear.ts';
 export { cascadeAnalog, sosToTf } from './filters/sections.ts';
-export { analogResponse, digitalResponse, analogLoopResponse, discreteLoopResponse, closedLoop, toDb } from './analysis/response.ts';
+export { analogResponse, digitalResponse, analogLoopResponse, discreteLoopResponse, closedLoop, errorFromOpen, toDb } from './analysis/response.ts';
+export { sectionPolesZeros, type SectionPolesZeros } from './analysis/poleZero.ts';
+export { ncoSpectrum, type NcoSpectrum } from './nco/spectrum.ts';
 export { discreteLoopMargins, integratorCount } from './analysis/discreteLoop.ts';
 export { loopMargins } from './analysis/margins.ts';
 export { sampleResponse } from './analysis/bode.ts';

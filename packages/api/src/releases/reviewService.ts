@@ -264,10 +264,17 @@ export class ReviewService {
         expiresAt: new Date(link.expiresAt).toISOString(),
         release: await this.releases.record(release),
         diff: previous ? await this.releases.diff(organizationId, release.id, previous.id, reviewerView) : null,
+        previous: previous ? await this.previousSide(organizationId, previous) : null,
       };
     } catch (err) {
       return this.refused(err, token, ip, 'read');
     }
+  }
+
+  /** The previous release's label and stored spec (the review page overlays its plots). */
+  private async previousSide(organizationId: number, previous: ReleaseRow): Promise<{ id: number; label: string; spec: unknown }> {
+    const row = await findRelease(this.dataSource.manager, organizationId, Number(previous.id), true);
+    return { id: Number(previous.id), label: releaseLabel(Number(previous.number)), spec: JSON.parse(row?.specJson ?? 'null') as unknown };
   }
 
   async decide(token: string, body: ReviewDecisionRequest, ip: string | null, sessionUser: SessionUser | undefined): Promise<ReviewDecisionResponse> {

@@ -89,6 +89,7 @@ describe('hand-off flow', () => {
       expect(view.body.release.manifestSha256).toBe(manifestSha256);
       expect(view.body.release.caution).toBe(CAUTION);
       expect(view.body.diff).toBeNull();
+      expect(view.body.previous).toBeNull();
     }
     const one = await anonymous.post(`/api/review-links/${first}`).send({ decision: 'approve', comment: 'margins fine', manifestSha256 }).expect(200);
     expect(one.body).toEqual({ decision: 'approve', state: 'in-review', approvals: 1, approvalsRequired: 2 });

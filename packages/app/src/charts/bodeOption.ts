@@ -13,6 +13,8 @@ export interface BodeTrace {
   readonly magnitudeDb: readonly number[];
   readonly phaseDeg: readonly number[];
   readonly style: 'analog' | 'discrete' | 'quantised';
+  /** Overrides the style's colour (two releases overlaid in one plot). */
+  readonly color?: string;
 }
 
 export interface BodeMarkers {
@@ -30,13 +32,14 @@ const STYLE = {
   quantised: { color: CHART_COLORS.fixed, type: 'dotted' as const, width: 1.5 },
 };
 
-function pairs(x: readonly number[], y: readonly number[]): [number, number][] {
+/** [x, y] points with finite y; x > 0 only (a log axis), unless `fromZero` (a time axis). */
+export function pairs(x: readonly number[], y: readonly number[], fromZero = false): [number, number][] {
   const out: [number, number][] = [];
   const n = Math.min(x.length, y.length);
   for (let i = 0; i < n; i++) {
     const xi = x[i] as number;
     const yi = y[i] as number;
-    if (xi > 0 && Number.isFinite(yi)) out.push([xi, yi]);
+    if ((fromZero ? xi >= 0 : xi > 0) && Number.isFinite(yi)) out.push([xi, yi]);
   }
   return out;
 }
@@ -75,7 +78,7 @@ export function magnitudeAxisMin(traces: readonly BodeTrace[]): number {
 
 export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): EChartsCoreOption {
   const series = traces.flatMap((t, index) => {
-    const lineStyle = STYLE[t.style];
+    const lineStyle = t.color ? { ...STYLE[t.style], color: t.color } : STYLE[t.style];
     const common = { type: 'line', name: t.label, showSymbol: false, lineStyle, color: lineStyle.color, animation: false };
     const first = index === 0;
     return [

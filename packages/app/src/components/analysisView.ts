@@ -40,6 +40,23 @@ export function bodeTraces(a: AnalysisResult): BodeTrace[] {
   return [traces[1]!, traces[0]!, ...traces.slice(2)];
 }
 
+/**
+ * One release's loop as a trace of an overlay: with quantised coefficients (what firmware implements),
+ * or the discrete loop when quantisation failed; labelled with the release and drawn in `color`.
+ */
+export function overlayTrace(a: AnalysisResult, label: string, color: string, style: BodeTrace['style']): BodeTrace {
+  const b = a.bode;
+  const quantised = b.quantizedMagnitudeDb !== null && b.quantizedPhaseDeg !== null;
+  return {
+    label: quantised ? label : `${label} (discrete, not quantised)`,
+    freqHz: b.freqHz,
+    magnitudeDb: b.quantizedMagnitudeDb ?? b.discreteMagnitudeDb,
+    phaseDeg: b.quantizedPhaseDeg ?? b.discretePhaseDeg,
+    style,
+    color,
+  };
+}
+
 export function bodeMarkers(a: AnalysisResult, sampleRateHz: number): BodeMarkers {
   const m = a.margins.discrete;
   // An unstable loop has no margin to speak of: the crossings stay marked, the figures do not.

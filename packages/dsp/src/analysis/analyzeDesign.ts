@@ -12,7 +12,7 @@ import type { AcquisitionEstimates, SteadyStateErrors, StepResponses } from '../
 import type { LoopFilterDesign } from '../design.ts';
 import { analogDcGain } from '../filters/sections.ts';
 import { type LoopGain, loopGain } from './loopGain.ts';
-import { analogLoopResponse, closedFromOpen, closedLoop, toDb } from './response.ts';
+import { analogLoopResponse, closedFromOpen, closedLoop, errorFromOpen, toDb } from './response.ts';
 import { logGrid } from './grid.ts';
 import { sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
@@ -51,6 +51,9 @@ export interface BodePlotData {
   /** Closed loop |H| in dB, analog prototype and discrete loop. */
   readonly analogClosedLoopDb: readonly number[];
   readonly discreteClosedLoopDb: readonly number[];
+  /** Error transfer |1/(1 + L)| in dB, analog prototype and discrete loop. */
+  readonly analogErrorDb: readonly number[];
+  readonly discreteErrorDb: readonly number[];
   /** Discrete loop with quantised coefficients; null when quantisation failed. */
   readonly quantizedMagnitudeDb: readonly number[] | null;
   readonly quantizedPhaseDeg: readonly number[] | null;
@@ -121,6 +124,8 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
     discretePhaseDeg: discrete.open.phaseDeg,
     analogClosedLoopDb: analogOnPlot.values.map((l) => toDb(closedFromOpen(l))),
     discreteClosedLoopDb: discrete.open.values.map((l) => toDb(closedFromOpen(l))),
+    analogErrorDb: analogOnPlot.values.map((l) => toDb(errorFromOpen(l))),
+    discreteErrorDb: discrete.open.values.map((l) => toDb(errorFromOpen(l))),
     quantizedMagnitudeDb: quantization.open?.magnitudeDb ?? null,
     quantizedPhaseDeg: quantization.open?.phaseDeg ?? null,
   };

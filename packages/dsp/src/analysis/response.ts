@@ -149,6 +149,11 @@ export function closedFromOpen(l: Complex): Complex {
   return cdiv(l, { re: 1 + l.re, im: l.im });
 }
 
+/** Error transfer E = θe/θin = 1/(1 + L) = 1 − H from an open-loop value (G3 Ch. 2). */
+export function errorFromOpen(l: Complex): Complex {
+  return cdiv({ re: 1, im: 0 }, { re: 1 + l.re, im: l.im });
+}
+
 /** Closed-loop phase transfer H = L/(1 + L) from an open-loop response. */
 export function closedLoop(open: ResponseFn): ResponseFn {
   return (f) => closedFromOpen(open(f));
