@@ -21,6 +21,8 @@ const NOT_CITATIONS: Readonly<Record<string, string>> = {
   C1: 'the C1 control characters (U+0080-U+009F)',
   E0: 'a byte of a percent-encoded path (%E0)',
   A4: 'a byte of a percent-encoded path (%A4)',
+  L1: 'the L1 norm (sum of absolute values of an impulse response)',
+  L2: 'the L2 norm (root of the sum of squares of an impulse response)',
 };
 
 function trackedFiles(): string[] {

@@ -5,6 +5,8 @@ export { planDesign, tryPlanDesign, simulatePlan, simulatePlanAsync, analyzeDesi
 export { exampleSpecs, mainsSyncSpec, ultrasonicSinglePoleSpec, ultrasonicLagLeadSpec, ifFmDemodSpec } from './spec/examples.ts';
 export { loopGain, ncoFundamentalAmplitude } from './analysis/loopGain.ts';
 export { datapathFigures } from './analysis/datapath.ts';
+export { datapathNoise } from './analysis/datapathNoise.ts';
+export { roundoffStatistics } from './fixed/roundoffStatistics.ts';
 export { piFromTargets, lagLeadFromTargets } from './filters/timeConstants.ts';
 export { FieldError } from './fixed/fieldError.ts';
 export { roundShift, roundReal, applyOverflow, wordRange } from './fixed/rounding.ts';

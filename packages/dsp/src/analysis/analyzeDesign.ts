@@ -113,7 +113,7 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
   const plotGrid = discrete.open.freqHz;
   const analogOnPlot = sampleResponse(analogFn, plotGrid, loopType);
 
-  const quantization = quantizedLoop(spec, parts.quantization, range.fMinHz, points);
+  const quantization = quantizedLoop(spec, parts.quantization, parts.nco.control, range.fMinHz, points);
   const second = secondOrderParameters(spec, k, design.tau);
   const dcGain = analogDcGain(design.analogSections);
   const bode: BodePlotData = {

@@ -8,6 +8,8 @@ import type { LoopMargins } from './margins.ts';
 import type { ClosedLoopFigures } from './closedLoopFigures.ts';
 import { discreteLoopMargins } from './discreteLoop.ts';
 import { type DatapathFigures, datapathFigures } from './datapath.ts';
+import { type DatapathNoise, datapathNoise } from './datapathNoise.ts';
+import type { NcoControlScaling } from '../types/nco.ts';
 
 /** The quantiser's outcome: the quantised filter, or the field issue that stopped it. */
 export type QuantizationOutcome =
@@ -24,21 +26,35 @@ export interface QuantizationSummary {
   } | null;
   /** Range of the fixed-point filter datapath (null when quantisation failed). */
   readonly datapath: DatapathFigures | null;
+  /** Roundoff noise of every rounding point and the peak gain and headroom of every section (null when quantisation or control scaling failed, or the loop does not settle: noiseNote says why). */
+  readonly noise: DatapathNoise | null;
+  readonly noiseNote: string | null;
 }
 
 /** Analyse the quantised loop; a format that could not hold the coefficients is reported as it came. */
-export function quantizedLoop(spec: LoopSpec, quantization: QuantizationOutcome, fMinHz: number, points: number) {
+export function quantizedLoop(spec: LoopSpec, quantization: QuantizationOutcome, control: NcoControlScaling | null, fMinHz: number, points: number) {
   const { filter } = quantization;
-  if (!filter) return { summary: { filter: null, error: quantization.error, loop: null, datapath: null }, open: null };
-  const loop = discreteLoopMargins(spec, filter.sections.map((s) => s.quantized), { fMinHz, points });
-  return {
-    summary: {
-      filter,
-      error: null,
-      loop: { margins: loop.margins, stable: loop.stable && filter.stable, closedLoop: loop.closedLoop },
-      datapath: datapathFigures(spec, filter.format.fractionBits),
-    },
-    open: loop.open,
+  if (!filter) {
+    const summary: QuantizationSummary = { filter: null, error: quantization.error, loop: null, datapath: null, noise: null, noiseNote: 'no quantised filter' };
+    return { summary, open: null };
+  }
+  const sections = filter.sections.map((s) => s.quantized);
+  const loop = discreteLoopMargins(spec, sections, { fMinHz, points });
+  const datapath = datapathFigures(spec, filter.format.fractionBits);
+  const stable = loop.stable && filter.stable;
+  const noise = !control
+    ? { noise: null, note: 'no control scaling (nco.controlError says why)' }
+    : !stable
+      ? { noise: null, note: 'the quantised loop is unstable, so its roundoff noise is unbounded' }
+      : datapathNoise({ spec, sections, coefficientFractionBits: filter.format.fractionBits, control, outputLimitUnits: datapath.outputLimitUnits, freqHz: loop.open.freqHz });
+  const summary: QuantizationSummary = {
+    filter,
+    error: null,
+    loop: { margins: loop.margins, stable, closedLoop: loop.closedLoop },
+    datapath,
+    noise: noise.noise,
+    noiseNote: noise.note,
   };
+  return { summary, open: loop.open };
 }
 

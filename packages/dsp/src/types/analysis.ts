@@ -17,6 +17,8 @@ export type { QuantizationSummary } from '../analysis/quantizedLoop.ts';
 export type { NoiseBandwidth } from '../analysis/noiseBandwidth.ts';
 export type { RippleFigures } from '../analysis/ripple.ts';
 export type { DatapathFigures } from '../analysis/datapath.ts';
+export type { DatapathNoise, DatapathNoiseInput, RoundoffPoint, RoundoffPointKind, SectionScaling } from '../analysis/datapathNoise.ts';
+export type { RoundoffStatistics } from '../fixed/roundoffStatistics.ts';
 export type { DesignPlan, PlanOptions, PlanDesignResult } from '../planDesign.ts';
 
 export interface AcquisitionEstimates {

@@ -27,6 +27,9 @@ import { acquisitionEstimates } from '../analysis/estimates.ts';
 import { secondOrderParameters } from '../analysis/secondOrder.ts';
 import { loopGain } from '../analysis/loopGain.ts';
 import type { Scenario } from '../spec/scenario.ts';
+import { datapathNoise } from '../analysis/datapathNoise.ts';
+import { datapathFigures } from '../analysis/datapath.ts';
+import { logGrid } from '../analysis/grid.ts';
 
 export interface WordLengthOptions {
   readonly minCoefficientBits?: number;
@@ -71,6 +74,10 @@ export interface DataWidthPoint {
   readonly steadyStatePhaseErrorDeg: number;
   readonly phaseJitterDeg: number;
   readonly cycleSlips: number;
+  /** Predicted roundoff SNR at the filter output at this width (a full-scale sinusoid over the roundoff noise; datapathNoise), dB; null when the loop does not settle. */
+  readonly predictedSnrDb: number | null;
+  /** Predicted RMS roundoff jitter of the NCO phase at this width, degrees; null as above. */
+  readonly predictedPhaseJitterDeg: number | null;
   readonly passes: boolean;
   readonly reasons: readonly string[];
 }
@@ -255,6 +262,9 @@ function* searchData(
   const crossoverHz = discreteLoopMargins(spec, sections, { points: 200, closedLoop: false }).margins.crossoverHz ?? loopGain(spec).kRadPerS / (2 * Math.PI);
   const { scenario, cut } = dataScenario(spec, crossoverHz, options.maxSamplesPerRun ?? 200_000);
   const quantized = quantizeSections(sections, fp);
+  const quantizedSections = quantized.sections.map((q) => q.quantized);
+  // The noise figures need a frequency grid only for the sections' L∞ peaks, which the curve does not show.
+  const noiseGrid = logGrid(spec.sampleRateHz * 1e-6, spec.sampleRateHz / 2, 50);
   const tuning = ncoTuning(spec.centerHz, spec.sampleRateHz, spec.nco.accumulatorBits);
   const floatRun = simulateLoop({ spec, sections, bitTrue: null, bitTrueIssue: null }, scenario, { mode: 'float', buckets: 10 }).float!.metrics;
   const [fewestBits, mostBits] = WIDTH_LIMITS['fixedPoint.dataBits'];
@@ -270,6 +280,14 @@ function* searchData(
     const s: LoopSpec = { ...spec, fixedPoint: { ...fp, dataBits: bits, accumulatorBits } };
     const bitTrue = planBitTrue(s, { quantized, tuning, control: specControlScaling(s) });
     const m = simulateLoop({ spec: s, sections, bitTrue, bitTrueIssue: null }, scenario, { mode: 'bit-true', buckets: 10 }).bitTrue!.metrics;
+    const predicted = datapathNoise({
+      spec: s,
+      sections: quantizedSections,
+      coefficientFractionBits: quantized.format.fractionBits,
+      control: bitTrue.control,
+      outputLimitUnits: datapathFigures(s, quantized.format.fractionBits).outputLimitUnits,
+      freqHz: noiseGrid,
+    }).noise;
     const reasons: string[] = [];
     if (!m.locked) reasons.push('did not lock');
     if (m.cycleSlips !== 0) reasons.push(`${m.cycleSlips} cycle slips`);
@@ -284,6 +302,8 @@ function* searchData(
       steadyStatePhaseErrorDeg: m.steadyStatePhaseErrorDeg,
       phaseJitterDeg: m.steadyStatePhaseJitterDeg,
       cycleSlips: m.cycleSlips,
+      predictedSnrDb: predicted?.outputSnrDb ?? null,
+      predictedPhaseJitterDeg: predicted?.phaseJitterDeg ?? null,
       passes: reasons.length === 0,
       reasons,
     });

@@ -98,6 +98,24 @@ describe('data width search (bit-true simulation against float)', () => {
     const expectedDeg = (Math.asin(a.steadyState.frequencyStepRadPerHz * offsetHz) * 180) / Math.PI;
     expect(r.data!.floatReference.steadyStatePhaseErrorDeg).toBeCloseTo(expectedDeg, 1);
   });
+
+  it('predicts a roundoff SNR that rises 6.02 dB per data bit (q²/12 per rounding point, WK08; 20·log10 2 per bit, Be48)', () => {
+    const curve = r.data!.curve;
+    // the signal is a full-scale sinusoid of peak 1 − 2^(1−D) (the D-bit word's largest code)
+    const fullScaleDb = (d: number) => 20 * Math.log10(1 - 2 ** (1 - d));
+    for (let i = 1; i < curve.length; i++) {
+      const d = curve[i]!.dataBits;
+      expect(curve[i]!.predictedSnrDb! - curve[i - 1]!.predictedSnrDb!).toBeCloseTo(20 * Math.log10(2) + fullScaleDb(d) - fullScaleDb(d - 1), 2);
+      expect(curve[i]!.predictedPhaseJitterDeg!).toBeLessThan(curve[i - 1]!.predictedPhaseJitterDeg!);
+    }
+  });
+
+  it('at the spec’s own data width predicts what analyzeDesign predicts', () => {
+    const own = r.data!.curve.find((p) => p.dataBits === ultrasonicSinglePoleSpec.fixedPoint.dataBits)!;
+    const noise = analyzeDesign(ultrasonicSinglePoleSpec).quantization.noise!;
+    expect(own.predictedSnrDb).toBeCloseTo(noise.outputSnrDb, 6);
+    expect(own.predictedPhaseJitterDeg).toBeCloseTo(noise.phaseJitterDeg, 9);
+  });
 });
 
 describe('word-length search over random valid specs', () => {

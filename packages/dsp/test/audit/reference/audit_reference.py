@@ -437,6 +437,72 @@ def bit_true_case(c):
     return {"rows": rows, "tuningWord": str(m), "table": table, "checksum": h}
 
 
+def datapath_noise_case(c):
+    """Noise gains, DC gains and peak gains of the fixed-point loop linearised about lock, built as
+    transfer functions in z^-1 from DESIGN.md's conventions (not from the TypeScript state-space):
+    u = -Kd*theta + e_det, y = F u (+ each section's output error e_i after its sum, which runs through
+    1/A_i and the later sections, OS3 Sec. 6.9 (memory)), theta = z^-1/(1 - z^-1) (Ko T y + e_ctrl).
+    With D = (1 - z^-1) prod A + Kd Ko T z^-1 prod B every transfer is num/D. Impulse responses by
+    scipy.signal.sosfilt (zpk2sos of the closed loop), 2^18 samples; sum of squares and of |h| over it
+    (Ja70 L2 and L1); L-infinity from sosfreqz on a dense grid; DC gain num(1)/D(1)."""
+    secs = c["sections"]
+    kd = c["amplitude"] * (4 / math.pi if c["waveform"] == "square" else 1.0) / 2
+    kd *= (2 ** (c["amplitudeBits"] - 1) - 1) / 2 ** (c["amplitudeBits"] - 1)
+    kot = 2 * math.pi * c["gainHzPerUnit"] / c["sampleRateHz"]
+    A = [np.asarray(s["a"], dtype=float) for s in secs]
+    B = [np.asarray(s["b"], dtype=float) for s in secs]
+    delta = np.array([1.0, -1.0])
+    z1 = np.array([0.0, 1.0])
+
+    # coefficient sequences in z^-1 multiply by convolution (np.polymul would drop a leading zero, the z^-1)
+    def prod(ps):
+        out = np.array([1.0])
+        for q in ps:
+            out = np.convolve(out, q)
+        return out
+
+    def padd(x, y):
+        n = max(len(x), len(y))
+        return np.pad(x, (0, n - len(x))) + np.pad(y, (0, n - len(y)))
+
+    den = padd(np.convolve(delta, prod(A)), kd * kot * np.convolve(z1, prod(B)))
+    kk = len(secs)
+    n = 1 << 18
+    imp = np.zeros(n)
+    imp[0] = 1.0
+
+    def response(num):
+        # z^-1 polynomials: b/a in SciPy's digital convention, as lfilter/tf2zpk read them
+        z, p, g = signal.tf2zpk(num, den)
+        sos = signal.zpk2sos(z, p, g)
+        h = signal.sosfilt(sos, imp)
+        return h, sos
+
+    def figures(num):
+        h, sos = response(num)
+        return {"l2": float(np.sum(h * h)), "l1": float(np.sum(np.abs(h))), "dc": float(np.sum(num) / np.sum(den)), "tail": float(np.max(np.abs(h[-1000:]))), "sos": sos}
+
+    inputs = []
+    # detector: to y and theta
+    inputs.append((np.convolve(delta, prod(B)), kot * np.convolve(z1, prod(B))))
+    for i in range(kk):
+        rest = np.convolve(prod(B[i + 1:]), prod(A[:i]))
+        inputs.append((np.convolve(delta, rest), kot * np.convolve(z1, rest)))
+    inputs.append((-kd * np.convolve(z1, prod(B)), np.convolve(z1, prod(A))))
+    gains = []
+    for ny, nt in inputs:
+        fy, ft = figures(ny), figures(nt)
+        gains.append({"outputGain": fy["l2"], "phaseGain": ft["l2"], "outputDc": fy["dc"], "phaseDc": ft["dc"], "tail": max(fy["tail"], ft["tail"])})
+    sections = []
+    f = np.concatenate([np.linspace(0, c["sampleRateHz"] / 2, 100001)[1:], np.exp(np.linspace(math.log(1e-7 * c["sampleRateHz"]), math.log(c["sampleRateHz"] / 2), 100000))])
+    for k in range(kk):
+        num = np.convolve(delta, np.convolve(prod(B[:k + 1]), prod(A[k + 1:])))
+        fk = figures(num)
+        _, hf = signal.sosfreqz(fk["sos"], worN=f, fs=c["sampleRateHz"])
+        sections.append({"l1": fk["l1"], "l2": math.sqrt(fk["l2"]), "lInf": float(np.max(np.abs(hf)))})
+    return {"inputs": gains, "sections": sections}
+
+
 if __name__ == "__main__":
     serve({
         "cases": case,
@@ -449,4 +515,5 @@ if __name__ == "__main__":
         "steps": step_case,
         "butterDigital": butter_digital,
         "bitTrue": bit_true_case,
+        "datapathNoise": datapath_noise_case,
     })

@@ -1,0 +1,280 @@
+/**
+ * The bit-true loop linearised about lock, as a state-space model whose inputs are the rounding points
+ * of the arithmetic (packages/dsp/README.md, "Bit-true arithmetic") and whose outputs are every section
+ * output and the NCO phase. Near lock the multiplier gives u = −Kd·θo + e_det (the input phase taken as
+ * 0; the double-frequency term left out: the loop filter removes it, G3 Ch. 2); each direct-form-I
+ * section adds its output rounding e_k after the sum, so the error runs through that section's poles and
+ * on through the later sections (OS3 Sec. 6.9 (memory)); the tuning increment adds e_ctrl (radians of
+ * NCO phase) and the phase register integrates with one sample of delay, θo[n+1] = θo[n] + Ko·T·y[n] + e_ctrl.
+ *
+ * The model is built by probing one linear step with unit vectors (so the matrices cannot disagree with
+ * the step), and is used for the noise gains (sum of squares of the impulse response, from the
+ * observability Gramian), DC gains (the mean a truncating point adds) and the peak gains of each section
+ * (L1 of the impulse response by running it, L∞ of the frequency response on a grid): Jackson's Lp
+ * norms of the transfer from a point to a node (Ja70).
+ */
+import type { Sos } from '../types/filter.ts';
+
+/** The linearised loop: x[n+1] = A·x[n] + B·e[n], out[n] = C·x[n] + D·e[n]. Matrices are row-major. */
+export interface LinearLoop {
+  /** States: θo, the detector's two past outputs, then y[n−1], y[n−2] of each section. */
+  readonly stateCount: number;
+  /** Inputs: 0 = detector, 1 … K = section outputs, K + 1 = tuning increment (radians of phase). */
+  readonly inputCount: number;
+  /** Outputs: 0 … K − 1 = section outputs (K − 1 is the filter output y), K = NCO phase θo (rad). */
+  readonly outputCount: number;
+  readonly a: Float64Array;
+  readonly b: Float64Array;
+  readonly c: Float64Array;
+  readonly d: Float64Array;
+  readonly sections: readonly Sos[];
+  readonly kd: number;
+  readonly koTRadPerUnit: number;
+}
+
+/** One sample of the linear loop; writes the next state and the outputs (see LinearLoop). */
+function linearStep(sections: readonly Sos[], kd: number, koT: number, s: Float64Array, e: Float64Array, next: Float64Array, out: Float64Array): void {
+  const k = sections.length;
+  const theta = s[0]!;
+  const u = -kd * theta + e[0]!;
+  let v = u;
+  let x1 = s[1]!;
+  let x2 = s[2]!;
+  for (let j = 0; j < k; j++) {
+    const { b, a } = sections[j]!;
+    const y1 = s[3 + 2 * j]!;
+    const y2 = s[4 + 2 * j]!;
+    const y = b[0] * v + b[1] * x1 + b[2] * x2 - a[1] * y1 - a[2] * y2 + e[1 + j]!;
+    next[3 + 2 * j] = y;
+    next[4 + 2 * j] = y1;
+    out[j] = y;
+    x1 = y1;
+    x2 = y2;
+    v = y;
+  }
+  next[1] = u;
+  next[2] = s[1]!;
+  next[0] = theta + koT * v + e[k + 1]!;
+  out[k] = theta;
+}
+
+/** Build the linear loop of quantised sections, detector gain kd and Ko·T (rad per unit per sample). */
+export function linearLoop(sections: readonly Sos[], kd: number, koTRadPerUnit: number): LinearLoop {
+  const k = sections.length;
+  const n = 3 + 2 * k;
+  const m = k + 2;
+  const p = k + 1;
+  const a = new Float64Array(n * n);
+  const b = new Float64Array(n * m);
+  const c = new Float64Array(p * n);
+  const d = new Float64Array(p * m);
+  const s = new Float64Array(n);
+  const e = new Float64Array(m);
+  const next = new Float64Array(n);
+  const out = new Float64Array(p);
+  for (let j = 0; j < n; j++) {
+    s.fill(0);
+    s[j] = 1;
+    linearStep(sections, kd, koTRadPerUnit, s, e, next, out);
+    for (let i = 0; i < n; i++) a[i * n + j] = next[i]!;
+    for (let i = 0; i < p; i++) c[i * n + j] = out[i]!;
+  }
+  s.fill(0);
+  for (let j = 0; j < m; j++) {
+    e.fill(0);
+    e[j] = 1;
+    linearStep(sections, kd, koTRadPerUnit, s, e, next, out);
+    for (let i = 0; i < n; i++) b[i * m + j] = next[i]!;
+    for (let i = 0; i < p; i++) d[i * m + j] = out[i]!;
+  }
+  return { stateCount: n, inputCount: m, outputCount: p, a, b, c, d, sections, kd, koTRadPerUnit };
+}
+
+function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
+  out.fill(0);
+  for (let i = 0; i < n; i++) {
+    for (let l = 0; l < n; l++) {
+      const xil = x[i * n + l]!;
+      if (xil === 0) continue;
+      for (let j = 0; j < n; j++) out[i * n + j] = out[i * n + j]! + xil * y[l * n + j]!;
+    }
+  }
+}
+
+/** Q + Mᵀ·Q·M into q (t is scratch). */
+function addCongruence(q: Float64Array, mat: Float64Array, n: number, t: Float64Array, t2: Float64Array): void {
+  multiply(q, mat, n, t);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+    let acc = 0;
+    for (let l = 0; l < n; l++) acc += mat[l * n + i]! * t[l * n + j]!;
+    t2[i * n + j] = acc;
+  }
+  for (let i = 0; i < n * n; i++) q[i] = q[i]! + t2[i]!;
+}
+
+/**
+ * Σ over n ≥ 0 of (C_o·Aⁿ·B_i)² + D_oi² for every input i and the outputs `outputs`: the noise gain
+ * from each input to each of those outputs. The observability Gramian Q = Σ (Aᵀ)ⁿ·C_oᵀ·C_o·Aⁿ is summed
+ * by doubling (Q ← Q + (A^(2^j))ᵀ·Q·A^(2^j), A ← A²), so a loop whose impulse response lasts 2^20
+ * samples costs 20 small matrix products. Null when the loop does not decay (unstable or on the circle).
+ */
+export function noiseGains(loop: LinearLoop, outputs: readonly number[]): number[][] | null {
+  const { stateCount: n, inputCount: m, a, b, c, d } = loop;
+  const grams = outputs.map((o) => {
+    const q = new Float64Array(n * n);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) q[i * n + j] = c[o * n + i]! * c[o * n + j]!;
+    return q;
+  });
+  let power = Float64Array.from(a);
+  let square = new Float64Array(n * n);
+  const t = new Float64Array(n * n);
+  const t2 = new Float64Array(n * n);
+  let converged = false;
+  for (let iter = 0; iter < 64; iter++) {
+    for (const q of grams) addCongruence(q, power, n, t, t2);
+    multiply(power, power, n, square);
+    [power, square] = [square, power];
+    let big = 0;
+    for (let i = 0; i < n * n; i++) big = Math.max(big, Math.abs(power[i]!));
+    if (!Number.isFinite(big) || big > 1e150) return null;
+    if (big < 1e-6) {
+      converged = true;
+      break;
+    }
+  }
+  if (!converged) return null;
+  return outputs.map((o, k) => {
+    const q = grams[k]!;
+    const gains: number[] = [];
+    for (let i = 0; i < m; i++) {
+      let acc = 0;
+      for (let r = 0; r < n; r++) {
+        let row = 0;
+        for (let s = 0; s < n; s++) row += q[r * n + s]! * b[s * m + i]!;
+        acc += b[r * m + i]! * row;
+      }
+      gains.push(acc + d[o * m + i]! ** 2);
+    }
+    return gains;
+  });
+}
+
+/**
+ * DC gain D + C·(I − A)⁻¹·B from every input to every output (Gaussian elimination with partial
+ * pivoting): where the mean of a truncating point ends up. Null when I − A is singular.
+ */
+export function dcGains(loop: LinearLoop): number[][] | null {
+  const { stateCount: n, inputCount: m, outputCount: p, a, b, c, d } = loop;
+  const w = n + m;
+  const aug = new Float64Array(n * w);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) aug[i * w + j] = (i === j ? 1 : 0) - a[i * n + j]!;
+    for (let j = 0; j < m; j++) aug[i * w + n + j] = b[i * m + j]!;
+  }
+  for (let col = 0; col < n; col++) {
+    let piv = col;
+    for (let r = col + 1; r < n; r++) if (Math.abs(aug[r * w + col]!) > Math.abs(aug[piv * w + col]!)) piv = r;
+    if (Math.abs(aug[piv * w + col]!) < 1e-300) return null;
+    if (piv !== col) for (let j = 0; j < w; j++) [aug[col * w + j], aug[piv * w + j]] = [aug[piv * w + j]!, aug[col * w + j]!];
+    const pv = aug[col * w + col]!;
+    for (let r = 0; r < n; r++) {
+      if (r === col) continue;
+      const f = aug[r * w + col]! / pv;
+      if (f === 0) continue;
+      for (let j = col; j < w; j++) aug[r * w + j] = aug[r * w + j]! - f * aug[col * w + j]!;
+    }
+  }
+  const out: number[][] = [];
+  for (let o = 0; o < p; o++) {
+    const row: number[] = [];
+    for (let i = 0; i < m; i++) {
+      let acc = d[o * m + i]!;
+      for (let r = 0; r < n; r++) acc += (c[o * n + r]! * aug[r * w + n + i]!) / aug[r * w + r]!;
+      row.push(acc);
+    }
+    out.push(row);
+  }
+  return out;
+}
+
+/** Samples after which the impulse response is cut when it has not died away (its tail is then extrapolated). */
+export const MAX_IMPULSE_SAMPLES = 1 << 16;
+
+export interface ImpulseNorms {
+  /** Σ|h[n]| from the input to each section output. */
+  readonly l1: readonly number[];
+  /** √(Σ h[n]²) from the input to each section output. */
+  readonly l2: readonly number[];
+  /** Samples run; `extrapolated` when the run hit MAX_IMPULSE_SAMPLES and the tail was estimated geometrically. */
+  readonly samples: number;
+  readonly extrapolated: boolean;
+}
+
+/**
+ * Run the impulse response from input `input` until every state has fallen below 1e-8 of the largest
+ * output seen (checked every 64 samples), accumulating L1 and L2 of each section output. The same
+ * step as linearStep, written flat over typed arrays (O(K) per sample, no dense matrices): this loop is
+ * most of the cost of the noise analysis.
+ */
+export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
+  const { sections, kd, koTRadPerUnit: koT } = loop;
+  const k = sections.length;
+  const coef = Float64Array.from(sections.flatMap((x) => [x.b[0], x.b[1], x.b[2], x.a[1], x.a[2]]));
+  // Section states y[n−1], y[n−2]; detector states u[n−1], u[n−2]; NCO phase θ.
+  const ys = new Float64Array(2 * k);
+  let u1 = 0;
+  let u2 = 0;
+  let theta = 0;
+  const l1 = new Float64Array(k);
+  const l2 = new Float64Array(k);
+  const block = new Float64Array(k);
+  const prevBlock = new Float64Array(k);
+  let impulse = 1;
+  const injectAt = input;
+  let peak = 0;
+  let samples = 0;
+  let done = false;
+  while (!done && samples < MAX_IMPULSE_SAMPLES) {
+    prevBlock.set(block);
+    block.fill(0);
+    for (let i = 0; i < 64; i++) {
+      const u = -kd * theta + (injectAt === 0 ? impulse : 0);
+      let v = u;
+      let x1 = u1;
+      let x2 = u2;
+      for (let j = 0; j < k; j++) {
+        const o = 5 * j;
+        const y1 = ys[2 * j]!;
+        const y2 = ys[2 * j + 1]!;
+        const y = coef[o]! * v + coef[o + 1]! * x1 + coef[o + 2]! * x2 - coef[o + 3]! * y1 - coef[o + 4]! * y2 + (injectAt === 1 + j ? impulse : 0);
+        ys[2 * j] = y;
+        ys[2 * j + 1] = y1;
+        x1 = y1;
+        x2 = y2;
+        v = y;
+        const h = y < 0 ? -y : y;
+        block[j] = block[j]! + h;
+        l2[j] = l2[j]! + h * h;
+        if (h > peak) peak = h;
+      }
+      u2 = u1;
+      u1 = u;
+      theta = theta + koT * v + (injectAt === k + 1 ? impulse : 0);
+      impulse = 0;
+      samples++;
+    }
+    for (let j = 0; j < k; j++) l1[j] = l1[j]! + block[j]!;
+    let live = Math.max(Math.abs(theta), Math.abs(u1), Math.abs(u2));
+    for (let i = 0; i < 2 * k; i++) live = Math.max(live, Math.abs(ys[i]!));
+    done = live < 1e-8 * Math.max(peak, 1e-300);
+  }
+  if (!done) {
+    // A slowly decaying tail: take the block-to-block ratio as its geometric rate (one dominant mode).
+    for (let j = 0; j < k; j++) {
+      const ratio = prevBlock[j]! > 0 ? Math.min(block[j]! / prevBlock[j]!, 0.999999) : 0;
+      l1[j] = l1[j]! + (block[j]! * ratio) / (1 - ratio);
+      l2[j] = l2[j]! + ((block[j]! ** 2 / 64) * (ratio * ratio)) / (1 - ratio * ratio);
+    }
+  }
+  return { l1: Array.from(l1), l2: Array.from(l2, Math.sqrt), samples, extrapolated: !done };
+}
