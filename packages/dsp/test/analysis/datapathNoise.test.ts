@@ -127,15 +127,16 @@ function measure(spec: LoopSpec) {
     dy[i] = bt.filterOutput[SETTLE + i]! - fl.filterOutput[SETTLE + i]!;
     dphi[i] = wrapPi(bt.phaseErrorRad[SETTLE + i]! - fl.phaseErrorRad[SETTLE + i]!);
   }
-  return { noise, dy, dphi, locked: sim.bitTrue!.metrics.locked && sim.float!.metrics.locked };
+  // no cycle slip in either run: both stay at the lock point the linear model is made about
+  return { noise, dy, dphi, slips: Math.abs(sim.bitTrue!.metrics.cycleSlips) + Math.abs(sim.float!.metrics.cycleSlips) };
 }
 
 const meanOf = (xs: Float64Array) => xs.reduce((a, b) => a + b, 0) / xs.length;
 
 describe('predicted roundoff noise against the simulated difference of bit-true and float loops', () => {
   it.each(specs.map((s) => [`${s.name} ${s.filter.kind}${s.rippleFilter ? '+ripple' : ''} D=${s.fixedPoint.dataBits} ${s.fixedPoint.rounding}`, s] as const))('%s', (_label, spec) => {
-    const { noise, dy, dphi, locked } = measure(spec);
-    expect(locked).toBe(true);
+    const { noise, dy, dphi, slips } = measure(spec);
+    expect(slips).toBe(0);
     const outputDb = 10 * Math.log10(variance(dy) / noise.outputNoiseVariance);
     const phaseDb = 10 * Math.log10(variance(dphi) / noise.phaseNoiseVarianceRad2);
     expect(Math.abs(outputDb)).toBeLessThan(1);
