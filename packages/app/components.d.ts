@@ -11,6 +11,8 @@ export {}
 /* prettier-ignore */
 declare module 'vue' {
   export interface GlobalComponents {
+    AcquisitionPanel: typeof import('./src/components/AcquisitionPanel.vue')['default']
+    AcquisitionTable: typeof import('./src/components/AcquisitionTable.vue')['default']
     AppShell: typeof import('./src/components/AppShell.vue')['default']
     BodeOverlay: typeof import('./src/components/BodeOverlay.vue')['default']
     BodePanel: typeof import('./src/components/BodePanel.vue')['default']

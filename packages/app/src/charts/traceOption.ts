@@ -12,6 +12,8 @@ export interface TraceSet {
   readonly phaseErrorRad: DecimatedTrace;
   readonly filterOutput: DecimatedTrace;
   readonly ncoFrequencyHz: DecimatedTrace;
+  /** A sweep's input frequency, drawn with the NCO's (both relative to the centre). */
+  readonly inputFrequencyHz?: DecimatedTrace;
 }
 
 export interface TraceInput {
@@ -66,6 +68,9 @@ export function traceOption(input: TraceInput): EChartsCoreOption {
   };
   add('Float', input.float, CHART_COLORS.float, 'solid');
   add('Bit-true', input.bitTrue, CHART_COLORS.fixed, 'dashed');
+  // The same input drives both loops: one input-frequency line.
+  const inputHz = input.float?.inputFrequencyHz ?? input.bitTrue?.inputFrequencyHz;
+  if (inputHz) series.push(line('Input frequency', envelope(inputHz, 1, input.centerHz), 2, CHART_COLORS.reference, 'solid'));
   if (input.modulatingHz) series.push(line('Modulating signal', input.modulatingHz, 1, CHART_COLORS.reference, 'solid'));
   const grids = [
     { left: 70, right: 20, top: 30, height: '22%' },
@@ -76,7 +81,7 @@ export function traceOption(input: TraceInput): EChartsCoreOption {
   const yNames = ['Phase error', 'Demodulated', 'NCO − centre'];
   return {
     animation: chartAnimation(),
-    legend: { top: 0, data: ['Float', 'Bit-true', ...(input.modulatingHz ? ['Modulating signal'] : [])] },
+    legend: { top: 0, data: ['Float', 'Bit-true', ...(input.modulatingHz ? ['Modulating signal'] : []), ...(inputHz ? ['Input frequency'] : [])] },
     tooltip: { trigger: 'axis' },
     axisPointer: { link: [{ xAxisIndex: 'all' }] },
     grid: grids,

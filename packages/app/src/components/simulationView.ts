@@ -18,10 +18,26 @@ const METRICS: readonly { label: string; testId: string; text: (m: SimMetrics) =
   { label: 'Demodulation error (RMS)', testId: 'metric-demod', text: (m) => fmtHz(m.demodErrorRmsHz, 4) + (m.demodErrorRelative === null ? '' : ` (${fmtFixed(100 * m.demodErrorRelative, 2)} % of deviation)`) },
 ];
 
+/** Where a sweep lost and regained lock (dsp README "Sweep"): the input offset and the time. */
+function at(hz: number | null, s: number | null, none: string): string {
+  return hz === null || s === null ? none : `${fmtHz(hz, 4)} at ${fmtEng(s, 's', 4)}`;
+}
+
+const SWEEP_METRICS: readonly { label: string; testId: string; text: (m: SimMetrics) => string }[] = [
+  { label: 'Lock lost going out', testId: 'metric-sweep-lost', text: (m) => (m.sweep ? at(m.sweep.lockLostHz, m.sweep.lockLostS, 'held to the turn') : '—') },
+  {
+    label: 'Lock regained coming back',
+    testId: 'metric-sweep-regained',
+    text: (m) => (m.sweep ? (m.sweep.lockLostHz === null ? 'never lost' : at(m.sweep.lockRegainedHz, m.sweep.lockRegainedS, 'not regained by the end')) : '—'),
+  },
+  { label: 'Cycle slips out / back', testId: 'metric-sweep-slips', text: (m) => (m.sweep ? `${m.sweep.slipsOut} / ${m.sweep.slipsBack}` : '—') },
+];
+
 export function metricRows(result: SimResult): MetricRow[] {
   const f = result.float?.metrics;
   const b = result.bitTrue?.metrics;
-  return METRICS.map((m) => ({ label: m.label, testId: m.testId, float: f ? m.text(f) : '—', bitTrue: b ? m.text(b) : '—' }));
+  const list = (f ?? b)?.sweep ? [...METRICS, ...SWEEP_METRICS] : METRICS;
+  return list.map((m) => ({ label: m.label, testId: m.testId, float: f ? m.text(f) : '—', bitTrue: b ? m.text(b) : '—' }));
 }
 
 /** What Locked and Lock time mean, with the tolerance this run used (the one definition, from dsp). */

@@ -13,6 +13,7 @@ export const SCENARIO_PRESETS = [
   { value: 'fm-triangle', label: 'FM, triangle modulation' },
   { value: 'fm-square', label: 'FM, square modulation' },
   { value: 'noise', label: 'Noise: locked tone with a given SNR' },
+  { value: 'sweep', label: 'Sweep out and back (where lock is lost and regained)' },
 ] as const;
 
 export type ScenarioPreset = (typeof SCENARIO_PRESETS)[number]['value'];
@@ -34,6 +35,9 @@ export const SCENARIO_FIELDS: readonly ScenarioFieldDef[] = [
   { key: 'atS', label: 'Step at', unit: 's', presets: ['frequency-step', 'phase-step'] },
   { key: 'rateHz', label: 'Modulation rate', unit: 'Hz', presets: FM },
   { key: 'deviationHz', label: 'Peak deviation', unit: 'Hz', presets: FM },
+  { key: 'fromHz', label: 'Sweep from offset', unit: 'Hz', presets: ['sweep'] },
+  { key: 'toHz', label: 'Sweep to offset', unit: 'Hz', presets: ['sweep'] },
+  { key: 'rateHzPerS', label: 'Sweep rate', unit: 'Hz/s', presets: ['sweep'] },
   { key: 'durationS', label: 'Duration', unit: 's', presets: ALL },
   { key: 'snrDb', label: 'Input SNR (blank: no noise)', unit: 'dB', presets: ALL },
   { key: 'initialPhaseDeg', label: 'Initial phase', unit: '°', presets: ALL },
@@ -52,7 +56,14 @@ export function defaultScenarioDraft(crossoverHz: number | null, sampleRateHz: n
   const maxDurationS = 400_000 / sampleRateHz;
   const durationS = Math.min(30 / fc, maxDurationS);
   const round = (x: number) => String(Number(x.toPrecision(2)));
+  // A sweep to twice the crossover and back in 80 % of the run: the rate rounded up, so it still fits.
+  const sweepToHz = Number((2 * fc).toPrecision(2));
+  const sweepRate = Number((sweepToHz / (0.4 * Number(round(durationS)))).toPrecision(2));
+  const sweepRateHzPerS = 2 * sweepToHz / sweepRate <= Number(round(durationS)) ? sweepRate : Number((sweepRate * 1.1).toPrecision(2));
   return {
+    fromHz: '0',
+    toHz: String(sweepToHz),
+    rateHzPerS: String(sweepRateHzPerS),
     offsetHz: round(0.2 * fc),
     stepHz: round(0.2 * fc),
     stepDeg: '45',
@@ -90,6 +101,8 @@ export function draftToScenario(preset: ScenarioPreset, d: Readonly<ScenarioDraf
     case 'fm-triangle':
     case 'fm-square':
       return { kind: 'fm', modulation: preset.slice(3), rateHz: n('rateHz'), deviationHz: n('deviationHz'), ...common(d) };
+    case 'sweep':
+      return { kind: 'sweep', fromHz: n('fromHz'), toHz: n('toHz'), rateHzPerS: n('rateHzPerS'), ...common(d) };
   }
 }
 

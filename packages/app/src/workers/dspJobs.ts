@@ -4,10 +4,13 @@
  * Outputs are plain data so they cross postMessage.
  */
 import {
+  compareAcquisition,
+  measureAcquisition,
   planDesign,
   requireValidSpec,
   simulatePlanAsync,
   wordLengthSearch,
+  type AcquisitionComparison,
   type AnalysisResult,
   type LoopSpec,
   type Scenario,
@@ -35,6 +38,7 @@ interface Jobs {
   analyze: { input: null; output: DesignAnalysis };
   simulate: { input: Scenario; output: SimulationOutput };
   wordLength: { input: WordLengthInput; output: WordLengthResult };
+  acquire: { input: null; output: AcquisitionComparison };
 }
 
 /** What the word-length panel lets the user set (the rest are the search's defaults). */
@@ -102,6 +106,16 @@ export function wordLengthJob(spec: LoopSpec, input: WordLengthInput, ctx: JobCo
   });
 }
 
+/**
+ * Each acquisition figure estimated and measured (the same dsp calls as the server's and the CLI's).
+ * Synchronous in packages/dsp, like the word-length search: progress reaches the page, cancelling
+ * restarts the worker.
+ */
+export function acquireJob(spec: LoopSpec, ctx: JobContext): AcquisitionComparison {
+  const plan = planDesign(requireValidSpec(spec));
+  return compareAcquisition(plan.analysis.estimates, measureAcquisition(plan.spec, { onProgress: (f) => ctx.onProgress(f) }));
+}
+
 export async function runDspJob(kind: DspJobKind, spec: LoopSpec, input: unknown, ctx: JobContext): Promise<unknown> {
   switch (kind) {
     case 'analyze':
@@ -110,5 +124,7 @@ export async function runDspJob(kind: DspJobKind, spec: LoopSpec, input: unknown
       return simulateJob(spec, input as Scenario, ctx);
     case 'wordLength':
       return wordLengthJob(spec, input as WordLengthInput, ctx);
+    case 'acquire':
+      return acquireJob(spec, ctx);
   }
 }
