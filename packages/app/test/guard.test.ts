@@ -19,6 +19,12 @@ describe('role guard', () => {
     expect(s.loads).toBe(0);
   });
 
+  it('loads the session for the not-found page, which keeps the rail of whoever is signed in', async () => {
+    const s = session(['designer']);
+    expect(await roleGuard(to('not-found', { public: true }, '/no-such-screen'), s)).toBe(true);
+    expect(s.loads).toBe(1);
+  });
+
   it('sends a signed-out visitor to sign-in and remembers where they were going', async () => {
     const result = await roleGuard(to('admin', { roles: ['admin'] }, '/admin?x=1'), session(null));
     expect(result).toEqual({ name: 'sign-in', query: { redirect: '/admin?x=1' } });

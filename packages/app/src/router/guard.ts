@@ -1,6 +1,7 @@
 import type { RouteLocationNormalized, RouteLocationRaw } from 'vue-router';
 import type { Role } from '../api/types.ts';
 import { homeRouteFor } from './home.ts';
+import { isBareRoute } from '../lib/navigation.ts';
 
 declare module 'vue-router' {
   interface RouteMeta {
@@ -21,7 +22,11 @@ export interface GuardSession {
 
 /** Decides each navigation: true to go on, or where to go instead. */
 export async function roleGuard(to: RouteLocationNormalized, session: GuardSession): Promise<true | RouteLocationRaw> {
-  if (to.meta.public) return true;
+  if (to.meta.public) {
+    // A public screen drawn with the rail (the not-found page) shows the rail of whoever is signed in.
+    if (!isBareRoute(to.name)) await session.ensureLoaded();
+    return true;
+  }
   await session.ensureLoaded();
   if (!session.signedIn) return { name: 'sign-in', query: { redirect: to.fullPath } };
   const wanted = to.meta.roles;
