@@ -86,6 +86,19 @@ describe('designs', () => {
     expect(await auditActions('design', design.id)).toEqual(['design.create', 'design.update']);
   });
 
+  it('logs which spec fields an edit changed, with the old and new value of each', async () => {
+    const design = await createDesign();
+    const spec = { ...design.spec, centerHz: 60, fixedPoint: { ...design.spec.fixedPoint, coefficientBits: design.spec.fixedPoint.coefficientBits + 1 } };
+    await designer.put(`/api/designs/${design.id}`).set(csrf).send({ baseRevision: 1, spec, name: 'Renamed loop' }).expect(200);
+    const rows: { detailJson: string }[] = await testApp.dataSource.query("SELECT detailJson FROM audit_entries WHERE objectType = 'design' AND objectId = ? AND action = 'design.update'", [String(design.id)]);
+    const detail = JSON.parse(rows[0]!.detailJson);
+    expect(detail).toMatchObject({ baseRevision: 1, name: { from: design.name, to: 'Renamed loop' } });
+    expect(detail.specChanges).toEqual([
+      { field: 'centerHz', from: design.spec.centerHz, to: 60 },
+      { field: 'fixedPoint.coefficientBits', from: design.spec.fixedPoint.coefficientBits, to: design.spec.fixedPoint.coefficientBits + 1 },
+    ]);
+  });
+
   it('lets exactly one of two concurrent updates from the same revision win', async () => {
     const design = await createDesign();
     const [a, b] = await Promise.all([
@@ -184,6 +197,14 @@ describe('designs as files', () => {
   it('refuses an upload that is not JSON, naming the file field', async () => {
     const response = await designer.post(`/api/projects/${projectId}/designs/upload`).set(csrf).attach('file', Buffer.from('{"specVersion": 1,'), 'broken.json').expect(400);
     expect(response.body.error).toMatchObject({ code: 'invalid_input', field: 'file' });
+  });
+
+  it('puts a refused upload in the audit trail: who, which file, why', async () => {
+    await designer.post(`/api/projects/${projectId}/designs/upload`).set(csrf).attach('file', Buffer.from('{"specVersion": 1,'), 'refused-upload.json').expect(400);
+    const rows: { actorEmail: string; detailJson: string }[] = await testApp.dataSource.query("SELECT actorEmail, detailJson FROM audit_entries WHERE action = 'design.upload-rejected' AND objectType = 'project' AND objectId = ?", [String(projectId)]);
+    const refused = rows.map((r) => ({ who: r.actorEmail, ...JSON.parse(r.detailJson) })).find((d) => d.fileName === 'refused-upload.json');
+    expect(refused).toMatchObject({ who: org.emails.designer, field: 'file', sizeBytes: 18 });
+    expect(refused.reason).toMatch(/not valid JSON/);
   });
 
   it('refuses an oversized upload with 413 JSON', async () => {

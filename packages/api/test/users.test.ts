@@ -79,6 +79,16 @@ describe('admin account management', () => {
     const entries = response.body.entries as { action: string; actorId: number; ip: string; at: string }[];
     expect(entries.map((e) => e.action)).toEqual(['user.update', 'user.create']);
     expect(entries.every((e) => e.actorId === org.ids.admin && e.ip.length > 0 && !Number.isNaN(Date.parse(e.at)))).toBe(true);
+    // Each entry names its object as a reader does (the account's e-mail), not "user 42".
+    expect(response.body.entries.map((e: { objectLabel: string | null }) => e.objectLabel)).toEqual([account.email, account.email]);
+  });
+
+  it('pages the audit trail: beforeId gives the next older page, none repeated, none skipped', async () => {
+    const all = (await admin.get('/api/audit?limit=500').expect(200)).body.entries as { id: number }[];
+    expect(all.length).toBeGreaterThan(4);
+    const first = (await admin.get('/api/audit?limit=2').expect(200)).body.entries as { id: number }[];
+    const second = (await admin.get(`/api/audit?limit=2&beforeId=${first[1]!.id}`).expect(200)).body.entries as { id: number }[];
+    expect([...first, ...second].map((e) => e.id)).toEqual(all.slice(0, 4).map((e) => e.id));
   });
 
   it('keeps the audit trail append-only even for direct SQL', async () => {

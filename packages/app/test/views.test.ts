@@ -210,9 +210,21 @@ describe('scenario form', () => {
 
 describe('audit filter', () => {
   const rows = auditRows([
-    { id: 1, at: '2026-01-01T10:00:00Z', actorId: 1, actorEmail: 'designer@example.test', action: 'release.cut', objectType: 'release', objectId: '4', ip: '127.0.0.1', detail: { label: 'v1' } },
-    { id: 2, at: '2026-01-01T11:00:00Z', actorId: null, actorEmail: null, action: 'demo.seed', objectType: 'organization', objectId: '1', ip: null, detail: null },
+    { id: 1, at: '2026-01-01T10:00:00Z', actorId: 1, actorEmail: 'designer@example.test', action: 'release.cut', objectType: 'release', objectId: '4', objectLabel: 'Mains sync PI loop v1', ip: '127.0.0.1', detail: { label: 'v1' } },
+    { id: 2, at: '2026-01-01T11:00:00Z', actorId: null, actorEmail: null, action: 'demo.seed', objectType: 'organization', objectId: '1', objectLabel: null, ip: null, detail: null },
+    {
+      id: 3, at: '2026-01-01T12:00:00Z', actorId: 1, actorEmail: 'designer@example.test', action: 'design.update', objectType: 'design', objectId: '7', objectLabel: 'Mains sync PI loop', ip: null,
+      detail: { baseRevision: 4, name: { from: 'Mains', to: 'Mains sync' }, specChanges: [{ field: 'centerHz', from: 50, to: 60 }, { field: 'fixedPoint.coefficientBits', from: 18, to: 17 }] },
+    },
   ]);
+
+  it('names objects as a reader does and writes details in words, spec changes by label with old and new values', () => {
+    expect(rows[0]!.object).toBe('release Mains sync PI loop v1');
+    expect(rows[1]!.object).toBe('organization 1');
+    expect(rows[0]!.detail).toBe('Label: v1');
+    expect(rows[2]!.detail).toBe('Base revision: 4; Name: Mains → Mains sync; NCO centre frequency: 50 → 60; Coefficient width: 18 → 17');
+    expect(rows.map((r) => r.detail).join(' ')).not.toMatch(/[{}"]/);
+  });
 
   it('matches text in actor, object and detail, and the action exactly', () => {
     expect(filterAudit(rows, { text: 'v1', action: '', objectType: '' }).map((r) => r.id)).toEqual([1]);

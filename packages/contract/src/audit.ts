@@ -10,6 +10,8 @@ export const auditEntrySchema = z.object({
   action: z.string(),
   objectType: z.string(),
   objectId: z.string().nullable(),
+  /** The object as a reader names it ("Mains sync PI loop v3", a project's name, an account's e-mail); null when it is gone. */
+  objectLabel: z.string().nullable(),
   ip: z.string().nullable(),
   detail: z.unknown().nullable(),
 });

@@ -69,7 +69,12 @@ export class ConformanceService {
     const fileName = printableFileName(file.originalname);
     // Parsing and comparing megabytes of CSV happens in the compute pool, never on the event loop.
     const outcome = await this.compute.run({ kind: 'conformance', golden: goldenFile.content, capture: file.buffer, scenario: stored.vectors.scenario, ncoAccumulatorBits: spec.nco.accumulatorBits });
-    if (!outcome.ok) throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${fileName.slice(0, 120)}: ${outcome.issues.map((i) => i.message).join('; ')}`);
+    if (!outcome.ok) {
+      const reason = outcome.issues.map((i) => i.message).join('; ');
+      // A refused capture is part of the release's record too: who tried which file, and why it was refused.
+      await this.audit.record(actor, { action: 'release.conformance-rejected', objectType: 'release', objectId: row.id, detail: { fileName: fileName.slice(0, 255), sizeBytes: file.size, reason } });
+      throw invalidInput(CONFORMANCE_UPLOAD_FIELD, `${fileName.slice(0, 120)}: ${reason}`);
+    }
     if (outcome.kind !== 'conformance') throw new Error('compute pool answered a conformance check with another kind');
     const result = outcome.comparison;
     const id = await this.dataSource.transaction(async (manager) => {

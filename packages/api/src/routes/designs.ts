@@ -55,7 +55,7 @@ export const designRoutes = [
     body: designUploadFieldsSchema,
     handler: ({ services, user, params, body, actor, file }): Promise<DesignRecord> => {
       if (!file) throw invalidInput(DESIGN_UPLOAD_FIELD, `attach the spec JSON file in the multipart field "${DESIGN_UPLOAD_FIELD}"`);
-      return services.designs.createFromFile(user.organizationId, params.id, file.buffer.toString('utf8'), body.name, { ...actor, id: user.id });
+      return services.designs.createFromFile(user.organizationId, params.id, file.buffer.toString('utf8'), body.name, { ...actor, id: user.id }, file.originalname);
     },
   }),
   route({

@@ -18,7 +18,7 @@ export interface AuditEvent {
   readonly detail?: unknown;
 }
 
-function toRecord(entry: AuditEntry): AuditEntryRecord {
+function toRecord(entry: AuditEntry, labels: ReadonlyMap<string, string>): AuditEntryRecord {
   return {
     id: Number(entry.id),
     at: entry.at.toISOString(),
@@ -27,6 +27,7 @@ function toRecord(entry: AuditEntry): AuditEntryRecord {
     action: entry.action,
     objectType: entry.objectType,
     objectId: entry.objectId,
+    objectLabel: entry.objectId === null ? null : (labels.get(`${entry.objectType}:${entry.objectId}`) ?? null),
     ip: entry.ip,
     detail: entry.detailJson === null ? null : (JSON.parse(entry.detailJson) as unknown),
   };
@@ -66,6 +67,27 @@ export class AuditService {
     if (query.objectId !== undefined) qb.andWhere('a.objectId = :objectId', { objectId: query.objectId });
     if (query.actorId !== undefined) qb.andWhere('a.actorId = :actorId', { actorId: query.actorId });
     if (query.beforeId !== undefined) qb.andWhere('a.id < :beforeId', { beforeId: query.beforeId });
-    return (await qb.getMany()).map(toRecord);
+    const entries = await qb.getMany();
+    const labels = await this.objectLabels(entries);
+    return entries.map((e) => toRecord(e, labels));
+  }
+
+  /** What each object of a page of entries is called now, keyed "type:id", one query per object type. */
+  private async objectLabels(entries: readonly AuditEntry[]): Promise<Map<string, string>> {
+    const idsOf = (type: string) => [...new Set(entries.filter((e) => e.objectType === type && e.objectId !== null && /^\d+$/.test(e.objectId)).map((e) => Number(e.objectId)))];
+    const queries: Readonly<Record<string, string>> = {
+      design: 'SELECT id, name AS label FROM designs WHERE id IN (?)',
+      project: 'SELECT id, name AS label FROM projects WHERE id IN (?)',
+      user: 'SELECT id, email AS label FROM users WHERE id IN (?)',
+      release: "SELECT r.id AS id, CONCAT(d.name, ' v', r.number) AS label FROM releases r JOIN designs d ON d.id = r.designId WHERE r.id IN (?)",
+    };
+    const labels = new Map<string, string>();
+    for (const [type, sql] of Object.entries(queries)) {
+      const ids = idsOf(type);
+      if (ids.length === 0) continue;
+      const rows: { id: number | string; label: string }[] = await this.dataSource.query(sql, [ids]);
+      for (const row of rows) labels.set(`${type}:${row.id}`, row.label);
+    }
+    return labels;
   }
 }

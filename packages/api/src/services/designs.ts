@@ -7,6 +7,7 @@ import { AppError, conflict, invalidInput, issuesError, notFound, staleRevision 
 import type { AuditActor, AuditService } from './audit.ts';
 import type { ProjectService } from './projects.ts';
 import { blankSpec, findTemplate } from './templates.ts';
+import { specFieldChanges } from './specChanges.ts';
 
 /**
  * Says why a design may not be deleted (e.g. "it has releases"), or null. The release module registers
@@ -143,16 +144,25 @@ export class DesignService {
     throw issuesError(parsed.issues, fieldPrefix);
   }
 
-  async createFromFile(organizationId: number, projectId: number, fileText: string, title: string | undefined, actor: Actor): Promise<DesignRecord> {
+  async createFromFile(organizationId: number, projectId: number, fileText: string, title: string | undefined, actor: Actor, fileName = ''): Promise<DesignRecord> {
     await this.assertWritableProject(organizationId, projectId);
-    let json: unknown;
+    let spec: LoopSpec;
     try {
-      // A byte-order mark is not part of the JSON (RFC 8259 §8.1 lets a parser ignore it); editors add one.
-      json = JSON.parse(fileText.replace(/^\uFEFF/, ''));
+      let json: unknown;
+      try {
+        // A byte-order mark is not part of the JSON (RFC 8259 §8.1 lets a parser ignore it); editors add one.
+        json = JSON.parse(fileText.replace(/^\uFEFF/, ''));
+      } catch (err) {
+        throw invalidInput('file', `the file is not valid JSON: ${(err as Error).message}`);
+      }
+      spec = this.validSpec(json, 'file');
     } catch (err) {
-      throw invalidInput('file', `the file is not valid JSON: ${(err as Error).message}`);
+      // A refused upload is part of the record too: who tried which file, and why it was refused.
+      if (err instanceof AppError) {
+        await this.audit.record(actor, { action: 'design.upload-rejected', objectType: 'project', objectId: projectId, detail: { fileName: fileName.slice(0, 255), sizeBytes: Buffer.byteLength(fileText), field: err.field ?? null, reason: err.message } });
+      }
+      throw err;
     }
-    const spec = this.validSpec(json, 'file');
     const name = title ?? spec.name;
     const id = await this.insert(projectId, name, spec, actor, 'design.upload', { projectId, name });
     return this.get(organizationId, id);
@@ -174,7 +184,13 @@ export class DesignService {
         .where('id = :id AND revision = :baseRevision', { id, baseRevision: request.baseRevision })
         .execute();
       if (result.affected !== 1) return false;
-      await this.audit.record(actor, { action: 'design.update', objectType: 'design', objectId: id, detail: { baseRevision: request.baseRevision, fields: Object.keys(changes) } }, manager);
+      // Which spec fields changed, each with its old and new value (and the name, if renamed).
+      const detail = {
+        baseRevision: request.baseRevision,
+        ...(changes.name !== undefined && changes.name !== before.name ? { name: { from: before.name, to: changes.name } } : {}),
+        ...(request.spec !== undefined ? { specChanges: specFieldChanges(before.spec, request.spec) } : {}),
+      };
+      await this.audit.record(actor, { action: 'design.update', objectType: 'design', objectId: id, detail }, manager);
       return true;
     });
     const current = await this.get(organizationId, id);

@@ -183,6 +183,10 @@ describe('hand-off flow', () => {
     expect(tooBig.body.error.code).toBe('payload_too_large');
     const runs = await h.designer.get(`/api/releases/${releaseId}/conformance`).expect(200);
     expect(runs.body.runs).toHaveLength(2);
+    // The refused capture stays in the release's record: who tried which file, and why.
+    const refused = (await h.dataSource.query("SELECT actorEmail, detailJson FROM audit_entries WHERE action = 'release.conformance-rejected' AND objectType = 'release' AND objectId = ?", [String(releaseId)])) as { actorEmail: string; detailJson: string }[];
+    expect(refused).toHaveLength(1);
+    expect(JSON.parse(refused[0]!.detailJson)).toMatchObject({ fileName: 'x.csv', reason: expect.stringContaining('line 5') });
   });
 
   it('has no way to change a release: no update route, and the database refuses', async () => {

@@ -25,8 +25,13 @@ export function labelOf(field: string): { label: string; unit: string } {
   if (def) return { label: def.label, unit: def.unit };
   const last = field.split('.').pop() ?? field;
   if (last in REQUEST_LABELS) return { label: REQUEST_LABELS[last]!, unit: '' };
-  const words = last.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
-  return { label: words.charAt(0).toUpperCase() + words.slice(1), unit: '' };
+  return { label: humanise(last), unit: '' };
+}
+
+/** "baseRevision" → "Base revision": a record's key in words. */
+export function humanise(key: string): string {
+  const words = key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
+  return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
 /** Capital first letter, full stop at the end (unless it ends in one already). */

@@ -3,6 +3,9 @@ import { ref } from 'vue';
 import { auditApi, usersApi } from '../api/adminApi.ts';
 import type { AuditEntry, AuditQuery, CreateUserRequest, UpdateUserRequest, UserAccount } from '../api/types.ts';
 
+/** Entries per page of the audit view (the API allows up to 500). */
+export const AUDIT_PAGE = 200;
+
 export const useAdminStore = defineStore('admin', () => {
   const users = ref<UserAccount[]>([]);
   const audit = ref<AuditEntry[]>([]);
@@ -22,16 +25,33 @@ export const useAdminStore = defineStore('admin', () => {
     }
   }
 
-  async function loadAudit(query: AuditQuery = {}): Promise<void> {
+  /** True while the last page came back full: older entries may follow. */
+  const auditHasMore = ref(false);
+
+  async function fetchAudit(query: AuditQuery, append: boolean): Promise<void> {
     loadingAudit.value = true;
     error.value = null;
     try {
-      audit.value = await auditApi.list({ limit: 500, ...query });
+      const page = await auditApi.list({ limit: AUDIT_PAGE, ...query });
+      audit.value = append ? [...audit.value, ...page] : page;
+      auditHasMore.value = page.length === (query.limit ?? AUDIT_PAGE);
     } catch (cause) {
       error.value = cause;
     } finally {
       loadingAudit.value = false;
     }
+  }
+
+  /** The newest page of the audit trail. */
+  async function loadAudit(query: AuditQuery = {}): Promise<void> {
+    await fetchAudit(query, false);
+  }
+
+  /** The next older page, after the oldest entry shown (the API pages by beforeId). */
+  async function loadOlderAudit(): Promise<void> {
+    const oldest = audit.value.at(-1);
+    if (!oldest) return loadAudit();
+    await fetchAudit({ beforeId: oldest.id }, true);
   }
 
   async function createUser(request: CreateUserRequest): Promise<UserAccount> {
@@ -47,5 +67,5 @@ export const useAdminStore = defineStore('admin', () => {
     return user;
   }
 
-  return { users, audit, loadingUsers, loadingAudit, error, loadUsers, loadAudit, createUser, updateUser };
+  return { users, audit, auditHasMore, loadingUsers, loadingAudit, error, loadUsers, loadAudit, loadOlderAudit, createUser, updateUser };
 });
