@@ -7,6 +7,7 @@ export { loopGain, ncoFundamentalAmplitude } from './analysis/loopGain.ts';
 export { datapathFigures } from './analysis/datapath.ts';
 export { datapathNoise } from './analysis/datapathNoise.ts';
 export { roundoffStatistics } from './fixed/roundoffStatistics.ts';
+export { fixedPointReach, scenarioReachWarning } from './analysis/fixedPointReach.ts';
 export { piFromTargets, lagLeadFromTargets } from './filters/timeConstants.ts';
 export { FieldError } from './fixed/fieldError.ts';
 export { roundShift, roundReal, applyOverflow, wordRange } from './fixed/rounding.ts';

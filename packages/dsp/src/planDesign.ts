@@ -23,6 +23,7 @@ import { quantizeSections } from './fixed/quantizeSections.ts';
 import { ncoSummary, type NcoSummary } from './analysis/ncoSummary.ts';
 import type { QuantizationOutcome } from './analysis/quantizedLoop.ts';
 import { analyzeParts, type AnalysisResult, type AnalyzeOptions } from './analysis/analyzeDesign.ts';
+import { scenarioReachWarning } from './analysis/fixedPointReach.ts';
 import { planBitTrue } from './sim/bitTruePlan.ts';
 import { simulateLoop, simulateLoopAsync, type SimLoop } from './sim/simulate.ts';
 import { goldenVectorsOf, releaseGoldenVectors, type GoldenVectors } from './vectors/goldenVectors.ts';
@@ -120,12 +121,18 @@ function loopOf(plan: DesignPlan): SimLoop {
 
 /** Simulate a planned design under a scenario: float and/or bit-true loop on the same input. */
 export function simulatePlan(plan: DesignPlan, scenario: Scenario, options: SimOptions = {}): SimResult {
-  return simulateLoop(loopOf(plan), scenario, options);
+  return withReachWarning(plan, scenario, simulateLoop(loopOf(plan), scenario, options));
+}
+
+/** The result with the warning of a scenario beyond what the fixed-point loop can hold (none: as it came). */
+function withReachWarning(plan: DesignPlan, scenario: Scenario, result: SimResult): SimResult {
+  const warning = scenarioReachWarning(plan.analysis.fixedPointReach, scenario);
+  return { ...result, warnings: warning ? [warning] : [] };
 }
 
 /** As simulatePlan, yielding to the event loop between chunks (a worker can receive a cancel). */
-export function simulatePlanAsync(plan: DesignPlan, scenario: Scenario, options: SimOptions = {}): Promise<SimResult> {
-  return simulateLoopAsync(loopOf(plan), scenario, options);
+export async function simulatePlanAsync(plan: DesignPlan, scenario: Scenario, options: SimOptions = {}): Promise<SimResult> {
+  return withReachWarning(plan, scenario, await simulateLoopAsync(loopOf(plan), scenario, options));
 }
 
 // Conveniences for a spec held as a plain object (examples and tests): validate, plan, read one part.

@@ -182,7 +182,8 @@ export function rangeFigures(a: AnalysisNumbers): FigureRow[] {
   const ss = a.steadyState;
   return [
     { label: 'Lock-in range', value: fmtHz(e.lockInHz), note: 'estimate' },
-    { label: 'Hold-in range', value: e.holdInHz === null ? 'unbounded' : fmtHz(e.holdInHz), note: 'estimate' },
+    { label: 'Hold-in range', value: e.holdInHz === null ? 'unbounded (ideal PI)' : fmtHz(e.holdInHz), note: 'estimate, K·F(0) of the float loop' },
+    ...reachFigures(a),
     { label: 'Pull-out range', value: fmtHz(e.pullOutHz), note: 'estimate' },
     {
       label: 'Pull-in time per Hz²',
@@ -194,6 +195,23 @@ export function rangeFigures(a: AnalysisNumbers): FigureRow[] {
       label: 'Error during frequency ramp',
       value: ss.frequencyRampRadPerHzPerS === null ? 'unbounded' : `${fmtSig(ss.frequencyRampRadPerHzPerS, 4)} rad per Hz/s`,
     },
+  ];
+}
+
+/**
+ * What the fixed-point loop can reach (dsp analysis/fixedPointReach.ts): the hold-in it can actually
+ * keep and the NCO frequencies that leaves. A release cut before this figure existed has none.
+ */
+function reachFigures(a: AnalysisNumbers): FigureRow[] {
+  const r = (a as { fixedPointReach?: AnalysisNumbers['fixedPointReach'] }).fixedPointReach ?? null;
+  if (!r) return [];
+  const why =
+    r.limitedBy === 'loop-gain'
+      ? 'K·F(0), inside the NCO control range'
+      : `NCO control range (${r.rangeField})${r.limitingSection === null ? '' : `, less the ripple headroom of section ${r.limitingSection + 1}`}`;
+  return [
+    { label: 'Hold-in, fixed point', value: `±${fmtHz(r.holdInHz)}`, note: `set by the ${why}` },
+    { label: 'NCO reach, fixed point', value: `${fmtHz(r.lowestHz)} … ${fmtHz(r.highestHz)}`, note: 'the frequencies a locked bit-true loop can hold its NCO at' },
   ];
 }
 

@@ -31,6 +31,7 @@ import type { NcoSummary } from './ncoSummary.ts';
 import { type QuantizationOutcome, type QuantizationSummary, quantizedLoop } from './quantizedLoop.ts';
 import { type AnalysisVerdict, analysisVerdict, analysisWarnings } from './verdict.ts';
 import { referenceRtlWarnings } from '../rtl/referenceTiming.ts';
+import { type FixedPointReach, fixedPointReach, reachWarnings } from './fixedPointReach.ts';
 
 export interface AnalyzeOptions {
   /** Phase margin the verdict asks for (default 45°, common practice, no source). */
@@ -73,6 +74,8 @@ export interface AnalysisResult {
   /** Natural frequency/damping of the second-order loop and the phase margin the Og5 formula gives. */
   readonly secondOrder: { readonly naturalHz: number; readonly damping: number; readonly phaseMarginFormulaDeg: number } | null;
   readonly estimates: AcquisitionEstimates;
+  /** How far the fixed-point loop can move its NCO and the offset it can hold (null when quantisation failed). */
+  readonly fixedPointReach: FixedPointReach | null;
   readonly ripple: RippleFigures;
   readonly steadyState: SteadyStateErrors;
   readonly stepResponses: StepResponses;
@@ -135,6 +138,8 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
   const durationS = 3 / (crossoverHz * dampingForSpan);
   const nco = parts.nco;
   const verdict = analysisVerdict(discrete, quantization.summary, nco, analogStable, minPm, minGm);
+  const estimates = acquisitionEstimates(second, k, dcGain);
+  const reach = fixedPointReach({ spec, sections: design.sections, kd: gain.kd, datapath: quantization.summary.datapath, tunedCenterHz: nco.tuning.actualHz, estimates });
   return {
     specName: spec.name,
     loopGain: gain,
@@ -148,14 +153,15 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
     secondOrder: second
       ? { naturalHz: second.naturalHz, damping: second.damping, phaseMarginFormulaDeg: phaseMarginFromDampingDeg(second.damping) }
       : null,
-    estimates: acquisitionEstimates(second, k, dcGain),
+    estimates,
+    fixedPointReach: reach,
     ripple: rippleFigures(spec, design, gain),
     steadyState: steadyStateErrors(loopType, k, dcGain, spec.filter.kind === 'pi' ? (design.tau?.tau1S ?? null) : null),
     stepResponses: stepResponses(design.sections, analogPolys.e, k, fs, durationS),
     quantization: quantization.summary,
     nco,
     verdict,
-    warnings: [...specWarnings, ...analysisWarnings(spec, discrete, analogMargins), ...referenceRtlWarnings(spec, design.sections.length)],
+    warnings: [...specWarnings, ...analysisWarnings(spec, discrete, analogMargins), ...referenceRtlWarnings(spec, design.sections.length), ...reachWarnings(reach, estimates)],
   };
 }
 

@@ -24,6 +24,7 @@ export interface JsonSimResult {
   readonly durationS: number;
   readonly float?: JsonSimRun;
   readonly bitTrue?: JsonSimRun;
+  readonly warnings?: SimResult['warnings'];
 }
 
 const finite = (v: number): number | null => (Number.isFinite(v) ? v : null);
@@ -51,5 +52,6 @@ export function simResultToJson(r: SimResult): JsonSimResult {
     durationS: r.durationS,
     ...(r.float ? { float: run(r.float) } : {}),
     ...(r.bitTrue ? { bitTrue: run(r.bitTrue, r.bitTrue.checksum) } : {}),
+    ...(r.warnings ? { warnings: r.warnings } : {}),
   };
 }

@@ -19,6 +19,7 @@ export type { RippleFigures } from '../analysis/ripple.ts';
 export type { DatapathFigures } from '../analysis/datapath.ts';
 export type { DatapathNoise, DatapathNoiseInput, RoundoffPoint, RoundoffPointKind, SectionScaling } from '../analysis/datapathNoise.ts';
 export type { RoundoffStatistics } from '../fixed/roundoffStatistics.ts';
+export type { FixedPointReach } from '../analysis/fixedPointReach.ts';
 export type { DesignPlan, PlanOptions, PlanDesignResult } from '../planDesign.ts';
 
 export interface AcquisitionEstimates {

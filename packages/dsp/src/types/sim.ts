@@ -1,6 +1,7 @@
 /** Simulation types (src/sim, src/vectors, src/analysis/acquisitionSim.ts). */
 import type { NcoControlScaling, NcoTuning } from './nco.ts';
 import type { OverflowMode, RoundingMode } from './fixed.ts';
+import type { SpecWarning } from '../spec/schema.ts';
 
 export type { Scenario, ScenarioKind, ScenarioIssue, ParseScenarioResult } from '../spec/scenario.ts';
 
@@ -147,6 +148,8 @@ export interface SimResult {
   readonly float?: SimRun;
   readonly bitTrue?: BitTrueRun;
   readonly plan?: BitTruePlan;
+  /** What the scenario asks beyond the planned loop's reach (simulatePlan: analysis/fixedPointReach.ts), naming the scenario field. */
+  readonly warnings?: readonly SpecWarning[];
 }
 
 /** Something with an `aborted` flag, like AbortSignal; checked once per chunk. */
