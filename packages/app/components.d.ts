@@ -17,6 +17,7 @@ declare module 'vue' {
     BodeOverlay: typeof import('./src/components/BodeOverlay.vue')['default']
     BodePanel: typeof import('./src/components/BodePanel.vue')['default']
     ConflictDialog: typeof import('./src/components/ConflictDialog.vue')['default']
+    DatapathNoiseReport: typeof import('./src/components/DatapathNoiseReport.vue')['default']
     ElAlert: typeof import('element-plus/es')['ElAlert']
     ElButton: typeof import('element-plus/es')['ElButton']
     ElCheckbox: typeof import('element-plus/es')['ElCheckbox']

@@ -3,7 +3,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import type { LoopSpec, WordLengthResult } from '@loopwright/dsp';
 import { CHART_COLORS, chartAnimation } from '../charts/echarts.ts';
 import { fieldAt } from '../form/specFields.ts';
-import { siTick } from '../lib/format.ts';
+import { fmtFixed, fmtSig, siTick } from '../lib/format.ts';
 
 const finiteOrNull = (v: number | null): number | null => (v !== null && Number.isFinite(v) ? v : null);
 
@@ -97,7 +97,7 @@ export function coefficientCurveOption(r: WordLengthResult): EChartsCoreOption {
   };
 }
 
-/** Steady-state phase error and jitter of the bit-true loop against data width. */
+/** Steady-state phase error and jitter of the bit-true loop against data width, with the predicted roundoff SNR on the right. */
 export function dataCurveOption(r: WordLengthResult): EChartsCoreOption | null {
   const d = r.data;
   if (!d) return null;
@@ -107,9 +107,13 @@ export function dataCurveOption(r: WordLengthResult): EChartsCoreOption | null {
     tooltip: { trigger: 'axis' },
     // The legend sits at the bottom, so the marker's label above the grid has the top band to itself.
     legend: { bottom: 0 },
-    grid: { left: 64, right: 20, top: 30, bottom: 64 },
+    grid: { left: 64, right: 64, top: 30, bottom: 64 },
     xAxis: widthAxis(x, 0, 'Data width (bits)', true),
-    yAxis: { type: 'value', name: 'Phase error (°)', nameLocation: 'middle', nameGap: 44, scale: true },
+    yAxis: [
+      { type: 'value', name: 'Phase error (°)', nameLocation: 'middle', nameGap: 44, scale: true },
+      // The noise model's prediction at each width (no simulation): 6 dB more per bit.
+      { type: 'value', name: 'Roundoff SNR (dB)', nameLocation: 'middle', nameGap: 44, scale: true, position: 'right', splitLine: { show: false } },
+    ],
     series: [
       {
         type: 'line',
@@ -119,6 +123,14 @@ export function dataCurveOption(r: WordLengthResult): EChartsCoreOption | null {
         markLine: { symbol: 'none', silent: true, data: cheapestMark(d.minBits, true) },
       },
       { type: 'line', name: 'Jitter (RMS)', data: d.curve.map((p) => [p.dataBits, p.phaseJitterDeg]), color: CHART_COLORS.analog },
+      {
+        type: 'line',
+        name: 'Predicted roundoff SNR',
+        yAxisIndex: 1,
+        lineStyle: { type: 'dashed' },
+        data: d.curve.map((p) => [p.dataBits, finiteOrNull(p.predictedSnrDb)]),
+        color: CHART_COLORS.reference,
+      },
     ],
   };
 }
@@ -157,6 +169,14 @@ export interface WidthVerdictRow {
   readonly width: string;
   readonly result: 'passes' | 'fails';
   readonly reason: string;
+  /** Predicted roundoff SNR and jitter at a data width ('' for coefficient widths). */
+  readonly snr: string;
+}
+
+/** "74.5 dB, 0.018° RMS": the noise model's SNR and jitter at a data width. */
+function predictedNoiseText(p: { readonly predictedSnrDb: number | null; readonly predictedPhaseJitterDeg: number | null }): string {
+  if (p.predictedSnrDb === null || p.predictedPhaseJitterDeg === null) return 'loop does not settle';
+  return `${fmtFixed(p.predictedSnrDb, 1, 'dB')}, ${fmtSig(p.predictedPhaseJitterDeg, 2)}° RMS`;
 }
 
 /** A reason list as one sentence: "Unstable; phase margin off by 3.10° …" with a capital and a full stop. */
@@ -176,6 +196,7 @@ export function widthVerdictRows(r: WordLengthResult): WidthVerdictRow[] {
     width: (p: P) => number,
     kind: string,
     minBits: number | null,
+    snr: (p: P) => string = () => '',
   ): WidthVerdictRow[] =>
     curve.map((p) => {
       const bits = width(p);
@@ -185,10 +206,10 @@ export function widthVerdictRows(r: WordLengthResult): WidthVerdictRow[] {
         : widerFail === undefined
           ? 'Meets every criterion.'
           : `Meets every criterion, but ${widerFail} bits fails, so the search does not take a width below ${widerFail + 1} bits.`;
-      return { key: `${kind}${bits}`, width: `${kind} ${bits} bits`, result: p.passes ? 'passes' : 'fails', reason };
+      return { key: `${kind}${bits}`, width: `${kind} ${bits} bits`, result: p.passes ? 'passes' : 'fails', reason, snr: snr(p) };
     });
   return [
     ...rows(r.coefficients.curve, (p) => p.coefficientBits, 'Coefficients', r.coefficients.minBits),
-    ...rows(r.data?.curve ?? [], (p) => p.dataBits, 'Data', r.data?.minBits ?? null),
+    ...rows(r.data?.curve ?? [], (p) => p.dataBits, 'Data', r.data?.minBits ?? null, predictedNoiseText),
   ];
 }
