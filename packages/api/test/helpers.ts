@@ -66,6 +66,8 @@ export interface TestOrg {
   /** One account per role plus a "multi" account holding designer and reviewer. */
   emails: Record<Role | 'multi', string>;
   ids: Record<Role | 'multi', number>;
+  /** Display names, as mails and pages show them. */
+  names: Record<Role | 'multi', string>;
 }
 
 /** A fresh organisation with its own accounts, so test files never see each other's data. */
@@ -75,14 +77,16 @@ export async function createTestOrg(dataSource: DataSource): Promise<TestOrg> {
   const passwordHash = bcrypt.hashSync(PASSWORD, 4);
   const emails = {} as TestOrg['emails'];
   const ids = {} as TestOrg['ids'];
+  const names = {} as TestOrg['names'];
   const accounts: [Role | 'multi', Role[]][] = [...ROLES.map((role): [Role, Role[]] => [role, [role]]), ['multi', ['designer', 'reviewer']]];
   for (const [key, roles] of accounts) {
     const email = `${key}-${tag}@example.test`;
     const user = await dataSource.getRepository(User).save({ organizationId: org.id, email, displayName: `${key} ${tag}`, passwordHash, roles, disabled: false });
     emails[key] = email;
     ids[key] = user.id;
+    names[key] = user.displayName;
   }
-  return { organizationId: org.id, emails, ids };
+  return { organizationId: org.id, emails, ids, names };
 }
 
 export type Agent = ReturnType<typeof request.agent>;

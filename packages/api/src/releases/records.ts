@@ -17,6 +17,7 @@ export interface ReleaseRow {
   stateChangedAt: Date | string;
   designName: string;
   projectId: number;
+  projectName: string;
   organizationId: number;
   specJson?: string;
   resultsJson?: string;

@@ -22,6 +22,7 @@ function releaseQuery(manager: EntityManager, withContent: boolean) {
       'r.stateChangedAt AS stateChangedAt',
       'd.name AS designName',
       'd.projectId AS projectId',
+      'p.name AS projectName',
       'p.organizationId AS organizationId',
     ])
     .from(Release, 'r')

@@ -17,7 +17,7 @@ import type { MailMessage, MailOutbox } from '../mail/outbox.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { ReleaseRecord, ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView, ReviewRequest } from '@loopwright/contract';
 import { ReleaseReview } from './entities/index.ts';
-import { releaseApprovedMail, reviewRequestMail } from './mails.ts';
+import { releaseApprovedMail, reviewDecidedMail, reviewRequestMail, type MailedRelease } from './mails.ts';
 import { releaseLabel, type ReleaseRow } from './records.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
 import { findRelease, releaseStateTransaction } from './repository.ts';
@@ -107,8 +107,14 @@ export class ReviewService {
     return `${this.config.publicUrl}/review/${token}`;
   }
 
-  releaseUrl(id: number): string {
-    return `${this.config.publicUrl}/releases/${id}`;
+  /** The designer's page of a release: the design's releases with this one opened. */
+  releaseUrl(designId: number, id: number): string {
+    return `${this.config.publicUrl}/designs/${designId}/releases?release=${id}`;
+  }
+
+  /** The firmware engineer's page of an approved release: Downloads with this one opened. */
+  downloadsUrl(id: number): string {
+    return `${this.config.publicUrl}/downloads?release=${id}`;
   }
 
   async requestReview(organizationId: number, releaseId: number, request: ReviewRequest, actor: Actor): Promise<ReleaseRecord> {
@@ -122,7 +128,7 @@ export class ReviewService {
       await this.releases.applyEvent(manager, row, 'request-review', { approvalsRequired: request.approvalsRequired });
       // The name as the account holds it now, not as the requester's session cached it.
       const requester = await manager.findOne(User, { where: { id: actor.id }, select: { displayName: true } });
-      const specName = (JSON.parse(row.specJson ?? '{}') as { name: string }).name;
+      const about = mailedRelease(row);
       const expiresAt = new Date(Date.now() + this.config.reviewLinkTtlS * 1000);
       const verification = await this.releases.verification.recordFor(manager, row.id);
       const mailIds: string[] = [];
@@ -133,8 +139,7 @@ export class ReviewService {
             to: reviewer.email,
             reviewerName: reviewer.displayName,
             requesterName: requester?.displayName ?? '',
-            specName,
-            label: releaseLabel(Number(row.number)),
+            ...about,
             link: this.reviewUrl(issued.token),
             expiresAt,
             approvalsRequired: request.approvalsRequired,
@@ -334,6 +339,7 @@ export class ReviewService {
       state = await this.releases.applyEvent(manager, release, 'approve');
       mails = await this.approvedMails(manager, organizationId, release);
     }
+    mails.push(...(await this.decidedMails(manager, link, release, body, standing(state, Number(approvals), required))));
     const actor: AuditActor = { id: Number(link.reviewerId), email: link.reviewerEmail, ip };
     await this.audit.record(actor, { action: `review.${body.decision}`, objectType: 'release', objectId: release.id, detail: { reviewId: link.id, state, approvals: Number(approvals), required, via } }, manager);
     const mailIds = await this.outbox.enqueue(manager, mails);
@@ -345,15 +351,35 @@ export class ReviewService {
       "SELECT `email`, `displayName` FROM `users` WHERE `organizationId` = ? AND `disabled` = 0 AND FIND_IN_SET('firmware', `roles`) > 0 ORDER BY `id`",
       [organizationId],
     )) as FirmwareRecipient[];
-    const specName = (JSON.parse(release.specJson ?? '{}') as { name: string }).name;
+    const about = mailedRelease(release);
     return recipients.map((r) =>
       releaseApprovedMail({
         to: r.email,
         name: r.displayName,
-        specName,
-        label: releaseLabel(Number(release.number)),
-        releaseUrl: this.releaseUrl(release.id),
+        ...about,
+        downloadsUrl: this.downloadsUrl(release.id),
         manifestSha256: release.manifestSha256,
+      }),
+    );
+  }
+
+  /** To whoever asked for this review and whoever cut the release (enabled accounts, once each). */
+  private async decidedMails(manager: EntityManager, link: LinkRow, release: ReleaseRow, body: ReviewDecisionRequest, standingText: string): Promise<MailMessage[]> {
+    const recipients = (await manager.query(
+      'SELECT DISTINCT u.`email`, u.`displayName` FROM `users` u WHERE u.`disabled` = 0 AND u.`id` <> ? AND (u.`id` = ? OR u.`id` IN (SELECT `requestedById` FROM `release_reviews` WHERE `id` = ?)) ORDER BY u.`id`',
+      [Number(link.reviewerId), Number(release.createdById), Number(link.id)],
+    )) as FirmwareRecipient[];
+    const about = mailedRelease(release);
+    return recipients.map((r) =>
+      reviewDecidedMail({
+        to: r.email,
+        name: r.displayName,
+        ...about,
+        reviewerName: link.reviewerName,
+        decision: body.decision,
+        comment: body.comment ?? null,
+        standing: standingText,
+        releaseUrl: this.releaseUrl(Number(release.designId), Number(release.id)),
       }),
     );
   }
@@ -375,4 +401,17 @@ function foreignTo(link: LinkRow, organizationId: number, detail: string): Revie
   const err = new ReviewLinkRefused('foreign', detail);
   err.context = { organizationId, releaseId: Number(link.releaseId), reviewerId: Number(link.reviewerId) };
   return err;
+}
+
+/** Project, design and release of a row with its spec, as the mails name them. */
+function mailedRelease(row: ReleaseRow): MailedRelease {
+  const specName = (JSON.parse(row.specJson ?? '{}') as { name?: string }).name ?? '';
+  return { projectName: row.projectName, designName: row.designName, specName, label: releaseLabel(Number(row.number)) };
+}
+
+/** Where a release stands after a decision, in the words of the designer's mail. */
+function standing(state: ReleaseState, approvals: number, required: number): string {
+  if (state === 'approved') return 'approved';
+  if (state === 'changes-requested') return 'marked changes requested';
+  return `in review, ${approvals} of ${required} approval(s)`;
 }

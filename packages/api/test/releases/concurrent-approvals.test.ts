@@ -58,7 +58,7 @@ async function trial(count: number): Promise<void> {
   const release = await h.designer.get(`/api/releases/${id}`).expect(200);
   expect(release.body.state).toBe('approved');
   expect(release.body.approvals).toBe(count);
-  const subject = `Release approved: ${release.body.spec.name} ${label}`;
+  const subject = `Release approved: Hand-off ultrasonic-single-pole / ${release.body.designName} ${label}`;
   const queued = (await h.dataSource.query('SELECT COUNT(*) AS n FROM `mail_outbox` WHERE `subject` = ? AND `toAddress` = ?', [subject, h.org.emails.firmware])) as { n: string | number }[];
   expect(Number(queued[0]?.n)).toBe(1);
   await h.smtp.waitFor(firmwareMailsBefore + 1);

@@ -12,7 +12,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../src/render/caution.ts';
 import { csrf, signedInAgent, type Agent } from '../helpers.ts';
-import { binary, designFromTemplate, linkToken, startHandoff, type Handoff } from './handoff.ts';
+import { binary, designFromTemplate, linkToken, PUBLIC_URL, startHandoff, type Handoff } from './handoff.ts';
 
 const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest('hex');
 
@@ -74,7 +74,9 @@ describe('hand-off flow', () => {
     const mails = await h.smtp.waitFor(2);
     expect(mails.map((m) => m.to[0]).sort()).toEqual([h.org.emails.reviewer, h.org.emails.multi].sort());
     for (const m of mails) {
-      expect(m.subject).toBe('Review requested: mains_sync_50hz v1');
+      // Project, design and release by the names people gave them; several designs may share an identifier.
+      expect(m.subject).toBe('Review requested: Hand-off mains-sync / Design mains-sync v1');
+      expect(m.text).toContain('Project Hand-off mains-sync, design Design mains-sync (identifier mains_sync_50hz), release v1.');
       expect(m.text).toContain(manifestSha256);
       expect(m.text).toContain('Verify these numbers in simulation and on the bench');
     }
@@ -100,10 +102,23 @@ describe('hand-off flow', () => {
   });
 
   it('e-mails the firmware engineers of the organisation when approved', async () => {
-    const mails = await h.smtp.waitFor(3);
-    const approved = mails.filter((m) => m.subject === 'Release approved: mains_sync_50hz v1');
+    const mails = await h.smtp.waitFor(5);
+    const approved = mails.filter((m) => m.subject === 'Release approved: Hand-off mains-sync / Design mains-sync v1');
     expect(approved.map((m) => m.to[0])).toEqual([h.org.emails.firmware]);
-    expect(approved[0]!.text).toContain(`/releases/${releaseId}`);
+    // The firmware engineer's page of the release (the browser test follows it: tests/e2e/mail-links).
+    expect(approved[0]!.text).toContain(`${PUBLIC_URL}/downloads?release=${releaseId}\n`);
+  });
+
+  it('tells the designer of each decision, with the release page to open', async () => {
+    const decided = h.smtp.mails.filter((m) => m.to.includes(h.org.emails.designer));
+    expect(decided.map((m) => m.subject)).toEqual([
+      `Approved by ${h.org.names.reviewer}: Hand-off mains-sync / Design mains-sync v1`,
+      `Approved by ${h.org.names.multi}: Hand-off mains-sync / Design mains-sync v1`,
+    ]);
+    expect(decided[0]!.text).toContain('The release is now in review, 1 of 2 approval(s).');
+    expect(decided[0]!.text).toContain('Comment:\nmargins fine');
+    expect(decided[1]!.text).toContain('The release is now approved.');
+    for (const m of decided) expect(m.text).toContain(`${PUBLIC_URL}/designs/${designId}/releases?release=${releaseId}\n`);
   });
 
   it('offers the approved release to firmware on the Downloads list', async () => {
