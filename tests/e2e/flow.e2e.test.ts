@@ -80,7 +80,7 @@ describe('Loopwright in the browser', () => {
 
     const expected: Record<string, { nav: string[]; home: string }> = {
       'designer@example.test': { nav: ['Projects', 'Downloads', 'Conformance'], home: '/projects' },
-      'reviewer@example.test': { nav: ['Projects', 'Downloads'], home: '/projects' },
+      'reviewer@example.test': { nav: ['Projects', 'My reviews', 'Downloads'], home: '/projects' },
       'firmware@example.test': { nav: ['Downloads', 'Conformance'], home: '/downloads' },
       'admin@example.test': { nav: ['Projects', 'Admin'], home: '/admin' },
     };
@@ -568,7 +568,7 @@ describe('Loopwright in the browser', () => {
     const robin = reviewers.body.reviewers.find((r) => r.email === 'reviewer@example.test')!;
     const asked = await api(baseUrl, `/api/releases/${v1.id}/reviews`, { cookie: designer.cookie, json: { reviewerIds: [robin.id], approvalsRequired: 1 } });
     expect(asked.status).toBe(200);
-    const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: if_fm_demod_10m7 v1');
+    const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: IF FM demodulator / FM demodulator loop v1');
     const token = /\/review\/([^\s"'<>]+)/.exec(mail.text)![1]!;
     const read = await api(baseUrl, `/api/review-links/${token}`);
     expect(read.status).toBe(200);

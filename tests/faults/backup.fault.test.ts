@@ -65,7 +65,7 @@ async function makeRecord(): Promise<void> {
   const reviewers = await api<{ reviewers: { id: number; email: string }[] }>(stack.baseUrl, '/api/reviewers', { cookie: designer });
   const reviewerId = reviewers.body.reviewers.find((r) => r.email === 'reviewer@example.test')!.id;
   expect((await api(stack.baseUrl, `/api/releases/${v1.body.id}/reviews`, { cookie: designer, json: { reviewerIds: [reviewerId], approvalsRequired: 1 } })).status).toBe(200);
-  const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: mains_sync_50hz v1');
+  const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: Inverter mains sync / Mains sync PI loop v1');
   const token = /\/review\/([^\s"'<>]+)/.exec(mail.text)![1]!;
   // Approval waits for the server's verification of the release's reference RTL.
   expect((await waitForVerdict(stack.baseUrl, designer, v1.body.id)).verdict).toBe('passed');

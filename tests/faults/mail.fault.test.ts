@@ -44,7 +44,7 @@ async function reviewMail(releaseId: number): Promise<ReviewMail> {
 
 describe('the SMTP relay down when a review is requested', () => {
   it('records the review, keeps the mail waiting (the release says so), and delivers it exactly once when the relay is back', async () => {
-    const subject = 'Review requested: if_fm_demod_10m7 v1';
+    const subject = 'Review requested: IF FM demodulator / FM demodulator loop v1';
     const designId = await designIdOf(stack.baseUrl, cookie, 'FM demodulator loop');
     const cut = await api<{ id: number }>(stack.baseUrl, `/api/designs/${designId}/releases`, { method: 'POST', cookie });
     expect(cut.status).toBe(201);

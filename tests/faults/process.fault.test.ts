@@ -121,7 +121,7 @@ describe('an API process killed', () => {
     const reviewers = await api<{ reviewers: { id: number; email: string }[] }>(stack.baseUrl, '/api/reviewers', { cookie });
     const reviewerId = reviewers.body.reviewers.find((r) => r.email === 'reviewer@example.test')!.id;
     expect((await api(stack.baseUrl, `/api/releases/${cut.body.id}/reviews`, { cookie, json: { reviewerIds: [reviewerId], approvalsRequired: 1 } })).status).toBe(200);
-    const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: flow_carrier_40k v1');
+    const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: Ultrasonic flow meter / Carrier tracker v1');
     const token = /\/review\/([^\s"'<>]+)/.exec(mail.text)![1]!;
     // The reviewer opens the link (it stays unused)…
     expect((await api(stack.baseUrl, `/api/review-links/${token}`)).status).toBe(200);
@@ -163,9 +163,9 @@ describe('an API process killed', () => {
     const approvals = await look.query<{ n: number }>("SELECT COUNT(*) AS n FROM `audit_entries` WHERE `action` = 'review.approve' AND `objectId` = ?", [String(cut.body.id)]);
     expect(Number(approvals[0]!.n)).toBe(1);
     // Firmware is told once.
-    await stack.mail.waitFor((m) => m.subject === 'Release approved: flow_carrier_40k v1');
+    await stack.mail.waitFor((m) => m.subject === 'Release approved: Ultrasonic flow meter / Carrier tracker v1');
     await new Promise((resolve) => setTimeout(resolve, 2_000));
-    expect(stack.mail.messages.filter((m) => m.subject === 'Release approved: flow_carrier_40k v1')).toHaveLength(1);
+    expect(stack.mail.messages.filter((m) => m.subject === 'Release approved: Ultrasonic flow meter / Carrier tracker v1')).toHaveLength(1);
     await look.close();
   });
 

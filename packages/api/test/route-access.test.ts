@@ -97,6 +97,7 @@ const CASES: Record<string, Case> = {
       return a.post(`/api/releases/${link.releaseId}/reviews/decision`).set(csrf).send({ decision: 'approve', manifestSha256: link.manifestSha256 });
     },
   },
+  'GET /reviews/waiting': { allowed: ['reviewer'], call: (a) => a.get('/api/reviews/waiting') },
   'GET /releases/:id/reviews': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/reviews`) },
   // The token is the authority on review links: called without a session, whoever holds the role.
   'GET /review-links/:token': { allowed: 'public', call: async (_a, f) => request(testApp.built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}`) },

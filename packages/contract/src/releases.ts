@@ -124,6 +124,21 @@ export const reviewDecisionResponseSchema = z.object({
 });
 export type ReviewDecisionResponse = z.infer<typeof reviewDecisionResponseSchema>;
 
+/** A review that waits for the signed-in reviewer: the release is in review and their link is unused and unexpired. */
+export const waitingReviewSchema = z.object({
+  releaseId: z.number().int(),
+  designId: z.number().int(),
+  projectName: z.string(),
+  designName: z.string(),
+  label: z.string(),
+  requestedByName: z.string(),
+  requestedAt: z.string(),
+  expiresAt: z.string(),
+});
+export type WaitingReview = z.infer<typeof waitingReviewSchema>;
+export const waitingReviewListSchema = z.object({ reviews: z.array(waitingReviewSchema) });
+export type WaitingReviewList = z.infer<typeof waitingReviewListSchema>;
+
 export const diffQuerySchema = z.strictObject({ against: idSchema });
 
 /** One figure that differs between two releases, as a reader sees it: label, unit, both values as text. */

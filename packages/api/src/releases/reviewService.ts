@@ -15,7 +15,7 @@ import { AppError, conflict, invalidInput, notFound } from '../errors.ts';
 import type { HandoffConfig } from '../mail/config.ts';
 import type { MailMessage, MailOutbox } from '../mail/outbox.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
-import type { ReleaseRecord, ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView, ReviewRequest } from '@loopwright/contract';
+import type { ReleaseRecord, ReviewDecisionRequest, ReviewDecisionResponse, ReviewLinkView, ReviewRequest, WaitingReviewList } from '@loopwright/contract';
 import { ReleaseReview } from './entities/index.ts';
 import { releaseApprovedMail, reviewDecidedMail, reviewRequestMail, type MailedRelease } from './mails.ts';
 import { releaseLabel, type ReleaseRow } from './records.ts';
@@ -165,6 +165,28 @@ export class ReviewService {
     });
     await this.outbox.deliverPending(mailIds);
     return this.releases.getForUser(organizationId, releaseId, { roles: ['designer'] });
+  }
+
+  /** Releases in review where the reviewer's link is neither used nor expired, oldest request first. */
+  async waitingFor(organizationId: number, reviewerId: number): Promise<WaitingReviewList> {
+    const rows = (await this.dataSource.query(
+      'SELECT r.`id` AS releaseId, r.`designId` AS designId, p.`name` AS projectName, d.`name` AS designName, r.`number` AS number, u.`displayName` AS requestedByName, v.`createdAt` AS requestedAt, v.`expiresAt` AS expiresAt ' +
+        'FROM `release_reviews` v JOIN `releases` r ON r.`id` = v.`releaseId` JOIN `designs` d ON d.`id` = r.`designId` JOIN `projects` p ON p.`id` = d.`projectId` JOIN `users` u ON u.`id` = v.`requestedById` ' +
+        "WHERE v.`reviewerId` = ? AND p.`organizationId` = ? AND r.`state` = 'in-review' AND v.`usedAt` IS NULL AND v.`expiresAt` > CURRENT_TIMESTAMP(3) ORDER BY v.`createdAt`, v.`id`",
+      [reviewerId, organizationId],
+    )) as { releaseId: number; designId: number; projectName: string; designName: string; number: number; requestedByName: string; requestedAt: Date; expiresAt: Date }[];
+    return {
+      reviews: rows.map((r) => ({
+        releaseId: Number(r.releaseId),
+        designId: Number(r.designId),
+        projectName: r.projectName,
+        designName: r.designName,
+        label: releaseLabel(Number(r.number)),
+        requestedByName: r.requestedByName,
+        requestedAt: new Date(r.requestedAt).toISOString(),
+        expiresAt: new Date(r.expiresAt).toISOString(),
+      })),
+    };
   }
 
   private async reviewers(manager: EntityManager, organizationId: number, ids: readonly number[], excluded: readonly number[]): Promise<User[]> {

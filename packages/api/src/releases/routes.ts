@@ -17,6 +17,7 @@ import {
   type EstimateResponse,
   type DownloadListResponse,
   type ReleaseListResponse,
+  type WaitingReviewList,
 } from '@loopwright/contract';
 
 const DESIGNER = ['designer'] as const;
@@ -139,6 +140,13 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
       const r = await services.handoff.releases.getForUser(user.organizationId, params.id, user);
       return { approvalsRequired: r.approvalsRequired, approvals: r.approvals, reviews: r.reviews };
     },
+  }),
+  route({
+    method: 'get',
+    path: '/reviews/waiting',
+    access: ['reviewer'],
+    summary: 'the reviews that wait for you: releases in review whose link to you is unused and unexpired',
+    handler: ({ services, user }): Promise<WaitingReviewList> => services.handoff.reviews.waitingFor(user.organizationId, user.id),
   }),
   route({
     method: 'post',

@@ -82,6 +82,15 @@ describe('hand-off flow', () => {
     }
   });
 
+  it('lists the release as waiting for each named reviewer in the app', async () => {
+    const reviewer = await signedInAgent(h.built.app, h.org.emails.reviewer);
+    const waiting = (await reviewer.get('/api/reviews/waiting').expect(200)).body.reviews;
+    expect(waiting).toEqual([
+      expect.objectContaining({ releaseId, designId, projectName: 'Hand-off mains-sync', designName: 'Design mains-sync', label: 'v1', requestedByName: h.org.names.designer }),
+    ]);
+    expect(Date.parse(waiting[0].expiresAt)).toBeGreaterThan(Date.now());
+  });
+
   it('lets each reviewer read the release from the link without using it up, then approve', async () => {
     const tokenOf = (email: string) => linkToken(h.smtp.mails.find((m) => m.to.includes(email))!.text);
     const anonymous = request(h.built.app);
@@ -99,6 +108,13 @@ describe('hand-off flow', () => {
     const second = tokenOf(h.org.emails.multi);
     const two = await anonymous.post(`/api/review-links/${second}`).send({ decision: 'approve', manifestSha256 }).expect(200);
     expect(two.body.state).toBe('approved');
+  });
+
+  it('no longer lists a review once its reviewer decided', async () => {
+    for (const email of [h.org.emails.reviewer, h.org.emails.multi]) {
+      const agent = await signedInAgent(h.built.app, email);
+      expect((await agent.get('/api/reviews/waiting').expect(200)).body.reviews).toEqual([]);
+    }
   });
 
   it('e-mails the firmware engineers of the organisation when approved', async () => {

@@ -7,6 +7,7 @@ import {
   releaseRecordSchema,
   releaseVerificationSchema,
   reviewerListResponseSchema,
+  waitingReviewListSchema,
 } from '@loopwright/contract';
 import { api } from './client.ts';
 import type { ReviewRequest } from './types.ts';
@@ -20,6 +21,8 @@ export const releasesApi = {
   verification: (id: number) => api.request(`/releases/${id}/verification`, releaseVerificationSchema),
   /** Approved releases across projects (what firmware sees by default). */
   approved: () => api.request('/releases', releaseListResponseSchema).then((b) => b.releases),
+  /** The reviews that wait for the signed-in reviewer. */
+  waitingReviews: () => api.request('/reviews/waiting', waitingReviewListSchema).then((b) => b.reviews),
   diff: (id: number, againstId: number) => api.request(`/releases/${id}/diff`, releaseDiffSchema, { query: { against: againstId } }),
   withdraw: (id: number, reason: string) => api.send(`/releases/${id}/withdraw`, { method: 'POST', body: reason ? { reason } : {} }),
   /** Who downloaded what, when (designers and admins). */

@@ -30,6 +30,7 @@ export type {
   ReviewRecord,
   ReviewRequest,
   ReviewerChoice,
+  WaitingReview,
   SignInRequest,
   ReleaseState,
   ReleaseEvent,

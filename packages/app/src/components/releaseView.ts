@@ -3,6 +3,12 @@ import type { ReleaseDiff, ReleaseFileRecord, ReleaseRecord, ReleaseState, Relea
 import { formatDate } from '../views/projectsView.ts';
 import { SPEC_SECTIONS } from '../form/specFields.ts';
 
+/** The release a link asks for (`?release=<id>`, the approved mail's link), or null for none or a malformed one. */
+export function linkedReleaseId(query: unknown): number | null {
+  const text = Array.isArray(query) ? query[0] : query;
+  return typeof text === 'string' && /^[1-9][0-9]{0,15}$/.test(text) ? Number(text) : null;
+}
+
 export type TagType = 'primary' | 'success' | 'warning' | 'info' | 'danger';
 
 const STATE_TEXT: Record<ReleaseState, { text: string; tag: TagType }> = {

@@ -9,6 +9,7 @@ export interface NavItem {
 // The rail shows only the screens a person's roles open (DESIGN.md "Users and roles").
 const ITEMS: readonly NavItem[] = [
   { name: 'projects', label: 'Projects', roles: ['designer', 'reviewer', 'admin'] },
+  { name: 'reviews', label: 'My reviews', roles: ['reviewer'] },
   { name: 'downloads', label: 'Downloads', roles: ['firmware', 'designer', 'reviewer'] },
   { name: 'conformance', label: 'Conformance', roles: ['firmware', 'designer'] },
   { name: 'admin', label: 'Admin', roles: ['admin'] },

@@ -25,6 +25,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['designer', 'reviewer'], title: 'Releases' },
   },
   {
+    path: '/reviews',
+    name: 'reviews',
+    component: () => import('../views/ReviewsView.vue'),
+    meta: { roles: ['reviewer'], title: 'My reviews' },
+  },
+  {
     path: '/review/:token',
     name: 'review',
     component: () => import('../views/ReviewView.vue'),

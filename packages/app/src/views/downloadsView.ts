@@ -24,6 +24,12 @@ export function downloadRows(releases: readonly ReleaseRecord[], projectNames: R
   }));
 }
 
+/** What the page says when the linked release is not on the shelf (withdrawn since, or never approved). */
+export function missingLinkedRelease(id: number | null, rows: readonly DownloadRow[]): string | null {
+  if (id === null || rows.some((r) => r.id === id)) return null;
+  return 'The release this link names is not among the approved releases: it may have been withdrawn since. Ask its designer, or pick an approved release below.';
+}
+
 export interface RunView {
   readonly id: number;
   readonly fileName: string;
