@@ -10,7 +10,7 @@ import type { DesignListItem, DesignListQuery, DesignRecord, SessionUser } from 
 import { AppError, conflict, invalidInput, issuesError, notFound } from '../errors.ts';
 import type { AuditActor, AuditService } from '../services/audit.ts';
 import type { DesignService } from '../services/designs.ts';
-import type { Manifest, RenderedRelease } from '../render/artifacts.ts';
+import { MANIFEST_FILE, stampRelease, type Manifest, type RenderedRelease } from '../render/artifacts.ts';
 import { CAUTION } from '../render/caution.ts';
 import { sha256Hex } from '../render/digest.ts';
 import { StoredFileError, type FileStore } from '../storage/fileStore.ts';
@@ -89,18 +89,26 @@ export class ReleaseService {
     return fromWorker(outcome.rendered);
   }
 
-  /** Stores a rendered release as the design's next number; returns the release id. */
-  async store(design: Pick<DesignRecord, 'id' | 'revision'>, rendered: RenderedRelease, actor: Actor): Promise<number> {
+  /**
+   * Stores a rendered release as the design's next number; returns the release id. The manifest is
+   * stamped with project, design title, label and cut time once the number is taken (under the lock),
+   * so two releases of one spec have different manifests and SHA-256s.
+   */
+  async store(design: Pick<DesignRecord, 'id' | 'revision'>, unstamped: RenderedRelease, actor: Actor): Promise<number> {
     const designId = design.id;
     // Bytes first: a row never names bytes the store does not hold (an interrupted cut leaves at most
     // unreferenced files, which a later cut of the same content reuses).
-    for (const f of rendered.files) {
-      if ((await this.files.put(f.bytes)) !== f.sha256) throw new Error(`file store hashed ${f.name} differently from the render`);
+    for (const f of unstamped.files) {
+      if (f.name !== MANIFEST_FILE) await this.putChecked(f);
     }
     return this.dataSource.transaction(async (manager) => {
       await manager.query('SELECT `id` FROM `designs` WHERE `id` = ? FOR UPDATE', [designId]);
       const [{ next }] = (await manager.query('SELECT COALESCE(MAX(`number`), 0) + 1 AS `next` FROM `releases` WHERE `designId` = ?', [designId])) as [{ next: number | string }];
       const number = Number(next);
+      const [names] = (await manager.query('SELECT d.`name` AS designTitle, p.`name` AS project FROM `designs` d JOIN `projects` p ON p.`id` = d.`projectId` WHERE d.`id` = ?', [designId])) as { designTitle: string; project: string }[];
+      const rendered = stampRelease(unstamped, { project: names?.project ?? '', designTitle: names?.designTitle ?? '', label: releaseLabel(number), cutAt: new Date().toISOString() });
+      await this.putChecked(rendered.files[0]!);
+      const [same] = (await manager.query('SELECT `number` FROM `releases` WHERE `designId` = ? AND `specSha256` = ? ORDER BY `number` DESC LIMIT 1', [designId, rendered.specSha256])) as { number: number }[];
       const inserted = await manager.insert(Release, {
         designId,
         number,
@@ -118,9 +126,14 @@ export class ReleaseService {
         rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: null })),
       );
       await this.verification.queue(manager, releaseId);
-      await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256 } }, manager);
+      const sameSpecAs = same ? releaseLabel(Number(same.number)) : null;
+      await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256, sameSpecAs } }, manager);
       return releaseId;
     });
+  }
+
+  private async putChecked(f: RenderedRelease['files'][number]): Promise<void> {
+    if ((await this.files.put(f.bytes)) !== f.sha256) throw new Error(`file store hashed ${f.name} differently from the render`);
   }
 
   /** The row, or 404 when it does not exist in the organisation or the user may not see it. */

@@ -34,9 +34,26 @@ export interface ManifestConstant {
   readonly code: string;
 }
 
+/**
+ * Which release a manifest belongs to, set when the release is cut (the number is taken then): so two
+ * releases of one spec differ in their manifest, and its SHA-256 tells them apart. Null for the files
+ * `loopwright render` writes, which belong to no release.
+ */
+export interface ManifestRelease {
+  readonly project: string;
+  /** The design's title, as people name it (the identifier is `design`). */
+  readonly designTitle: string;
+  /** v1, v2, … */
+  readonly label: string;
+  /** ISO 8601, UTC. */
+  readonly cutAt: string;
+}
+
 export interface Manifest {
   readonly manifestVersion: 1;
+  /** The spec `name`: the identifier of the generated code. */
   readonly design: string;
+  readonly release: ManifestRelease | null;
   readonly versions: ToolVersions;
   readonly specSha256: string;
   readonly spec: LoopSpec;
@@ -137,9 +154,17 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
       ),
     ),
   ];
-  const manifest = buildManifest(computation, model, versions, specSha256, files);
+  return withManifest(buildManifest(computation, model, versions, specSha256, files), files, specSha256);
+}
+
+function withManifest(manifest: Manifest, files: readonly ArtifactFile[], specSha256: string): RenderedRelease {
   const manifestFile = file(MANIFEST_FILE, 'application/json', `${canonicalJson(manifest, 2)}\n`);
   return { files: [manifestFile, ...files], manifest, manifestSha256: manifestFile.sha256, specSha256 };
+}
+
+/** The render as the release `release` holds it: its manifest names project, design, label and cut time. */
+export function stampRelease(rendered: RenderedRelease, release: ManifestRelease): RenderedRelease {
+  return withManifest({ ...rendered.manifest, release }, rendered.files.filter((f) => f.name !== MANIFEST_FILE), rendered.specSha256);
 }
 
 function buildManifest(
@@ -153,6 +178,7 @@ function buildManifest(
   return {
     manifestVersion: 1,
     design: model.name,
+    release: null,
     versions,
     specSha256,
     spec: computation.plan.spec,
