@@ -2,7 +2,8 @@
  * Every link of every hand-off mail, followed in Chromium by the person it is for: the reviewer's
  * review link (signed out), the designer's decision mail and the firmware engineer's approved mail
  * (each signed out first, so the link also survives the sign-in page), and the reviewer's list in the
- * app of what waits. A link passes when its page shows the release the mail names.
+ * app of what waits. A link passes when its page shows the release the mail names. On the way, a cut
+ * of the unchanged design asks before it repeats the last release.
  */
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -102,6 +103,19 @@ describe('links in the hand-off mails', () => {
     await designerPage.waitForSelector('[data-test="release-detail"] h2');
     expect(await textOf(designerPage, '[data-test="release-detail"] h2')).toBe(label);
     expect(await textOf(designerPage, '[data-test="selected-state"]')).toBe('approved');
+
+    // Nothing changed since: cutting again asks first, and cuts only when told to.
+    const next = `v${Number(label.slice(1)) + 1}`;
+    await designerPage.click('[data-test="cut-release"]');
+    await designerPage.waitForSelector('[data-test="identical-cut"]');
+    expect(await textOf(designerPage, '[data-test="identical-cut"]')).toContain(`same as that of ${label}`);
+    await screenshot(designerPage, 'mail-03-identical-cut');
+    await designerPage.click('[data-test="cancel-identical-cut"]');
+    await designerPage.waitForSelector('[data-test="identical-cut"]', { state: 'hidden' });
+    expect(await designerPage.locator(`[data-test="state-${next}"]`).count()).toBe(0);
+    await designerPage.click('[data-test="cut-release"]');
+    await designerPage.click('[data-test="confirm-identical-cut"]');
+    await designerPage.waitForSelector(`[data-test="state-${next}"]`, { timeout: 60_000 });
     await designerPage.close();
 
     // Approved -> Downloads with that release opened on its files, for firmware.

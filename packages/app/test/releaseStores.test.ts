@@ -54,6 +54,25 @@ describe('releases store', () => {
     expect(Object.keys(store.records).sort()).toEqual(['10', '11', '12']);
   });
 
+  it('names the newest release whose spec a cut would repeat, and none once the spec changed (common practice, no source)', async () => {
+    vi.spyOn(releasesApi, 'forDesign').mockResolvedValue([summary(10, 1), summary(11, 2)]);
+    vi.spyOn(releasesApi, 'get').mockImplementation(async (id) => record(summary(id, id - 9)));
+    const store = useReleasesStore();
+    await store.load(1);
+    expect(await store.unchangedSince()).toBe('v2');
+    const edited = { id: 1, projectId: 1, name: 'Mains sync', revision: 5, ownerId: 1, ownerName: 'Dana', archived: false, createdAt: '', updatedAt: '', spec: { ...mainsSyncSpec, centerHz: 60 } };
+    vi.spyOn(designsApi, 'get').mockResolvedValue(edited);
+    expect(await store.unchangedSince()).toBeNull();
+    expect(store.design?.revision).toBe(5);
+  });
+
+  it('asks nothing before the first release', async () => {
+    vi.spyOn(releasesApi, 'forDesign').mockResolvedValue([]);
+    const store = useReleasesStore();
+    await store.load(1);
+    expect(await store.unchangedSince()).toBeNull();
+  });
+
   it('puts a freshly cut release at the top', async () => {
     vi.spyOn(releasesApi, 'forDesign').mockResolvedValue([summary(10, 1)]);
     vi.spyOn(releasesApi, 'get').mockResolvedValue(record(summary(10, 1)));

@@ -2,6 +2,7 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import { releasesApi } from '../api/releasesApi.ts';
 import { designsApi } from '../api/designsApi.ts';
+import { diffDocuments } from '../lib/specDiff.ts';
 import type { Design, ReleaseDiff, ReleaseRecord, ReleaseSummary, ReviewerChoice, ReviewRequest } from '../api/types.ts';
 
 /** The releases of one design: list, full records, cutting, review requests and diffs. */
@@ -40,6 +41,20 @@ export const useReleasesStore = defineStore('releases', () => {
     records.value = { ...records.value, [releaseId]: record };
     releases.value = releases.value.map((r) => (r.id === releaseId ? { ...r, state: record.state, stateChangedAt: record.stateChangedAt } : r));
     return record;
+  }
+
+  /**
+   * The label of the design's newest release when the design's stored spec is the same as that
+   * release's (a cut now would repeat it), else null. Reads the design again: it may have been saved
+   * in another tab since the page loaded.
+   */
+  async function unchangedSince(): Promise<string | null> {
+    const id = designId.value;
+    const latest = releases.value[0];
+    if (id === null || !latest) return null;
+    const [d, record] = await Promise.all([designsApi.get(id), records.value[latest.id] ?? releasesApi.get(latest.id)]);
+    design.value = d;
+    return diffDocuments(record.spec, d.spec).length === 0 ? latest.label : null;
   }
 
   async function cut(): Promise<ReleaseRecord> {
@@ -104,5 +119,5 @@ export const useReleasesStore = defineStore('releases', () => {
     }
   }
 
-  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, cut, pollVerification, loadReviewers, requestReview, withdraw, compare };
+  return { designId, design, releases, records, loading, error, cutting, reviewers, diff, diffError, load, refresh, unchangedSince, cut, pollVerification, loadReviewers, requestReview, withdraw, compare };
 });
