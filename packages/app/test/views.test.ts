@@ -205,6 +205,8 @@ describe('scenario form', () => {
     expect(check.scenario).toBeNull();
     expect(Object.keys(check.errors)).toEqual(['stepDeg']);
     expect(check.errors['stepDeg']).not.toMatch(/^stepDeg:/);
+    // A sentence naming the field by its label, the bound with its unit (the phase-step limit is dsp's).
+    expect(check.errors['stepDeg']).toBe('Step size must be at most 360°.');
   });
 });
 

@@ -4,6 +4,7 @@
  */
 import { parseScenario, type Scenario } from '@loopwright/dsp';
 import { parseNumberText } from './specDraft.ts';
+import { fieldMessage } from '../lib/messages.ts';
 
 export const SCENARIO_PRESETS = [
   { value: 'tone', label: 'Tone at a frequency offset' },
@@ -116,8 +117,9 @@ export function checkScenario(preset: ScenarioPreset, d: Readonly<ScenarioDraft>
   if (result.ok) return { scenario: result.scenario, errors: {} };
   const errors: Record<string, string> = {};
   for (const issue of result.issues) {
-    const prefix = `${issue.field}: `;
-    errors[issue.field] = issue.message.startsWith(prefix) ? issue.message.slice(prefix.length) : issue.message;
+    // One sentence naming the field by the label the simulation form gives it, with the bound's unit.
+    const shown = SCENARIO_FIELDS.find((f) => f.key === issue.field);
+    errors[issue.field] = fieldMessage(issue.field, issue.message, shown);
   }
   return { scenario: null, errors };
 }

@@ -103,12 +103,14 @@ export function namePaths(message: string): string {
  * One sentence for a message about a field: "Coefficient width must be at least 2 bits.",
  * "Natural frequency is empty: enter a number.", "E-mail: no account has this address.".
  */
-export function fieldMessage(field: string, message: string): string {
-  const { label, unit } = labelOf(field);
+export function fieldMessage(field: string, message: string, shown?: { readonly label: string; readonly unit: string }): string {
+  // A label's parenthetical hint ("Input SNR (blank: no noise)") is for the field, not the sentence.
+  const { label, unit } = shown ? { label: shown.label.replace(/ \(.*\)$/, ''), unit: shown.unit } : labelOf(field);
   let m = namePaths(withoutPathPrefixes(field, message).replace(/^missing \(expected (.+)\)$/, 'is empty: enter $1'));
   // A message that opens by naming its own field ("loop update rate (2 MHz) exceeds …") names it once.
   if (label !== '' && m.toLowerCase().startsWith(label.toLowerCase())) return asSentence(m);
-  if (!NO_UNIT.has(unit)) m = m.replace(/\b(at least|at most|above|below) (-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)$/, `$1 $2 ${unit}`);
+  // The degree sign follows its number directly ("360°"); other units after a space.
+  if (!NO_UNIT.has(unit)) m = m.replace(/\b(at least|at most|above|below) (-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)$/, `$1 $2${unit === '°' ? '' : ' '}${unit}`);
   if (label === '') return asSentence(m);
   if (/^(must|is|are|needs|has|cannot|should)\b/.test(m)) return asSentence(`${label} ${m}`);
   return asSentence(`${label}: ${m}`);
