@@ -172,6 +172,13 @@ describe('word-length curves', () => {
     expect([option.xAxis.type, option.xAxis.min, option.xAxis.max]).toEqual(['value', 8, 12]);
   });
 
+  it('draws no phase margin for a width whose quantised loop is unstable', () => {
+    const option = coefficientCurveOption(real) as { series: { name: string; data: [number, number | null][] }[] };
+    const pm = option.series.find((s) => s.name === 'Phase margin')!;
+    for (const p of real.coefficients.curve) if (!p.stable) expect(pm.data.find((d) => d[0] === p.coefficientBits)![1]).toBeNull();
+    expect(real.coefficients.curve.some((p) => !p.stable)).toBe(true);
+  });
+
   it('states the widths to apply in the form labels, with a space and the unit', () => {
     expect(widthEditsText({ 'fixedPoint.coefficientBits': '17', 'fixedPoint.dataBits': '14' })).toBe('Coefficient width 17 bits, data width 14 bits');
   });

@@ -34,7 +34,7 @@ export function widthCandidates(r: WordLengthResult, spec: LoopSpec): WidthCandi
     kind: 'coefficients',
     bits: p.coefficientBits,
     passes: p.passes,
-    error: `PM error ${fmt(p.phaseMarginErrorDeg, 2, '°')}, response ${fmt(p.maxDeviationDb, 3, 'dB')}`,
+    error: p.stable ? `PM error ${fmt(p.phaseMarginErrorDeg, 2, '°')}, response ${fmt(p.maxDeviationDb, 3, 'dB')}` : `unstable: no margin; response ${fmt(p.maxDeviationDb, 3, 'dB')}`,
     spec: {
       ...spec,
       fixedPoint: { ...fp, coefficientBits: p.coefficientBits, coefficientFractionBits: p.fractionBits ?? 'auto', accumulatorBits: Math.max(fp.accumulatorBits, p.coefficientBits) },

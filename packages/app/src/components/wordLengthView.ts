@@ -63,7 +63,8 @@ export function coefficientCurveOption(r: WordLengthResult): EChartsCoreOption {
         name: 'Phase margin',
         xAxisIndex: 1,
         yAxisIndex: 1,
-        data: at((p) => finiteOrNull(p.phaseMarginDeg)),
+        // An unstable loop has no phase margin: no point is drawn for it.
+        data: at((p) => (p.stable ? finiteOrNull(p.phaseMarginDeg) : null)),
         color: CHART_COLORS.float,
         markLine: {
           symbol: 'none',
