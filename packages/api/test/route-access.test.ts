@@ -101,6 +101,10 @@ const CASES: Record<string, Case> = {
   'GET /releases/:id/reviews': { allowed: 'signed-in', call: (a, f) => a.get(`/api/releases/${f.releases.approvedId}/reviews`) },
   // The token is the authority on review links: called without a session, whoever holds the role.
   'GET /review-links/:token': { allowed: 'public', call: async (_a, f) => request(testApp.built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}`) },
+  'GET /review-links/:token/files/:name': {
+    allowed: 'public',
+    call: async (_a, f) => request(testApp.built.app).get(`/api/review-links/${(await f.releases.freshToken()).token}/files/manifest.json`),
+  },
   'POST /review-links/:token': {
     allowed: 'public',
     call: async (_a, f) => {

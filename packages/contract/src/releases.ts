@@ -96,6 +96,8 @@ export const reviewRequestSchema = z.strictObject({
 export type ReviewRequest = z.infer<typeof reviewRequestSchema>;
 
 export const reviewTokenParamsSchema = z.strictObject({ token: z.string().min(1).max(200) });
+/** A file of the release a review link is for (GET /api/review-links/:token/files/:name). */
+export const reviewFileParamsSchema = z.strictObject({ token: reviewTokenParamsSchema.shape.token, name: releaseFileParamsSchema.shape.name });
 
 export const reviewDecisionSchema = z.strictObject({
   decision: reviewDecisionValueSchema,

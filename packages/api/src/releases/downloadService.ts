@@ -22,16 +22,25 @@ export class DownloadService {
     private readonly audit: AuditService,
   ) {}
 
-  private async log(manager: EntityManager, releaseId: number, fileName: string, user: SessionUser, actor: Actor): Promise<void> {
+  private async log(manager: EntityManager, releaseId: number, fileName: string, user: Pick<SessionUser, 'id' | 'email'>, actor: Actor): Promise<void> {
     await manager.insert(ReleaseDownload, { releaseId, userId: user.id, userEmail: user.email, fileName, ip: actor.ip?.slice(0, 45) ?? null });
     await this.audit.record(actor, { action: 'release.download', objectType: 'release', objectId: releaseId, detail: { file: fileName } }, manager);
   }
 
   async sendFile(organizationId: number, releaseId: number, name: string, user: SessionUser, actor: Actor, res: Response): Promise<void> {
     const row = await this.releases.visibleRow(organizationId, releaseId, user);
-    const [file] = await this.releases.fileBytes(row.id, name);
+    await this.send(row.id, name, user, actor, res);
+  }
+
+  /** A file read by a review link's reviewer (the link decided who may), logged under the reviewer. */
+  async sendReviewFile(releaseId: number, name: string, reviewer: { id: number; email: string; organizationId: number }, ip: string | null, res: Response): Promise<void> {
+    await this.send(releaseId, name, { id: reviewer.id, email: reviewer.email }, { id: reviewer.id, email: reviewer.email, ip, organizationId: reviewer.organizationId }, res);
+  }
+
+  private async send(releaseId: number, name: string, user: Pick<SessionUser, 'id' | 'email'>, actor: Actor, res: Response): Promise<void> {
+    const [file] = await this.releases.fileBytes(releaseId, name);
     if (!file) throw notFound(`file ${name} of the release`);
-    await this.dataSource.transaction((manager) => this.log(manager, row.id, file.name, user, actor));
+    await this.dataSource.transaction((manager) => this.log(manager, releaseId, file.name, user, actor));
     res
       .status(200)
       .type(file.mediaType)

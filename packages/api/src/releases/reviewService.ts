@@ -298,6 +298,20 @@ export class ReviewService {
     }
   }
 
+  /**
+   * Who may read a file of the release through this link, for the download log: the link's reviewer.
+   * Reading does not use the link up; a refused link is recorded like any other refusal.
+   */
+  async fileReader(token: string, ip: string | null, sessionUser: SessionUser | undefined): Promise<{ releaseId: number; reviewer: { id: number; email: string; organizationId: number } }> {
+    try {
+      const { link, release, organizationId } = await this.verify(this.dataSource.manager, token, false);
+      if (sessionUser && sessionUser.id !== Number(link.reviewerId)) throw foreignTo(link, organizationId, 'it was sent to another reviewer');
+      return { releaseId: Number(release.id), reviewer: { id: Number(link.reviewerId), email: link.reviewerEmail, organizationId } };
+    } catch (err) {
+      return this.refused(err, token, ip, 'read-file');
+    }
+  }
+
   /** The previous release's label and stored spec (the review page overlays its plots). */
   private async previousSide(organizationId: number, previous: ReleaseRow): Promise<{ id: number; label: string; spec: unknown }> {
     const row = await findRelease(this.dataSource.manager, organizationId, Number(previous.id), true);

@@ -12,6 +12,7 @@ import {
   reviewDecisionSchema,
   reviewRequestSchema,
   reviewTokenParamsSchema,
+  reviewFileParamsSchema,
   estimateRequestSchema,
   type ConformanceListResponse,
   type EstimateResponse,
@@ -166,6 +167,19 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
     summary: 'what an e-mailed review link opens (reads only; the link stays unused)',
     params: reviewTokenParamsSchema,
     handler: ({ services, params, req }) => services.handoff.reviews.read(params.token, req.ip ?? null, req.user),
+  }),
+  route({
+    method: 'get',
+    path: '/review-links/:token/files/:name',
+    access: 'public',
+    csrf: 'token',
+    before: [reviewLinkLimiter],
+    summary: "read one file of the release a review link is for (logged as the reviewer's download; the link stays unused)",
+    params: reviewFileParamsSchema,
+    handler: async ({ services, params, req, res }) => {
+      const { releaseId, reviewer } = await services.handoff.reviews.fileReader(params.token, req.ip ?? null, req.user);
+      await services.handoff.downloads.sendReviewFile(releaseId, params.name, reviewer, req.ip ?? null, res);
+    },
   }),
   route({
     method: 'post',

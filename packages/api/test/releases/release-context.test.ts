@@ -7,6 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ReleaseRecord } from '@loopwright/contract';
 import { csrf } from '../helpers.ts';
+import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { designFromTemplate, linkToken, startHandoff, type Handoff } from './handoff.ts';
 
@@ -51,5 +52,25 @@ describe('the review page of a later release', () => {
     const view = await request(h.built.app).get(`/api/review-links/${linkToken(mail.text)}`).expect(200);
     expect(view.body.previous).toEqual({ id: v1.id, label: v1.label, spec: v1.spec });
     expect(view.body.release.spec).toEqual(spec);
+  });
+});
+
+describe('a file read through a review link', () => {
+  it('is the stored file, logged as the reviewer’s download, and leaves the link unused', async () => {
+    const id = await designFromTemplate(h.designer, 'if-fm-demod');
+    const v1 = (await h.designer.post(`/api/designs/${id}/releases`).set(csrf).expect(201)).body as ReleaseRecord;
+    const before = h.smtp.mails.length;
+    await h.designer.post(`/api/releases/${v1.id}/reviews`).set(csrf).send({ reviewerIds: [h.org.ids.reviewer], approvalsRequired: 1 }).expect(200);
+    const token = linkToken((await h.smtp.waitFor(before + 1)).slice(before)[0]!.text);
+    const header = v1.files.find((f) => f.name.endsWith('.h'))!;
+    const res = await request(h.built.app).get(`/api/review-links/${token}/files/${header.name}`).expect(200);
+    expect(res.headers['x-content-sha256']).toBe(header.sha256);
+    expect(createHash('sha256').update(res.text).digest('hex')).toBe(header.sha256);
+    const log = (await h.designer.get(`/api/releases/${v1.id}/downloads`).expect(200)).body as { downloads: { userId: number; fileName: string }[] };
+    expect(log.downloads).toEqual([expect.objectContaining({ userId: h.org.ids.reviewer, fileName: header.name })]);
+    await request(h.built.app).get(`/api/review-links/${token}/files/no_such_file.txt`).expect(404);
+    await request(h.built.app).get(`/api/review-links/${token.slice(0, -2)}xx/files/${header.name}`).expect(403);
+    // Still unused: it decides once.
+    await request(h.built.app).post(`/api/review-links/${token}`).send({ decision: 'request-changes', comment: 'read the header', manifestSha256: v1.manifestSha256 }).expect(200);
   });
 });
