@@ -56,6 +56,8 @@ declare module 'vue' {
     ReleaseDiffTable: typeof import('./src/components/ReleaseDiffTable.vue')['default']
     ReleaseFilesTable: typeof import('./src/components/ReleaseFilesTable.vue')['default']
     ReleaseReport: typeof import('./src/components/ReleaseReport.vue')['default']
+    ReleaseSimulation: typeof import('./src/components/ReleaseSimulation.vue')['default']
+    ReviewEvidence: typeof import('./src/components/ReviewEvidence.vue')['default']
     RouterLink: typeof import('vue-router')['RouterLink']
     RouterView: typeof import('vue-router')['RouterView']
     SafetyNotice: typeof import('./src/components/SafetyNotice.vue')['default']

@@ -29,7 +29,10 @@ afterAll(async () => {
 
 async function freshPage(): Promise<Page> {
   await browser.context.clearCookies();
-  return browser.newPage();
+  const page = await browser.newPage();
+  // Tall enough that a whole chart card fits on screen when it is screenshotted.
+  await page.setViewportSize({ width: 1280, height: 1500 });
+  return page;
 }
 
 /** A screenshot of one element (a chart and its card), once its canvas is there. */
@@ -80,7 +83,7 @@ describe('the seeded demo', () => {
 
     // The release's own plots, redrawn from its stored spec.
     await page.click('#tab-numbers');
-    await shoot(page, '[data-test="release-detail"] section:has([data-test="closed-loop-chart"])', 'demo-02-release-closed-loop');
+    await shoot(page, '[data-test="release-detail"] section[aria-label="Closed-loop and error transfer"]', 'demo-02-release-closed-loop');
 
     // Compare v3 → v4: the diff table and both releases' open loops in one plot.
     await page.locator('[data-test="diff-from"]').click();
@@ -89,7 +92,7 @@ describe('the seeded demo', () => {
     await page.click('.el-select-dropdown:visible .el-select-dropdown__item:has-text("v4")');
     await page.click('[data-test="compare"]');
     await page.waitForSelector('[data-test="release-diff"]');
-    await shoot(page, 'section:has([data-test="bode-overlay-chart"])', 'demo-03-diff-bode-overlay');
+    await shoot(page, 'section[aria-label="Bode plots of both releases"]', 'demo-03-diff-bode-overlay');
     await page.close();
   });
 
@@ -99,12 +102,12 @@ describe('the seeded demo', () => {
     await page.goto(`${stack.baseUrl}/projects`);
     await page.click('a.design:has-text("Mains sync PI loop")');
     await page.waitForSelector('[data-test="analysis-status"]:has-text("up to date")');
-    await shoot(page, 'section:has([data-test="closed-loop-chart"])', 'demo-04-closed-loop-error');
-    await shoot(page, 'section:has([data-test="step-chart"])', 'demo-05-step-responses');
+    await shoot(page, 'section[aria-label="Closed-loop and error transfer"]', 'demo-04-closed-loop-error');
+    await shoot(page, 'section[aria-label="Step responses"]', 'demo-05-step-responses');
     await page.click('#tab-quantisation');
-    await shoot(page, 'section:has([data-test="pole-zero-chart"])', 'demo-06-pole-zero');
+    await shoot(page, 'section[aria-label="Poles and zeros per section"]', 'demo-06-pole-zero');
     await page.click('#tab-nco');
-    await shoot(page, 'section:has([data-test="nco-spectrum-chart"])', 'demo-07-nco-spectrum');
+    await shoot(page, 'section[aria-label="NCO output spectrum"]', 'demo-07-nco-spectrum');
     await page.close();
   });
 
@@ -123,7 +126,7 @@ describe('the seeded demo', () => {
     expect(constants.some((r) => r.includes('code'))).toBe(true);
     expect(await page.locator('[data-test="quantisation-report"] [data-test="q-format"]').first().textContent()).toMatch(/Q/);
     expect(await textOf(page, '[data-test="datapath-verdict"]')).toMatch(/^Data path reaches full scale/);
-    await shoot(page, 'section:has([data-test="bode-overlay-chart"])', 'demo-08-review-bode-overlay');
+    await shoot(page, 'section[aria-label="Bode plots of both releases"]', 'demo-08-review-bode-overlay');
     await shoot(page, '[data-test="review-simulation"]', 'demo-09-review-simulation');
     await page.locator('[data-test="review-constants"]').scrollIntoViewIfNeeded();
     await page.locator('[data-test="review-constants"]').screenshot({ path: path.join(SCREENSHOTS, 'demo-10-review-constants.png') });
@@ -165,7 +168,9 @@ describe('the seeded demo', () => {
     await signIn(page, stack.baseUrl, 'admin@example.test');
     await page.click('#tab-audit');
     await page.waitForSelector('[data-test="audit"] .el-table__row');
-    const actions = new Set((await page.locator('[data-test="audit"] .el-table__body .el-table__row').allTextContents()).join('\n').match(/\b(release|review|design)\.[a-z-]+/g) ?? []);
+    await page.waitForFunction(() => document.querySelectorAll('[data-test="audit"] .el-table__body .el-table__row').length > 50);
+    // Column 3 is the action.
+    const actions = new Set((await tableRows(page, '[data-test="audit"]')).map((r) => r[2]));
     for (const action of ['release.cut', 'release.review-requested', 'review.approve', 'review.request-changes', 'release.withdraw', 'release.download', 'release.conformance']) expect(actions).toContain(action);
     await screenshot(page, 'demo-12-admin-audit');
     await page.close();
