@@ -23,6 +23,7 @@ import { loopGain } from './loopGain.ts';
 import { allocInputChunk, inputGenerator } from '../sim/inputSignal.ts';
 import { initialFloatState, runFloatChunk, type FloatLoopConfig } from '../sim/floatKernel.ts';
 import { SimulationAbortedError } from '../sim/simulate.ts';
+import { rippleBoxcarSamples } from '../sim/rippleBoxcar.ts';
 
 const TWO_PI = 2 * Math.PI;
 const CHUNK = 4096;
@@ -77,7 +78,7 @@ function trial(ctx: Context, scenario: Scenario, samples: number, stopOnSlip: bo
   const out = { ncoPhaseCycles: new Float64Array(CHUNK), filterOutput: new Float64Array(CHUNK) };
   const st = initialFloatState(cfg);
   // Boxcar over one period of the 2·centerHz ripple for the end-of-run lock test.
-  const box = Math.max(1, Math.round(spec.sampleRateHz / (2 * spec.centerHz)));
+  const box = rippleBoxcarSamples(spec.sampleRateHz, spec.centerHz, samples);
   const tailFrom = Math.floor(samples * 0.8);
   let e0 = 0;
   let eu = 0;

@@ -7,6 +7,7 @@ import type { SimFullTraces, SimMetrics, SimRun } from '../types/sim.ts';
 import { MinMaxDecimator } from './decimate.ts';
 import { SweepTracker } from './sweepMetrics.ts';
 import { LockTracker, type LockModel } from './lockMetric.ts';
+import { rippleBoxcarSamples } from './rippleBoxcar.ts';
 
 const TWO_PI = 2 * Math.PI;
 export const MAX_FULL_TRACE_SAMPLES = 1 << 21;
@@ -82,10 +83,7 @@ export class RunAccumulator {
     this.filter = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.lock = new MinMaxDecimator(total, buckets, sampleRateHz);
-    // A boxcar of one period of the 2·centerHz detector ripple removes it from the settle test. One
-    // longer than the run never fills and averages the same samples as one of the run's length, so it
-    // is cut there (a centerHz of 1e-4 Hz would otherwise ask for ~1e11 entries).
-    this.boxcar = new Float64Array(Math.max(1, Math.min(total, Math.round(sampleRateHz / (2 * s.centerHz)))));
+    this.boxcar = new Float64Array(rippleBoxcarSamples(sampleRateHz, s.centerHz, total));
     this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength: this.boxcar.length, model: s.lockModel });
     // Lock indicator: one-pole low-pass at centerHz/8 of the quadrature arm (common practice, no source).
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
