@@ -46,7 +46,17 @@ describe('simulations in the worker pool', () => {
     expect(response.body.error.field).toBe('scenario.durationS');
   });
 
-  it('runs the simulation in a worker thread', async () => {
+  it('simulates a sweep and reports where lock was lost and regained, float and bit-true (dsp README "Sweep")', async () => {
+    const sweep = { kind: 'sweep', fromHz: 0, toHz: 3, rateHzPerS: 3, durationS: 2.2 };
+    const response = await reviewer.post(`/api/designs/${designId}/simulations`).set(csrf).send({ scenario: sweep, buckets: 50 }).expect(200);
+    const { float, bitTrue } = response.body.simulation;
+    // 3 Hz is far inside the PI loop's pull-out range (≈ 14 Hz measured): both loops hold (G3).
+    expect(float.metrics.sweep).toMatchObject({ turnS: 1, heldThroughout: true, lockLostHz: null });
+    expect(bitTrue.metrics.sweep.heldThroughout).toBe(true);
+    expect(Object.keys(float.traces.inputFrequencyHz.max)).toHaveLength(50);
+  });
+
+    it('runs the simulation in a worker thread', async () => {
     const outcome = await testApp.built.services.compute.run({ kind: 'simulation', spec: mainsSyncSpec, scenario, options: { mode: 'float' } });
     expect(outcome.ok).toBe(true);
     expect(outcome.threadId).not.toBe(0);

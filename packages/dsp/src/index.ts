@@ -1,7 +1,7 @@
 export type * from './types/index.ts';
 export { loopSpecSchema, parseLoopSpec, requireValidSpec, LoopSpecError, specWarnings, loopFilterSchema, rippleFilterSchema } from './spec/schema.ts';
 export { WIDTH_LIMITS, EXACT_INTEGER_BITS, MAX_PHASE_BITS } from './spec/limits.ts';
-export { planDesign, tryPlanDesign, simulatePlan, simulatePlanAsync, analyzeDesign, tryAnalyzeDesign, simulate, simulateAsync, goldenVectors } from './planDesign.ts';
+export { planDesign, tryPlanDesign, simulatePlan, simulatePlanAsync, measurePlanAcquisition, analyzeDesign, tryAnalyzeDesign, simulate, simulateAsync, goldenVectors } from './planDesign.ts';
 export { exampleSpecs, mainsSyncSpec, ultrasonicSinglePoleSpec, ultrasonicLagLeadSpec, ifFmDemodSpec } from './spec/examples.ts';
 export { loopGain, ncoFundamentalAmplitude } from './analysis/loopGain.ts';
 export { datapathFigures } from './analysis/datapath.ts';

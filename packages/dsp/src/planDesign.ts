@@ -16,7 +16,9 @@
 import { parseLoopSpec, requireValidSpec, specWarnings, type LoopSpec, type SpecIssue, type ValidSpec } from './spec/schema.ts';
 import type { Scenario } from './spec/scenario.ts';
 import type { QuantizedFilter } from './types/fixed.ts';
-import type { BitTruePlan, SimOptions, SimResult } from './types/sim.ts';
+import type { AcquisitionComparison, AcquisitionOptions, BitTruePlan, SimOptions, SimResult } from './types/sim.ts';
+import { measureAcquisition } from './analysis/acquisitionSim.ts';
+import { compareAcquisition } from './analysis/acquisitionReport.ts';
 import { designLoopFilter, type LoopFilterDesign } from './design.ts';
 import { FieldError } from './fixed/fieldError.ts';
 import { quantizeSections } from './fixed/quantizeSections.ts';
@@ -128,6 +130,14 @@ export function simulatePlan(plan: DesignPlan, scenario: Scenario, options: SimO
 function withReachWarning(plan: DesignPlan, scenario: Scenario, result: SimResult): SimResult {
   const warning = scenarioReachWarning(plan.analysis.fixedPointReach, scenario);
   return { ...result, warnings: warning ? [warning] : [] };
+}
+
+/**
+ * The plan's acquisition figures, each as the analysis's estimate and as measured by simulating the
+ * nonlinear loop: what the CLI, the API, a release and the editor show (README "Acquisition").
+ */
+export function measurePlanAcquisition(plan: DesignPlan, options: AcquisitionOptions = {}): AcquisitionComparison {
+  return compareAcquisition(plan.analysis.estimates, measureAcquisition(plan.spec, options));
 }
 
 /** As simulatePlan, yielding to the event loop between chunks (a worker can receive a cancel). */

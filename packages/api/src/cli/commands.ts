@@ -4,7 +4,7 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { compareAcquisition, measureAcquisition, tryPlanDesign } from '@loopwright/dsp';
+import { measurePlanAcquisition, tryPlanDesign } from '@loopwright/dsp';
 import { renderArtifacts } from '../render/artifacts.ts';
 import { computeDesign, computeRelease, RenderInputError } from '../render/compute.ts';
 import { synthesisSources } from '../render/synthesisSources.ts';
@@ -33,8 +33,7 @@ export function designCommand(specPath: string): string {
 export function acquireCommand(specPath: string): string {
   const r = tryPlanDesign(readJsonFile('SPEC.json', specPath));
   if (!r.ok) throw new UsageError(issuesLine('SPEC.json', r.issues));
-  const comparison = compareAcquisition(r.plan.analysis.estimates, measureAcquisition(r.plan.spec));
-  return toJson({ specName: r.plan.spec.name, ...comparison });
+  return toJson({ specName: r.plan.spec.name, ...measurePlanAcquisition(r.plan) });
 }
 
 export function simulateCommand(specPath: string, scenarioPath: string, vectors: number | undefined): string {

@@ -3,7 +3,7 @@
  * (packages/dsp) with its golden vectors, the numbers that count. The bit-true constants the files
  * state and the vectors the release ships come from that same plan, so they cannot disagree.
  */
-import { compareAcquisition, measureAcquisition, tryPlanDesign, type AnalysisResult, type DesignPlan, type SpecIssue } from '@loopwright/dsp';
+import { measurePlanAcquisition, tryPlanDesign, type AnalysisResult, type DesignPlan, type SpecIssue } from '@loopwright/dsp';
 import type { HexMemoryFile } from './hexVectors.ts';
 import { releaseVectors } from './vectors.ts';
 import { referenceRtlSummary } from './rtl.ts';
@@ -79,7 +79,7 @@ export function computeRelease(input: unknown): ComputeReleaseResult {
       results: {
         analysis: manifestAnalysis(plan.analysis),
         // Measured at the cut from the stored spec (under a second per demo spec), beside the estimates.
-        acquisition: compareAcquisition(plan.analysis.estimates, measureAcquisition(plan.spec)),
+        acquisition: measurePlanAcquisition(plan),
         vectors: vectors.summary,
         referenceRtl: referenceRtlSummary(releasable.bitTrue),
       },

@@ -31,12 +31,18 @@ export class AnalysisService {
    */
   async measureAcquisition(spec: LoopSpec, cancel?: AbortSignal, onProgress?: (fraction: number) => void): Promise<AcquisitionResponse> {
     const channel = onProgress ? new MessageChannel() : null;
-    channel?.port1.on('message', (fraction: number) => onProgress?.(fraction));
+    // The port and the pool's answer are separate channels: the last report may lag the answer, so
+    // completion is reported here and anything after it is dropped.
+    let last = 0;
+    channel?.port1.on('message', (fraction: number) => {
+      if (fraction > last) onProgress?.((last = fraction));
+    });
     try {
       const task = { kind: 'acquisition' as const, spec, ...(channel ? { progress: channel.port2 } : {}) };
       const outcome = await this.compute.run(task, cancel, channel ? [channel.port2] : undefined);
       if (!outcome.ok) throw issuesError(outcome.issues, outcome.prefix);
       if (outcome.kind !== 'acquisition') throw new Error('compute pool answered an acquisition with another kind');
+      if (last < 1) onProgress?.((last = 1));
       return { acquisition: outcome.acquisition };
     } finally {
       channel?.port1.close();

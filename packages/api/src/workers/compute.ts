@@ -5,9 +5,8 @@
  */
 import { threadId, type MessagePort } from 'node:worker_threads';
 import {
-  compareAcquisition,
   FieldError,
-  measureAcquisition,
+  measurePlanAcquisition,
   isScenarioField,
   parseScenario,
   simulatePlan,
@@ -77,7 +76,7 @@ function acquisitionOf(plan: Parameters<typeof simulatePlan>[0], port: MessagePo
       }
     : undefined;
   try {
-    return compareAcquisition(plan.analysis.estimates, measureAcquisition(plan.spec, onProgress ? { onProgress } : {}));
+    return measurePlanAcquisition(plan, onProgress ? { onProgress } : {});
   } finally {
     port?.close();
   }

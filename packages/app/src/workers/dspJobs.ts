@@ -4,8 +4,7 @@
  * Outputs are plain data so they cross postMessage.
  */
 import {
-  compareAcquisition,
-  measureAcquisition,
+  measurePlanAcquisition,
   planDesign,
   requireValidSpec,
   simulatePlanAsync,
@@ -112,8 +111,7 @@ export function wordLengthJob(spec: LoopSpec, input: WordLengthInput, ctx: JobCo
  * restarts the worker.
  */
 export function acquireJob(spec: LoopSpec, ctx: JobContext): AcquisitionComparison {
-  const plan = planDesign(requireValidSpec(spec));
-  return compareAcquisition(plan.analysis.estimates, measureAcquisition(plan.spec, { onProgress: (f) => ctx.onProgress(f) }));
+  return measurePlanAcquisition(planDesign(requireValidSpec(spec)), { onProgress: (f) => ctx.onProgress(f) });
 }
 
 export async function runDspJob(kind: DspJobKind, spec: LoopSpec, input: unknown, ctx: JobContext): Promise<unknown> {
