@@ -1,13 +1,16 @@
 /**
  * Conformance: an uploaded capture in the golden-vector CSV layout (dsp's VECTOR_CSV_COLUMNS, one
  * header line, one row of decimal integers per sample) compared value by value with the release's
- * golden vectors. Parsing is csv-parse's, and a malformed file is refused with the line that is wrong;
+ * golden vectors. Parsing is csv-parse's, and a malformed file is refused with the line that is wrong:
+ * a binary file before any parsing (it is not text, and the parser's view of it means nothing to a
+ * reader), a file with more or fewer samples than the golden vectors as having the wrong length;
  * the comparison is dsp's compareVectors against the release's stored golden CSV. Both run in the
  * compute pool (workers/handoffTasks.ts), never on the event loop.
  */
 import { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import { compareVectors, VECTOR_CSV_COLUMNS, type GoldenVectors } from '@loopwright/dsp';
+import { HIDDEN_TEXT_CHARACTERS } from '@loopwright/contract';
 
 export const MAX_REPORTED_MISMATCHES = 10;
 
@@ -25,13 +28,40 @@ export interface Comparison {
   readonly firstMismatches: readonly Mismatch[];
 }
 
+/** A capture refused before comparison; `line` is null when no one line is at fault (the file's length). */
 export class MalformedCapture extends Error {
   override readonly name = 'MalformedCapture';
   constructor(
-    readonly line: number,
+    readonly line: number | null,
     message: string,
   ) {
-    super(`line ${line}: ${message}`);
+    super(line === null ? message : `line ${line}: ${message}`);
+  }
+}
+
+/** Control and direction characters shown as \u escapes, so a message quoting the file shows what is there and nothing hides. */
+function printable(text: string, max = 80): string {
+  const cut = text.length > max ? `${text.slice(0, max)}…` : text;
+  return cut.replace(new RegExp(HIDDEN_TEXT_CHARACTERS.source, 'g'), (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}
+
+const count = (n: number) => n.toLocaleString('en');
+
+/**
+ * Refuse a file that is not text: a NUL or another control byte (tab, CR and LF aside) in the first
+ * 64 KiB, or bytes that are not UTF-8 (common practice, no source: how tools tell text from binary).
+ */
+function refuseBinary(bytes: Uint8Array): void {
+  const head = bytes.subarray(0, 65536);
+  const at = head.findIndex((b) => b < 0x20 && b !== 0x09 && b !== 0x0a && b !== 0x0d);
+  if (at >= 0) {
+    const line = 1 + head.subarray(0, at).filter((b) => b === 0x0a).length;
+    throw new MalformedCapture(line, `this is not a CSV text file (byte 0x${(head[at] as number).toString(16).padStart(2, '0')} at byte offset ${count(at)}: binary data, such as a waveform database or an archive); export the run as CSV text`);
+  }
+  try {
+    new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new MalformedCapture(null, 'this is not a CSV text file (it is not valid UTF-8 or ASCII text); export the run as CSV text');
   }
 }
 
@@ -49,6 +79,7 @@ interface ParsedRecord {
  */
 export async function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE_INFINITY): Promise<string[][]> {
   const want = VECTOR_CSV_COLUMNS.join(',');
+  refuseBinary(bytes);
   const parser = parse({ skip_empty_lines: true, trim: true, info: true, bom: true, relax_column_count: true });
   Readable.from([Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)]).pipe(parser);
   const rows: string[][] = [];
@@ -56,19 +87,19 @@ export async function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE
   try {
     for await (const { record, info } of parser as AsyncIterable<ParsedRecord>) {
       if (header) {
-        if (record.join(',') !== want) throw new MalformedCapture(info.lines, `the header must be "${want}", got "${record.join(',').slice(0, 200)}"`);
+        if (record.join(',') !== want) throw new MalformedCapture(info.lines, `the header must be "${want}", got "${printable(record.join(','))}"`);
         header = false;
         continue;
       }
       if (rows.length >= maxRows) {
-        throw new MalformedCapture(info.lines, `the release's golden vectors hold ${maxRows} samples, and this file has more rows; compare the first ${maxRows} samples of the run`);
+        throw new MalformedCapture(info.lines, `the file has the wrong length: the release's golden vectors hold ${count(maxRows)} samples, and this file has more rows; compare the first ${count(maxRows)} samples of the run`);
       }
       rows.push(checkedRow(record, info.lines));
     }
   } catch (err) {
     if (err instanceof MalformedCapture) throw err;
     const e = err as { lines?: number; message: string };
-    throw new MalformedCapture(e.lines ?? 1, `not readable as CSV (${e.message})`);
+    throw new MalformedCapture(e.lines ?? 1, `not readable as CSV (${printable(e.message, 160)})`);
   } finally {
     parser.destroy();
   }
@@ -79,7 +110,7 @@ export async function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE
 function checkedRow(record: string[], line: number): string[] {
   if (record.length !== VECTOR_CSV_COLUMNS.length) throw new MalformedCapture(line, `expected ${VECTOR_CSV_COLUMNS.length} values, got ${record.length}`);
   record.forEach((cell, i) => {
-    if (!INTEGER.test(cell)) throw new MalformedCapture(line, `column ${VECTOR_CSV_COLUMNS[i]}: "${cell.slice(0, 40)}" is not a decimal integer`);
+    if (!INTEGER.test(cell)) throw new MalformedCapture(line, `column ${VECTOR_CSV_COLUMNS[i]}: "${printable(cell, 40)}" is not a decimal integer`);
   });
   return record;
 }
@@ -87,7 +118,14 @@ function checkedRow(record: string[], line: number): string[] {
 /** A capture against a release's stored golden CSV, capped at the golden rows (run in the compute pool). */
 export async function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario: GoldenVectors['scenario'], ncoAccumulatorBits: number): Promise<Comparison> {
   const goldenRows = await readVectorCsv(golden);
-  return compareWithGolden(goldenFromRows(goldenRows, scenario, ncoAccumulatorBits), await readVectorCsv(capture, goldenRows.length));
+  const rows = await readVectorCsv(capture, goldenRows.length);
+  // A short file (a header alone, a run cut off) is the wrong file or an unfinished run, not a list of
+  // mismatching values: say so, with both counts.
+  if (rows.length !== goldenRows.length) {
+    const found = rows.length === 0 ? 'found none (the file holds the header only)' : `found ${count(rows.length)}`;
+    throw new MalformedCapture(null, `the file has the wrong length: expected ${count(goldenRows.length)} samples (one row each after the header, as in the release's golden vectors), ${found}`);
+  }
+  return compareWithGolden(goldenFromRows(goldenRows, scenario, ncoAccumulatorBits), rows);
 }
 
 /** The stored golden CSV of a release as dsp's GoldenVectors (the stored bytes are the reference, not a recomputation). */

@@ -209,6 +209,15 @@ describe('hand-off flow', () => {
     expect(res.body.error.field).toBe('file');
     expect(res.body.error.message).toContain('line 5');
     expect(res.body.error.message).toContain('filter_code');
+    // A header alone, a run cut short and a binary file: refused, saying what is wrong with the file.
+    const clean = downloaded.get('mains_sync_50hz_vectors.csv')!.toString('utf8').split('\n');
+    const headerOnly = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from(`${golden[0]}\n`), 'empty_run.csv').expect(400);
+    expect(headerOnly.body.error.message).toContain('the file has the wrong length: expected 4,096 samples');
+    expect(headerOnly.body.error.message).toContain('found none (the file holds the header only)');
+    const cut = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from(clean.slice(0, 2001).join('\n')), 'cut.csv').expect(400);
+    expect(cut.body.error.message).toMatch(/wrong length: expected 4,096 samples .*, found 2,000$/);
+    const binary = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from([0x1f, 0x8b, 0x08, 0x00, 0xde, 0xad, 0xbe, 0xef]), 'wave.fst').expect(400);
+    expect(binary.body.error.message).toMatch(/^wave\.fst: line 1: this is not a CSV text file/);
     const huge = Buffer.alloc(9 * 1024 * 1024, 0x20);
     const tooBig = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', huge, 'huge.csv').expect(413);
     expect(tooBig.body.error.code).toBe('payload_too_large');
@@ -216,8 +225,9 @@ describe('hand-off flow', () => {
     expect(runs.body.runs).toHaveLength(2);
     // The refused capture stays in the release's record: who tried which file, and why.
     const refused = (await h.dataSource.query("SELECT actorEmail, detailJson FROM audit_entries WHERE action = 'release.conformance-rejected' AND objectType = 'release' AND objectId = ?", [String(releaseId)])) as { actorEmail: string; detailJson: string }[];
-    expect(refused).toHaveLength(1);
-    expect(JSON.parse(refused[0]!.detailJson)).toMatchObject({ fileName: 'x.csv', reason: expect.stringContaining('line 5') });
+    expect(refused).toHaveLength(4);
+    expect(refused.map((r) => (JSON.parse(r.detailJson) as { fileName: string }).fileName).sort()).toEqual(['cut.csv', 'empty_run.csv', 'wave.fst', 'x.csv']);
+    expect(refused.map((r) => JSON.parse(r.detailJson) as { fileName: string; reason: string }).find((d) => d.fileName === 'x.csv')).toMatchObject({ reason: expect.stringContaining('line 5') });
   });
 
   it('has no way to change a release: no update route, and the database refuses', async () => {

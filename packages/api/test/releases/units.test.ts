@@ -5,7 +5,7 @@ import { changedFigures } from '../../src/releases/diff.ts';
 import { issueToken, parseToken, tokenHash, tokenMatches } from '../../src/releases/reviewToken.ts';
 import { RELEASE_EVENTS, RELEASE_STATES } from '@loopwright/contract';
 import { allowedEvents, transition } from '../../src/releases/stateMachine.ts';
-import { compareWithGolden, goldenFromRows, readVectorCsv } from '../../src/releases/vectorCompare.ts';
+import { compareCapture, compareWithGolden, goldenFromRows, readVectorCsv } from '../../src/releases/vectorCompare.ts';
 
 describe('release state machine', () => {
   it('allows exactly the documented transitions', () => {
@@ -107,7 +107,30 @@ describe('golden vector comparison (dsp compareVectors on the stored CSV)', () =
     await expect(parseVectorCsv(`${header}\n${row(0)}\n1,2,3\n`)).rejects.toThrow(/^line 3: expected 7 values, got 3/);
     await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1).replace('-7', 'x')}\n`)).rejects.toThrow(/^line 3: column nco_code: "x" is not a decimal integer/);
     await expect(parseVectorCsv(`${header}\n"unterminated\n`)).rejects.toThrow(/^line \d+: not readable as CSV/);
-    await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1)}\n${row(2)}\n`, 2)).rejects.toThrow(/^line 4: the release's golden vectors hold 2 samples, and this file has more rows/);
+    await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1)}\n${row(2)}\n`, 2)).rejects.toThrow(/^line 4: the file has the wrong length: the release's golden vectors hold 2 samples, and this file has more rows/);
+  });
+
+  it('says a header-only or cut-off file has the wrong length, with both sample counts', async () => {
+    const golden = Buffer.from(goldenText);
+    await expect(compareCapture(golden, Buffer.from(`${header}\n`), scenario, 32)).rejects.toThrow(
+      /^the file has the wrong length: expected 3 samples \(one row each after the header, as in the release's golden vectors\), found none \(the file holds the header only\)$/,
+    );
+    await expect(compareCapture(golden, Buffer.from([header, row(0), row(1)].join('\n')), scenario, 32)).rejects.toThrow(/^the file has the wrong length: expected 3 samples .*, found 2$/);
+    expect((await compareCapture(golden, golden, scenario, 32)).verdict).toBe('bit-exact');
+  });
+
+  it('refuses a binary file as not CSV text instead of quoting what the parser made of it', async () => {
+    // A gzip member starts 1f 8b 08 (RFC 1952); a UTF-16 export puts a NUL after every ASCII byte.
+    const gzip = Buffer.from([0x1f, 0x8b, 0x08, 0x00, 0x00, 0x00, 0x00, 0x00, 0x00, 0x03, 0x4b, 0x4c]);
+    await expect(parseVectorCsv(gzip.toString('latin1'))).rejects.toThrow(/^line 1: this is not a CSV text file \(byte 0x1f at byte offset 0: binary data/);
+    await expect(readVectorCsv(gzip)).rejects.toThrow(/not a CSV text file/);
+    const utf16 = Buffer.from(`${header}\n${row(0)}\n`, 'utf16le');
+    await expect(readVectorCsv(utf16)).rejects.toThrow(/^line 1: this is not a CSV text file \(byte 0x00 at byte offset 1/);
+    await expect(readVectorCsv(Buffer.from([0x73, 0x61, 0xff, 0xfe, 0x0a]))).rejects.toThrow(/^this is not a CSV text file \(it is not valid UTF-8/);
+  });
+
+  it('quotes a wrong header with its invisible characters escaped', async () => {
+    await expect(parseVectorCsv('sample,\u202einput\n1\n')).rejects.toThrow(/got "sample,\\u202einput"/);
   });
 });
 

@@ -52,7 +52,9 @@ export function runViews(runs: readonly ConformanceRecord[]): RunView[] {
     summary:
       r.verdict === 'bit-exact'
         ? `bit-exact over ${r.samplesCompared.toLocaleString('en')} samples`
-        : `${r.mismatchCount.toLocaleString('en')} mismatching value(s) in ${r.samplesCompared.toLocaleString('en')} samples`,
+        : r.samplesCompared === 0
+          ? 'no samples compared: the file held no sample rows (such files are now refused as having the wrong length)'
+          : `${r.mismatchCount.toLocaleString('en')} mismatching value(s) in ${r.samplesCompared.toLocaleString('en')} samples`,
     mismatches: r.firstMismatches,
   }));
 }
