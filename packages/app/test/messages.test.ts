@@ -25,6 +25,8 @@ describe('messages a person reads', () => {
     expect(describeError(new ApiError(400, 'invalid_input', 'password: must be at least 10 characters', 'password'))).toBe('Password must be at least 10 characters.');
     expect(describeError(new ApiError(409, 'conflict', 'this review link was already used; each link decides once', 'token'))).toBe('This review link was already used; each link decides once.');
     expect(describeError(new ApiError(400, 'invalid_input', 'newPassword: must be at least 10 characters', 'newPassword'))).toBe('New password must be at least 10 characters.');
+    // An uploaded spec's field is named under "file." by the API; the reader sees the form's label.
+    expect(describeError(new ApiError(400, 'invalid_input', 'sampleRateHz: must be above 0', 'file.sampleRateHz'))).toBe('Loop update rate must be above 0 Hz.');
   });
 
   it('shows the spec form a sentence under the field, not zod\'s "Too small: expected number to be >=2"', () => {

@@ -20,7 +20,8 @@ const NO_UNIT = new Set(['', '—', 'id', 'FS', '1–4']);
 
 /** "newPassword" → "New password"; "spec.filter.tau1S" → the form's label "τ1". */
 export function labelOf(field: string): { label: string; unit: string } {
-  const specPath = field.startsWith('spec.') ? field.slice(5) : field;
+  // The API names a spec field under the request part it came in: spec.<path> (JSON) or file.<path> (an uploaded spec).
+  const specPath = field.replace(/^(spec|file)\./, '');
   const def = fieldAt(specPath);
   if (def) return { label: def.label, unit: def.unit };
   const last = field.split('.').pop() ?? field;
@@ -45,7 +46,7 @@ export function asSentence(text: string): string {
 
 /** Drops every leading "path: " the layers below put in front (the field is named once, by label). */
 function withoutPathPrefixes(field: string, message: string): string {
-  const paths = new Set([field, field.replace(/^spec\./, ''), field.split('.').pop() ?? field].filter((p) => p !== ''));
+  const paths = new Set([field, field.replace(/^(spec|file)\./, ''), field.split('.').pop() ?? field].filter((p) => p !== ''));
   let m = message.trim();
   for (let changed = true; changed; ) {
     changed = false;
