@@ -112,7 +112,7 @@ describe('the seeded demo', () => {
   });
 
   it('gives the reviewer the waiting mail and a review page with all the evidence', async () => {
-    const mail = await stack.mail.waitFor((m) => m.subject === 'Review requested: mains_sync_50hz v4');
+    const mail = await stack.mail.waitFor((m) => m.subject.startsWith('Review requested:') && m.subject.endsWith('Mains sync PI loop v4'));
     const link = new RegExp(`${stack.baseUrl.replace(/[.:/]/g, '\\$&')}/review/[^\\s"'<>]+`).exec(mail.text);
     expect(link).not.toBeNull();
     const page = await freshPage();

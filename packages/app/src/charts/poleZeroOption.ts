@@ -25,7 +25,7 @@ const xy = (roots: readonly { re: number; im: number }[]) => roots.map((r) => [r
 export function poleZeroOption(filter: QuantizedFilter): EChartsCoreOption {
   const n = Math.max(filter.sections.length, 1);
   const widthPct = 100 / n;
-  const grids = filter.sections.map((_, i) => ({ left: `${i * widthPct + 4}%`, width: `${widthPct - 8}%`, top: 56, bottom: 34, containLabel: false }));
+  const grids = filter.sections.map((_, i) => ({ left: `${i * widthPct + 4}%`, width: `${widthPct - 8}%`, top: 70, bottom: 34, containLabel: false }));
   const series: object[] = [];
   filter.sections.forEach((s, i) => {
     const designed = sectionPolesZeros(s.reference);
@@ -52,10 +52,10 @@ export function poleZeroOption(filter: QuantizedFilter): EChartsCoreOption {
   return {
     animation: chartAnimation(),
     title: filter.sections.map((s, i) => ({
-      text: `Section ${s.index + 1}: pole radius ${s.poleRadius.toPrecision(8)} (designed ${s.referencePoleRadius.toPrecision(8)}), ${s.stability}`,
+      text: `Section ${s.index + 1}: ${s.stability}\npole radius ${s.poleRadius.toPrecision(8)}, designed ${s.referencePoleRadius.toPrecision(8)}`,
       left: `${i * widthPct + 4}%`,
-      top: 26,
-      textStyle: { fontSize: 11, fontWeight: 'normal' },
+      top: 24,
+      textStyle: { fontSize: 11, fontWeight: 'normal', lineHeight: 14 },
     })),
     legend: { top: 0, data: ['Poles, designed', 'Zeros, designed', 'Poles, quantised', 'Zeros, quantised'] },
     tooltip: { trigger: 'item', formatter: (p: { seriesName: string; value: [number, number] }) => `${p.seriesName}<br/>z = ${p.value[0].toPrecision(10)} ${p.value[1] < 0 ? '−' : '+'} j${Math.abs(p.value[1]).toPrecision(10)}<br/>|z| = ${Math.hypot(p.value[0], p.value[1]).toPrecision(10)}` },
