@@ -4,8 +4,8 @@ import type { GoldenVectors, LoopSpec } from '@loopwright/dsp';
 import type { DataSource } from 'typeorm';
 import type { SessionUser } from '@loopwright/contract';
 import { AppError, invalidInput } from '../errors.ts';
-import type { AuditService } from '../services/audit.ts';
-import { CONFORMANCE_UPLOAD_FIELD, type ConformanceRecord } from '@loopwright/contract';
+import type { AuditActor, AuditService } from '../services/audit.ts';
+import { CONFORMANCE_UPLOAD_FIELD, CONFORMANCE_UPLOAD_LIMIT_BYTES, type ConformanceRecord } from '@loopwright/contract';
 import { ConformanceRun } from './entities/index.ts';
 import type { Actor, ReleaseService } from './releaseService.ts';
 import { artifactNames } from '../render/artifacts.ts';
@@ -96,6 +96,23 @@ export class ConformanceService {
     const [record] = await this.query(row.id, id);
     if (!record) throw new AppError('internal', 'the conformance run was not stored', 500);
     return record;
+  }
+
+  /**
+   * An upload refused before it reached upload() (the multipart parser: too large, another field) goes
+   * into the release's audit trail as the other refusals do, when the sender may see that release.
+   */
+  async recordRefusedUpload(releaseIdText: string | string[] | undefined, user: SessionUser | undefined, actor: AuditActor, error: unknown): Promise<void> {
+    const releaseId = typeof releaseIdText === 'string' ? Number(releaseIdText) : NaN;
+    if (!user || !Number.isInteger(releaseId) || releaseId <= 0) return;
+    const row = await this.releases.visibleRow(user.organizationId, releaseId, user).catch(() => null);
+    if (!row) return;
+    const code = (error as { code?: string }).code;
+    const reason =
+      code === 'LIMIT_FILE_SIZE'
+        ? `the file is larger than the ${CONFORMANCE_UPLOAD_LIMIT_BYTES / (1024 * 1024)} MiB a capture may be`
+        : `the upload was refused before it was read (${String((error as { message?: string }).message ?? code ?? 'multipart error').slice(0, 200)})`;
+    await this.audit.record({ ...actor, id: user.id }, { action: 'release.conformance-rejected', objectType: 'release', objectId: row.id, detail: { fileName: null, sizeBytes: null, reason } });
   }
 
   async list(organizationId: number, releaseId: number, user: SessionUser): Promise<ConformanceRecord[]> {

@@ -199,7 +199,11 @@ export const releaseRoutes = (reviewLinkLimiter: RequestHandler) => [
     summary: `upload a capture CSV in the golden-vector layout (multipart field "${CONFORMANCE_UPLOAD_FIELD}"); stores and returns the verdict`,
     status: 201,
     params: releaseParamsSchema,
-    upload: { field: CONFORMANCE_UPLOAD_FIELD, limitBytes: CONFORMANCE_UPLOAD_LIMIT_BYTES },
+    upload: {
+      field: CONFORMANCE_UPLOAD_FIELD,
+      limitBytes: CONFORMANCE_UPLOAD_LIMIT_BYTES,
+      onRefused: ({ services, user, actor, params, error }) => services.handoff.conformance.recordRefusedUpload(params['id'], user, actor, error),
+    },
     body: z.strictObject({}),
     handler: ({ services, user, params, file, actor }) => services.handoff.conformance.upload(user.organizationId, params.id, file, user, { ...actor, id: user.id }),
   }),

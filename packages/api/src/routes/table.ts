@@ -27,6 +27,15 @@ export interface RouteContext<P, Q, B> {
   readonly res: Response;
 }
 
+/** An upload the multipart parser refused, with who sent it and to which path. */
+export interface UploadRefusal {
+  readonly services: Services;
+  readonly user: SessionUser | undefined;
+  readonly actor: AuditActor;
+  readonly params: Readonly<Record<string, string | string[] | undefined>>;
+  readonly error: unknown;
+}
+
 export interface RouteSpec<P extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType, B extends z.ZodType = z.ZodType> {
   readonly method: Method;
   /** Relative to /api. */
@@ -36,8 +45,12 @@ export interface RouteSpec<P extends z.ZodType = z.ZodType, Q extends z.ZodType 
   readonly params?: P;
   readonly query?: Q;
   readonly body?: B;
-  /** Multipart upload of one file in this field (memory storage, size-limited; limitBytes overrides the default). */
-  readonly upload?: { readonly field: string; readonly limitBytes?: number };
+  /**
+   * Multipart upload of one file in this field (memory storage, size-limited; limitBytes overrides the
+   * default). `onRefused` is told of an upload the multipart parser refuses (too large, a wrong field)
+   * before the error answers the request, so a route can keep a record of it.
+   */
+  readonly upload?: { readonly field: string; readonly limitBytes?: number; readonly onRefused?: (refusal: UploadRefusal) => Promise<void> };
   /** 'token': the URL carries a secret token that is the authority, so the CSRF header is not required. */
   readonly csrf?: 'header' | 'token';
   /** Extra middleware run after the access check and before validation (e.g. a rate limiter). */
@@ -142,7 +155,23 @@ export function mountRoutes(router: Router, routes: readonly RouteSpec[], servic
     const chain: RequestHandler[] = [];
     if (spec.csrf !== 'token') chain.push(requireCsrfHeader);
     chain.push(checkAccess(spec.access), ...(spec.before ?? []));
-    if (spec.upload) chain.push((spec.upload.limitBytes === undefined ? upload : uploader(spec.upload.limitBytes)).single(spec.upload.field));
+    if (spec.upload) {
+      const single = (spec.upload.limitBytes === undefined ? upload : uploader(spec.upload.limitBytes)).single(spec.upload.field);
+      const onRefused = spec.upload.onRefused;
+      chain.push(
+        onRefused
+          ? (req, res, next) =>
+              single(req, res, (err?: unknown) => {
+                if (!err) return next();
+                // The record is best effort: the refusal answers the request whether or not it was written.
+                onRefused({ services, user: req.user, actor: actorOf(req), params: { ...req.params }, error: err }).then(
+                  () => next(err),
+                  () => next(err),
+                );
+              })
+          : single,
+      );
+    }
     chain.push(run(spec, services));
     router[spec.method](spec.path, ...chain);
   }

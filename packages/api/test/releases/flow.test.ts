@@ -225,8 +225,11 @@ describe('hand-off flow', () => {
     expect(runs.body.runs).toHaveLength(2);
     // The refused capture stays in the release's record: who tried which file, and why.
     const refused = (await h.dataSource.query("SELECT actorEmail, detailJson FROM audit_entries WHERE action = 'release.conformance-rejected' AND objectType = 'release' AND objectId = ?", [String(releaseId)])) as { actorEmail: string; detailJson: string }[];
-    expect(refused).toHaveLength(4);
-    expect(refused.map((r) => (JSON.parse(r.detailJson) as { fileName: string }).fileName).sort()).toEqual(['cut.csv', 'empty_run.csv', 'wave.fst', 'x.csv']);
+    expect(refused).toHaveLength(5);
+    const details = refused.map((r) => JSON.parse(r.detailJson) as { fileName: string | null; reason: string });
+    expect(details.map((d) => d.fileName).filter((n) => n !== null).sort()).toEqual(['cut.csv', 'empty_run.csv', 'wave.fst', 'x.csv']);
+    // The 9 MiB file never reached the comparison; the parser's refusal is recorded all the same.
+    expect(details.find((d) => d.fileName === null)?.reason).toBe('the file is larger than the 8 MiB a capture may be');
     expect(refused.map((r) => JSON.parse(r.detailJson) as { fileName: string; reason: string }).find((d) => d.fileName === 'x.csv')).toMatchObject({ reason: expect.stringContaining('line 5') });
   });
 
