@@ -7,6 +7,7 @@ import { draftToSpec, specToDraft, type SpecDraft } from '../form/specDraft.ts';
 import { checkDraft } from '../form/specValidation.ts';
 import { threeWay, type ThreeWayChange } from '../lib/specDiff.ts';
 import { filterSwitchEdits } from '../form/filterSwitch.ts';
+import { useLoadState } from './loadState.ts';
 
 export interface SaveConflict {
   readonly theirs: Design;
@@ -18,9 +19,8 @@ export const useDesignStore = defineStore('design', () => {
   const design = ref<Design | null>(null);
   const draft = ref<SpecDraft>({});
   const baseDraft = ref<SpecDraft>({});
-  const loading = ref(false);
+  const { loading, error: loadError, track } = useLoadState();
   const saving = ref(false);
-  const loadError = ref<unknown>(null);
   const conflict = ref<SaveConflict | null>(null);
 
   const check = computed(() => checkDraft(draft.value));
@@ -33,16 +33,10 @@ export const useDesignStore = defineStore('design', () => {
   }
 
   async function load(id: number): Promise<void> {
-    loading.value = true;
-    loadError.value = null;
     conflict.value = null;
-    try {
+    await track(async () => {
       adopt(await designsApi.get(id));
-    } catch (cause) {
-      loadError.value = cause;
-    } finally {
-      loading.value = false;
-    }
+    });
   }
 
   function setField(path: string, value: string): void {

@@ -3,29 +3,23 @@ import { ref } from 'vue';
 import { releasesApi } from '../api/releasesApi.ts';
 import { projectsApi } from '../api/projectsApi.ts';
 import type { ConformanceRecord, ReleaseRecord } from '../api/types.ts';
+import { useLoadState } from './loadState.ts';
 
 /** Approved releases across projects (the firmware engineer's shelf) and conformance runs. */
 export const useDownloadsStore = defineStore('downloads', () => {
   const releases = ref<ReleaseRecord[]>([]);
   const projectNames = ref<Record<number, string>>({});
-  const loading = ref(false);
-  const error = ref<unknown>(null);
+  const { loading, error, track } = useLoadState();
   const runs = ref<Record<number, ConformanceRecord[]>>({});
   const uploading = ref(false);
 
   async function load(): Promise<void> {
-    loading.value = true;
-    error.value = null;
-    try {
+    await track(async () => {
       const [list, projects] = await Promise.all([releasesApi.approved(), projectsApi.list().catch(() => [])]);
       projectNames.value = Object.fromEntries(projects.map((p) => [p.id, p.name]));
       const full = await Promise.all(list.map((r) => releasesApi.get(r.id)));
       releases.value = full.sort((a, b) => b.stateChangedAt.localeCompare(a.stateChangedAt));
-    } catch (cause) {
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+    });
   }
 
   async function loadRuns(releaseId: number): Promise<void> {

@@ -3,30 +3,24 @@ import { ref } from 'vue';
 import { projectsApi, type CreateDesignRequest, type CreateProjectRequest } from '../api/projectsApi.ts';
 import { designsApi } from '../api/designsApi.ts';
 import type { DesignListItem, DesignSummary, Project } from '../api/types.ts';
+import { useLoadState } from './loadState.ts';
 
 export const useProjectsStore = defineStore('projects', () => {
   const projects = ref<Project[]>([]);
   const designsByProject = ref<Record<number, DesignListItem[]>>({});
   /** Archived designs are listed too (marked) when this is on. */
   const showArchived = ref(false);
-  const loading = ref(false);
-  const error = ref<unknown>(null);
+  const { loading, error, track } = useLoadState();
 
   async function load(): Promise<void> {
-    loading.value = true;
-    error.value = null;
-    try {
+    await track(async () => {
       projects.value = await projectsApi.list();
       const archived = showArchived.value ? 'all' : 'false';
       const lists = await Promise.all(projects.value.map((p) => projectsApi.designs(p.id, archived)));
       const byProject: Record<number, DesignListItem[]> = {};
       projects.value.forEach((p, i) => (byProject[p.id] = lists[i] ?? []));
       designsByProject.value = byProject;
-    } catch (cause) {
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+    });
   }
 
   async function setShowArchived(on: boolean): Promise<void> {

@@ -4,6 +4,7 @@ import { releasesApi } from '../api/releasesApi.ts';
 import { designsApi } from '../api/designsApi.ts';
 import { diffDocuments } from '../lib/specDiff.ts';
 import type { Design, ReleaseDiff, ReleaseRecord, ReleaseSummary, ReviewerChoice, ReviewRequest } from '../api/types.ts';
+import { useLoadState } from './loadState.ts';
 
 /** The releases of one design: list, full records, cutting, review requests and diffs. */
 export const useReleasesStore = defineStore('releases', () => {
@@ -11,8 +12,7 @@ export const useReleasesStore = defineStore('releases', () => {
   const design = ref<Design | null>(null);
   const releases = ref<ReleaseSummary[]>([]);
   const records = ref<Record<number, ReleaseRecord>>({});
-  const loading = ref(false);
-  const error = ref<unknown>(null);
+  const { loading, error, track } = useLoadState();
   const cutting = ref(false);
   const reviewers = ref<ReviewerChoice[]>([]);
   const diff = ref<ReleaseDiff | null>(null);
@@ -20,20 +20,14 @@ export const useReleasesStore = defineStore('releases', () => {
 
   async function load(id: number): Promise<void> {
     designId.value = id;
-    loading.value = true;
-    error.value = null;
     diff.value = null;
-    try {
+    await track(async () => {
       const [d, list] = await Promise.all([designsApi.get(id), releasesApi.forDesign(id)]);
       design.value = d;
       releases.value = [...list].sort((a, b) => b.number - a.number);
       const full = await Promise.all(releases.value.map((r) => releasesApi.get(r.id)));
       records.value = Object.fromEntries(full.map((r) => [r.id, r]));
-    } catch (cause) {
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+    });
   }
 
   async function refresh(releaseId: number): Promise<ReleaseRecord> {
