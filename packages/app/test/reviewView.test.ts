@@ -7,8 +7,10 @@ import { reviewLinksApi } from '../src/api/reviewLinksApi.ts';
 import { ApiError } from '../src/api/client.ts';
 import type { ReleaseVerificationRecord, ReviewLinkView } from '../src/api/types.ts';
 
-// The release report draws plots through the worker; this test is about the decision.
+// The release report draws plots through the worker, and the evidence reads the release's files over
+// HTTP; this test is about the decision.
 vi.mock('../src/components/ReleaseReport.vue', () => ({ default: { render: () => null } }));
+vi.mock('../src/components/ReviewEvidence.vue', () => ({ default: { render: () => null } }));
 const { default: ReviewView } = await import('../src/views/ReviewView.vue');
 
 const SHA = 'f'.repeat(64);
@@ -57,6 +59,20 @@ describe('review page', () => {
     await wrapper.find('[data-test="submit-decision"]').trigger('click');
     await flushPromises();
     expect(decide).toHaveBeenCalledWith('tok.en', { decision: 'approve', manifestSha256: SHA });
+    expect(wrapper.find('[data-test="review-outcome"]').text()).toContain('approved');
+  });
+
+  it('stops reading the link once the decision is sent, while the yosys estimate is still running', async () => {
+    // The page reads the link every 2 s until verification is done; a spent link must not be read again.
+    const running = { ...view, release: { ...view.release, verification: { ...PASSED, state: 'running' as const } } };
+    const read = vi.spyOn(reviewLinksApi, 'read').mockResolvedValue(running);
+    vi.spyOn(reviewLinksApi, 'decide').mockResolvedValue({ decision: 'approve', state: 'approved', approvals: 1, approvalsRequired: 1 });
+    const wrapper = await mountAt('tok.en');
+    await wrapper.find('[data-test="submit-decision"]').trigger('click');
+    await flushPromises();
+    await new Promise((r) => setTimeout(r, 2500));
+    await flushPromises();
+    expect(read).toHaveBeenCalledTimes(1);
     expect(wrapper.find('[data-test="review-outcome"]').text()).toContain('approved');
   });
 
