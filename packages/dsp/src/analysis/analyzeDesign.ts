@@ -12,7 +12,7 @@ import type { AcquisitionEstimates, SteadyStateErrors, StepResponses } from '../
 import type { LoopFilterDesign } from '../design.ts';
 import { analogDcGain } from '../filters/sections.ts';
 import { type LoopGain, loopGain } from './loopGain.ts';
-import { analogLoopResponse, closedFromOpen, closedLoop, errorFromOpen, toDb } from './response.ts';
+import { analogLoopResponse, closedDbOfOpen, closedLoop, errorDbOfOpen } from './response.ts';
 import { logGrid } from './grid.ts';
 import { sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
@@ -110,13 +110,14 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
   const analogMargins = loopMargins(analogFn, analogOpen);
   const analogPolys = analogClosedLoop(design.analog, k);
   const analogStable = routhHurwitzStable(analogPolys.h.den);
-  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, analogOpen.values.map(closedFromOpen), analogStable);
+  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, closedDbOfOpen(analogOpen.values), analogStable);
 
   const discrete = discreteLoopMargins(spec, design.sections, { fMinHz: range.fMinHz, points });
   const plotGrid = discrete.open.freqHz;
   const analogOnPlot = sampleResponse(analogFn, plotGrid, loopType);
 
-  const quantization = quantizedLoop(spec, parts.quantization, parts.nco.control, range.fMinHz, points);
+  // The quantised loop on the same grid (the same fMin, points and fs/2), made once.
+  const quantization = quantizedLoop(spec, parts.quantization, parts.nco.control, { fMinHz: range.fMinHz, points, freqHz: plotGrid });
   const second = secondOrderParameters(spec, k, design.tau);
   const dcGain = analogDcGain(design.analogSections);
   const bode: BodePlotData = {
@@ -125,10 +126,10 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
     analogPhaseDeg: analogOnPlot.phaseDeg,
     discreteMagnitudeDb: discrete.open.magnitudeDb,
     discretePhaseDeg: discrete.open.phaseDeg,
-    analogClosedLoopDb: analogOnPlot.values.map((l) => toDb(closedFromOpen(l))),
-    discreteClosedLoopDb: discrete.open.values.map((l) => toDb(closedFromOpen(l))),
-    analogErrorDb: analogOnPlot.values.map((l) => toDb(errorFromOpen(l))),
-    discreteErrorDb: discrete.open.values.map((l) => toDb(errorFromOpen(l))),
+    analogClosedLoopDb: closedDbOfOpen(analogOnPlot.values),
+    discreteClosedLoopDb: discrete.closedDb!,
+    analogErrorDb: errorDbOfOpen(analogOnPlot.values),
+    discreteErrorDb: errorDbOfOpen(discrete.open.values),
     quantizedMagnitudeDb: quantization.open?.magnitudeDb ?? null,
     quantizedPhaseDeg: quantization.open?.phaseDeg ?? null,
   };

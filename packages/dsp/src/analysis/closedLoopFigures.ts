@@ -6,7 +6,6 @@
  * here has because the NCO integrates).
  */
 import { brentRoot, goldenMax } from './roots.ts';
-import type { Complex } from '../filters/complex.ts';
 import { type ResponseFn, toDb } from './response.ts';
 
 export interface ClosedLoopFigures {
@@ -20,8 +19,9 @@ export interface ClosedLoopFigures {
 export const MINUS_3DB = 10 * Math.log10(0.5);
 
 /**
- * Figures of the closed loop h on the grid; `samples` may give h on the grid already (from the open-loop
- * samples, H = L/(1 + L)) to save the evaluations. An unstable closed loop (`stable` false) has none.
+ * Figures of the closed loop h on the grid; `samplesDb` may give |h| in dB on the grid already (from the
+ * open-loop samples, H = L/(1 + L), which the Bode plot shows too) to save the evaluations. An unstable
+ * closed loop (`stable` false) has none.
  */
 export const UNSTABLE_NOTE =
   'the closed loop is unstable: |H| on the frequency axis is not a frequency response (there is no steady state), so its bandwidth, peaking and noise bandwidth do not exist';
@@ -29,11 +29,11 @@ export const UNSTABLE_NOTE =
 export function closedLoopFigures(
   h: ResponseFn,
   grid: readonly number[],
-  samples?: readonly Complex[],
+  samplesDb?: readonly number[],
   stable = true,
 ): ClosedLoopFigures {
   if (!stable) return { bandwidth3dbHz: null, peakingDb: null, peakHz: null, notes: [UNSTABLE_NOTE] };
-  const db = samples ? samples.map(toDb) : grid.map((f) => toDb(h(f)));
+  const db = samplesDb ?? grid.map((f) => toDb(h(f)));
   let iPeak = 0;
   for (let i = 1; i < db.length; i++) if (db[i]! > db[iPeak]!) iPeak = i;
   let peakingDb = Math.max(0, db[iPeak]!);

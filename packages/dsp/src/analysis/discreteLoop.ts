@@ -5,9 +5,8 @@
  */
 import type { DigitalTf, Sos } from '../types/filter.ts';
 import type { LoopSpec } from '../spec/schema.ts';
-import { sosToTf } from '../filters/sections.ts';
 import { loopGain } from './loopGain.ts';
-import { type DigitalFilter, closedFromOpen, closedLoop, discreteLoopResponse, isSections, type ResponseFn } from './response.ts';
+import { type DigitalFilter, closedDbOfOpen, closedLoop, discreteLoopResponse, isSections, type ResponseFn } from './response.ts';
 import { logGrid } from './grid.ts';
 import { type SampledResponse, sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
@@ -22,6 +21,8 @@ export interface DiscreteLoopOptions {
   readonly points?: number;
   /** Also compute closed-loop bandwidth and peaking (default true). */
   readonly closedLoop?: boolean;
+  /** The grid logGrid(fMin, fs/2, points) gives, when the caller has it already (the same numbers). */
+  readonly grid?: readonly number[];
 }
 
 export interface DiscreteLoopAnalysis {
@@ -29,6 +30,8 @@ export interface DiscreteLoopAnalysis {
   /** All closed-loop poles strictly inside the unit circle (section-wise test, stability.ts). */
   readonly stable: boolean;
   readonly closedLoop: ClosedLoopFigures | null;
+  /** |H| = |L/(1 + L)| in dB on the grid (what closedLoop was found from); null without closedLoop. */
+  readonly closedDb: readonly number[] | null;
   /** Open-loop samples on the grid (frequency, dB, unwrapped phase). */
   readonly open: SampledResponse;
   /** Loop type: 1 + integrators (poles at z = 1) of F. */
@@ -71,21 +74,22 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
   const fs = spec.sampleRateHz;
   const nyquistHz = fs / 2;
   const k = loopGain(spec).kRadPerS;
-  const tf: DigitalTf = isSections(filter) ? sosToTf(filter as readonly Sos[]) : filter;
   const loopType = 1 + integratorCount(filter);
   const fn = discreteLoopResponse(filter, k, fs);
   const fMin = Math.min(options.fMinHz ?? nyquistHz * 1e-7, nyquistHz / 10);
-  const grid = logGrid(fMin, nyquistHz, options.points ?? DEFAULT_POINTS);
+  const grid = options.grid ?? logGrid(fMin, nyquistHz, options.points ?? DEFAULT_POINTS);
   const open = sampleResponse(fn, grid, loopType);
   const margins = loopMargins(fn, open);
   // Sections (or a b/a of order ≤ 2) get the section-wise test; a high-order b/a only the b/a test.
-  const stable = isSections(filter)
-    ? discreteLoopStable(filter, k, fs)
-    : tf.a.length <= 3 && tf.b.length <= 3
-      ? discreteLoopStable([tfAsSection(tf)], k, fs)
-      : schurCohnStable(discreteClosedLoop(tf, k, fs).h.a);
-  const cl = options.closedLoop === false ? null : closedLoopFigures(closedLoop(fn), grid, open.values.map(closedFromOpen), stable);
-  return { margins, stable, closedLoop: cl, open, loopType, response: fn };
+  const stable = isSections(filter) ? discreteLoopStable(filter, k, fs) : transferFunctionStable(filter, k, fs);
+  const closedDb = options.closedLoop === false ? null : closedDbOfOpen(open.values);
+  const cl = closedDb === null ? null : closedLoopFigures(closedLoop(fn), grid, closedDb, stable);
+  return { margins, stable, closedLoop: cl, closedDb, open, loopType, response: fn };
+}
+
+/** Stability of the loop with a b/a filter: section-wise when of order ≤ 2, else Schur–Cohn on the b/a. */
+function transferFunctionStable(tf: DigitalTf, k: number, fs: number): boolean {
+  return tf.a.length <= 3 && tf.b.length <= 3 ? discreteLoopStable([tfAsSection(tf)], k, fs) : schurCohnStable(discreteClosedLoop(tf, k, fs).h.a);
 }
 
 /** A b/a of order ≤ 2 as one section. */

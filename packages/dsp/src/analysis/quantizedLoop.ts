@@ -32,14 +32,14 @@ export interface QuantizationSummary {
 }
 
 /** Analyse the quantised loop; a format that could not hold the coefficients is reported as it came. */
-export function quantizedLoop(spec: LoopSpec, quantization: QuantizationOutcome, control: NcoControlScaling | null, fMinHz: number, points: number) {
+export function quantizedLoop(spec: LoopSpec, quantization: QuantizationOutcome, control: NcoControlScaling | null, grid: { readonly fMinHz: number; readonly points: number; readonly freqHz?: readonly number[] }) {
   const { filter } = quantization;
   if (!filter) {
     const summary: QuantizationSummary = { filter: null, error: quantization.error, loop: null, datapath: null, noise: null, noiseNote: 'no quantised filter' };
     return { summary, open: null };
   }
   const sections = filter.sections.map((s) => s.quantized);
-  const loop = discreteLoopMargins(spec, sections, { fMinHz, points });
+  const loop = discreteLoopMargins(spec, sections, { fMinHz: grid.fMinHz, points: grid.points, grid: grid.freqHz });
   const datapath = datapathFigures(spec, filter.format.fractionBits);
   const stable = loop.stable && filter.stable;
   const noise = !control

@@ -165,11 +165,46 @@ export const DB_CEILING = 3000;
 
 /** 20·log10|h| in dB, within [DB_FLOOR, DB_CEILING]. */
 export function toDb(h: Complex): number {
+  return partsToDb(h.re, h.im);
+}
+
+/** toDb of re + j·im given as two numbers (no object in the loops below). */
+function partsToDb(re: number, im: number): number {
   // 10·log10(re² + im²) where the square neither overflows nor underflows: Math.hypot was a seventh of
   // analyzeDesign's time. Elsewhere (|h| beyond about 1e±150, clamped anyway) the magnitude itself.
-  const p = h.re * h.re + h.im * h.im;
+  const p = re * re + im * im;
   if (p > 1e-290 && p < 1e290) return Math.min(Math.max(10 * Math.log10(p), DB_FLOOR), DB_CEILING);
-  const m = Math.hypot(h.re, h.im);
+  const m = Math.hypot(re, im);
   if (!(m > 0)) return DB_FLOOR; // zero, or NaN from 0/0
   return Math.min(Math.max(20 * Math.log10(m), DB_FLOOR), DB_CEILING);
+}
+
+/**
+ * toDb(closedFromOpen(l)) for every open-loop sample, the quotient written out as cdiv computes it (the
+ * same operations in the same order, so the same doubles) without two objects per sample: this runs
+ * on the 600-point grids of the analysis.
+ */
+export function closedDbOfOpen(open: readonly Complex[]): number[] {
+  const out = new Array<number>(open.length);
+  for (let i = 0; i < open.length; i++) {
+    const l = open[i]!;
+    const br = 1 + l.re;
+    const bi = l.im;
+    const d = br * br + bi * bi;
+    out[i] = partsToDb((l.re * br + l.im * bi) / d, (l.im * br - l.re * bi) / d);
+  }
+  return out;
+}
+
+/** toDb(errorFromOpen(l)) for every open-loop sample, written out as closedDbOfOpen is. */
+export function errorDbOfOpen(open: readonly Complex[]): number[] {
+  const out = new Array<number>(open.length);
+  for (let i = 0; i < open.length; i++) {
+    const l = open[i]!;
+    const br = 1 + l.re;
+    const bi = l.im;
+    const d = br * br + bi * bi;
+    out[i] = partsToDb((1 * br + 0 * bi) / d, (0 * br - 1 * bi) / d);
+  }
+  return out;
 }
