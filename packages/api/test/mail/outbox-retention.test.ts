@@ -28,7 +28,7 @@ it('drops the text, with its review link, of every mail it delivered', async () 
   await vi.waitFor(async () => expect((await read())[0]?.sentAt).not.toBeNull(), { timeout: 10_000, interval: 50 });
   const rows = await read();
   expect(rows).toHaveLength(1);
-  expect(rows[0]).toMatchObject({ subject: 'Review requested: mains_sync_50hz v1', kind: 'review-request' });
+  expect(rows[0]).toMatchObject({ subject: 'Review requested: Hand-off mains-sync / Design mains-sync v1', kind: 'review-request' });
   expect(rows[0]!.sentAt).not.toBeNull();
   expect(rows[0]!.textBody ?? '').not.toContain(token.split('.')[1]);
   expect(rows[0]!.textBody ?? '').not.toContain('/review/');

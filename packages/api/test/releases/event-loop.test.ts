@@ -128,7 +128,7 @@ describe('while big uploads are compared, a big release is cut and a long simula
 
     expect(tooLong.status, tooLong.text.slice(0, 300)).toBe(400);
     expect(tooLong.body.error.field).toBe('file');
-    expect(tooLong.body.error.message).toMatch(/line 4098: .*4096 samples/);
+    expect(tooLong.body.error.message).toMatch(/line 4098: .*4,096 samples/);
     expect(tooLongAgain.status).toBe(400);
     expect(bitExact.status, bitExact.text.slice(0, 300)).toBe(201);
     expect(bitExact.body).toMatchObject({ verdict: 'bit-exact', samplesCompared: 4096, mismatchCount: 0 });

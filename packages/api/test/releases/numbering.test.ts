@@ -21,8 +21,11 @@ it('numbers 20 concurrent cuts of one design v1…v20, each once', async () => {
   expect(numbers).toEqual(Array.from({ length: 20 }, (_, i) => i + 1));
   const rows = (await h.dataSource.query('SELECT `number` FROM `releases` WHERE `designId` = ? ORDER BY `number`', [designId])) as { number: number }[];
   expect(rows.map((r) => Number(r.number))).toEqual(numbers);
-  // The same spec renders the same bytes every time (nothing time- or number-dependent in the files).
-  expect(new Set(responses.map((r) => r.body.manifestSha256)).size).toBe(1);
+  // The same spec renders the same bytes every time; only manifest.json, which names its release
+  // (label and cut time), differs from cut to cut (test/releases/manifest-stamp).
+  const sums = (files: { name: string; sha256: string }[]) => files.filter((f) => f.name !== 'manifest.json').map((f) => `${f.name} ${f.sha256}`).join('\n');
+  expect(new Set(responses.map((r) => sums(r.body.files))).size).toBe(1);
+  expect(new Set(responses.map((r) => r.body.manifestSha256)).size).toBe(20);
 });
 
 it('refuses a second row with a taken number (the unique index behind the lock)', async () => {
@@ -53,12 +56,13 @@ it('diffs two releases: spec fields, codes and margins that changed', async () =
   const diff = await h.designer.get(`/api/releases/${v2.body.id}/diff?against=${v1.body.id}`).expect(200);
   expect(diff.body.from.label).toBe('v1');
   expect(diff.body.to.label).toBe('v2');
-  expect(diff.body.spec).toEqual([{ path: 'filter.naturalHz', before: 5, after: 4 }]);
+  const rowsOf = (id: string) => (diff.body.sections as { id: string; rows: { key: string; before: string | null; after: string | null }[] }[]).find((sec) => sec.id === id)?.rows ?? [];
+  expect(rowsOf('spec').map((r) => [r.key, r.before, r.after])).toEqual([['filter.naturalHz', '5', '4']]);
   // PI from targets: tau1 = K/wn^2 grows, so the integrator-section codes change (G3 Ch. 2).
-  expect(diff.body.codes.map((c: { name: string }) => c.name)).toContain('MAINS_SYNC_50HZ_S0_B0');
-  const paths = diff.body.margins.map((m: { path: string }) => m.path);
-  expect(paths).toContain('discrete.phaseMarginDeg');
-  expect(paths.some((p: string) => p.startsWith('quantized.'))).toBe(true);
+  expect(rowsOf('codes').map((r) => r.key)).toContain('MAINS_SYNC_50HZ_S0_B0');
+  const keys = rowsOf('margins').map((r) => r.key);
+  expect(keys).toContain('discrete.phaseMarginDeg');
+  expect(keys.some((k) => k.startsWith('quantized.'))).toBe(true);
   const other = await designFromTemplate(h.designer, 'ultrasonic-single-pole');
   const foreign = await h.designer.post(`/api/designs/${other}/releases`).set(csrf).expect(201);
   const refused = await h.designer.get(`/api/releases/${v2.body.id}/diff?against=${foreign.body.id}`).expect(400);
