@@ -54,6 +54,16 @@ describe('DSP worker client', () => {
     await expect(job).rejects.toBeInstanceOf(JobCancelledError);
   });
 
+  it('reports a job cancelled whose result arrives after Cancel was pressed (a fast search beats the message)', async () => {
+    const { client, workers } = setup();
+    const controller = new AbortController();
+    const job = client.run('analyze', mainsSyncSpec, null, { signal: controller.signal });
+    const id = (workers[0]!.sent[0] as { id: number }).id;
+    controller.abort();
+    workers[0]!.reply({ type: 'done', id, output: { figure: 1 }, elapsedMs: 3 } as unknown as FromWorker);
+    await expect(job).rejects.toBeInstanceOf(JobCancelledError);
+  });
+
   it('restarts a worker that does not stop a cancelled job in time', async () => {
     vi.useFakeTimers();
     const { client, workers } = setup();

@@ -27,6 +27,8 @@ interface Pending {
   resolve(result: JobResult<unknown>): void;
   reject(error: Error): void;
   onProgress?: (fraction: number, label?: string) => void;
+  /** Cancel was asked for: a result that still arrives is dropped, as the person asked. */
+  cancelled?: boolean;
 }
 
 export type WorkerFactory = () => Worker;
@@ -66,7 +68,9 @@ export class DspClient {
   }
 
   private cancel(id: number): void {
-    if (!this.pending.has(id)) return;
+    const asked = this.pending.get(id);
+    if (!asked) return;
+    asked.cancelled = true;
     this.worker?.postMessage({ type: 'cancel', id } satisfies ToWorker);
     setTimeout(() => {
       const entry = this.pending.get(id);
@@ -93,11 +97,11 @@ export class DspClient {
       return;
     }
     this.pending.delete(message.id);
-    if (message.type === 'done') {
+    if (message.type === 'done' && !entry.cancelled) {
       entry.resolve({ output: message.output, elapsedMs: message.elapsedMs });
       return;
     }
-    entry.reject(message.cancelled ? new JobCancelledError() : new Error(message.message));
+    entry.reject(message.type === 'done' || message.cancelled ? new JobCancelledError() : new Error(message.message));
   }
 
   private fail(message: string): void {
