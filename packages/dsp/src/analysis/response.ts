@@ -180,31 +180,30 @@ function partsToDb(re: number, im: number): number {
 }
 
 /**
- * toDb(closedFromOpen(l)) for every open-loop sample, the quotient written out as cdiv computes it (the
- * same operations in the same order, so the same doubles) without two objects per sample: this runs
- * on the 600-point grids of the analysis.
+ * toDb(N/(1 + l)) for every open-loop sample l, with N = l (closed loop) or N = 1 (error transfer); the
+ * quotient written out as cdiv computes it (the same operations in the same order, so the same doubles)
+ * without two objects per sample: this runs on the 600-point grids of the analysis.
  */
-export function closedDbOfOpen(open: readonly Complex[]): number[] {
+function quotientDbOfOpen(open: readonly Complex[], numeratorIsOpen: boolean): number[] {
   const out = new Array<number>(open.length);
   for (let i = 0; i < open.length; i++) {
     const l = open[i]!;
+    const nr = numeratorIsOpen ? l.re : 1;
+    const ni = numeratorIsOpen ? l.im : 0;
     const br = 1 + l.re;
     const bi = l.im;
     const d = br * br + bi * bi;
-    out[i] = partsToDb((l.re * br + l.im * bi) / d, (l.im * br - l.re * bi) / d);
+    out[i] = partsToDb((nr * br + ni * bi) / d, (ni * br - nr * bi) / d);
   }
   return out;
 }
 
-/** toDb(errorFromOpen(l)) for every open-loop sample, written out as closedDbOfOpen is. */
+/** toDb(closedFromOpen(l)) for every open-loop sample. */
+export function closedDbOfOpen(open: readonly Complex[]): number[] {
+  return quotientDbOfOpen(open, true);
+}
+
+/** toDb(errorFromOpen(l)) for every open-loop sample. */
 export function errorDbOfOpen(open: readonly Complex[]): number[] {
-  const out = new Array<number>(open.length);
-  for (let i = 0; i < open.length; i++) {
-    const l = open[i]!;
-    const br = 1 + l.re;
-    const bi = l.im;
-    const d = br * br + bi * bi;
-    out[i] = partsToDb((1 * br + 0 * bi) / d, (0 * br - 1 * bi) / d);
-  }
-  return out;
+  return quotientDbOfOpen(open, false);
 }
