@@ -24,7 +24,9 @@ export const useDesignStore = defineStore('design', () => {
   const conflict = ref<SaveConflict | null>(null);
 
   const check = computed(() => checkDraft(draft.value));
-  const dirty = computed(() => JSON.stringify(draftToSpec(draft.value)) !== JSON.stringify(draftToSpec(baseDraft.value)));
+  // The stored spec's text is made once per load, not again on every keystroke.
+  const baseJson = computed(() => JSON.stringify(draftToSpec(baseDraft.value)));
+  const dirty = computed(() => JSON.stringify(draftToSpec(draft.value)) !== baseJson.value);
 
   function adopt(record: Design): void {
     design.value = record;
