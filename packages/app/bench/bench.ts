@@ -51,26 +51,54 @@ function median(values: readonly number[]): number {
 /**
  * The page-side measurement as source text: tsx would wrap a function literal's inner closures
  * in a helper that does not exist inside the page.
+ *
+ * The clock stops when the frame that shows the new analysis has been painted: each animation frame
+ * looks at the margins text; in the first frame where it changed, a task posted from that frame's
+ * animation callback runs once the frame's style, layout and paint are done (tasks queued during a
+ * frame run after it). Only then, off the clock, the Bode canvas is read back and compared with the
+ * drawing before the edit: if it still holds the old drawing, the wait goes on frame by frame until
+ * it changes, so the figure never ends before the new plot is on screen. `twoFramesMs` is the former
+ * end point (two more frames after the one where the text changed), kept for comparison with older runs.
  */
-function editAndWait(value: string): string {
+export function editAndWait(value: string): string {
   return `(async () => {
     const input = document.querySelector('input[data-test="filter-damping"]');
     const cell = document.querySelector('[data-test="row-phase-margin-discrete"]');
+    const canvas = document.querySelector('[data-test="bode-chart"] canvas');
+    const context = canvas.getContext('2d');
+    const drawing = () => new Uint32Array(context.getImageData(0, 0, canvas.width, canvas.height).data.buffer);
+    const sameDrawing = (a, b) => a.length === b.length && a.every((v, i) => v === b[i]);
     const before = cell.textContent;
+    const drawnBefore = drawing();
+    let twoFrames = null;
     const started = performance.now();
     input.value = ${JSON.stringify(value)};
     input.dispatchEvent(new Event('input', { bubbles: true }));
-    await new Promise((resolve) => {
-      const check = () => (cell.textContent !== before ? resolve() : requestAnimationFrame(check));
+    const paintedMs = await new Promise((resolve, reject) => {
+      const giveUp = setTimeout(() => reject(new Error('the Bode plot did not change within 10 s of the edit')), 10000);
+      const afterThisFrame = (then) => {
+        const channel = new MessageChannel();
+        channel.port1.onmessage = () => then(performance.now() - started);
+        channel.port2.postMessage(0);
+      };
+      const check = () => {
+        if (cell.textContent === before) return requestAnimationFrame(check);
+        if (twoFrames === null) {
+          twoFrames = new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(() => r(performance.now() - started))));
+        }
+        afterThisFrame((ms) => {
+          if (sameDrawing(drawing(), drawnBefore)) return requestAnimationFrame(check);
+          clearTimeout(giveUp);
+          resolve(ms);
+        });
+      };
       requestAnimationFrame(check);
     });
-    // Two frames: the chart's canvas is painted by then.
-    await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
-    return performance.now() - started;
+    return [paintedMs, await twoFrames];
   })()`;
 }
 
-async function measureAnalysisUpdate(rounds: number): Promise<{ updateMs: number[]; roundTripMs: number[] }> {
+async function measureAnalysisUpdate(rounds: number): Promise<{ updateMs: number[]; twoFramesMs: number[]; roundTripMs: number[] }> {
   const stack = await startStack();
   const browser = await launchBrowser();
   try {
@@ -80,12 +108,15 @@ async function measureAnalysisUpdate(rounds: number): Promise<{ updateMs: number
     await page.waitForSelector('[data-test="bode-chart"] canvas');
     await page.waitForSelector('[data-test="analysis-status"]:has-text("up to date")');
     const updateMs: number[] = [];
+    const twoFramesMs: number[] = [];
     for (let i = 0; i < rounds; i++) {
       const damping = (0.5 + 0.02 * (i % 10)).toFixed(2);
-      updateMs.push(Number(await page.evaluate(editAndWait(damping))));
+      const [painted, twoFrames] = (await page.evaluate(editAndWait(damping))) as [number, number];
+      updateMs.push(painted);
+      twoFramesMs.push(twoFrames);
     }
     const roundTripMs = (await page.evaluate("performance.getEntriesByName('lw-analysis-round-trip').map((e) => e.duration)")) as number[];
-    return { updateMs, roundTripMs: roundTripMs.slice(-rounds) };
+    return { updateMs, twoFramesMs, roundTripMs: roundTripMs.slice(-rounds) };
   } finally {
     await browser.close();
     await stack.stop();
@@ -100,7 +131,7 @@ export async function runAppBench(): Promise<object> {
   buildApp();
   const bytes = await signInJsGzipBytes();
   const signInJsGzipKb = Math.round((bytes / 1024) * 10) / 10;
-  const { updateMs, roundTripMs } = await measureAnalysisUpdate(15);
+  const { updateMs, twoFramesMs, roundTripMs } = await measureAnalysisUpdate(15);
   return {
     signInJsGzipKb,
     signInJsGzipTargetKb: SIGN_IN_TARGET_KB,
@@ -110,9 +141,13 @@ export async function runAppBench(): Promise<object> {
     analysisUpdateTargetMs: ANALYSIS_UPDATE_TARGET_MS,
     analysisUpdateWorstTargetMs: ANALYSIS_UPDATE_WORST_TARGET_MS,
     analysisUpdateMet: median(updateMs) < ANALYSIS_UPDATE_TARGET_MS && Math.max(...updateMs) < ANALYSIS_UPDATE_WORST_TARGET_MS,
-    analysisUpdateNote: 'median of 15 edits of filter.damping on the demo mains-sync loop: keystroke → worker analysis → margins text changed → two animation frames (Bode canvas painted)',
-    analysisWorkerRoundTripMs: Math.round(median(roundTripMs) * 10) / 10,
+    analysisUpdateNote:
+      'median and worst of 15 edits of filter.damping on the demo mains-sync loop, the first after the page loaded included: edit → worker analysis → painted frame with the new margins text and a changed Bode canvas',
     analysisUpdateMaxMs: Math.round(Math.max(...updateMs) * 10) / 10,
+    analysisUpdateTwoFramesMs: Math.round(median(twoFramesMs) * 10) / 10,
+    analysisUpdateTwoFramesMaxMs: Math.round(Math.max(...twoFramesMs) * 10) / 10,
+    analysisUpdateTwoFramesNote: 'the former end point (two animation frames after the one where the text changed, about 33 ms of waiting at 60 Hz), for comparison with older runs',
+    analysisWorkerRoundTripMs: Math.round(median(roundTripMs) * 10) / 10,
     loadAverage1m: Math.round(os.loadavg()[0]! * 100) / 100,
   };
 }
