@@ -62,6 +62,7 @@ declare module 'vue' {
     RouterView: typeof import('vue-router')['RouterView']
     SafetyNotice: typeof import('./src/components/SafetyNotice.vue')['default']
     SimulationPanel: typeof import('./src/components/SimulationPanel.vue')['default']
+    SpecField: typeof import('./src/components/SpecField.vue')['default']
     SpecForm: typeof import('./src/components/SpecForm.vue')['default']
     VerdictStrip: typeof import('./src/components/VerdictStrip.vue')['default']
     VerificationPanel: typeof import('./src/components/VerificationPanel.vue')['default']
