@@ -3,11 +3,21 @@
  * to fs/2). For H = (b1·s + b0)/(s² + a1·s + a0) the closed form is (b1²·a0 + b0²)/(4·a0·a1)
  * (standard integral table, e.g. G3 Ch. 2 (memory)). The high-gain expression (ωn/2)(ζ + 1/(4ζ)) holds
  * for the PI loop only: for a single-pole loop the exact value is K/4 (REFERENCES.md).
+ *
+ * Every other order is exact too, without an integral over frequency (Parseval: the integral of |H|² is
+ * the energy of the impulse response, As70, ZDG96): the analog loop's ∫₀^∞ h(t)² dt is C·P·Cᵀ with P the
+ * controllability Gramian of a realisation of H, the solution of the Lyapunov equation A·P + P·Aᵀ + B·Bᵀ = 0
+ * (lyapunov.ts), so B_L = ½·C·P·Cᵀ; the discrete loop's Σ h[n]² is c·P·cᵀ with P = A·P·Aᵀ + b·bᵀ for a state-space
+ * model of the loop (discreteLoopStateSpace), so B_L = (fs/2)·Σ h[n]²
+ * (∫₀^{fs/2} df = (fs/2π)·∫₀^π dω and (1/2π)·∫_{−π}^{π} |H|² dω = Σ h[n]²). The numeric integral stays as
+ * the reference the tests check both against, and as the fallback should a Gramian not converge.
  */
 import type { LoopSpec } from '../spec/schema.ts';
 import type { LoopFilterDesign } from '../design.ts';
+import type { AnalogTf, Sos } from '../types/filter.ts';
 import { type ResponseFn, analogLoopResponse, closedLoop, discreteLoopResponse } from './response.ts';
 import { analogClosedLoop } from './loopPolynomials.ts';
+import { continuousEnergy, discreteEnergy } from './lyapunov.ts';
 
 /** Simpson intervals in ln f to start from; doubled until converged (checked against SciPy's quad). */
 export const DEFAULT_INTERVALS = 300;
@@ -75,11 +85,14 @@ export function numericNoiseBandwidthHz(
   return total;
 }
 
+/** How analogHz was found: the second-order formula, a Lyapunov solve of a higher order, or (fallback) the integral. */
+export type NoiseBandwidthMethod = 'closed-form' | 'state-space' | 'numeric';
+
 export interface NoiseBandwidth {
   /** ∫₀^∞ |H(j2πf)|² df of the analog prototype loop (closed form when second order); null if unstable. */
   readonly analogHz: number | null;
-  readonly analogMethod: 'closed-form' | 'numeric' | null;
-  /** ∫₀^{fs/2} |H(e^{j2πf/fs})|² df of the discrete loop (numeric); null if unstable. */
+  readonly analogMethod: NoiseBandwidthMethod | null;
+  /** ∫₀^{fs/2} |H(e^{j2πf/fs})|² df of the discrete loop ((fs/2)·Σ h[n]² from its state-space model); null if unstable. */
   readonly discreteHz: number | null;
   /** (ωn/2)(ζ + 1/(4ζ)): the high-gain approximation, exact for PI only; null when ωn, ζ do not apply. */
   readonly highGainApproximationHz: number | null;
@@ -101,30 +114,77 @@ export function loopNoiseBandwidth(
   if (!stable.analog) notes.push('analog: the closed loop is unstable, so ∫|H|² df does not exist');
   if (!stable.discrete) notes.push('discrete: the closed loop is unstable, so ∫|H|² df does not exist');
   const analog = stable.analog ? analogNoiseBandwidth(design, k, range) : { hz: null, method: null };
-  const hd = closedLoop(discreteLoopResponse(design.sections, k, spec.sampleRateHz));
-  const discreteHz = stable.discrete ? numericNoiseBandwidthHz(hd, range.fMinHz, range.nyquistHz) : null;
+  const discreteHz = stable.discrete ? discreteNoiseBandwidthHz(design.sections, k, spec.sampleRateHz, range) : null;
   return { analogHz: analog.hz, analogMethod: analog.method, discreteHz, highGainApproximationHz, notes };
+}
+
+/** (fs/2)·Σ h[n]² of the discrete closed loop H = L/(1 + L) (discreteLoopStateSpace); the integral should the solve fail. */
+export function discreteNoiseBandwidthHz(sections: readonly Sos[], k: number, sampleRateHz: number, range: { fMinHz: number; nyquistHz: number }): number {
+  const ss = sections.every((s) => s.a[0] === 1) ? discreteLoopStateSpace(sections, k / sampleRateHz) : null;
+  const energy = ss ? discreteEnergy(ss.a, ss.b, ss.c, ss.n) : null;
+  if (energy !== null) return (sampleRateHz / 2) * energy;
+  return numericNoiseBandwidthHz(closedLoop(discreteLoopResponse(sections, k, sampleRateHz)), range.fMinHz, range.nyquistHz);
+}
+
+/**
+ * The discrete loop as x[n+1] = A·x[n] + b·θi[n], θo[n] = c·x[n]: the NCO phase θo, then each section
+ * in the controllable canonical form of (b0 + b1·z⁻¹ + b2·z⁻²)/(1 + a1·z⁻¹ + a2·z⁻²): states w[n−1],
+ * w[n−2] of w = v − a1·w[n−1] − a2·w[n−2], output b0·v + (b1 − a1·b0)·w[n−1] + (b2 − a2·b0)·w[n−2]
+ * (OS3 Sec. 6.3 (memory)); θo[n+1] = θo[n] + K·T·y[n] with y the last section's output of v = θi − θo.
+ * This form keeps a narrow loop's Gramian to about 1e-12: the direct form I model of linearLoop.ts,
+ * whose poles near z = 1 sit in nearly parallel eigenvectors, loses eight digits in the same solve.
+ */
+function discreteLoopStateSpace(sections: readonly Sos[], kt: number): { a: Float64Array; b: Float64Array; c: Float64Array; n: number } {
+  const n = 1 + 2 * sections.length;
+  const step = (x: Float64Array, thetaIn: number, next: Float64Array) => {
+    let v = thetaIn - x[0]!;
+    for (let j = 0; j < sections.length; j++) {
+      const { b, a } = sections[j]!;
+      const w1 = x[1 + 2 * j]!;
+      const w2 = x[2 + 2 * j]!;
+      next[1 + 2 * j] = v - a[1] * w1 - a[2] * w2;
+      next[2 + 2 * j] = w1;
+      v = b[0] * v + (b[1] - a[1] * b[0]) * w1 + (b[2] - a[2] * b[0]) * w2;
+    }
+    next[0] = x[0]! + kt * v;
+  };
+  const a = new Float64Array(n * n);
+  const x = new Float64Array(n);
+  const next = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    x.fill(0);
+    x[j] = 1;
+    step(x, 0, next);
+    for (let i = 0; i < n; i++) a[i * n + j] = next[i]!;
+  }
+  x.fill(0);
+  const b = new Float64Array(n);
+  step(x, 1, b);
+  const c = new Float64Array(n);
+  c[0] = 1;
+  return { a, b, c, n };
+}
+
+/** ∫₀^∞ |H(j2πf)|² df = ½·∫₀^∞ h(t)² dt of a strictly proper H = num/den (highest power first); null if the solve fails. */
+export function analogNoiseBandwidthHz(h: AnalogTf): number | null {
+  const energy = continuousEnergy(h.num, h.den);
+  return energy === null ? null : energy / 2;
 }
 
 function analogNoiseBandwidth(
   design: LoopFilterDesign,
   k: number,
   range: { fMinHz: number; fMaxAnalogHz: number },
-): { hz: number; method: 'closed-form' | 'numeric' } {
+): { hz: number; method: NoiseBandwidthMethod } {
   const { h } = analogClosedLoop(design.analog, k);
   const den = h.den;
   const lead = den[0]!;
-  let analogHz: number;
-  let analogMethod: 'closed-form' | 'numeric';
   if (den.length === 3 && h.num.length <= 2) {
     const num = h.num.length === 2 ? h.num : [0, h.num[0]!];
-    analogHz = secondOrderNoiseBandwidthHz(num[0]! / lead, num[1]! / lead, den[1]! / lead, den[2]! / lead);
-    analogMethod = 'closed-form';
-  } else {
-    const hFn = closedLoop(analogLoopResponse(design.analogSections, k));
-    analogHz = numericNoiseBandwidthHz(hFn, range.fMinHz, range.fMaxAnalogHz, { tail: true });
-    analogMethod = 'numeric';
+    return { hz: secondOrderNoiseBandwidthHz(num[0]! / lead, num[1]! / lead, den[1]! / lead, den[2]! / lead), method: 'closed-form' };
   }
-  return { hz: analogHz, method: analogMethod };
+  const exact = analogNoiseBandwidthHz(h);
+  if (exact !== null) return { hz: exact, method: 'state-space' };
+  const hFn = closedLoop(analogLoopResponse(design.analogSections, k));
+  return { hz: numericNoiseBandwidthHz(hFn, range.fMinHz, range.fMaxAnalogHz, { tail: true }), method: 'numeric' };
 }
-

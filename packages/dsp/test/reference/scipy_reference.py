@@ -12,9 +12,11 @@ conventions of DESIGN.md and scipy.signal:
   L(s) = K F(s)/s (freqs_zpk) and L(z) = K T F(z)/(z - 1) (freqz_zpk). Margins on a dense log grid
   refined with brentq; the discrete search interval is closed at fs/2. No control library is packaged
   for Debian, hence the grid search (REFERENCES.md).
+* Noise bandwidth exactly (noiseExact): the closed loops as tf2ss realisations and their Gramians from
+  scipy.linalg.solve_continuous_lyapunov / solve_discrete_lyapunov.
 """
 import numpy as np
-from scipy import integrate, optimize, signal
+from scipy import integrate, linalg, optimize, signal
 
 from loop_formulas import bilinear_constant, bracketed_root as root, filter_zpk, serve
 
@@ -193,6 +195,62 @@ def loop_case(case):
     return out
 
 
+def series_ss(blocks):
+    """One state-space model of blocks (A, B, C, D) in series, the first block's output feeding the next."""
+    a, b, c, d = blocks[0]
+    for a2, b2, c2, d2 in blocks[1:]:
+        n1, n2 = a.shape[0], a2.shape[0]
+        a = np.block([[a, np.zeros((n1, n2))], [b2 @ c, a2]])
+        b = np.vstack([b, b2 @ d])
+        c = np.hstack([d2 @ c, c2])
+        d = d2 @ d
+    return a, b, c, d
+
+
+def noise_exact_case(case):
+    """The noise bandwidth by Gramians instead of an integral (Parseval; As70, ZDG96).
+    Analog: H = L/(1 + L) from the zpk of F(s), its frequency scaled by w0 = |a_n/a_0|^(1/n) so that
+    tf2ss's companion matrix is of order one (unscaled, solve_continuous_lyapunov loses every digit on
+    the IF loop), then (w0/2)·C·P·C' with A·P + P·A' + B·B' = 0.
+    Discrete: the loop assembled as state space from zpk2sos of bilinear_zpk (one tf2ss per section,
+    in series) and the NCO accumulator theta[n+1] = theta[n] + K·T·y[n], closed by e = theta_i − theta_o
+    (a closed-loop polynomial in z loses the digits of a narrow loop), then (fs/2)·C·P·C' with
+    P = A·P·A' + B·B' (solve_discrete_lyapunov, direct). Beside them the integral by quad (noise_bandwidth)
+    from 1e-3 of the analysis's lowest frequency."""
+    fs = case["sampleRateHz"]
+    k = case["kRadPerS"]
+    z, p, kf, _ = filter_zpk(case["filter"], k, case.get("rippleFilter"))
+    b, a = signal.zpk2tf(z, np.concatenate([p, [0.0]]), k * kf)
+    b = np.atleast_1d(b)
+    a_cl = np.pad(a, (0, 0)) + np.pad(b, (len(a) - len(b), 0))
+    n = len(a_cl) - 1
+    w0 = abs(a_cl[-1] / a_cl[0]) ** (1.0 / n)
+    scale = lambda poly: np.asarray(poly) * w0 ** np.arange(len(poly) - 1, -1, -1)
+    a_s, b_s, c_s, _ = signal.tf2ss(scale(b) / w0 ** n, scale(a_cl) / w0 ** n)
+    pa = linalg.solve_continuous_lyapunov(a_s, -b_s @ b_s.T)
+    fs_eff = bilinear_constant(fs, case.get("prewarpHz")) / 2
+    zd, pd, kd = signal.bilinear_zpk(z, p, kf, fs_eff)
+    sos = signal.zpk2sos(zd, pd, kd)
+    af, bf, cf, df = series_ss([tuple(np.atleast_2d(m).astype(float) for m in signal.tf2ss(s[:3], s[3:])) for s in sos])
+    nf, kt = af.shape[0], k / fs
+    # states [theta_o, x_F]; u = theta_i − theta_o
+    a_z = np.block([[np.array([[1.0]]) - kt * df, kt * cf], [-bf, af]])
+    b_z = np.vstack([kt * df, bf])
+    c_z = np.hstack([np.array([[1.0]]), np.zeros((1, nf))])
+    pz = linalg.solve_discrete_lyapunov(a_z, b_z @ b_z.T, method="direct")
+    pa_ = np.concatenate([p, [0.0]])
+    pdd = np.concatenate([pd, [1.0]])
+    analog = lambda f: signal.freqs_zpk(z, pa_, k * kf, worN=2 * np.pi * np.asarray(f, dtype=float))[1]
+    discrete = lambda f: signal.freqz_zpk(zd, pdd, k * kd / fs, worN=np.asarray(f, dtype=float), fs=fs)[1]
+    f_lo, f_hi = case["fMinHz"] * 1e-3, case["fMaxAnalogHz"] * 1e6
+    # Above f_hi a type-1 or type-2 loop's |H|^2 falls as f^-2 (or faster): its tail is |H(f_hi)|^2 * f_hi at most.
+    tail = abs(analog(np.array([f_hi]))[0] / (1 + analog(np.array([f_hi]))[0])) ** 2 * f_hi
+    return {"analogLyapunovHz": float(0.5 * w0 * (c_s @ pa @ c_s.T)[0, 0]),
+            "discreteLyapunovHz": float(0.5 * fs * (c_z @ pz @ c_z.T)[0, 0]),
+            "analogQuadHz": noise_bandwidth(analog, f_lo, f_hi) + tail,
+            "discreteQuadHz": noise_bandwidth(discrete, f_lo, fs / 2)}
+
+
 if __name__ == "__main__":
-    serve({"butter": butter_case, "bilinear": bilinear_case, "loops": loop_case},
+    serve({"butter": butter_case, "bilinear": bilinear_case, "loops": loop_case, "noiseExact": noise_exact_case},
           {"scipyVersion": __import__("scipy").__version__})

@@ -1,0 +1,177 @@
+/**
+ * Energies of impulse responses without integrating over frequency (Parseval), from Gramians: for a
+ * realisation x' = A·x + b·u, y = c·x (or x[n+1] = A·x[n] + b·u[n]) the energy ∫₀^∞ h(t)² dt (or
+ * Σ h[n]²) is c·P·cᵀ, where the controllability Gramian P solves the Lyapunov equation
+ * A·P + P·Aᵀ + b·bᵀ = 0 (or P = A·P·Aᵀ + b·bᵀ) (As70, ZDG96). The symmetric unknowns P_ij (i ≤ j) are
+ * solved as one small linear system (n(n + 1)/2 unknowns) by Gaussian elimination with partial pivoting,
+ * then one step of iterative refinement on the residual of the matrix equation: without it a loop whose
+ * poles crowd z = 1 keeps only nine or ten digits, with it about twelve (checked against SciPy and
+ * against the impulse response summed sample by sample, test/analysis/noiseBandwidthExact.test.ts).
+ */
+
+/** Index of P_ij (i ≤ j, or its mirror) among the n(n + 1)/2 unknowns of a symmetric n×n matrix. */
+function symmetricIndex(i: number, j: number, n: number): number {
+  return i <= j ? i * n - (i * (i - 1)) / 2 + (j - i) : j * n - (j * (j - 1)) / 2 + (i - j);
+}
+
+/** A linear map of symmetric n×n matrices (row-major), written into `out`. */
+type SymmetricMap = (p: Float64Array, out: Float64Array) => void;
+
+/**
+ * The symmetric P with map(P) = rhs: the system's columns are the map of each unit symmetric matrix
+ * (so it cannot disagree with the map), solved, then refined once with rhs − map(P). Null when singular.
+ */
+function solveSymmetric(map: SymmetricMap, rhs: Float64Array, n: number): Float64Array | null {
+  const m = (n * (n + 1)) / 2;
+  const system = new Float64Array(m * m);
+  const unit = new Float64Array(n * n);
+  const image = new Float64Array(n * n);
+  for (let k = 0; k < n; k++) {
+    for (let l = k; l < n; l++) {
+      unit.fill(0);
+      unit[k * n + l] = 1;
+      unit[l * n + k] = 1;
+      map(unit, image);
+      const col = symmetricIndex(k, l, n);
+      for (let i = 0; i < n; i++) for (let j = i; j < n; j++) system[symmetricIndex(i, j, n) * m + col] = image[i * n + j]!;
+    }
+  }
+  const p = fromUnknowns(solveLinear(system, toUnknowns(rhs, n), m), n);
+  if (!p) return null;
+  map(p, image);
+  for (let i = 0; i < n * n; i++) image[i] = rhs[i]! - image[i]!;
+  const delta = fromUnknowns(solveLinear(system, toUnknowns(image, n), m), n);
+  if (!delta) return null;
+  for (let i = 0; i < n * n; i++) p[i] = p[i]! + delta[i]!;
+  return p;
+}
+
+function toUnknowns(s: Float64Array, n: number): Float64Array {
+  const x = new Float64Array((n * (n + 1)) / 2);
+  for (let i = 0; i < n; i++) for (let j = i; j < n; j++) x[symmetricIndex(i, j, n)] = s[i * n + j]!;
+  return x;
+}
+
+function fromUnknowns(x: Float64Array | null, n: number): Float64Array | null {
+  if (!x) return null;
+  const p = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) p[i * n + j] = x[symmetricIndex(i, j, n)]!;
+  return p;
+}
+
+/** x with M·x = r (M row-major m×m, left untouched); null when singular. */
+function solveLinear(matrix: Float64Array, r: Float64Array, m: number): Float64Array | null {
+  const w = m + 1;
+  const aug = new Float64Array(m * w);
+  for (let i = 0; i < m; i++) {
+    for (let j = 0; j < m; j++) aug[i * w + j] = matrix[i * m + j]!;
+    aug[i * w + m] = r[i]!;
+  }
+  for (let col = 0; col < m; col++) {
+    let piv = col;
+    for (let row = col + 1; row < m; row++) if (Math.abs(aug[row * w + col]!) > Math.abs(aug[piv * w + col]!)) piv = row;
+    if (!(Math.abs(aug[piv * w + col]!) > 1e-300)) return null;
+    if (piv !== col) {
+      for (let j = col; j < w; j++) {
+        const t = aug[col * w + j]!;
+        aug[col * w + j] = aug[piv * w + j]!;
+        aug[piv * w + j] = t;
+      }
+    }
+    const pv = aug[col * w + col]!;
+    for (let row = col + 1; row < m; row++) {
+      const f = aug[row * w + col]! / pv;
+      if (f === 0) continue;
+      for (let j = col; j < w; j++) aug[row * w + j] = aug[row * w + j]! - f * aug[col * w + j]!;
+    }
+  }
+  const x = new Float64Array(m);
+  for (let row = m - 1; row >= 0; row--) {
+    let acc = aug[row * w + m]!;
+    for (let j = row + 1; j < m; j++) acc -= aug[row * w + j]! * x[j]!;
+    x[row] = acc / aug[row * w + row]!;
+  }
+  return x;
+}
+
+/** out = A·p·Aᵀ (row-major n×n; t is n×n scratch). */
+function congruence(a: Float64Array, p: Float64Array, n: number, t: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      let acc = 0;
+      for (let k = 0; k < n; k++) acc += a[i * n + k]! * p[k * n + j]!;
+      t[i * n + j] = acc;
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      let acc = 0;
+      for (let k = 0; k < n; k++) acc += t[i * n + k]! * a[j * n + k]!;
+      out[i * n + j] = acc;
+    }
+  }
+}
+
+/** c·P·cᵀ when finite and non-negative, else null. */
+function quadratic(p: Float64Array | null, c: Float64Array, n: number): number | null {
+  if (!p) return null;
+  let energy = 0;
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) energy += c[i]! * p[i * n + j]! * c[j]!;
+  return energy >= 0 && Number.isFinite(energy) ? energy : null;
+}
+
+/**
+ * Σ_{k ≥ 0} (c·Aᵏ·b)² of x[k+1] = A·x[k] + b·u[k], y = c·x (A row-major n×n): c·P·cᵀ with
+ * P − A·P·Aᵀ = b·bᵀ. A must be stable (the caller tests it); null when the system is singular or the
+ * sum comes out not finite or negative.
+ */
+export function discreteEnergy(a: Float64Array, b: Float64Array, c: Float64Array, n: number): number | null {
+  const t = new Float64Array(n * n);
+  const map: SymmetricMap = (p, out) => {
+    congruence(a, p, n, t, out);
+    for (let i = 0; i < n * n; i++) out[i] = p[i]! - out[i]!;
+  };
+  const rhs = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) rhs[i * n + j] = b[i]! * b[j]!;
+  return quadratic(solveSymmetric(map, rhs, n), c, n);
+}
+
+/**
+ * ∫₀^∞ h(t)² dt of a strictly proper analog num/den (coefficients highest power first), from the
+ * controllable canonical form after the frequency scaling s = w0·σ that puts the geometric mean of the
+ * pole magnitudes at 1 (so the companion coefficients are of order one; unscaled, an IF loop's Gramian
+ * loses every digit); the energy of H is w0 times that of the scaled H. H must be stable (the caller
+ * tests it); null when not strictly proper, singular, or the energy comes out not finite or negative.
+ */
+export function continuousEnergy(num: readonly number[], den: readonly number[]): number | null {
+  let first = 0;
+  while (first < den.length && den[first] === 0) first++;
+  const d = den.slice(first);
+  const n = d.length - 1;
+  if (n < 1 || num.length > n) return null;
+  const lead = d[0]!;
+  const ratio = Math.abs(d[n]! / lead);
+  const w0 = ratio > 0 && Number.isFinite(ratio) ? ratio ** (1 / n) : 1;
+  // x_i' = x_{i+1}, x_n' = −Σ c_k·x_{n+1−k} + u for the scaled monic σⁿ + c1·σⁿ⁻¹ + … + cn; y = Σ cNum[p]·x_{p+1}.
+  const a = new Float64Array(n * n);
+  for (let i = 0; i + 1 < n; i++) a[i * n + i + 1] = 1;
+  for (let j = 0; j < n; j++) a[(n - 1) * n + j] = -d[n - j]! / (lead * w0 ** (n - j));
+  const cNum = new Float64Array(n);
+  for (let j = 0; j < num.length; j++) {
+    const power = num.length - 1 - j;
+    cNum[power] = num[j]! / (lead * w0 ** (n - power));
+  }
+  const map: SymmetricMap = (p, out) => {
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        let acc = 0;
+        for (let k = 0; k < n; k++) acc += a[i * n + k]! * p[k * n + j]! + p[i * n + k]! * a[j * n + k]!;
+        out[i * n + j] = acc;
+      }
+    }
+  };
+  const rhs = new Float64Array(n * n);
+  rhs[n * n - 1] = -1; // −b·bᵀ with b = e_n
+  const energy = quadratic(solveSymmetric(map, rhs, n), cNum, n);
+  return energy === null ? null : w0 * energy;
+}
