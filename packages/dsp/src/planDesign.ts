@@ -35,7 +35,7 @@ export interface PlanOptions extends AnalyzeOptions {
   readonly goldenVectors?: boolean | Scenario;
 }
 
-/** The one result of a design (readonly throughout; the object and its parts are frozen). */
+/** The one result of a design (readonly throughout; the object and every object in it are frozen, arrays of numbers readonly by type: deepFreeze). */
 export interface DesignPlan {
   readonly spec: ValidSpec;
   /** The loop filter: analog prototype, digital b/a and the second-order sections firmware implements. */
@@ -102,16 +102,25 @@ export function tryPlanDesign(input: unknown, options: PlanOptions = {}): PlanDe
 
 /**
  * Freeze the plan and every object in it, so no reader can change a figure another reader sees.
- * Typed arrays (the sine table, vector records) cannot be frozen; their owners never write them.
+ * Arrays of plain numbers (the plot grids and traces, about 8,000 doubles a plan) stay as made, readonly
+ * in their types only, like the typed arrays (the sine table, vector records), which cannot be frozen
+ * and whose owners never write them: V8 freezes a double array by boxing every element, which took a
+ * sixth of a warm analyzeDesign (0.35 of 2.3 ms measured on the mains demo), where freezing the objects
+ * takes 0.09 ms.
  */
 function deepFreeze<T>(value: T): T {
   if (value === null || typeof value !== 'object' || ArrayBuffer.isView(value) || Object.isFrozen(value)) return value;
-  Object.freeze(value);
   if (Array.isArray(value)) {
-    // Most arrays are hundreds of plain numbers: only their object elements need a visit.
-    for (const child of value as unknown[]) if (child !== null && typeof child === 'object') deepFreeze(child);
+    let numbersOnly = true;
+    for (const child of value as unknown[]) {
+      if (typeof child === 'number') continue;
+      numbersOnly = false;
+      if (child !== null && typeof child === 'object') deepFreeze(child);
+    }
+    if (!numbersOnly || value.length === 0) Object.freeze(value);
     return value;
   }
+  Object.freeze(value);
   for (const child of Object.values(value as Record<string, unknown>)) deepFreeze(child);
   return value;
 }

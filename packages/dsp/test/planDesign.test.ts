@@ -50,6 +50,8 @@ describe('planDesign: one result, each figure once', () => {
     expect(Object.isFrozen(plan)).toBe(true);
     expect(Object.isFrozen(plan.analysis.margins.discrete)).toBe(true);
     expect(Object.isFrozen(plan.quantized!.sections[0]!.codes)).toBe(true);
+    expect(Object.isFrozen(plan.analysis.bode)).toBe(true);
+    expect(Object.isFrozen(plan.analysis.margins.discrete.phaseCrossings)).toBe(true);
     expect(() => {
       (plan.analysis.verdict as { stable: boolean }).stable = false;
     }).toThrow(TypeError);
