@@ -44,6 +44,27 @@ export function pairs(x: readonly number[], y: readonly number[], fromZero = fal
   return out;
 }
 
+/**
+ * The same points as `pairs`, flat in one typed array (x0, y0, x1, y1, …), which ECharts reads as
+ * two-dimensional data. ECharts deep-copies every option it is given, array by array, and walks each
+ * point of plain data for old-style settings; a typed array it takes as one value. The Bode plot is
+ * redrawn on every keystroke, and its six series of a few hundred [f, y] pairs each were most of that
+ * copying.
+ */
+export function flatPairs(x: readonly number[], y: readonly number[]): Float64Array {
+  const n = Math.min(x.length, y.length);
+  const out = new Float64Array(2 * n);
+  let k = 0;
+  for (let i = 0; i < n; i++) {
+    const xi = x[i] as number;
+    const yi = y[i] as number;
+    if (xi > 0 && Number.isFinite(yi)) {
+      out[k++] = xi;
+      out[k++] = yi;
+    }
+  }
+  return k === out.length ? out : out.slice(0, k);
+}
 
 function markerLines(m: BodeMarkers, axis: 'mag' | 'phase'): object[] {
   const lines: object[] = [];
@@ -88,7 +109,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
         id: `${t.label}/magnitude`,
         xAxisIndex: 0,
         yAxisIndex: 0,
-        data: pairs(t.freqHz, t.magnitudeDb),
+        data: flatPairs(t.freqHz, t.magnitudeDb),
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'mag') } } : {}),
       },
       {
@@ -96,7 +117,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
         id: `${t.label}/phase`,
         xAxisIndex: 1,
         yAxisIndex: 1,
-        data: pairs(t.freqHz, t.phaseDeg),
+        data: flatPairs(t.freqHz, t.phaseDeg),
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'phase') } } : {}),
       },
     ];
