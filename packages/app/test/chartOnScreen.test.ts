@@ -67,4 +67,27 @@ describe('a chart off screen', () => {
     await wrapper.setProps({ option: { title: 'second' } });
     expect(drawnTitle(wrapper)).toBe('second');
   });
+
+  it('builds an option given as a function only when it draws it, and only once per function', async () => {
+    const built: string[] = [];
+    const builder = (title: string) => () => {
+      built.push(title);
+      return { title };
+    };
+    const wrapper = mount(LwChart, { props: { option: builder('first'), height: '100px', testId: 'c' } });
+    expect(drawnTitle(wrapper)).toBe('first');
+    observers[0]!.callback([{ isIntersecting: false }]);
+    await wrapper.setProps({ option: builder('second') });
+    await wrapper.setProps({ option: builder('third') });
+    expect(built).toEqual(['first']);
+    expect(wrapper.find('[data-test="c"]').attributes('data-drawn')).toBe('held');
+    observers[0]!.callback([{ isIntersecting: true }]);
+    await nextTick();
+    expect(drawnTitle(wrapper)).toBe('third');
+    expect(built).toEqual(['first', 'third']);
+    observers[0]!.callback([{ isIntersecting: false }]);
+    observers[0]!.callback([{ isIntersecting: true }]);
+    await nextTick();
+    expect(built).toEqual(['first', 'third']);
+  });
 });
