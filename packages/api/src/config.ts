@@ -39,6 +39,11 @@ const envSchema = z.object({
   LW_SIM_THREADS: int(1, 64).default(Math.max(1, availableParallelism() - 1)),
   LW_COMPUTE_TIMEOUT_S: int(1, 3600).default(60),
   LW_COMPUTE_MAX_QUEUE: int(1, 10_000).default(64),
+  /**
+   * Added to the nice value of each compute thread (0 keeps the server's own): at 19 the scheduler
+   * hands the CPU to the event loop thread whenever a request is waiting, and computes with the rest.
+   */
+  LW_COMPUTE_NICE: int(0, 19).default(19),
   /** Largest simulation one request may ask for: durationS × sampleRateHz loop samples. */
   LW_SIM_MAX_SAMPLES: int(1_000, 50_000_000).default(5_000_000),
   /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
@@ -92,6 +97,7 @@ export interface Config {
     readonly threads: number;
     readonly timeoutS: number;
     readonly maxQueue: number;
+    readonly niceIncrement: number;
     readonly maxSimulationSamples: number;
   };
   readonly bcryptRounds: number;
@@ -168,6 +174,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
       threads: env.LW_SIM_THREADS,
       timeoutS: env.LW_COMPUTE_TIMEOUT_S,
       maxQueue: env.LW_COMPUTE_MAX_QUEUE,
+      niceIncrement: env.LW_COMPUTE_NICE,
       maxSimulationSamples: env.LW_SIM_MAX_SAMPLES,
     },
     bcryptRounds: env.LW_BCRYPT_ROUNDS,

@@ -27,6 +27,10 @@ describe('simulations in the worker pool', () => {
     expectDeepClose(response.body.simulation, expected);
     expect(response.body.simulation.float).toBeDefined();
     expect(response.body.simulation.bitTrue).toBeDefined();
+    // Encoded by the compute thread (src/encodedJson.ts), sent as res.json sends: its header, and JSON.stringify's text of the members in this order.
+    expect(response.headers['content-type']).toBe('application/json; charset=utf-8');
+    expect(Object.keys(response.body)).toEqual(['scenario', 'simulation', 'designId', 'revision']);
+    expect(response.text).toBe(JSON.stringify(response.body));
   });
 
   it('simulates an unsaved spec from the body', async () => {

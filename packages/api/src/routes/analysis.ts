@@ -11,6 +11,7 @@ import {
   type AnalysisResponse,
   type SimulationResponse,
 } from '@loopwright/contract';
+import type { EncodedJson } from '../encodedJson.ts';
 import { AppError } from '../errors.ts';
 import { route } from './table.ts';
 
@@ -81,7 +82,7 @@ export const analysisRoutes = [
     access: ANALYSTS,
     summary: 'simulate the spec in the body under a scenario, float and bit-true (nothing is stored)',
     body: specSimulationRequestSchema,
-    handler: ({ services, body, res }): Promise<SimulationResponse> => services.analysis.simulateSpec(body.spec, body, whenClientGone(res)),
+    handler: ({ services, body, res }): Promise<EncodedJson<SimulationResponse>> => services.analysis.simulateSpec(body.spec, body, whenClientGone(res)),
   }),
   route({
     method: 'post',
@@ -90,7 +91,7 @@ export const analysisRoutes = [
     summary: "simulate a stored design's current spec under a scenario",
     params: idParamsSchema,
     body: simulationRequestSchema,
-    handler: ({ services, user, params, body, res }): Promise<SimulationResponse> =>
+    handler: ({ services, user, params, body, res }): Promise<EncodedJson<SimulationResponse>> =>
       services.analysis.simulateStoredDesign(user.organizationId, params.id, body, whenClientGone(res)),
   }),
   route({

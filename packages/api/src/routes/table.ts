@@ -3,6 +3,7 @@ import multer from 'multer';
 import { plainMessages } from '@loopwright/dsp';
 import { z } from 'zod';
 import type { Role, SessionUser } from '@loopwright/contract';
+import { EncodedJson } from '../encodedJson.ts';
 import { AppError, forbidden, issuesError, unauthenticated } from '../errors.ts';
 import { requireCsrfHeader } from '../middleware/csrf.ts';
 import type { AuditActor } from '../services/audit.ts';
@@ -139,6 +140,8 @@ function run(spec: RouteSpec, services: Services): RequestHandler {
     const result = await spec.handler(ctx);
     if (res.headersSent) return;
     if (result === undefined) res.status(204).end();
+    // The header res.json would set, then the bytes as they are (encodedJson.ts).
+    else if (result instanceof EncodedJson) res.status(spec.status ?? 200).set('Content-Type', 'application/json; charset=utf-8').send(result.bytes);
     else res.status(spec.status ?? 200).json(result);
   };
 }

@@ -1,6 +1,7 @@
-import type { AnalysisResult, LoopSpec } from '@loopwright/dsp';
+import type { AnalysisResult, LoopSpec, SimResult } from '@loopwright/dsp';
 import { MessageChannel } from 'node:worker_threads';
 import type { AcquisitionResponse, AnalysisResponse, SimulationRequest, SimulationResponse } from '@loopwright/contract';
+import { encodedJsonOf, encodedObject, type EncodedJson } from '../encodedJson.ts';
 import { invalidInput, issuesError } from '../errors.ts';
 import type { ComputePool } from './compute.ts';
 import type { DesignService } from './designs.ts';
@@ -54,8 +55,21 @@ export class AnalysisService {
     return { ...(await this.measureAcquisition(design.spec, cancel, onProgress)), designId: design.id, revision: design.revision };
   }
 
-  /** One request may simulate at most maxSimulationSamples loop samples (durationS × sampleRateHz). */
-  async simulateSpec(spec: LoopSpec, request: SimulationRequest, cancel?: AbortSignal): Promise<SimulationResponse> {
+  /**
+   * One request may simulate at most maxSimulationSamples loop samples (durationS × sampleRateHz). The
+   * answer comes encoded (encodedJson.ts): the compute thread wrote the simulation's JSON.
+   */
+  async simulateSpec(spec: LoopSpec, request: SimulationRequest, cancel?: AbortSignal): Promise<EncodedJson<SimulationResponse>> {
+    return encodedObject({ scenario: request.scenario, simulation: await this.simulation(spec, request, cancel) });
+  }
+
+  async simulateStoredDesign(organizationId: number, designId: number, request: SimulationRequest, cancel?: AbortSignal): Promise<EncodedJson<SimulationResponse>> {
+    const design = await this.designs.get(organizationId, designId);
+    const simulation = await this.simulation(design.spec, request, cancel);
+    return encodedObject({ scenario: request.scenario, simulation, designId: design.id, revision: design.revision });
+  }
+
+  private async simulation(spec: LoopSpec, request: SimulationRequest, cancel?: AbortSignal): Promise<EncodedJson<SimResult>> {
     const samples = Math.ceil(request.scenario.durationS * spec.sampleRateHz);
     if (samples > this.maxSimulationSamples) {
       const maxDurationS = this.maxSimulationSamples / spec.sampleRateHz;
@@ -65,11 +79,6 @@ export class AnalysisService {
     const outcome = await this.compute.run({ kind: 'simulation', spec, scenario: request.scenario, options }, cancel);
     if (!outcome.ok) throw issuesError(outcome.issues, outcome.prefix);
     if (outcome.kind !== 'simulation') throw new Error('compute pool answered a simulation with another kind');
-    return { scenario: request.scenario, simulation: outcome.simulation };
-  }
-
-  async simulateStoredDesign(organizationId: number, designId: number, request: SimulationRequest, cancel?: AbortSignal): Promise<SimulationResponse> {
-    const design = await this.designs.get(organizationId, designId);
-    return { ...(await this.simulateSpec(design.spec, request, cancel)), designId: design.id, revision: design.revision };
+    return encodedJsonOf(outcome.simulationJson);
   }
 }

@@ -12,6 +12,12 @@ export interface ComputePoolOptions {
   readonly timeoutMs: number;
   /** Tasks waiting beyond this are refused with 503 rather than queued without bound. */
   readonly maxQueue: number;
+  /**
+   * Lowers each thread's scheduling priority by this much (Piscina's niceIncrement through
+   * @napi-rs/nice; on Linux nice() applies to the calling thread only, so the event loop keeps its
+   * own). Default 0.
+   */
+  readonly niceIncrement?: number;
 }
 
 /**
@@ -28,6 +34,7 @@ export class ComputePool {
       maxThreads: Math.max(1, Math.min(options.threads, availableParallelism())),
       idleTimeout: 30_000,
       maxQueue: options.maxQueue,
+      niceIncrement: options.niceIncrement ?? 0,
     });
   }
 

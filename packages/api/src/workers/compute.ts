@@ -14,9 +14,9 @@ import {
   type AcquisitionComparison,
   type AnalysisResult,
   type SimOptions,
-  type SimResult,
   type SpecIssue,
 } from '@loopwright/dsp';
+import { encodeJson } from '../encodedJson.ts';
 import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
 
 export type ComputeTask =
@@ -42,7 +42,8 @@ export type ComputeFailure = { readonly ok: false; readonly issues: readonly Spe
 export type ComputeOutcome = { readonly threadId: number } & (
   | HandoffOutcome
   | { readonly ok: true; readonly kind: 'analysis'; readonly analysis: AnalysisResult }
-  | { readonly ok: true; readonly kind: 'simulation'; readonly simulation: SimResult }
+  /** The SimResult as UTF-8 JSON (encodedJson.ts): encoded here so the event loop only sends the bytes. */
+  | { readonly ok: true; readonly kind: 'simulation'; readonly simulationJson: Uint8Array }
   | { readonly ok: true; readonly kind: 'acquisition'; readonly acquisition: AcquisitionComparison }
   | ComputeFailure
 );
@@ -57,7 +58,7 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<Comp
   const scenario = parseScenario(task.scenario);
   if (!scenario.ok) return { threadId, ok: false, issues: scenario.issues, prefix: 'scenario' };
   try {
-    return { threadId, ok: true, kind: 'simulation', simulation: simulatePlan(planned.plan, scenario.scenario, task.options) };
+    return { threadId, ok: true, kind: 'simulation', simulationJson: encodeJson(simulatePlan(planned.plan, scenario.scenario, task.options)) };
   } catch (err) {
     // Checks that need the spec and the scenario together (the input band, the record size) throw.
     if (err instanceof FieldError) return fieldFailure(err);
