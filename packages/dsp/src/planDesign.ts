@@ -105,23 +105,21 @@ export function tryPlanDesign(input: unknown, options: PlanOptions = {}): PlanDe
  * Arrays of plain numbers (the plot grids and traces, about 8,000 doubles a plan) stay as made, readonly
  * in their types only, like the typed arrays (the sine table, vector records), which cannot be frozen
  * and whose owners never write them: V8 freezes a double array by boxing every element, which took a
- * sixth of a warm analyzeDesign (0.35 of 2.3 ms measured on the mains demo), where freezing the objects
- * takes 0.09 ms.
+ * sixth of a warm analyzeDesign (0.35 of 2.3 ms measured on the mains demo). Scanning those arrays for
+ * objects with for…of cost 0.26 ms more; indexed loops over the objects alone take 0.03 ms.
  */
 function deepFreeze<T>(value: T): T {
   if (value === null || typeof value !== 'object' || ArrayBuffer.isView(value) || Object.isFrozen(value)) return value;
   if (Array.isArray(value)) {
-    let numbersOnly = true;
-    for (const child of value as unknown[]) {
-      if (typeof child === 'number') continue;
-      numbersOnly = false;
-      if (child !== null && typeof child === 'object') deepFreeze(child);
-    }
-    if (!numbersOnly || value.length === 0) Object.freeze(value);
+    // The result types hold no mixed arrays: one whose first element is a number holds only numbers.
+    if (typeof value[0] === 'number') return value;
+    Object.freeze(value);
+    for (let i = 0; i < value.length; i++) deepFreeze(value[i]);
     return value;
   }
   Object.freeze(value);
-  for (const child of Object.values(value as Record<string, unknown>)) deepFreeze(child);
+  const keys = Object.keys(value);
+  for (let i = 0; i < keys.length; i++) deepFreeze((value as Record<string, unknown>)[keys[i]!]);
   return value;
 }
 
