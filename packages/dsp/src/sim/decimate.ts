@@ -29,15 +29,10 @@ export class MinMaxDecimator {
    * the range is one tight loop, the values compared in order (so ties of −0 and +0 keep the first).
    */
   pushRange(n0: number, count: number, values: Float64Array): void {
-    const last = this.count - 1;
     let i = 0;
     while (i < count) {
-      while (n0 + i >= this.nextBoundary && this.bucket < last) {
-        this.bucket++;
-        this.nextBoundary = Math.floor(((this.bucket + 1) * this.total) / this.count);
-      }
-      const b = this.bucket;
-      const end = b < last ? Math.min(count, this.nextBoundary - n0) : count;
+      const b = this.bucketAt(n0 + i);
+      const end = Math.min(count, this.bucketEnd() - n0);
       let lo = this.min[b] as number;
       let hi = this.max[b] as number;
       for (; i < end; i++) {
@@ -48,6 +43,21 @@ export class MinMaxDecimator {
       this.min[b] = lo;
       this.max[b] = hi;
     }
+  }
+
+  /** The bucket of sample n, moving on to it (samples arrive in order). */
+  bucketAt(n: number): number {
+    const last = this.count - 1;
+    while (n >= this.nextBoundary && this.bucket < last) {
+      this.bucket++;
+      this.nextBoundary = Math.floor(((this.bucket + 1) * this.total) / this.count);
+    }
+    return this.bucket;
+  }
+
+  /** One past the last sample of the current bucket (Infinity for the last bucket, which takes the rest). */
+  bucketEnd(): number {
+    return this.bucket < this.count - 1 ? this.nextBoundary : Infinity;
   }
 
   trace(): DecimatedTrace {

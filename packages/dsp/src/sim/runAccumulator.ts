@@ -43,6 +43,26 @@ export interface ChunkObservations {
   readonly offsetHz: Float64Array;
 }
 
+/**
+ * The per-sample part of pushChunk run elsewhere (the WebAssembly twin of wasmTraced.ts): the same
+ * recurrences, bucket min/max of the four traces and tail and demodulation sums, in the same order.
+ */
+export interface AccumulatorCore {
+  /**
+   * Its state as doubles: 0-3 wrapped and unwrapped error, boxcar sum, lock filter; 4-7 tail sum,
+   * its square, frequency error and squared demodulation error; 8-15 min and max of the current
+   * bucket of the phase, filter, frequency and lock traces.
+   */
+  readonly state: Float64Array;
+  /** Per sample of the last chunk: the smoothed unwrapped error and the wrapped phase error (rad). */
+  readonly smooth: Float64Array;
+  readonly phaseErr: Float64Array;
+  /** Start a run: zero state and boxcar, and the run's constants. */
+  reset(constants: { readonly amplitude: number; readonly lockAlpha: number; readonly centerHz: number; readonly gainHzPerUnit: number; readonly boxcarLength: number }): void;
+  /** Samples i0 … i1 − 1 of the chunk from sample n0, all in one trace bucket, with or without the tail and demodulation sums. */
+  run(n0: number, i0: number, i1: number, tail: boolean, demod: boolean): void;
+}
+
 export class RunAccumulator {
   private readonly phase: MinMaxDecimator;
   private readonly filter: MinMaxDecimator;
@@ -71,22 +91,25 @@ export class RunAccumulator {
   private demodSum2 = 0;
   private demodCount = 0;
 
-  constructor(private readonly s: RunSetup, chunkSamples: number) {
+  constructor(
+    private readonly s: RunSetup,
+    chunkSamples: number,
+    private readonly core: AccumulatorCore | null = null,
+  ) {
     const { total, buckets, sampleRateHz } = s;
-    this.scratch = {
-      phaseErr: new Float64Array(chunkSamples),
-      smooth: new Float64Array(chunkSamples),
-      lock: new Float64Array(chunkSamples),
-      unwrappedRad: new Float64Array(chunkSamples),
-    };
+    // With a core the per-sample arrays are the core's own.
+    const own = core ? 0 : chunkSamples;
+    this.scratch = { phaseErr: new Float64Array(own), smooth: new Float64Array(own), lock: new Float64Array(own), unwrappedRad: new Float64Array(own) };
     this.phase = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.filter = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.freq = new MinMaxDecimator(total, buckets, sampleRateHz);
     this.lock = new MinMaxDecimator(total, buckets, sampleRateHz);
-    this.boxcar = new Float64Array(rippleBoxcarSamples(sampleRateHz, s.centerHz, total));
-    this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength: this.boxcar.length, model: s.lockModel });
+    const boxcarLength = rippleBoxcarSamples(sampleRateHz, s.centerHz, total);
+    this.boxcar = new Float64Array(core ? 0 : boxcarLength);
+    this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength, model: s.lockModel });
     // Lock indicator: one-pole low-pass at centerHz/8 of the quadrature arm (common practice, no source).
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
+    core?.reset({ amplitude: s.amplitude, lockAlpha: this.lockAlpha, centerHz: s.centerHz, gainHzPerUnit: s.gainHzPerUnit, boxcarLength });
     this.tailStart = Math.floor(0.9 * total);
     this.demodStart = Math.floor(total / 2);
     this.sweep =
@@ -107,7 +130,71 @@ export class RunAccumulator {
    * of the sample index), in the same order; the traces are then decimated a bucket at a time.
    */
   pushChunk(n0: number, count: number, o: ChunkObservations): void {
-    const { inPhase, ncoPhase, x, y, ncoHz, offsetHz } = o;
+    if (this.core) this.coreChunk(this.core, n0, count);
+    else this.ownChunk(n0, count, o);
+    const { smooth, phaseErr } = this.core ?? this.scratch;
+    this.settle.pushRange(n0, count, smooth, o.offsetHz);
+    if (this.sweep) {
+      const { scratch, inputHz, tracker } = this.sweep;
+      const centerHz = this.s.centerHz;
+      const offsetHz = o.offsetHz;
+      for (let i = 0; i < count; i++) scratch[i] = centerHz + (offsetHz[i] as number);
+      inputHz.pushRange(n0, count, scratch);
+      tracker.push(n0, count, smooth, offsetHz);
+    }
+    if (this.full) {
+      this.full.phaseErrorRad.set(phaseErr.subarray(0, count), n0);
+      this.full.filterOutput.set(o.y.subarray(0, count), n0);
+      this.full.ncoFrequencyHz.set(o.ncoHz.subarray(0, count), n0);
+      this.full.offsetHz.set(o.offsetHz.subarray(0, count), n0);
+    }
+  }
+
+  /**
+   * The chunk through the core, a piece per trace bucket (split where the tail and demodulation sums
+   * start); the current bucket's min and max pass through the core's state.
+   */
+  private coreChunk(core: AccumulatorCore, n0: number, count: number): void {
+    const st = core.state;
+    const { phase, filter, freq, lock } = this;
+    let i = 0;
+    while (i < count) {
+      const n = n0 + i;
+      const b = phase.bucketAt(n);
+      filter.bucketAt(n);
+      freq.bucketAt(n);
+      lock.bucketAt(n);
+      let end = Math.min(count, phase.bucketEnd() - n0);
+      const tail = n >= this.tailStart;
+      if (!tail) end = Math.min(end, this.tailStart - n0);
+      const demod = n >= this.demodStart;
+      if (!demod) end = Math.min(end, this.demodStart - n0);
+      st[8] = phase.min[b] as number;
+      st[9] = phase.max[b] as number;
+      st[10] = filter.min[b] as number;
+      st[11] = filter.max[b] as number;
+      st[12] = freq.min[b] as number;
+      st[13] = freq.max[b] as number;
+      st[14] = lock.min[b] as number;
+      st[15] = lock.max[b] as number;
+      core.run(n0, i, end, tail, demod);
+      phase.min[b] = st[8] as number;
+      phase.max[b] = st[9] as number;
+      filter.min[b] = st[10] as number;
+      filter.max[b] = st[11] as number;
+      freq.min[b] = st[12] as number;
+      freq.max[b] = st[13] as number;
+      lock.min[b] = st[14] as number;
+      lock.max[b] = st[15] as number;
+      i = end;
+    }
+    this.tailCount += Math.max(0, count - Math.max(0, this.tailStart - n0));
+    this.demodCount += Math.max(0, count - Math.max(0, this.demodStart - n0));
+  }
+
+  /** The chunk in TypeScript: recurrences in one loop, then the sums and the decimation. */
+  private ownChunk(n0: number, count: number, o: ChunkObservations): void {
+    const { inPhase, ncoPhase, x, y, ncoHz } = o;
     const { phaseErr, smooth, lock, unwrappedRad } = this.scratch;
     const box = this.boxcar;
     const boxLength = box.length;
@@ -154,20 +241,6 @@ export class RunAccumulator {
     this.filter.pushRange(n0, count, y);
     this.freq.pushRange(n0, count, ncoHz);
     this.lock.pushRange(n0, count, lock);
-    this.settle.pushRange(n0, count, smooth, offsetHz);
-    if (this.sweep) {
-      const { scratch, inputHz, tracker } = this.sweep;
-      const centerHz = this.s.centerHz;
-      for (let i = 0; i < count; i++) scratch[i] = centerHz + (offsetHz[i] as number);
-      inputHz.pushRange(n0, count, scratch);
-      tracker.push(n0, count, smooth, offsetHz);
-    }
-    if (this.full) {
-      this.full.phaseErrorRad.set(phaseErr.subarray(0, count), n0);
-      this.full.filterOutput.set(y.subarray(0, count), n0);
-      this.full.ncoFrequencyHz.set(ncoHz.subarray(0, count), n0);
-      this.full.offsetHz.set(offsetHz.subarray(0, count), n0);
-    }
   }
 
   /** Sums of the last tenth (steady state): unwrapped error, its square, frequency error; in sample order. */
@@ -208,6 +281,13 @@ export class RunAccumulator {
   }
 
   finish(): SimRun {
+    if (this.core) {
+      const st = this.core.state;
+      this.tailSum = st[4] as number;
+      this.tailSum2 = st[5] as number;
+      this.tailFreqSum = st[6] as number;
+      this.demodSum2 = st[7] as number;
+    }
     const run: SimRun = {
       traces: {
         phaseErrorRad: this.phase.trace(),

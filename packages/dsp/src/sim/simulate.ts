@@ -14,6 +14,8 @@ import { releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmKernelAvailable, WASM_CHUN
 import { initialFloatState, runFloatChunk } from './floatKernel.ts';
 import { RunAccumulator, type RunSetup } from './runAccumulator.ts';
 import { lockModel } from './lockMetric.ts';
+import { rippleBoxcarSamples } from './rippleBoxcar.ts';
+import { wasmTraced, type BitTrueScales, type WasmTraced } from './wasm/wasmTraced.ts';
 
 /** Samples per chunk: progress and the abort flag between chunks; one call of the WebAssembly kernel each. */
 export const CHUNK_SAMPLES = WASM_CHUNK_SAMPLES;
@@ -131,8 +133,21 @@ interface LoopRunner<R> {
   finish(): R;
 }
 
-function floatRunner(spec: SimSpec, sections: readonly Sos[], acc: RunAccumulator): LoopRunner<SimRun> {
+function floatRunner(spec: SimSpec, sections: readonly Sos[], setup: RunSetup, traced: WasmTraced | null): LoopRunner<SimRun> {
   const cfg = { sampleRateHz: spec.sampleRateHz, centerHz: spec.centerHz, gainHzPerUnit: spec.nco.gainHzPerUnit, waveform: spec.nco.waveform, sections };
+  if (traced) {
+    const acc = new RunAccumulator(setup, CHUNK_SAMPLES, traced.core(0));
+    const obs = traced.observations[0];
+    traced.loadFloat(cfg);
+    return {
+      chunk(input, n0, count) {
+        traced.runFloat(count);
+        acc.pushChunk(n0, count, { inPhase: input.phaseCycles, ncoPhase: obs.ncoPhase, x: input.x, y: obs.y, ncoHz: obs.ncoHz, offsetHz: input.offsetHz });
+      },
+      finish: () => acc.finish(),
+    };
+  }
+  const acc = new RunAccumulator(setup, CHUNK_SAMPLES);
   const state = initialFloatState(cfg);
   const out = { ncoPhaseCycles: new Float64Array(CHUNK_SAMPLES), filterOutput: new Float64Array(CHUNK_SAMPLES) };
   const ncoHz = new Float64Array(CHUNK_SAMPLES);
@@ -147,20 +162,36 @@ function floatRunner(spec: SimSpec, sections: readonly Sos[], acc: RunAccumulato
   };
 }
 
-function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly keepRecord: boolean; readonly kernel: BitTrueKernelChoice }, acc: RunAccumulator): LoopRunner<BitTrueRun> {
+/** The doubles the bit-true outputs are scaled by: phase words to cycles, y to control units, Δ to Hz. */
+function bitTrueScales(plan: BitTruePlan): BitTrueScales {
+  const toCycles = 2 ** -plan.ncoAccumulatorBits;
+  return {
+    hiWeight: 2 ** 32 * toCycles,
+    toCycles,
+    yScale: 2 ** -(plan.dataBits - 1),
+    centerHz: plan.tuning.actualHz,
+    hzPerLsb: plan.sampleRateHz / 2 ** plan.ncoAccumulatorBits,
+  };
+}
+
+function bitTrueRunner(
+  plan: BitTruePlan,
+  total: number,
+  options: { readonly keepRecord: boolean; readonly kernel: BitTrueKernelChoice },
+  setup: RunSetup,
+  traced: WasmTraced | null,
+): LoopRunner<BitTrueRun> {
   const record = options.keepRecord ? allocRecord(total) : null;
-  const wasm = options.kernel === 'wasm' ? wasmBitTrueLoop(plan) : null;
+  const acc = new RunAccumulator(setup, CHUNK_SAMPLES, traced ? traced.core(1) : null);
+  const wasm = traced ? traced.loop : options.kernel === 'wasm' ? wasmBitTrueLoop(plan) : null;
   const scratch = record || wasm ? null : allocRecord(CHUNK_SAMPLES);
   const state = wasm ? null : initialBitTrueState(plan);
-  const toCycles = 2 ** -plan.ncoAccumulatorBits;
-  const hiWeight = 2 ** 32 * toCycles;
-  const yScale = 2 ** -(plan.dataBits - 1);
+  const { toCycles, hiWeight, yScale, hzPerLsb, centerHz } = bitTrueScales(plan);
+  traced?.loadConvert(bitTrueScales(plan));
   const ncoHzOf = bitTrueNcoHzOf(plan);
-  const hzPerLsb = plan.sampleRateHz / 2 ** plan.ncoAccumulatorBits;
-  const centerHz = plan.tuning.actualHz;
-  const ncoPhase = new Float64Array(CHUNK_SAMPLES);
-  const y = new Float64Array(CHUNK_SAMPLES);
-  const ncoHz = new Float64Array(CHUNK_SAMPLES);
+  const [ncoPhase, y, ncoHz] = traced
+    ? [traced.observations[1].ncoPhase, traced.observations[1].y, traced.observations[1].ncoHz]
+    : [new Float64Array(CHUNK_SAMPLES), new Float64Array(CHUNK_SAMPLES), new Float64Array(CHUNK_SAMPLES)];
   return {
     chunk(input, n0, count) {
       if (wasm) {
@@ -170,6 +201,11 @@ function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly kee
         if (slice) wasm.run(slice.inputCode, count);
         else wasm.runInPlace(count);
         if (slice) copyChunk(wasm.out, slice, count);
+      }
+      if (traced) {
+        // The conversion below, in the module, into the observation block the accumulator core reads.
+        traced.convert(count);
+      } else if (wasm) {
         // (M + Δ)·fs/2^N with the kernel's own Δ: the number bitTrueNcoHzOf(plan)(y) gives.
         const { delta, phaseHi, phaseLo, filterCode } = wasm.out;
         for (let i = 0; i < count; i++) {
@@ -192,7 +228,8 @@ function bitTrueRunner(plan: BitTruePlan, total: number, options: { readonly kee
     },
     finish: () => {
       const checksum = wasm ? wasm.checksum : (state as BitTrueState).checksum;
-      if (wasm) releaseWasmBitTrueLoop(wasm);
+      // A traced run's instance is handed back by simulationSteps, after both loops.
+      if (wasm && !traced) releaseWasmBitTrueLoop(wasm);
       return { ...acc.finish(), checksum, ...(record ? { record } : {}) };
     },
   };
@@ -274,11 +311,13 @@ export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: Sim
   }
   const plan = mode !== 'float' ? requireBitTrue(loop) : undefined;
   const setup = runSetup(loop, scenario, options, total);
-  const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
   const kernel = options.bitTrueKernel ?? defaultKernel();
-  const bitLoop = plan ? bitTrueRunner(plan, total, { keepRecord: keep, kernel }, new RunAccumulator(setup, CHUNK_SAMPLES)) : null;
+  // With the WebAssembly kernel the whole traced run is the module's (wasmTraced.ts); the TypeScript path otherwise.
+  const traced = kernel === 'wasm' ? wasmTraced(plan, sections.length, rippleBoxcarSamples(spec.sampleRateHz, spec.centerHz, total)) : null;
+  const floatLoop = mode !== 'bit-true' ? floatRunner(spec, sections, setup, traced) : null;
+  const bitLoop = plan ? bitTrueRunner(plan, total, { keepRecord: keep, kernel }, setup, traced) : null;
   const gen = inputGenerator(scenario, spec.sampleRateHz, spec.centerHz, spec.input.amplitude);
-  const input = allocInputChunk(CHUNK_SAMPLES);
+  const input = traced ? traced.input : allocInputChunk(CHUNK_SAMPLES);
   for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {
     if (options.signal?.aborted) throw new SimulationAbortedError();
     const count = Math.min(CHUNK_SAMPLES, total - n0);
@@ -291,6 +330,7 @@ export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: Sim
   }
   const floatRun = floatLoop?.finish();
   const bitRun = bitLoop?.finish();
+  traced?.release();
   return {
     sampleCount: total,
     sampleRateHz: spec.sampleRateHz,

@@ -171,8 +171,10 @@ export interface SimOptions {
   /** Lock tolerance in rad (default 0.1). */
   readonly lockToleranceRad?: number;
   /**
-   * Which implementation runs the bit-true loop: the WebAssembly kernel (default where WebAssembly
-   * can be compiled) or the TypeScript one. Both give the same record bit for bit.
+   * Which implementation runs the simulation: the WebAssembly module (default where WebAssembly can
+   * be compiled; its bit-true kernel, and the float loop and trace accumulators where they fit, see
+   * sim/wasm/wasmTraced.ts) or TypeScript throughout. Both give the same record, traces and metrics
+   * bit for bit.
    */
   readonly bitTrueKernel?: BitTrueKernelChoice;
 }

@@ -1,8 +1,9 @@
 /// <reference types="node" />
 /**
  * The fast paths of the simulation give the same numbers as the paths they replace, bit for bit:
- * the WebAssembly bit-true kernel against the TypeScript one (record, checksum, traces, metrics) over
- * seeded random specs, widths, modes and scenarios. The TypeScript kernel itself is proved against
+ * the WebAssembly run (bit-true kernel, float loop, conversion and accumulator core, wasmTraced.ts)
+ * against the TypeScript one (record, checksum, traces, metrics) over seeded random specs, widths,
+ * modes and scenarios. The TypeScript kernel itself is proved against
  * gcc-compiled C in test/vectors/cReference.test.ts and against the audit reference in test/audit.
  * And the chunked trace and metric accumulator against the per-sample one it replaced
  * (reference/perSampleAccumulator.ts), fed by the plain kernels sample by sample.
@@ -27,6 +28,16 @@ import type { RunSetup } from '../../src/sim/runAccumulator.ts';
 import { lockModel } from '../../src/sim/lockMetric.ts';
 import type { DesignPlan } from '../../src/planDesign.ts';
 import { PerSampleAccumulator } from './reference/perSampleAccumulator.ts';
+import { MAX_WASM_BOXCAR, wasmTraced } from '../../src/sim/wasm/wasmTraced.ts';
+import { MAX_SECTIONS } from '../../src/sim/wasm/wasmKernel.ts';
+import { rippleBoxcarSamples } from '../../src/sim/rippleBoxcar.ts';
+
+/** Whether simulatePlan runs this case in the module (wasmTraced.ts) rather than in TypeScript. */
+function runsTraced(plan: DesignPlan, scenario: Scenario): boolean {
+  const { sampleRateHz, centerHz } = plan.spec;
+  const total = Math.round(scenario.durationS * sampleRateHz);
+  return plan.filter.sections.length <= MAX_SECTIONS && rippleBoxcarSamples(sampleRateHz, centerHz, total) <= MAX_WASM_BOXCAR;
+}
 
 /** A random spec of the cross-check generator with random widths and modes (valid, or null). */
 function randomCase(rnd: () => number, index: number): { spec: LoopSpec; scenario: Scenario } | null {
@@ -91,9 +102,18 @@ describe('the WebAssembly bit-true kernel', () => {
     }
   });
 
+  it('hosts the whole traced run of the mains-sync loop (float loop, kernel, accumulator cores)', () => {
+    const plan = planDesign(parseLoopSpecOrThrow(mainsSyncSpec));
+    const traced = wasmTraced(plan.bitTrue!, plan.filter.sections.length, rippleBoxcarSamples(10e3, 50, 1e6));
+    expect(traced).not.toBeNull();
+    traced!.release();
+    expect(runsTraced(plan, { kind: 'tone', offsetHz: 1, durationS: 100 })).toBe(true);
+  });
+
   it('gives the same record, checksum, traces and metrics as the TypeScript kernel on 40 random specs (seeded)', () => {
     const rnd = mulberry32(20261216);
     let compared = 0;
+    let traced = 0;
     const sectionCounts = new Set<number>();
     const modes = new Set<string>();
     for (let i = 0; compared < 40 && i < 400; i++) {
@@ -107,6 +127,7 @@ describe('the WebAssembly bit-true kernel', () => {
       const ts = simulatePlan(plan, c.scenario, { keepRecord: true, bitTrueKernel: 'typescript' });
       expect(wasm.bitTrue!.checksum).toBe(ts.bitTrue!.checksum);
       expect(sameRun(wasm, ts)).toBe(true);
+      if (runsTraced(plan, c.scenario)) traced++;
       // The record-only path of the golden vectors keeps the same record (either kernel; every fourth case the TypeScript one).
       const loop = { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
       const only = bitTrueRecordOf(loop, c.scenario, compared % 4 === 0 ? 'typescript' : 'wasm');
@@ -117,6 +138,8 @@ describe('the WebAssembly bit-true kernel', () => {
       compared++;
     }
     expect(compared).toBe(40);
+    // Nearly every case ran the module's traced path against the TypeScript one (a long ripple boxcar runs TypeScript).
+    expect(traced).toBeGreaterThanOrEqual(30);
     // The cases cover one to four sections and most combinations of rounding, overflow, waveform and phase width.
     expect([...sectionCounts].sort()).toEqual([1, 2, 3, 4]);
     expect(modes.size).toBeGreaterThanOrEqual(14);
@@ -189,6 +212,7 @@ describe('the chunked trace and metric accumulator', () => {
   it('gives the same traces and metrics as the per-sample one on 24 random specs and scenarios (seeded)', () => {
     const rnd = mulberry32(20261217);
     let compared = 0;
+    let traced = 0;
     for (let i = 0; compared < 24 && i < 300; i++) {
       const c = randomCase(rnd, i);
       if (!c) continue;
@@ -200,12 +224,14 @@ describe('the chunked trace and metric accumulator', () => {
       const buckets = pick(rnd, [1, 7, 1000, 4096, 50_000]);
       const fullTraces = rnd() < 0.3;
       const fast = simulatePlan(plan, c.scenario, { buckets, fullTraces });
+      if (runsTraced(plan, c.scenario)) traced++;
       const oracle = oracleRuns(plan, c.scenario, { buckets, fullTraces });
       expect(sameRun(fast.float as never, oracle.float as never)).toBe(true);
       expect(sameRun(fast.bitTrue as never, oracle.bitTrue as never)).toBe(true);
       compared++;
     }
     expect(compared).toBe(24);
+    expect(traced).toBeGreaterThanOrEqual(18);
   });
 
   it('is compared by a check that sees one changed bit', () => {

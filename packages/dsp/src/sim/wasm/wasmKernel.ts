@@ -14,7 +14,7 @@ import { BIT_TRUE_KERNEL_WASM_BASE64 } from './kernelBytes.ts';
 /** Samples one call of the kernel takes at most (the input and output areas of its memory). */
 export const WASM_CHUNK_SAMPLES = 8192;
 /** Sections the state and coefficient areas hold. */
-const MAX_SECTIONS = 8;
+export const MAX_SECTIONS = 8;
 
 /** Byte offsets of the kernel's memory (the layout comment of bitTrueKernel.wat). */
 const LAYOUT = {
@@ -45,8 +45,20 @@ export interface WasmChunkOut extends BitTrueChunkOut {
  * browser's and Node's type libraries alike, and an engine without WebAssembly simply has none.
  */
 interface WasmInstance {
-  readonly exports: { readonly memory: { readonly buffer: ArrayBuffer }; readonly run: (count: number) => void };
+  readonly exports: WasmExports;
 }
+
+/** The module's functions: the bit-true kernel and the traced simulation's loops (wasmTraced.ts). */
+export interface WasmExports {
+  readonly memory: { readonly buffer: ArrayBuffer };
+  readonly run: (count: number) => void;
+  readonly float: (count: number) => void;
+  readonly convert: (count: number) => void;
+  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number) => void;
+}
+
+/** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */
+const IMPORTS = { math: { sin: Math.sin, cos: Math.cos } };
 interface WasmApi {
   readonly Module: new (bytes: Uint8Array) => object;
   readonly Instance: new (module: object, imports: object) => WasmInstance;
@@ -84,8 +96,11 @@ export class WasmBitTrueLoop {
   private readonly words: BigInt64Array;
   private readonly ints: Int32Array;
   private readonly runChunk: (count: number) => void;
+  /** The instance's exports, for the traced simulation's loops that share this memory. */
+  readonly exports: WasmExports;
 
   constructor(instance: WasmInstance) {
+    this.exports = instance.exports;
     this.runChunk = instance.exports.run;
     const buffer = instance.exports.memory.buffer;
     const i32 = (offset: number) => new Int32Array(buffer, offset, WASM_CHUNK_SAMPLES);
@@ -158,7 +173,7 @@ export class WasmBitTrueLoop {
 }
 
 /**
- * Instances handed back by finished runs. A new instance allocates and clears its 576 KiB memory,
+ * Instances handed back by finished runs. A new instance allocates and clears its 1.7 MiB memory,
  * which took longer than a whole 4096-sample golden-vector run; `load` resets every byte a run reads.
  */
 const spare: WasmBitTrueLoop[] = [];
@@ -167,11 +182,16 @@ const MAX_SPARE = 4;
 /** A WebAssembly bit-true loop for the plan, or null when this engine cannot run one. */
 export function wasmBitTrueLoop(plan: BitTruePlan): WasmBitTrueLoop | null {
   if (plan.sectionCount > MAX_SECTIONS) return null;
+  const loop = wasmInstanceLoop();
+  loop?.load(plan);
+  return loop;
+}
+
+/** An instance of the module with no plan loaded (a float-only traced run), or null without WebAssembly. */
+export function wasmInstanceLoop(): WasmBitTrueLoop | null {
   const module = kernelModule();
   if (!module || !wasmApi) return null;
-  const loop = spare.pop() ?? new WasmBitTrueLoop(new wasmApi.Instance(module, {}));
-  loop.load(plan);
-  return loop;
+  return spare.pop() ?? new WasmBitTrueLoop(new wasmApi.Instance(module, IMPORTS));
 }
 
 /** Hand a loop whose run is over (its outputs and checksum read) back for the next run. */
