@@ -141,7 +141,7 @@ function floatRunner(spec: SimSpec, sections: readonly Sos[], setup: RunSetup, t
     traced.loadFloat(cfg);
     return {
       chunk(input, n0, count) {
-        traced.runFloat(count);
+        // The float loop runs inside the accumulator's core, sample by sample (wasmTraced.ts).
         acc.pushChunk(n0, count, { inPhase: input.phaseCycles, ncoPhase: obs.ncoPhase, x: input.x, y: obs.y, ncoHz: obs.ncoHz, offsetHz: input.offsetHz });
       },
       finish: () => acc.finish(),
@@ -194,18 +194,21 @@ function bitTrueRunner(
     : [new Float64Array(CHUNK_SAMPLES), new Float64Array(CHUNK_SAMPLES), new Float64Array(CHUNK_SAMPLES)];
   return {
     chunk(input, n0, count) {
-      if (wasm) {
+      if (traced && wasm) {
+        // Quantiser, kernel and the conversion below in the module, into the block the accumulator core reads.
+        const slice = record ? sliceRecord(record, n0, n0 + count) : null;
+        traced.quantize(plan, count);
+        if (slice) slice.inputCode.set(wasm.input.subarray(0, count));
+        wasm.runInPlace(count);
+        if (slice) copyChunk(wasm.out, slice, count);
+        traced.convert(count);
+      } else if (wasm) {
         // Without a record the codes are quantised straight into the kernel's input area.
         const slice = record ? sliceRecord(record, n0, n0 + count) : null;
         quantizeInput(plan, input.x, count, slice ? slice.inputCode : wasm.input);
         if (slice) wasm.run(slice.inputCode, count);
         else wasm.runInPlace(count);
         if (slice) copyChunk(wasm.out, slice, count);
-      }
-      if (traced) {
-        // The conversion below, in the module, into the observation block the accumulator core reads.
-        traced.convert(count);
-      } else if (wasm) {
         // (M + Δ)·fs/2^N with the kernel's own Δ: the number bitTrueNcoHzOf(plan)(y) gives.
         const { delta, phaseHi, phaseLo, filterCode } = wasm.out;
         for (let i = 0; i < count; i++) {

@@ -190,59 +190,6 @@
   ;;   1442816 float loop: constants and phase, section state (4 x f64) at +64, coefficients (5 x f64) at +320
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
 
-  ;; The float loop over `count` input samples (floatKernel.ts runFloatChunk, plus ncoHz of simulate.ts).
-  (func (export "float") (param $count i32)
-    (local $i i32) (local $o i32) (local $j i32) (local $k i32) (local $q i32) (local $sections i32) (local $square i32)
-    (local $ph f64) (local $c f64) (local $v f64) (local $x1 f64) (local $y1 f64) (local $y f64)
-    (local $base f64) (local $gain f64) (local $centerHz f64) (local $gainHz f64)
-    (local.set $base (f64.load offset=1442816 (i32.const 0)))
-    (local.set $gain (f64.load offset=1442824 (i32.const 0)))
-    (local.set $centerHz (f64.load offset=1442832 (i32.const 0)))
-    (local.set $gainHz (f64.load offset=1442840 (i32.const 0)))
-    (local.set $ph (f64.load offset=1442848 (i32.const 0)))
-    (local.set $square (i32.load offset=1442856 (i32.const 0)))
-    (local.set $sections (i32.load offset=1442860 (i32.const 0)))
-    (block $done
-      (loop $sample
-        (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
-        (local.set $o (i32.shl (local.get $i) (i32.const 3)))
-        (local.set $c (call $cos (f64.mul (f64.const 6.283185307179586) (local.get $ph))))
-        (if (local.get $square)
-          (then (local.set $c (select (f64.const 1) (f64.const -1) (f64.ge (local.get $c) (f64.const 0))))))
-        (local.set $v (f64.mul (f64.load offset=589824 (local.get $o)) (local.get $c)))
-        (local.set $j (i32.const 0))
-        (local.set $k (i32.const 1443136))
-        (local.set $q (i32.const 1442880))
-        (block $sectionsDone
-          (loop $section
-            (br_if $sectionsDone (i32.ge_u (local.get $j) (local.get $sections)))
-            (local.set $x1 (f64.load offset=0 (local.get $q)))
-            (local.set $y1 (f64.load offset=16 (local.get $q)))
-            ;; b0*v + b1*x1 + b2*x2 - a1*y1 - a2*y2, left to right
-            (local.set $y (f64.sub (f64.sub (f64.add (f64.add
-              (f64.mul (f64.load offset=0 (local.get $k)) (local.get $v))
-              (f64.mul (f64.load offset=8 (local.get $k)) (local.get $x1)))
-              (f64.mul (f64.load offset=16 (local.get $k)) (f64.load offset=8 (local.get $q))))
-              (f64.mul (f64.load offset=24 (local.get $k)) (local.get $y1)))
-              (f64.mul (f64.load offset=32 (local.get $k)) (f64.load offset=24 (local.get $q)))))
-            (f64.store offset=8 (local.get $q) (local.get $x1))
-            (f64.store offset=0 (local.get $q) (local.get $v))
-            (f64.store offset=24 (local.get $q) (local.get $y1))
-            (f64.store offset=16 (local.get $q) (local.get $y))
-            (local.set $v (local.get $y))
-            (local.set $j (i32.add (local.get $j) (i32.const 1)))
-            (local.set $k (i32.add (local.get $k) (i32.const 40)))
-            (local.set $q (i32.add (local.get $q) (i32.const 32)))
-            (br $section)))
-        (f64.store offset=786432 (local.get $o) (local.get $ph))
-        (f64.store offset=851968 (local.get $o) (local.get $v))
-        (f64.store offset=917504 (local.get $o) (f64.add (local.get $centerHz) (f64.mul (local.get $gainHz) (local.get $v))))
-        (local.set $ph (f64.add (local.get $ph) (f64.add (local.get $base) (f64.mul (local.get $gain) (local.get $v)))))
-        (local.set $ph (f64.sub (local.get $ph) (f64.floor (local.get $ph))))
-        (local.set $i (i32.add (local.get $i) (i32.const 1)))
-        (br $sample)))
-    (f64.store offset=1442848 (i32.const 0) (local.get $ph)))
-
   ;; The bit-true outputs of the last `run` as doubles in observation block 1 (simulate.ts bitTrueRunner):
   ;; NCO phase hi*2^(32-N) + lo*2^-N cycles, filter output y*2^-(D-1), NCO frequency M' + delta*fs/2^N.
   (func (export "convert") (param $count i32)
@@ -271,7 +218,10 @@
   ;; Samples i0 .. i1-1 of the chunk starting at sample n0 through accumulator k (runAccumulator.ts
   ;; pushChunk): unwrapped error, ripple boxcar, lock indicator, the min and max of the current bucket
   ;; of the four traces, and (flags) the tail and demodulation sums. The segment lies in one trace bucket.
-  (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32)
+  ;; With withFloat (k = 0) each sample first runs the float loop (floatKernel.ts runFloatChunk, and
+  ;; ncoHz as simulate.ts has it) into observation block 0: its feedback chain (cosine, sections, phase)
+  ;; leaves the core idle, and the accumulator's independent work fills those cycles.
+  (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32) (param $withFloat i32)
     (local $st i32) (local $blk i32) (local $i i32) (local $o i32) (local $bp i32)
     (local $boxIndex i32) (local $boxFilled i32) (local $boxLength i32) (local $boxBase i32)
     (local $prev f64) (local $unwrapped f64) (local $boxSum f64) (local $lockState f64)
@@ -279,6 +229,17 @@
     (local $phLo f64) (local $phHi f64) (local $fLo f64) (local $fHi f64) (local $frLo f64) (local $frHi f64) (local $lkLo f64) (local $lkHi f64)
     (local $amplitude f64) (local $alpha f64) (local $centerHz f64) (local $gainHz f64)
     (local $phaseNco f64) (local $d f64) (local $e f64) (local $pe f64) (local $y f64) (local $hz f64) (local $off f64) (local $q f64)
+    ;; the float loop's
+    (local $fo i32) (local $fj i32) (local $fk i32) (local $fq i32) (local $fSections i32) (local $fSquare i32)
+    (local $ph f64) (local $fc f64) (local $fv f64) (local $fx1 f64) (local $fy1 f64) (local $fy f64)
+    (local $base f64) (local $gain f64) (local $fCenterHz f64) (local $fGainHz f64)
+    (local.set $base (f64.load offset=1442816 (i32.const 0)))
+    (local.set $gain (f64.load offset=1442824 (i32.const 0)))
+    (local.set $fCenterHz (f64.load offset=1442832 (i32.const 0)))
+    (local.set $fGainHz (f64.load offset=1442840 (i32.const 0)))
+    (local.set $ph (f64.load offset=1442848 (i32.const 0)))
+    (local.set $fSquare (i32.load offset=1442856 (i32.const 0)))
+    (local.set $fSections (i32.load offset=1442860 (i32.const 0)))
     (local.set $st (i32.add (i32.const 1441792) (i32.mul (local.get $k) (i32.const 512))))
     (local.set $blk (i32.mul (local.get $k) (i32.const 327680)))
     (local.set $prev (f64.load offset=0 (local.get $st)))
@@ -309,6 +270,42 @@
     (block $done
       (loop $sample
         (br_if $done (i32.ge_u (local.get $i) (local.get $i1)))
+        (if (local.get $withFloat)
+          (then
+            (local.set $fo (i32.shl (local.get $i) (i32.const 3)))
+            (local.set $fc (call $cos (f64.mul (f64.const 6.283185307179586) (local.get $ph))))
+            (if (local.get $fSquare)
+              (then (local.set $fc (select (f64.const 1) (f64.const -1) (f64.ge (local.get $fc) (f64.const 0))))))
+            (local.set $fv (f64.mul (f64.load offset=589824 (local.get $fo)) (local.get $fc)))
+            (local.set $fj (i32.const 0))
+            (local.set $fk (i32.const 1443136))
+            (local.set $fq (i32.const 1442880))
+            (block $fSectionsDone
+              (loop $section
+                (br_if $fSectionsDone (i32.ge_u (local.get $fj) (local.get $fSections)))
+                (local.set $fx1 (f64.load offset=0 (local.get $fq)))
+                (local.set $fy1 (f64.load offset=16 (local.get $fq)))
+                ;; b0*v + b1*x1 + b2*x2 - a1*y1 - a2*y2, left to right
+                (local.set $fy (f64.sub (f64.sub (f64.add (f64.add
+                  (f64.mul (f64.load offset=0 (local.get $fk)) (local.get $fv))
+                  (f64.mul (f64.load offset=8 (local.get $fk)) (local.get $fx1)))
+                  (f64.mul (f64.load offset=16 (local.get $fk)) (f64.load offset=8 (local.get $fq))))
+                  (f64.mul (f64.load offset=24 (local.get $fk)) (local.get $fy1)))
+                  (f64.mul (f64.load offset=32 (local.get $fk)) (f64.load offset=24 (local.get $fq)))))
+                (f64.store offset=8 (local.get $fq) (local.get $fx1))
+                (f64.store offset=0 (local.get $fq) (local.get $fv))
+                (f64.store offset=24 (local.get $fq) (local.get $fy1))
+                (f64.store offset=16 (local.get $fq) (local.get $fy))
+                (local.set $fv (local.get $fy))
+                (local.set $fj (i32.add (local.get $fj) (i32.const 1)))
+                (local.set $fk (i32.add (local.get $fk) (i32.const 40)))
+                (local.set $fq (i32.add (local.get $fq) (i32.const 32)))
+                (br $section)))
+            (f64.store offset=786432 (local.get $fo) (local.get $ph))
+            (f64.store offset=851968 (local.get $fo) (local.get $fv))
+            (f64.store offset=917504 (local.get $fo) (f64.add (local.get $fCenterHz) (f64.mul (local.get $fGainHz) (local.get $fv))))
+            (local.set $ph (f64.add (local.get $ph) (f64.add (local.get $base) (f64.mul (local.get $gain) (local.get $fv)))))
+            (local.set $ph (f64.sub (local.get $ph) (f64.floor (local.get $ph))))))
         (local.set $o (i32.add (local.get $blk) (i32.shl (local.get $i) (i32.const 3))))
         (local.set $phaseNco (f64.load offset=786432 (local.get $o)))
         ;; e = d - round(d) for d in (-1, 1), written out as runAccumulator.ts has it (+ 0 turns -0 into +0)
@@ -362,6 +359,7 @@
             (local.set $demodSum2 (f64.add (local.get $demodSum2) (f64.mul (local.get $d) (local.get $d))))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample)))
+    (if (local.get $withFloat) (then (f64.store offset=1442848 (i32.const 0) (local.get $ph))))
     (f64.store offset=0 (local.get $st) (local.get $prev))
     (f64.store offset=8 (local.get $st) (local.get $unwrapped))
     (f64.store offset=16 (local.get $st) (local.get $boxSum))
@@ -380,4 +378,28 @@
     (f64.store offset=120 (local.get $st) (local.get $lkHi))
     (i32.store offset=160 (local.get $st) (local.get $boxIndex))
     (i32.store offset=164 (local.get $st) (local.get $boxFilled)))
+
+  ;; Input codes of the first `count` input samples into the kernel's input area (bitTrueKernel.ts
+  ;; quantizeInput): q = floor(x*2^(D-1)), one up above a half or on a tie the mode rounds up (nearest:
+  ;; v >= 0; half-even: q odd), saturated to [min, max] (an ADC clips).
+  (func (export "quantize") (param $count i32) (param $scale f64) (param $mode i32) (param $min f64) (param $max f64)
+    (local $i i32) (local $v f64) (local $q f64) (local $r f64)
+    (block $done
+      (loop $sample
+        (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
+        (local.set $v (f64.mul (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))) (local.get $scale)))
+        (local.set $q (f64.floor (local.get $v)))
+        (if (local.get $mode)
+          (then
+            (local.set $r (f64.sub (local.get $v) (local.get $q)))
+            (if (i32.or (f64.gt (local.get $r) (f64.const 0.5))
+                  (i32.and (f64.eq (local.get $r) (f64.const 0.5))
+                    (if (result i32) (i32.eq (local.get $mode) (i32.const 1))
+                      (then (f64.ge (local.get $v) (f64.const 0)))
+                      (else (f64.ne (f64.sub (local.get $q) (f64.mul (f64.const 2) (f64.floor (f64.mul (local.get $q) (f64.const 0.5))))) (f64.const 0))))))
+              (then (local.set $q (f64.add (local.get $q) (f64.const 1)))))))
+        (local.set $q (select (local.get $max) (select (local.get $min) (local.get $q) (f64.lt (local.get $q) (local.get $min))) (f64.gt (local.get $q) (local.get $max))))
+        (i32.store offset=264192 (i32.shl (local.get $i) (i32.const 2)) (i32.trunc_sat_f64_s (local.get $q)))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $sample))))
 )

@@ -52,9 +52,9 @@ interface WasmInstance {
 export interface WasmExports {
   readonly memory: { readonly buffer: ArrayBuffer };
   readonly run: (count: number) => void;
-  readonly float: (count: number) => void;
   readonly convert: (count: number) => void;
-  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number) => void;
+  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number) => void;
+  readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
 }
 
 /** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */

@@ -1,16 +1,17 @@
 /**
- * The traced simulation in the WebAssembly module (bitTrueKernel.wat): the float loop, the bit-true
- * kernel, the conversion of its outputs and the per-sample part of both trace and metric accumulators
- * run in one instance, on one input chunk in its memory, with no copies between them and none of
+ * The traced simulation in the WebAssembly module (bitTrueKernel.wat): the float loop, the input
+ * quantiser, the bit-true kernel, the conversion of its outputs and the per-sample part of both trace
+ * and metric accumulators run in one instance, on one input chunk in its memory, with no copies between them and none of
  * the JIT's deoptimisations of long TypeScript loops. Each function is the same double operations in
  * the same order as its TypeScript twin (floatKernel.ts, simulate.ts, runAccumulator.ts) and calls the
- * engine's own Math.sin and Math.cos, so every trace and metric is the same double;
+ * engine's own Math.sin and Math.cos, so every code, trace and metric is the same;
  * test/sim/fastPaths.test.ts compares the two paths bit for bit.
  */
 import type { FloatLoopConfig } from '../floatKernel.ts';
 import type { InputChunk } from '../inputSignal.ts';
 import type { AccumulatorCore } from '../runAccumulator.ts';
 import type { BitTruePlan } from '../../types/sim.ts';
+import { MODE } from '../bitTrueKernel.ts';
 import { MAX_SECTIONS, WASM_CHUNK_SAMPLES, releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmInstanceLoop, type WasmBitTrueLoop } from './wasmKernel.ts';
 
 /** Byte offsets of the traced areas (the layout comment of bitTrueKernel.wat). */
@@ -91,13 +92,14 @@ export class WasmTraced {
     );
   }
 
-  /** The float loop over the first `count` input samples, into observation block 0. */
-  runFloat(count: number): void {
-    this.loop.exports.float(count);
-  }
-
   loadConvert(scales: BitTrueScales): void {
     this.f64.set([scales.hiWeight, scales.toCycles, scales.yScale, scales.centerHz, scales.hzPerLsb], TRACED.convert / 8);
+  }
+
+  /** The first `count` input samples as the plan's input codes, into the kernel's input area (quantizeInput's codes). */
+  quantize(plan: BitTruePlan, count: number): void {
+    const scale = 2 ** (plan.dataBits - 1);
+    this.loop.exports.quantize(count, scale, MODE[plan.rounding], -scale, scale - 1);
   }
 
   /** The last kernel run's outputs as doubles, into observation block 1. */
@@ -105,7 +107,7 @@ export class WasmTraced {
     this.loop.exports.convert(count);
   }
 
-  /** Accumulator k's core (k = 0 float, 1 bit-true). */
+  /** Accumulator k's core (k = 0 float, 1 bit-true); the float core runs the float loop itself, a sample ahead of its accumulation. */
   core(k: 0 | 1): AccumulatorCore {
     const buffer = this.loop.exports.memory.buffer;
     const stateAt = TRACED.state + k * TRACED.stateBytes;
@@ -129,7 +131,7 @@ export class WasmTraced {
         f64.fill(0, boxAt / 8, boxAt / 8 + c.boxcarLength);
       },
       run(n0, i0, i1, tail, demod) {
-        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0);
+        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0);
       },
     };
   }
