@@ -22,11 +22,15 @@ export const ANALYZE_TARGET_MS = 0.5;
 const FIRST_CALL_TARGET_MS = 5;
 const SCIPY_RATIO_TARGET = 1;
 const BATCH = 10;
+/** Fresh processes per example for the first-call figures (their median is reported). */
+const FIRST_CALL_PROCESSES = 5;
 
 export interface AnalysisBenchFigure {
   readonly example: string;
-  /** The first call in a fresh Node process (as the editor's worker makes it), wall clock. */
+  /** The first call in a fresh Node process (as the editor's worker makes it), wall clock; median of FIRST_CALL_PROCESSES processes. */
   readonly firstCallMs: number | null;
+  /** In the same processes, importing the module graph the call needs (planDesign, the examples, zod), wall clock, median. */
+  readonly importMs: number | null;
   readonly medianMs: number;
   readonly cpuMedianMs: number;
   readonly p95Ms: number;
@@ -45,14 +49,29 @@ const cpuMs = () => {
   return (u.user + u.system) / 1000;
 };
 
-/** One analyzeDesign call of each example in a fresh process (cold JIT, cold module graph), ms. */
-function firstCallsMs(): Map<string, number> {
+interface FirstCallFigure {
+  readonly importMs: number;
+  readonly firstCallMs: number;
+}
+
+const median = (xs: readonly number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+
+/**
+ * One analyzeDesign call of each example in each of FIRST_CALL_PROCESSES fresh processes (cold JIT,
+ * cold module graph): the medians of the import and of the first call, ms.
+ */
+function firstCallsMs(): Map<string, FirstCallFigure> {
   const script = path.join(HERE, 'firstCall.ts');
-  const out = new Map<string, number>();
+  const out = new Map<string, FirstCallFigure>();
   for (const e of exampleSpecs) {
-    const r = spawnSync(process.execPath, ['--import', 'tsx', script, e.id], { cwd: path.join(HERE, '..'), encoding: 'utf8', env: process.env });
-    const ms = Number(r.stdout.trim().split('\n').pop());
-    if (r.status === 0 && Number.isFinite(ms)) out.set(e.id, ms);
+    const runs: FirstCallFigure[] = [];
+    for (let i = 0; i < FIRST_CALL_PROCESSES; i++) {
+      const r = spawnSync(process.execPath, ['--import', 'tsx', script, e.id], { cwd: path.join(HERE, '..'), encoding: 'utf8', env: process.env });
+      if (r.status !== 0) continue;
+      const fig = JSON.parse(r.stdout.trim().split('\n').pop() ?? '{}') as Partial<FirstCallFigure>;
+      if (Number.isFinite(fig.importMs) && Number.isFinite(fig.firstCallMs)) runs.push(fig as FirstCallFigure);
+    }
+    if (runs.length > 0) out.set(e.id, { importMs: median(runs.map((r) => r.importMs)), firstCallMs: median(runs.map((r) => r.firstCallMs)) });
   }
   return out;
 }
@@ -111,12 +130,14 @@ export function runAnalysisBench(runs = 300, warmup = 100): { scipyVersion: stri
     const at = (q: number) => steady[Math.min(steady.length - 1, Math.floor(q * steady.length))]!;
     const cpuMedianMs = round3([...cpu].sort((a, b) => a - b)[Math.floor(cpu.length / 2)]!);
     const medianMs = round3(at(0.5));
-    const firstCallMs = first.has(e.id) ? round3(first.get(e.id)!) : null;
+    const cold = first.get(e.id);
+    const firstCallMs = cold ? round3(cold.firstCallMs) : null;
     const peer = scipy.figures[index] ?? null;
     const ratio = peer ? round3(cpuMedianMs / peer.cpuMedianMs) : null;
     return {
       example: e.id,
       firstCallMs,
+      importMs: cold ? round3(cold.importMs) : null,
       medianMs,
       cpuMedianMs,
       p95Ms: round3(at(0.95)),
