@@ -6,7 +6,7 @@
  * initialPhaseDeg. Strict objects: a misspelt field is an error naming it.
  */
 import { z } from 'zod';
-import { plainMessages } from './messages.ts';
+import { PARSE_CONTEXT } from './messages.ts';
 
 const common = {
   durationS: z.number().positive(),
@@ -128,7 +128,7 @@ export type ParseScenarioResult =
 
 /** Validate any input as a scenario. Never throws; each issue names its field (dot path). */
 export function parseScenario(input: unknown): ParseScenarioResult {
-  const result = scenarioSchema.safeParse(input, { error: plainMessages });
+  const result = scenarioSchema.safeParse(input, PARSE_CONTEXT);
   if (result.success) return { ok: true, scenario: result.data };
   return {
     ok: false,

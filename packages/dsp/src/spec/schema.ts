@@ -12,7 +12,7 @@ import { z } from 'zod';
 import { loopGain } from '../analysis/loopGain.ts';
 import { lagLeadFromTargets } from '../filters/timeConstants.ts';
 import { EXACT_INTEGER_BITS, WIDTH_LIMIT_REASONS, WIDTH_LIMITS, type WidthField } from './limits.ts';
-import { plainMessages } from './messages.ts';
+import { PARSE_CONTEXT } from './messages.ts';
 
 /** Finite number > 0 (zod 4's z.number() already rejects NaN and ±Infinity). */
 /**
@@ -120,7 +120,7 @@ function validParts(value: unknown): ValidParts {
   const v = value !== null && typeof value === 'object' ? (value as Record<string, unknown>) : {};
   const out: Record<string, unknown> = {};
   for (const key of Object.keys(baseLoopSpecSchema.shape) as (keyof Shape)[]) {
-    const r = baseLoopSpecSchema.shape[key].safeParse(v[key]);
+    const r = baseLoopSpecSchema.shape[key].safeParse(v[key], PARSE_CONTEXT);
     if (r.success) out[key] = r.data;
   }
   return out as ValidParts;
@@ -129,7 +129,9 @@ function validParts(value: unknown): ValidParts {
 /** Cross-field constraints; each issue names the field a designer should change. */
 function checkCrossFields(value: unknown, ctx: z.RefinementCtx): void {
   const add: AddIssue = (path, message) => ctx.addIssue({ code: 'custom', path, message });
-  const p = validParts(value);
+  // No issue yet: the object parsed whole and `value` is its output, so every part is valid as it
+  // stands; only a spec with issues needs each part tried on its own.
+  const p = ctx.issues.length === 0 ? (value as ValidParts) : validParts(value);
   checkRates(p, add);
   if (p.nco && p.nco.phaseBits > p.nco.accumulatorBits) {
     add(['nco', 'phaseBits'], `nco.phaseBits ${p.nco.phaseBits} cannot exceed nco.accumulatorBits ${p.nco.accumulatorBits}`);
@@ -249,7 +251,7 @@ export type ParseLoopSpecResult =
 export function parseLoopSpec(input: unknown): ParseLoopSpecResult {
   let result: ReturnType<typeof loopSpecSchema.safeParse>;
   try {
-    result = loopSpecSchema.safeParse(input, { error: plainMessages });
+    result = loopSpecSchema.safeParse(input, PARSE_CONTEXT);
   } catch (err) {
     // safeParse does not throw on bad data; this guards exotic inputs such as throwing getters.
     return { ok: false, issues: [{ field: '', message: `spec could not be read: ${String(err)}` }] };
