@@ -121,9 +121,9 @@ function quantizeOne(
 
 function collectTraps(q: QuantizedSection, fx: CoefficientFormat, fractionBits: number, traps: QuantizationTrap[]): void {
   const where = `section ${q.index + 1}`;
-  const fmt = qFormat(fx.coefficientBits, fractionBits);
   for (const c of q.coefficients) {
     if (!c.overflowed) continue;
+    const fmt = qFormat(fx.coefficientBits, fractionBits);
     traps.push({
       kind: 'coefficient-overflow',
       section: q.index,
@@ -140,10 +140,11 @@ function collectTraps(q: QuantizedSection, fx: CoefficientFormat, fractionBits: 
       message: `${where}: every numerator coefficient quantises to 0 with ${fractionBits} fraction bits, so the section passes nothing (smallest |b| = ${smallest.toPrecision(4)} needs about ${needed} fraction bits)`,
     });
   }
-  const radius = `quantised pole radius ${q.poleRadius.toPrecision(10)} (unquantised ${q.referencePoleRadius.toPrecision(10)})`;
+  // The radii are written out only for a trap (number formatting is slow, slowest on its first use).
+  const radius = () => `quantised pole radius ${q.poleRadius.toPrecision(10)} (unquantised ${q.referencePoleRadius.toPrecision(10)})`;
   if (q.stability === 'on-circle') {
-    traps.push({ kind: 'pole-on-circle', section: q.index, message: `${where}: quantisation puts a pole on the unit circle, ${radius}; the section no longer decays` });
+    traps.push({ kind: 'pole-on-circle', section: q.index, message: `${where}: quantisation puts a pole on the unit circle, ${radius()}; the section no longer decays` });
   } else if (q.stability === 'outside') {
-    traps.push({ kind: 'pole-outside-circle', section: q.index, message: `${where}: quantisation pushes a pole outside the unit circle, ${radius}; the section is unstable` });
+    traps.push({ kind: 'pole-outside-circle', section: q.index, message: `${where}: quantisation pushes a pole outside the unit circle, ${radius()}; the section is unstable` });
   }
 }
