@@ -12,10 +12,29 @@ export function sineFullScale(amplitudeBits: number): number {
   return 2 ** (amplitudeBits - 1) - 1;
 }
 
-/** The sine table as Int32Array (phaseBits ≥ 2 so the quarter-wave offset of cos is a whole address). */
+/** Tables already computed, by `${phaseBits}/${amplitudeBits}`; a few, since a session edits one design at a time. */
+const TABLES = new Map<string, Int32Array>();
+const TABLES_KEPT = 4;
+
+/**
+ * The sine table as Int32Array (phaseBits ≥ 2 so the quarter-wave offset of cos is a whole address).
+ * Every call returns an array of its own, copied from one computed once per widths: a plan may hand its
+ * table to a worker or a file, and no other plan may see that.
+ */
 export function sineTable(phaseBits: number, amplitudeBits: number): Int32Array {
   requireWidth('nco.phaseBits', phaseBits);
   requireWidth('nco.amplitudeBits', amplitudeBits);
+  const key = `${phaseBits}/${amplitudeBits}`;
+  let table = TABLES.get(key);
+  if (!table) {
+    table = computeSineTable(phaseBits, amplitudeBits);
+    if (TABLES.size >= TABLES_KEPT) TABLES.delete(TABLES.keys().next().value as string);
+    TABLES.set(key, table);
+  }
+  return table.slice();
+}
+
+function computeSineTable(phaseBits: number, amplitudeBits: number): Int32Array {
   const size = 2 ** phaseBits;
   const quarter = size / 4;
   const fullScale = sineFullScale(amplitudeBits);
