@@ -3,7 +3,7 @@
  * the format Verilog's $readmemh reads: one word per line, exactly ceil(W/4) hex digits, two's
  * complement for signed columns, "\n" line ends. The testbenches of both languages read these files.
  */
-import type { BitTrueRecord, GoldenVectors, LoopSpec, VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
+import { AsciiText, type BitTrueRecord, type GoldenVectors, type LoopSpec, type VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
 
 type HexColumn = Exclude<(typeof VECTOR_CSV_COLUMNS)[number], 'sample'>;
 
@@ -41,32 +41,41 @@ const VALUES: Readonly<Record<Exclude<HexColumn, 'nco_phase'>, (r: BitTrueRecord
   filter_code: (r) => r.filterCode,
 };
 
-/** A W-bit word (W ≤ 32) as exactly `digits` hex digits, two's complement when negative. */
-function hexWord(value: number, widthBits: number, digits: number): string {
-  return (value < 0 ? value + 2 ** widthBits : value).toString(16).padStart(digits, '0');
+const NEWLINE = 0x0a;
+
+/**
+ * One column as W-bit words (W ≤ 32), two's complement when negative, `digits` hex digits a line.
+ * Digits go straight into one buffer (dsp's AsciiText): a toString(16) and padStart per word was
+ * 4–5 times slower at 65 536 samples, for the same bytes.
+ */
+function wordsText(values: ArrayLike<number>, length: number, widthBits: number, digits: number): string {
+  const out = new AsciiText(length * (digits + 1));
+  const wrap = 2 ** widthBits;
+  for (let n = 0; n < length; n++) {
+    const v = values[n] as number;
+    out.hex(v < 0 ? v + wrap : v, digits);
+    out.byte(NEWLINE);
+  }
+  return out.toString();
 }
 
-function phaseWords(r: BitTrueRecord, widthBits: number, digits: number): string[] {
-  const out = new Array<string>(r.length);
+/** The phase accumulator, hi·2^32 + lo: wider than 32 bits, the hi word's digits then lo's eight. */
+function phaseText(r: BitTrueRecord, widthBits: number, digits: number): string {
+  if (widthBits <= 32) return wordsText(r.phaseLo, r.length, widthBits, digits);
+  const out = new AsciiText(r.length * (digits + 1));
   for (let n = 0; n < r.length; n++) {
-    const lo = r.phaseLo[n] as number;
-    out[n] = widthBits <= 32
-      ? hexWord(lo, widthBits, digits)
-      : (r.phaseHi[n] as number).toString(16).padStart(digits - 8, '0') + lo.toString(16).padStart(8, '0');
+    out.hex(r.phaseHi[n] as number, digits - 8);
+    out.hex(r.phaseLo[n] as number, 8);
+    out.byte(NEWLINE);
   }
-  return out;
+  return out.toString();
 }
 
 export function hexMemoryFiles(spec: LoopSpec, golden: GoldenVectors): HexMemoryFile[] {
   const r = golden.record;
   return hexColumns(spec).map(({ column, widthBits, signed }) => {
     const digits = Math.ceil(widthBits / 4);
-    let words: string[];
-    if (column === 'nco_phase') words = phaseWords(r, widthBits, digits);
-    else {
-      const values = VALUES[column](r);
-      words = Array.from({ length: r.length }, (_, n) => hexWord(values[n] as number, widthBits, digits));
-    }
-    return { column, fileName: hexFileName(spec.name, column), widthBits, signed, digits, text: `${words.join('\n')}\n` };
+    const text = column === 'nco_phase' ? phaseText(r, widthBits, digits) : wordsText(VALUES[column](r), r.length, widthBits, digits);
+    return { column, fileName: hexFileName(spec.name, column), widthBits, signed, digits, text };
   });
 }

@@ -3,8 +3,7 @@
  * its field; run the plan's float and bit-true loops side by side and report the metrics (and, on
  * request, the first N samples of the bit-true record in the release's CSV format, from the same run).
  */
-import { FieldError, isScenarioField, parseScenario, simulatePlan, tryPlanDesign, type SimMetrics, type SpecIssue } from '@loopwright/dsp';
-import { firstVectorsCsv } from './vectors.ts';
+import { FieldError, formatVectorsCsv, isScenarioField, parseScenario, simulatePlan, tryPlanDesign, type SimMetrics, type SpecIssue } from '@loopwright/dsp';
 
 export type InputLabel = 'SPEC.json' | 'SCENARIO.json';
 
@@ -32,7 +31,7 @@ export function simulateScenario(specInput: unknown, scenarioInput: unknown, vec
     const bitTrue = result.bitTrue;
     const record = bitTrue?.record;
     const csv = vectors !== undefined && bitTrue && record
-      ? firstVectorsCsv({ scenario: scenario.scenario, ncoAccumulatorBits: planned.plan.spec.nco.accumulatorBits, record, checksum: bitTrue.checksum }, vectors)
+      ? formatVectorsCsv({ scenario: scenario.scenario, ncoAccumulatorBits: planned.plan.spec.nco.accumulatorBits, record, checksum: bitTrue.checksum }, vectors)
       : '';
     return {
       ok: true,

@@ -42,8 +42,3 @@ export function releaseVectors({ spec, goldenVectors: v }: { readonly spec: Loop
   };
 }
 
-/** The first `count` vectors of a run, in the release's CSV layout (header included). */
-export function firstVectorsCsv(v: GoldenVectors, count: number): string {
-  const lines = formatVectorsCsv(v).split('\n');
-  return `${lines.slice(0, count + 1).join('\n')}\n`;
-}

@@ -10,6 +10,7 @@
  *   filter_code    loop-filter output y[n] (last section), dataBits signed
  */
 import type { GoldenVectors } from './goldenVectors.ts';
+import { AsciiText } from './asciiText.ts';
 
 export const VECTOR_CSV_COLUMNS = ['sample', 'input_code', 'nco_phase', 'table_address', 'nco_code', 'detector_code', 'filter_code'] as const;
 export type VectorCsvColumn = (typeof VECTOR_CSV_COLUMNS)[number];
@@ -21,19 +22,44 @@ export function phaseDecimal(hi: number, lo: number): string {
   return Number.isSafeInteger(v) ? String(v) : ((BigInt(hi) << 32n) + BigInt(lo)).toString();
 }
 
+/** Bytes of a row at most: sample (10 digits), five signed 32-bit codes (11 each), the phase (20), 7 separators. */
+const MAX_ROW_BYTES = 10 + 5 * 11 + 20 + 7;
+const COMMA = 0x2c;
+const NEWLINE = 0x0a;
+
 /**
  * Kept by hand rather than csv-stringify (csv-parse's sibling): every field is a decimal integer, so
  * there is nothing to quote or escape, and csv-stringify 6.9.0 wrote the same bytes for the four demo
- * specs (SHA-256 equal) in 9.6–11.4 ms per 4096-row file against 1.9 ms here (median of 100 runs,
- * 2-core machine): it would triple the golden-vector step of every release cut (3–4 ms with the run).
+ * specs (SHA-256 equal) in 9.6–11.4 ms per 4096-row file against 1.9 ms for a template string per
+ * row (median of 100 runs, 2-core machine). The digits are now written straight into one buffer
+ * (asciiText.ts), with the same bytes as that template string: at 65 536 samples the template string
+ * took most of a release cut (packages/dsp/bench/bench.ts, "goldenVectors", for the figures).
+ * `samples` keeps the first rows only (a simulation's first vectors); the default is the whole record.
  */
-export function formatVectorsCsv(v: GoldenVectors): string {
+export function formatVectorsCsv(v: GoldenVectors, samples = v.record.length): string {
   const r = v.record;
-  const lines: string[] = [VECTOR_CSV_COLUMNS.join(',')];
-  for (let n = 0; n < r.length; n++) {
-    lines.push(
-      `${n},${r.inputCode[n]},${phaseDecimal(r.phaseHi[n] as number, r.phaseLo[n] as number)},${r.tableAddress[n]},${r.ncoCode[n]},${r.detectorCode[n]},${r.filterCode[n]}`,
-    );
+  const rows = Math.max(0, Math.min(samples, r.length));
+  const out = new AsciiText(64 + rows * MAX_ROW_BYTES);
+  out.text(VECTOR_CSV_COLUMNS.join(','));
+  out.byte(NEWLINE);
+  const { inputCode, phaseHi, phaseLo, tableAddress, ncoCode, detectorCode, filterCode } = r;
+  for (let n = 0; n < rows; n++) {
+    out.decimal(n);
+    out.byte(COMMA);
+    out.decimal(inputCode[n] as number);
+    out.byte(COMMA);
+    const hi = phaseHi[n] as number;
+    if (hi < 0x200000) out.decimal(hi * 4294967296 + (phaseLo[n] as number));
+    else out.text(phaseDecimal(hi, phaseLo[n] as number));
+    out.byte(COMMA);
+    out.decimal(tableAddress[n] as number);
+    out.byte(COMMA);
+    out.decimal(ncoCode[n] as number);
+    out.byte(COMMA);
+    out.decimal(detectorCode[n] as number);
+    out.byte(COMMA);
+    out.decimal(filterCode[n] as number);
+    out.byte(NEWLINE);
   }
-  return lines.join('\n') + '\n';
+  return out.toString();
 }
