@@ -110,7 +110,7 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
   const analogMargins = loopMargins(analogFn, analogOpen);
   const analogPolys = analogClosedLoop(design.analog, k);
   const analogStable = routhHurwitzStable(analogPolys.h.den);
-  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, closedDbOfOpen(analogOpen.values), analogStable);
+  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, closedDbOfOpen(analogOpen), analogStable);
 
   const discrete = discreteLoopMargins(spec, design.sections, { fMinHz: range.fMinHz, points });
   const plotGrid = discrete.open.freqHz;
@@ -126,10 +126,10 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
     analogPhaseDeg: analogOnPlot.phaseDeg,
     discreteMagnitudeDb: discrete.open.magnitudeDb,
     discretePhaseDeg: discrete.open.phaseDeg,
-    analogClosedLoopDb: closedDbOfOpen(analogOnPlot.values),
+    analogClosedLoopDb: closedDbOfOpen(analogOnPlot),
     discreteClosedLoopDb: discrete.closedDb!,
-    analogErrorDb: errorDbOfOpen(analogOnPlot.values),
-    discreteErrorDb: errorDbOfOpen(discrete.open.values),
+    analogErrorDb: errorDbOfOpen(analogOnPlot),
+    discreteErrorDb: errorDbOfOpen(discrete.open),
     quantizedMagnitudeDb: quantization.open?.magnitudeDb ?? null,
     quantizedPhaseDeg: quantization.open?.phaseDeg ?? null,
   };

@@ -5,7 +5,7 @@
  * less than 180° between points (true for the ≥ 400-point log grids used here).
  */
 import type { Complex } from '../filters/complex.ts';
-import { type ResponseFn, toDb } from './response.ts';
+import { type GridResponseFn, type ResponseFn, partsToDb } from './response.ts';
 
 export interface BodeData {
   readonly freqHz: readonly number[];
@@ -18,30 +18,52 @@ const DEG = 180 / Math.PI;
 
 /** Angle of a/b in degrees, principal value; 0 when either is zero. */
 export function relativeAngleDeg(a: Complex, b: Complex): number {
-  const re = a.re * b.re + a.im * b.im;
-  const im = a.im * b.re - a.re * b.im;
+  return relativeAngleOfPartsDeg(a.re, a.im, b.re, b.im);
+}
+
+/** relativeAngleDeg of a = ar + j·ai and b = br + j·bi given as numbers. */
+function relativeAngleOfPartsDeg(ar: number, ai: number, br: number, bi: number): number {
+  const re = ar * br + ai * bi;
+  const im = ai * br - ar * bi;
   return re === 0 && im === 0 ? 0 : Math.atan2(im, re) * DEG;
 }
 
 export interface SampledResponse extends BodeData {
-  readonly values: readonly Complex[];
+  /** The complex samples: fn(freqHz[i]) = re[i] + j·im[i]. */
+  readonly re: Float64Array;
+  readonly im: Float64Array;
+}
+
+/** The sample at grid index i as a complex value. */
+export function sampleAt(s: SampledResponse, i: number): Complex {
+  return { re: s.re[i]!, im: s.im[i]! };
 }
 
 /** Sample a response on the grid: values, dB and unwrapped phase (anchored at −90°·loopType). */
-export function sampleResponse(fn: ResponseFn, grid: readonly number[], loopType: number): SampledResponse {
-  const values = grid.map(fn);
-  const magnitudeDb = values.map(toDb);
-  const phaseDeg = new Array<number>(values.length);
-  const first = values[0]!;
-  let phase = Math.atan2(first.im, first.re) * DEG;
+export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loopType: number): SampledResponse {
+  const n = grid.length;
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  if (fn.fill) fn.fill(grid, re, im);
+  else {
+    for (let i = 0; i < n; i++) {
+      const v = fn(grid[i]!);
+      re[i] = v.re;
+      im[i] = v.im;
+    }
+  }
+  const magnitudeDb = new Array<number>(n);
+  for (let i = 0; i < n; i++) magnitudeDb[i] = partsToDb(re[i]!, im[i]!);
+  const phaseDeg = new Array<number>(n);
+  let phase = Math.atan2(im[0]!, re[0]!) * DEG;
   const anchor = -90 * loopType;
   phase += 360 * Math.round((anchor - phase) / 360);
   phaseDeg[0] = phase;
-  for (let i = 1; i < values.length; i++) {
-    phase += relativeAngleDeg(values[i]!, values[i - 1]!);
+  for (let i = 1; i < n; i++) {
+    phase += relativeAngleOfPartsDeg(re[i]!, im[i]!, re[i - 1]!, im[i - 1]!);
     phaseDeg[i] = phase;
   }
-  return { freqHz: grid, magnitudeDb, phaseDeg, values };
+  return { freqHz: grid, magnitudeDb, phaseDeg, re, im };
 }
 
 /** Phase at f continued from a grid point (refHz, refValue, refPhaseDeg) close to f. */

@@ -82,7 +82,7 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
   const margins = loopMargins(fn, open);
   // Sections (or a b/a of order ≤ 2) get the section-wise test; a high-order b/a only the b/a test.
   const stable = isSections(filter) ? discreteLoopStable(filter, k, fs) : transferFunctionStable(filter, k, fs);
-  const closedDb = options.closedLoop === false ? null : closedDbOfOpen(open.values);
+  const closedDb = options.closedLoop === false ? null : closedDbOfOpen(open);
   const cl = closedDb === null ? null : closedLoopFigures(closedLoop(fn), grid, closedDb, stable);
   return { margins, stable, closedLoop: cl, closedDb, open, loopType, response: fn };
 }

@@ -11,7 +11,7 @@
  */
 import { brentRoot } from './roots.ts';
 import { type ResponseFn, toDb } from './response.ts';
-import { type SampledResponse, phaseNear } from './bode.ts';
+import { type SampledResponse, phaseNear, sampleAt } from './bode.ts';
 
 export interface PhaseCrossing {
   readonly freqHz: number;
@@ -70,7 +70,7 @@ function gainCrossings(fn: ResponseFn, s: SampledResponse): { f: number; pm: num
     if (!crosses) continue;
     const x = brentRoot((lx) => toDb(fn(Math.exp(lx))), Math.log(s.freqHz[i]!), Math.log(s.freqHz[i + 1]!), 1e-13);
     const f = Math.exp(x);
-    const phase = phaseNear(fn, f, s.values[i]!, s.phaseDeg[i]!);
+    const phase = phaseNear(fn, f, sampleAt(s, i), s.phaseDeg[i]!);
     out.push({ f, pm: 180 + phase });
   }
   return out;
@@ -93,10 +93,11 @@ function phaseCrossings(fn: ResponseFn, s: SampledResponse): PhaseCrossing[] {
       if (!((da > 0 && db <= 0) || (da < 0 && db >= 0) || (i === 0 && da === 0))) continue;
       const fa = s.freqHz[i]!;
       const fb = s.freqHz[i + 1]!;
+      const ref = sampleAt(s, i);
       const f =
         db === 0
           ? fb
-          : Math.exp(brentRoot((lx) => phaseNear(fn, Math.exp(lx), s.values[i]!, pa) - level, Math.log(fa), Math.log(fb), 1e-13));
+          : Math.exp(brentRoot((lx) => phaseNear(fn, Math.exp(lx), ref, pa) - level, Math.log(fa), Math.log(fb), 1e-13));
       const db0 = toDb(fn(f));
       if (db0 <= ZERO_MAGNITUDE_DB) continue;
       out.push({ freqHz: f, gainMarginDb: -db0 });

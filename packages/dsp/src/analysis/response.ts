@@ -5,15 +5,23 @@
  *   one sample of delay at the loop rate. Note z⁻¹/(1 − z⁻¹) = 1/(z − 1).
  */
 import type { AnalogTf, DigitalTf, Sos } from '../types/filter.ts';
-import { type Complex, cdiv, cexpj, cmul, cscale } from '../filters/complex.ts';
+import { type Complex, cdiv, cexpj, cmul } from '../filters/complex.ts';
 import { polyvalAscending } from '../filters/polynomial.ts';
-import { sectionOnUnitCircle, unitCirclePoint, type SectionValue } from '../filters/sections.ts';
+import { sectionOnUnitCircle, unitCirclePoint, type SectionValue, type UnitCirclePoint } from '../filters/sections.ts';
 
 /** A digital filter in either representation. */
 export type DigitalFilter = DigitalTf | readonly Sos[];
 
 /** Complex response as a function of frequency in Hz. */
 export type ResponseFn = (freqHz: number) => Complex;
+
+/**
+ * A response that can also fill a whole grid at once: re[i] + j·im[i] = fn(grid[i]), the same doubles,
+ * without an object per point (and, for sections, with the grid's cos/sin made once: unitCircleGrid).
+ */
+export interface GridResponseFn extends ResponseFn {
+  readonly fill?: (grid: readonly number[], re: Float64Array, im: Float64Array) => void;
+}
 
 /** Scratch of one section's value, reused by every evaluation below (single-threaded, never re-entered). */
 const SECTION: SectionValue = { nr: 0, ni: 0, dr: 1, di: 0 };
@@ -55,13 +63,17 @@ function analogSectionAt(tf: AnalogTf, w: number, out: SectionValue): void {
  * is the innermost loop of every grid and root search, and object allocation would dominate it.
  */
 export function analogResponse(sections: readonly AnalogTf[], freqHz: number): Complex {
-  const w = 2 * Math.PI * freqHz;
   const h = { re: 1, im: 0 };
+  analogProductAt(sections, 2 * Math.PI * freqHz, h);
+  return h;
+}
+
+/** h ← h·Π N_i(jω)/D_i(jω) over the sections (h starts at 1 for F(jω)). */
+function analogProductAt(sections: readonly AnalogTf[], w: number, h: { re: number; im: number }): void {
   for (const tf of sections) {
     analogSectionAt(tf, w, SECTION);
     multiplyQuotient(h, SECTION);
   }
-  return h;
 }
 
 /** H(e^{jωT}) of a digital filter at freqHz for the sample rate fs. */
@@ -89,34 +101,120 @@ export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
  * grid frequency) the value is taken a relative 1e-9 beside it, where it is huge but finite and its
  * phase is meaningful.
  */
-function finite(fn: ResponseFn): ResponseFn {
-  return (f) => {
+function finite(fn: ResponseFn, at?: (freqHz: number, i: number, out: { re: number; im: number }) => void, prepare?: (grid: readonly number[]) => void): GridResponseFn {
+  const safe = (f: number): Complex => {
     const h = fn(f);
     if (Number.isFinite(h.re) && Number.isFinite(h.im)) return h;
     const g = fn(f * (1 - 1e-9));
     return Number.isFinite(g.re) && Number.isFinite(g.im) ? g : { re: 1e300, im: 0 };
   };
+  if (!at) return safe;
+  // fn(f) is at(f) on one scratch; the grid takes the same values and falls back to safe() where they are not finite.
+  const fill = (grid: readonly number[], re: Float64Array, im: Float64Array) => {
+    prepare?.(grid);
+    const v = GRID_VALUE;
+    for (let i = 0; i < grid.length; i++) {
+      at(grid[i]!, i, v);
+      if (Number.isFinite(v.re) && Number.isFinite(v.im)) {
+        re[i] = v.re;
+        im[i] = v.im;
+      } else {
+        const g = safe(grid[i]!);
+        re[i] = g.re;
+        im[i] = g.im;
+      }
+    }
+  };
+  return Object.assign(safe, { fill });
 }
 
+/** Scratch of one grid value in finite's fill (single-threaded, never re-entered). */
+const GRID_VALUE = { re: 0, im: 0 };
+/** Scratch of F(jω) in the analog loop (single-threaded, never re-entered). */
+const ANALOG = { re: 1, im: 0 };
+
 /** Analog open loop K·F(jω)/(jω) with K = Kd·Ko. */
-export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): ResponseFn {
-  return finite((f) => {
+export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): GridResponseFn {
+  // cscale(F, K/ω), then divided by j: the operations of cscale on the product, in its order.
+  const at = (f: number, _i: number, out: { re: number; im: number }) => {
     const w = 2 * Math.PI * f;
-    const h = cscale(analogResponse(sections, f), kRadPerS / w);
-    return { re: h.im, im: -h.re }; // divide by j
-  });
+    const h = ANALOG;
+    h.re = 1;
+    h.im = 0;
+    analogProductAt(sections, w, h);
+    const scale = kRadPerS / w;
+    const sr = h.re * scale;
+    const si = h.im * scale;
+    out.re = si;
+    out.im = -sr;
+  };
+  return finite((f) => {
+    const out = { re: 0, im: 0 };
+    at(f, -1, out);
+    return out;
+  }, at);
 }
 
 /** Scratch of the product over sections in discreteLoopResponse (single-threaded, never re-entered). */
 const PRODUCT = { re: 1, im: 0 };
+/** Scratch of a grid point's cos/sin in the discrete loop's fill. */
+const POINT = { c1: 1, s1: 0, c2: 1, s2: 0 };
+
+/** cos ω, sin ω, cos 2ω, sin 2ω (ω = 2πf/fs) of every grid point, as unitCirclePoint gives them. */
+export interface UnitCircleGrid {
+  readonly sampleRateHz: number;
+  readonly c1: Float64Array;
+  readonly s1: Float64Array;
+  readonly c2: Float64Array;
+  readonly s2: Float64Array;
+}
+
+/** The last grids' unit-circle points: the designed and the quantised loop share one grid, so the trig is done once. */
+const UNIT_CIRCLE = new WeakMap<readonly number[], UnitCircleGrid>();
+
+export function unitCircleGrid(grid: readonly number[], sampleRateHz: number): UnitCircleGrid {
+  const known = UNIT_CIRCLE.get(grid);
+  if (known && known.sampleRateHz === sampleRateHz && known.c1.length === grid.length) return known;
+  const n = grid.length;
+  const u = { sampleRateHz, c1: new Float64Array(n), s1: new Float64Array(n), c2: new Float64Array(n), s2: new Float64Array(n) };
+  for (let i = 0; i < n; i++) {
+    const p = unitCirclePoint((2 * Math.PI * grid[i]!) / sampleRateHz);
+    u.c1[i] = p.c1;
+    u.s1[i] = p.s1;
+    u.c2[i] = p.c2;
+    u.s2[i] = p.s2;
+  }
+  UNIT_CIRCLE.set(grid, u);
+  return u;
+}
+
+/** K·T·F(z)/(z − 1) of sections at the unit-circle point p, into out (see discreteLoopResponse). */
+function discreteSectionsAt(filter: readonly Sos[], kt: number, p: UnitCirclePoint, out: { re: number; im: number }): void {
+  // nco = kt/(z − 1): cdiv({kt, 0}, {c1 − 1, s1}) written out.
+  const br = p.c1 - 1;
+  const bi = p.s1;
+  const d = br * br + bi * bi;
+  const ncoRe = (kt * br + 0 * bi) / d;
+  const ncoIm = (0 * br - kt * bi) / d;
+  const h = PRODUCT;
+  h.re = 1;
+  h.im = 0;
+  for (const s of filter) {
+    sectionOnUnitCircle(s, p, SECTION);
+    multiplyQuotient(h, SECTION);
+  }
+  out.re = ncoRe * h.re - ncoIm * h.im;
+  out.im = ncoRe * h.im + ncoIm * h.re;
+}
 
 /**
  * Discrete open loop K·T·F(z)/(z − 1), K = Kd·Ko, T = 1/fs. For sections the NCO's z = e^{jω} is the
  * cos ω, sin ω the sections are evaluated with (the same ω), and the quotient and product are written
  * out: the same operations, in the same order, as cdiv and cmul on objects (so the same doubles), in
- * the innermost loop of the margins, the quantised loop and the noise bandwidth.
+ * the innermost loop of the margins, the quantised loop and the noise bandwidth. On a grid the points
+ * come from unitCircleGrid (the same cos/sin).
  */
-export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sampleRateHz: number): ResponseFn {
+export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sampleRateHz: number): GridResponseFn {
   const kt = kRadPerS / sampleRateHz;
   if (!isSections(filter)) {
     return finite((f) => {
@@ -125,23 +223,27 @@ export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sa
       return cmul(nco, digitalResponse(filter, f, sampleRateHz));
     });
   }
-  return finite((f) => {
-    const p = unitCirclePoint((2 * Math.PI * f) / sampleRateHz);
-    // nco = kt/(z − 1): cdiv({kt, 0}, {c1 − 1, s1}) written out.
-    const br = p.c1 - 1;
-    const bi = p.s1;
-    const d = br * br + bi * bi;
-    const ncoRe = (kt * br + 0 * bi) / d;
-    const ncoIm = (0 * br - kt * bi) / d;
-    const h = PRODUCT;
-    h.re = 1;
-    h.im = 0;
-    for (const s of filter) {
-      sectionOnUnitCircle(s, p, SECTION);
-      multiplyQuotient(h, SECTION);
-    }
-    return { re: ncoRe * h.re - ncoIm * h.im, im: ncoRe * h.im + ncoIm * h.re };
-  });
+  let points: UnitCircleGrid | null = null;
+  const at = (_f: number, i: number, out: { re: number; im: number }) => {
+    const u = points!;
+    const p = POINT;
+    p.c1 = u.c1[i]!;
+    p.s1 = u.s1[i]!;
+    p.c2 = u.c2[i]!;
+    p.s2 = u.s2[i]!;
+    discreteSectionsAt(filter, kt, p, out);
+  };
+  return finite(
+    (f) => {
+      const out = { re: 0, im: 0 };
+      discreteSectionsAt(filter, kt, unitCirclePoint((2 * Math.PI * f) / sampleRateHz), out);
+      return out;
+    },
+    at,
+    (grid) => {
+      points = unitCircleGrid(grid, sampleRateHz);
+    },
+  );
 }
 
 /** H = L/(1 + L) from an open-loop value. */
@@ -169,7 +271,7 @@ export function toDb(h: Complex): number {
 }
 
 /** toDb of re + j·im given as two numbers (no object in the loops below). */
-function partsToDb(re: number, im: number): number {
+export function partsToDb(re: number, im: number): number {
   // 10·log10(re² + im²) where the square neither overflows nor underflows: Math.hypot was a seventh of
   // analyzeDesign's time. Elsewhere (|h| beyond about 1e±150, clamped anyway) the magnitude itself.
   const p = re * re + im * im;
@@ -179,19 +281,27 @@ function partsToDb(re: number, im: number): number {
   return Math.min(Math.max(20 * Math.log10(m), DB_FLOOR), DB_CEILING);
 }
 
+/** Open-loop samples as two arrays: l_i = re[i] + j·im[i]. */
+export interface OpenSamples {
+  readonly re: Float64Array;
+  readonly im: Float64Array;
+}
+
 /**
  * toDb(N/(1 + l)) for every open-loop sample l, with N = l (closed loop) or N = 1 (error transfer); the
  * quotient written out as cdiv computes it (the same operations in the same order, so the same doubles)
  * without two objects per sample: this runs on the 600-point grids of the analysis.
  */
-function quotientDbOfOpen(open: readonly Complex[], numeratorIsOpen: boolean): number[] {
-  const out = new Array<number>(open.length);
-  for (let i = 0; i < open.length; i++) {
-    const l = open[i]!;
-    const nr = numeratorIsOpen ? l.re : 1;
-    const ni = numeratorIsOpen ? l.im : 0;
-    const br = 1 + l.re;
-    const bi = l.im;
+function quotientDbOfOpen(open: OpenSamples, numeratorIsOpen: boolean): number[] {
+  const { re, im } = open;
+  const out = new Array<number>(re.length);
+  for (let i = 0; i < re.length; i++) {
+    const lr = re[i]!;
+    const li = im[i]!;
+    const nr = numeratorIsOpen ? lr : 1;
+    const ni = numeratorIsOpen ? li : 0;
+    const br = 1 + lr;
+    const bi = li;
     const d = br * br + bi * bi;
     out[i] = partsToDb((nr * br + ni * bi) / d, (ni * br - nr * bi) / d);
   }
@@ -199,11 +309,11 @@ function quotientDbOfOpen(open: readonly Complex[], numeratorIsOpen: boolean): n
 }
 
 /** toDb(closedFromOpen(l)) for every open-loop sample. */
-export function closedDbOfOpen(open: readonly Complex[]): number[] {
+export function closedDbOfOpen(open: OpenSamples): number[] {
   return quotientDbOfOpen(open, true);
 }
 
 /** toDb(errorFromOpen(l)) for every open-loop sample. */
-export function errorDbOfOpen(open: readonly Complex[]): number[] {
+export function errorDbOfOpen(open: OpenSamples): number[] {
   return quotientDbOfOpen(open, false);
 }
