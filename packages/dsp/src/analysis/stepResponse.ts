@@ -17,21 +17,30 @@ export const PLOT_POINTS = 400;
 /** Phase errors beyond this (rad) end the traces of an unstable loop (flagged `diverged`). */
 export const DIVERGED_RAD = 1e6;
 
-/** Phase error of the discrete loop for a 1 rad phase step, every sample (DF2T sections). */
+/**
+ * Phase error of the discrete loop for a 1 rad phase step, every sample (DF2T sections). The
+ * coefficients are read once into a typed array (this loop runs up to MAX_SAMPLES times per section).
+ */
 function discreteLoopPhaseStep(sections: readonly Sos[], kRadPerS: number, sampleRateHz: number, n: number): Float64Array {
   const kt = kRadPerS / sampleRateHz;
-  const state = new Float64Array(2 * sections.length);
+  const k = sections.length;
+  const coef = new Float64Array(5 * k);
+  for (let j = 0; j < k; j++) {
+    const { b, a } = sections[j]!;
+    coef.set([b[0], b[1], b[2], a[1], a[2]], 5 * j);
+  }
+  const state = new Float64Array(2 * k);
   const out = new Float64Array(n);
   let thetaO = 0;
   for (let i = 0; i < n; i++) {
     const e = 1 - thetaO;
     out[i] = e;
     let x = e;
-    for (let k = 0; k < sections.length; k++) {
-      const { b, a } = sections[k]!;
-      const y = b[0] * x + state[2 * k]!;
-      state[2 * k] = b[1] * x - a[1] * y + state[2 * k + 1]!;
-      state[2 * k + 1] = b[2] * x - a[2] * y;
+    for (let j = 0; j < k; j++) {
+      const o = 5 * j;
+      const y = coef[o]! * x + state[2 * j]!;
+      state[2 * j] = coef[o + 1]! * x - coef[o + 3]! * y + state[2 * j + 1]!;
+      state[2 * j + 1] = coef[o + 2]! * x - coef[o + 4]! * y;
       x = y;
     }
     thetaO += kt * x;
@@ -63,15 +72,17 @@ export function stepResponses(
   const timeS: number[] = [];
   let before = 0;
   let diverged = false;
-  for (let i = 0; i < n; i++) {
+  const twoPiT = 2 * Math.PI * t;
+  for (let i = 0, untilKept = 0; i < n; i++, untilKept--) {
     const p = phase[i]!;
-    const f = 2 * Math.PI * t * before;
+    const f = twoPiT * before;
     before += p;
     if (!(Math.abs(f) < DIVERGED_RAD && Math.abs(p) < DIVERGED_RAD)) {
       diverged = true; // an unstable loop: the linear model means nothing past here
       break;
     }
-    if (i % stride !== 0) continue;
+    if (untilKept !== 0) continue; // every stride-th sample, as i % stride === 0
+    untilKept = stride;
     timeS.push(i * t);
     phaseStepErrorRad.push(p);
     frequencyStepErrorRad.push(f);
