@@ -68,6 +68,18 @@ describe('sineTable', () => {
     // Each code within half an LSB of the ideal (nearest rounding).
     for (let k = 0; k < n; k++) expect(Math.abs(t[k]! - 8191 * Math.sin((2 * Math.PI * k) / n))).toBeLessThanOrEqual(0.5);
   });
+
+  it('gives every caller an array of its own: writing one changes no later table of the same widths', () => {
+    // Tables are kept per widths and copied out; a plan may hand its table on (common practice, no source).
+    const first = sineTable(8, 12);
+    const codes = Array.from(first);
+    first.fill(0);
+    const second = sineTable(8, 12);
+    expect(second).not.toBe(first);
+    // Same rule as above: each code within half an LSB of 2047·sin(2πk/256).
+    second.forEach((c, k) => expect(Math.abs(c - 2047 * Math.sin((2 * Math.PI * k) / 256))).toBeLessThanOrEqual(0.5));
+    expect(Array.from(second)).toEqual(codes);
+  });
 });
 
 describe('ncoSpectralEstimates', () => {
