@@ -16,10 +16,13 @@ function sentenceOf(issue: SpecIssue): string {
   return fieldMessage(issue.field, issue.message);
 }
 
+/** One object for "no errors", so the form's props stay the same from one valid keystroke to the next. */
+const NO_ERRORS: Readonly<Record<string, string>> = Object.freeze({});
+
 /** Validate the draft with the shared zod schema (parseLoopSpec) and spread issues over the fields. */
 export function checkDraft(draft: Readonly<SpecDraft>): DraftCheck {
   const result = parseLoopSpec(draftToSpec(draft));
-  if (result.ok) return { spec: result.spec, errors: {}, warnings: result.warnings, issueCount: 0 };
+  if (result.ok) return { spec: result.spec, errors: NO_ERRORS, warnings: result.warnings, issueCount: 0 };
   const errors: Record<string, string> = {};
   for (const issue of result.issues) {
     const field = issue.field === 'filter' ? 'filter.kind' : issue.field;

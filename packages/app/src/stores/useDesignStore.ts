@@ -44,7 +44,9 @@ export const useDesignStore = defineStore('design', () => {
   function setField(path: string, value: string): void {
     // A new filter kind or "set by" brings up fields filled from the design on screen (filterSwitch.ts).
     const filled = filterSwitchEdits(check.value.spec, draft.value, path, value);
-    draft.value = { ...draft.value, [path]: value, ...filled };
+    // In place: only what reads these fields updates (the field typed in, the check, the analysis),
+    // not every field of the form (SpecField).
+    Object.assign(draft.value, { [path]: value, ...filled });
   }
 
   /** Save the draft; on a stale revision keep the draft and describe the clash instead. */
