@@ -31,6 +31,9 @@ export interface AnalysisBenchFigure {
   readonly firstCallMs: number | null;
   /** In the same processes, importing the module graph the call needs (planDesign, the examples, zod), wall clock, median. */
   readonly importMs: number | null;
+  /** The same two in process CPU time (all threads of the process, so the JIT's background compiles count), medians. */
+  readonly firstCallCpuMs: number | null;
+  readonly importCpuMs: number | null;
   readonly medianMs: number;
   readonly cpuMedianMs: number;
   readonly p95Ms: number;
@@ -52,6 +55,8 @@ const cpuMs = () => {
 interface FirstCallFigure {
   readonly importMs: number;
   readonly firstCallMs: number;
+  readonly importCpuMs: number;
+  readonly firstCallCpuMs: number;
 }
 
 const median = (xs: readonly number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
@@ -69,9 +74,10 @@ function firstCallsMs(): Map<string, FirstCallFigure> {
       const r = spawnSync(process.execPath, ['--import', 'tsx', script, e.id], { cwd: path.join(HERE, '..'), encoding: 'utf8', env: process.env });
       if (r.status !== 0) continue;
       const fig = JSON.parse(r.stdout.trim().split('\n').pop() ?? '{}') as Partial<FirstCallFigure>;
-      if (Number.isFinite(fig.importMs) && Number.isFinite(fig.firstCallMs)) runs.push(fig as FirstCallFigure);
+      if ([fig.importMs, fig.firstCallMs, fig.importCpuMs, fig.firstCallCpuMs].every(Number.isFinite)) runs.push(fig as FirstCallFigure);
     }
-    if (runs.length > 0) out.set(e.id, { importMs: median(runs.map((r) => r.importMs)), firstCallMs: median(runs.map((r) => r.firstCallMs)) });
+    const med = (key: keyof FirstCallFigure) => median(runs.map((r) => r[key]));
+    if (runs.length > 0) out.set(e.id, { importMs: med('importMs'), firstCallMs: med('firstCallMs'), importCpuMs: med('importCpuMs'), firstCallCpuMs: med('firstCallCpuMs') });
   }
   return out;
 }
@@ -138,6 +144,8 @@ export function runAnalysisBench(runs = 300, warmup = 100): { scipyVersion: stri
       example: e.id,
       firstCallMs,
       importMs: cold ? round3(cold.importMs) : null,
+      firstCallCpuMs: cold ? round3(cold.firstCallCpuMs) : null,
+      importCpuMs: cold ? round3(cold.importCpuMs) : null,
       medianMs,
       cpuMedianMs,
       p95Ms: round3(at(0.95)),
