@@ -9,6 +9,7 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs/promises';
+import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import autocannon from 'autocannon';
@@ -88,6 +89,40 @@ const CONCURRENT_P99_TARGET_MS = 100;
 const CONCURRENT_LIST_CONNECTIONS = 10;
 const CONCURRENT_LIST_RATE_PER_CONNECTION = 20;
 
+/**
+ * GETs `url` on CONCURRENT_LIST_CONNECTIONS keep-alive connections, each at a fixed pace with the
+ * connections' slots spread evenly, until `more()` says stop. autocannon's rate sends each second's
+ * requests back to back at its start, so every answer would wait for a burst. Each answer's time is
+ * taken from its slot, not from when it went out: one that is late makes the next start late, and that
+ * wait counts (what wrk2 calls correcting for coordinated omission).
+ */
+function pacedReads(url: string, headers: Record<string, string>, t0: number, more: () => boolean) {
+  const list: { atS: number; ms: number; status: number }[] = [];
+  const intervalMs = 1000 / CONCURRENT_LIST_RATE_PER_CONNECTION;
+  const get = (agent: http.Agent) =>
+    new Promise<number>((resolve, reject) => {
+      const request = http.get(url, { agent, headers }, (response) => {
+        response.resume();
+        response.on('end', () => resolve(response.statusCode ?? 0));
+      });
+      request.on('error', reject);
+    });
+  const connection = async (index: number) => {
+    const agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
+    try {
+      for (let slot = performance.now() + (index * intervalMs) / CONCURRENT_LIST_CONNECTIONS; more(); slot += intervalMs) {
+        const wait = slot - performance.now();
+        if (wait > 0) await new Promise((resolve) => setTimeout(resolve, wait));
+        const status = await get(agent);
+        list.push({ atS: (slot - t0) / 1000, ms: performance.now() - slot, status });
+      }
+    } finally {
+      agent.destroy();
+    }
+  };
+  return { list, done: Promise.all(Array.from({ length: CONCURRENT_LIST_CONNECTIONS }, (_, i) => connection(i))) };
+}
+
 /** The q-quantile (0..1) of some numbers, nearest rank; null for none. */
 function quantile(values: readonly number[], q: number): number | null {
   if (values.length === 0) return null;
@@ -100,8 +135,8 @@ const ms1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 10);
 /**
  * Start CONCURRENT_RUNS simulations of the mains-sync loop (both loops, 10^6 samples each) at once and
  * read the project list until the last one answers: every run's status and time, the list's latency.
- * The list is one autocannon run over the whole window, every answer's time kept: p99 over all of them
- * (the target), and the p99 of each second beside it. The simulations' answers are only counted here,
+ * The list is read at a steady pace over the whole window (pacedReads), every answer's time kept: p99
+ * over all of them (the target), and the p99 of each second beside it. The simulations' answers are only counted here,
  * not parsed: parsing ten half-megabyte answers in this process would stall the load generator's own
  * clock and charge that to the server.
  */
@@ -128,29 +163,22 @@ async function concurrentSimulations(baseUrl: string, cookie: string, headers: {
       return { status: response.status, ms: Math.round(performance.now() - started), bytes: bytes.byteLength, error };
     }),
   );
-  const answers: { atS: number; ms: number; status: number }[] = [];
-  let list: autocannon.Instance | undefined;
-  const listDone = new Promise<autocannon.Result>((resolve, reject) => {
-    // Stopped below when the last simulation answers; the duration is only an upper bound.
-    // autocannon's correction for a rate (ignoreCoordinatedOmission: false) assumes 1/rate ms between requests, not s; the answers' own times are kept below.
-    const options = { url: `${baseUrl}/api/projects`, connections: CONCURRENT_LIST_CONNECTIONS, connectionRate: CONCURRENT_LIST_RATE_PER_CONNECTION, ignoreCoordinatedOmission: true, duration: 3600, headers };
-    list = autocannon(options, (err, result) => (err ? reject(err) : resolve(result)));
-  });
-  list?.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => answers.push({ atS: (performance.now() - t0) / 1000, ms, status }));
+  let simulating = true;
+  const answers = pacedReads(`${baseUrl}/api/projects`, headers, t0, () => simulating);
   const results = await runs;
-  list?.stop();
-  await listDone;
+  simulating = false;
+  await answers.done;
   const wallS = (performance.now() - t0) / 1000;
   const cpu1 = serverPid ? await processTreeCpuUs(serverPid) : null;
   const perSecond = new Map<number, number[]>();
-  for (const a of answers) {
+  for (const a of answers.list) {
     const second = Math.floor(a.atS);
     perSecond.set(second, [...(perSecond.get(second) ?? []), a.ms]);
   }
   const p99MsPerSecond = [...perSecond.keys()].sort((a, b) => a - b).map((second) => ms1(quantile(perSecond.get(second) ?? [], 0.99)));
-  const times = answers.map((a) => a.ms);
+  const times = answers.list.map((a) => a.ms);
   const p99Ms = ms1(quantile(times, 0.99));
-  const non2xx = answers.filter((a) => a.status < 200 || a.status >= 300).length;
+  const non2xx = answers.list.filter((a) => a.status < 200 || a.status >= 300).length;
   const finished = results.filter((r) => r.status === 200).length;
   return {
     runs: CONCURRENT_RUNS,
@@ -166,7 +194,7 @@ async function concurrentSimulations(baseUrl: string, cookie: string, headers: {
     projectList: {
       connections: CONCURRENT_LIST_CONNECTIONS,
       ratePerConnection: CONCURRENT_LIST_RATE_PER_CONNECTION,
-      requests: answers.length,
+      requests: answers.list.length,
       non2xx,
       p50Ms: ms1(quantile(times, 0.5)),
       p99Ms,
