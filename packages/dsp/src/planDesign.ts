@@ -104,7 +104,7 @@ export function tryPlanDesign(input: unknown, options: PlanOptions = {}): PlanDe
  * Freeze the plan and every object in it, so no reader can change a figure another reader sees.
  * Arrays of plain numbers (the plot grids and traces, about 8,000 doubles a plan) stay as made, readonly
  * in their types only, like the typed arrays (the sine table, vector records), which cannot be frozen
- * and whose owners never write them: V8 freezes a double array by boxing every element, which took a
+ * and whose owners never write them: the JavaScript engine freezes a double array by boxing every element, which took a
  * sixth of a warm analyzeDesign (0.35 of 2.3 ms measured on the mains demo). Scanning those arrays for
  * objects with for…of cost 0.26 ms more; indexed loops over the objects alone take 0.03 ms.
  */
