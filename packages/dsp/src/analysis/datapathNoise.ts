@@ -17,6 +17,7 @@ import { roundoffStatistics } from '../fixed/roundoffStatistics.ts';
 import { sineFullScale } from '../nco/sineTable.ts';
 import { loopGain } from './loopGain.ts';
 import { dcGains, impulseNorms, linearLoop, noiseGains, type LinearLoop } from './linearLoop.ts';
+import { unitCircleGrid } from './response.ts';
 
 export type RoundoffPointKind = 'input' | 'detector' | 'section' | 'control';
 
@@ -231,8 +232,11 @@ function sectionScaling(section: number, l1Gain: number, l2Gain: number, lInfGai
  */
 function closedLoopMagnitudes(loop: LinearLoop, fs: number, f: number, out: Float64Array, partR: Float64Array, partI: Float64Array): void {
   const w = (2 * Math.PI * f) / fs;
-  const c1 = Math.cos(w);
-  const s1 = -Math.sin(w);
+  closedLoopMagnitudesAt(loop, Math.cos(w), -Math.sin(w), out, partR, partI);
+}
+
+/** closedLoopMagnitudes at the point c1 = cos ω, s1 = −sin ω. */
+function closedLoopMagnitudesAt(loop: LinearLoop, c1: number, s1: number, out: Float64Array, partR: Float64Array, partI: Float64Array): void {
   const c2 = 2 * c1 * c1 - 1;
   const s2 = 2 * s1 * c1;
   let pr = 1;
@@ -275,9 +279,11 @@ function peakResponses(loop: LinearLoop, fs: number, freqHz: readonly number[]):
   const best = new Float64Array(k);
   const at = new Int32Array(k);
   // Every third point of the analysis grid (≤ 200 of 600): the golden-section step below finds the peak between them.
+  // Its cos ω and sin ω are the grid's (the loop responses made them already: unitCircleGrid, the same ω).
   const stride = Math.max(1, Math.floor(freqHz.length / 200));
+  const circle = unitCircleGrid(freqHz, fs);
   for (let i = 0; i < freqHz.length; i += stride) {
-    closedLoopMagnitudes(loop, fs, freqHz[i]!, mags, partR, partI);
+    closedLoopMagnitudesAt(loop, circle.c1[i]!, -circle.s1[i]!, mags, partR, partI);
     for (let j = 0; j < k; j++) if (mags[j]! > best[j]!) {
       best[j] = mags[j]!;
       at[j] = i;
