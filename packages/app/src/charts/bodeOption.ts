@@ -100,7 +100,8 @@ export function magnitudeAxisMin(traces: readonly BodeTrace[]): number {
 export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): EChartsCoreOption {
   const series = traces.flatMap((t, index) => {
     const lineStyle = t.color ? { ...STYLE[t.style], color: t.color } : STYLE[t.style];
-    const common = { type: 'line', name: t.label, showSymbol: false, lineStyle, color: lineStyle.color, animation: false };
+    // ECharts reads typed-array data only with its dimensions named (flatPairs: x, y per point).
+    const common = { type: 'line', name: t.label, showSymbol: false, lineStyle, color: lineStyle.color, animation: false, dimensions: ['x', 'y'] };
     const first = index === 0;
     return [
       {
