@@ -5,7 +5,7 @@
  * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-api, seeds the demo scenario, runs
  * the real server (src/server.ts) as a child process on a free loopback port — as it runs in
  * production, and so the load generator does not share its event loop — and drives it with autocannon
- * in this process.
+ * in this process (during the concurrent simulations, with paced reads of its own: pacedReads).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs/promises';
