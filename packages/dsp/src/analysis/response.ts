@@ -7,7 +7,7 @@
 import type { AnalogTf, DigitalTf, Sos } from '../types/filter.ts';
 import { type Complex, cdiv, cexpj, cmul } from '../filters/complex.ts';
 import { polyvalAscending } from '../filters/polynomial.ts';
-import { sectionOnUnitCircle, unitCirclePoint, type SectionValue, type UnitCirclePoint } from '../filters/sections.ts';
+import { unitCirclePoint } from '../filters/sections.ts';
 
 /** A digital filter in either representation. */
 export type DigitalFilter = DigitalTf | readonly Sos[];
@@ -23,57 +23,93 @@ export interface GridResponseFn extends ResponseFn {
   readonly fill?: (grid: readonly number[], re: Float64Array, im: Float64Array) => void;
 }
 
-/** Scratch of one section's value, reused by every evaluation below (single-threaded, never re-entered). */
-const SECTION: SectionValue = { nr: 0, ni: 0, dr: 1, di: 0 };
+/** Two-slot scratch of a complex product (re, im), reused by every evaluation below (single-threaded, never re-entered). */
+const PAIR = new Float64Array(2);
 
-/** h ← h·N/D for the section value v: the complex product both responses reduce to. */
-function multiplyQuotient(h: { re: number; im: number }, v: SectionValue): void {
-  const d = v.dr * v.dr + v.di * v.di;
-  const qr = (v.nr * v.dr + v.ni * v.di) / d;
-  const qi = (v.ni * v.dr - v.nr * v.di) / d;
-  const r = h.re * qr - h.im * qi;
-  h.im = h.re * qi + h.im * qr;
-  h.re = r;
+/**
+ * The coefficients of analog sections, flat: for each section its numerator then its denominator
+ * (highest power first), with their lengths in `lengths` (read once per response, not once per point).
+ */
+interface AnalogCoefficients {
+  readonly values: Float64Array;
+  readonly lengths: Int32Array;
 }
 
-/** N(jω) and D(jω) of one analog section, by Horner's rule in jω (coefficients highest power first). */
-function analogSectionAt(tf: AnalogTf, w: number, out: SectionValue): void {
-  let nr = 0;
-  let ni = 0;
-  for (const c of tf.num) {
-    const t = -ni * w + c; // (nr + j·ni)·(jω) + c
-    ni = nr * w;
-    nr = t;
-  }
-  let dr = 0;
-  let di = 0;
-  for (const c of tf.den) {
-    const t = -di * w + c;
-    di = dr * w;
-    dr = t;
-  }
-  out.nr = nr;
-  out.ni = ni;
-  out.dr = dr;
-  out.di = di;
+function analogCoefficients(sections: readonly AnalogTf[]): AnalogCoefficients {
+  const values = Float64Array.from(sections.flatMap((tf) => [...tf.num, ...tf.den]));
+  const lengths = Int32Array.from(sections.flatMap((tf) => [tf.num.length, tf.den.length]));
+  return { values, lengths };
 }
 
 /**
- * F(jω) of analog sections (or one transfer function) at freqHz. Scalars and one reused scratch: this
- * is the innermost loop of every grid and root search, and object allocation would dominate it.
+ * out ← Π N_i(jω)/D_i(jω) over the sections: each polynomial by Horner's rule in jω, each quotient and
+ * product written out on numbers (the innermost loop of every grid and root search: no object per step).
  */
-export function analogResponse(sections: readonly AnalogTf[], freqHz: number): Complex {
-  const h = { re: 1, im: 0 };
-  analogProductAt(sections, 2 * Math.PI * freqHz, h);
-  return h;
+function analogProductAt(c: AnalogCoefficients, w: number, out: Float64Array): void {
+  const { values, lengths } = c;
+  let hr = 1;
+  let hi = 0;
+  let at = 0;
+  for (let s = 0; s < lengths.length; s += 2) {
+    let nr = 0;
+    let ni = 0;
+    for (const end = at + lengths[s]!; at < end; at++) {
+      const t = -ni * w + values[at]!; // (nr + j·ni)·(jω) + c
+      ni = nr * w;
+      nr = t;
+    }
+    let dr = 0;
+    let di = 0;
+    for (const end = at + lengths[s + 1]!; at < end; at++) {
+      const t = -di * w + values[at]!;
+      di = dr * w;
+      dr = t;
+    }
+    const d = dr * dr + di * di;
+    const qr = (nr * dr + ni * di) / d;
+    const qi = (ni * dr - nr * di) / d;
+    const r = hr * qr - hi * qi;
+    hi = hr * qi + hi * qr;
+    hr = r;
+  }
+  out[0] = hr;
+  out[1] = hi;
 }
 
-/** h ← h·Π N_i(jω)/D_i(jω) over the sections (h starts at 1 for F(jω)). */
-function analogProductAt(sections: readonly AnalogTf[], w: number, h: { re: number; im: number }): void {
-  for (const tf of sections) {
-    analogSectionAt(tf, w, SECTION);
-    multiplyQuotient(h, SECTION);
+/** F(jω) of analog sections (or one transfer function) at freqHz. */
+export function analogResponse(sections: readonly AnalogTf[], freqHz: number): Complex {
+  analogProductAt(analogCoefficients(sections), 2 * Math.PI * freqHz, PAIR);
+  return { re: PAIR[0]!, im: PAIR[1]! };
+}
+
+/** b0, b1, b2, a0, a1, a2 of every section, flat (read once per response, not once per point). */
+function sectionCoefficients(filter: readonly Sos[]): Float64Array {
+  return Float64Array.from(filter.flatMap((s) => [s.b[0], s.b[1], s.b[2], s.a[0], s.a[1], s.a[2]]));
+}
+
+/**
+ * out ← Π N_i/D_i of the sections at z = e^{jω} given as cos ω, sin ω, cos 2ω, sin 2ω: each section as
+ * sectionOnUnitCircle (filters/sections.ts) evaluates it, P(e^{−jω}) = p0 + p1·e^{−jω} + p2·e^{−j2ω},
+ * and the quotient and product as cdiv and cmul compute them, the same operations in the same order
+ * written out on numbers (so the same doubles, several times faster than through scratch objects).
+ */
+function sectionsProductAt(coef: Float64Array, c1: number, s1: number, c2: number, s2: number, out: Float64Array): void {
+  let hr = 1;
+  let hi = 0;
+  for (let o = 0; o < coef.length; o += 6) {
+    const nr = coef[o]! + coef[o + 1]! * c1 + coef[o + 2]! * c2;
+    const ni = -(coef[o + 1]! * s1 + coef[o + 2]! * s2);
+    const dr = coef[o + 3]! + coef[o + 4]! * c1 + coef[o + 5]! * c2;
+    const di = -(coef[o + 4]! * s1 + coef[o + 5]! * s2);
+    const d = dr * dr + di * di;
+    const qr = (nr * dr + ni * di) / d;
+    const qi = (ni * dr - nr * di) / d;
+    const r = hr * qr - hi * qi;
+    hi = hr * qi + hi * qr;
+    hr = r;
   }
+  out[0] = hr;
+  out[1] = hi;
 }
 
 /** H(e^{jωT}) of a digital filter at freqHz for the sample rate fs. */
@@ -84,12 +120,8 @@ export function digitalResponse(filter: DigitalFilter, freqHz: number, sampleRat
     return cdiv(polyvalAscending(filter.b, w), polyvalAscending(filter.a, w));
   }
   const p = unitCirclePoint(omega);
-  const h = { re: 1, im: 0 };
-  for (const s of filter) {
-    sectionOnUnitCircle(s, p, SECTION);
-    multiplyQuotient(h, SECTION);
-  }
-  return h;
+  sectionsProductAt(sectionCoefficients(filter), p.c1, p.s1, p.c2, p.s2, PAIR);
+  return { re: PAIR[0]!, im: PAIR[1]! };
 }
 
 export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
@@ -130,21 +162,17 @@ function finite(fn: ResponseFn, at?: (freqHz: number, i: number, out: { re: numb
 
 /** Scratch of one grid value in finite's fill (single-threaded, never re-entered). */
 const GRID_VALUE = { re: 0, im: 0 };
-/** Scratch of F(jω) in the analog loop (single-threaded, never re-entered). */
-const ANALOG = { re: 1, im: 0 };
 
 /** Analog open loop K·F(jω)/(jω) with K = Kd·Ko. */
 export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): GridResponseFn {
+  const coefficients = analogCoefficients(sections);
   // cscale(F, K/ω), then divided by j: the operations of cscale on the product, in its order.
   const at = (f: number, _i: number, out: { re: number; im: number }) => {
     const w = 2 * Math.PI * f;
-    const h = ANALOG;
-    h.re = 1;
-    h.im = 0;
-    analogProductAt(sections, w, h);
+    analogProductAt(coefficients, w, PAIR);
     const scale = kRadPerS / w;
-    const sr = h.re * scale;
-    const si = h.im * scale;
+    const sr = PAIR[0]! * scale;
+    const si = PAIR[1]! * scale;
     out.re = si;
     out.im = -sr;
   };
@@ -154,11 +182,6 @@ export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: numb
     return out;
   }, at);
 }
-
-/** Scratch of the product over sections in discreteLoopResponse (single-threaded, never re-entered). */
-const PRODUCT = { re: 1, im: 0 };
-/** Scratch of a grid point's cos/sin in the discrete loop's fill. */
-const POINT = { c1: 1, s1: 0, c2: 1, s2: 0 };
 
 /** cos ω, sin ω, cos 2ω, sin 2ω (ω = 2πf/fs) of every grid point, as unitCirclePoint gives them. */
 export interface UnitCircleGrid {
@@ -188,23 +211,19 @@ export function unitCircleGrid(grid: readonly number[], sampleRateHz: number): U
   return u;
 }
 
-/** K·T·F(z)/(z − 1) of sections at the unit-circle point p, into out (see discreteLoopResponse). */
-function discreteSectionsAt(filter: readonly Sos[], kt: number, p: UnitCirclePoint, out: { re: number; im: number }): void {
+/** K·T·F(z)/(z − 1) of sections at the unit-circle point (c1, s1, c2, s2), into out (see discreteLoopResponse). */
+function discreteSectionsAt(coef: Float64Array, kt: number, c1: number, s1: number, c2: number, s2: number, out: { re: number; im: number }): void {
   // nco = kt/(z − 1): cdiv({kt, 0}, {c1 − 1, s1}) written out.
-  const br = p.c1 - 1;
-  const bi = p.s1;
+  const br = c1 - 1;
+  const bi = s1;
   const d = br * br + bi * bi;
   const ncoRe = (kt * br + 0 * bi) / d;
   const ncoIm = (0 * br - kt * bi) / d;
-  const h = PRODUCT;
-  h.re = 1;
-  h.im = 0;
-  for (const s of filter) {
-    sectionOnUnitCircle(s, p, SECTION);
-    multiplyQuotient(h, SECTION);
-  }
-  out.re = ncoRe * h.re - ncoIm * h.im;
-  out.im = ncoRe * h.im + ncoIm * h.re;
+  sectionsProductAt(coef, c1, s1, c2, s2, PAIR);
+  const hr = PAIR[0]!;
+  const hi = PAIR[1]!;
+  out.re = ncoRe * hr - ncoIm * hi;
+  out.im = ncoRe * hi + ncoIm * hr;
 }
 
 /**
@@ -223,20 +242,17 @@ export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sa
       return cmul(nco, digitalResponse(filter, f, sampleRateHz));
     });
   }
+  const coef = sectionCoefficients(filter);
   let points: UnitCircleGrid | null = null;
   const at = (_f: number, i: number, out: { re: number; im: number }) => {
     const u = points!;
-    const p = POINT;
-    p.c1 = u.c1[i]!;
-    p.s1 = u.s1[i]!;
-    p.c2 = u.c2[i]!;
-    p.s2 = u.s2[i]!;
-    discreteSectionsAt(filter, kt, p, out);
+    discreteSectionsAt(coef, kt, u.c1[i]!, u.s1[i]!, u.c2[i]!, u.s2[i]!, out);
   };
   return finite(
     (f) => {
       const out = { re: 0, im: 0 };
-      discreteSectionsAt(filter, kt, unitCirclePoint((2 * Math.PI * f) / sampleRateHz), out);
+      const p = unitCirclePoint((2 * Math.PI * f) / sampleRateHz);
+      discreteSectionsAt(coef, kt, p.c1, p.s1, p.c2, p.s2, out);
       return out;
     },
     at,
