@@ -89,6 +89,8 @@ function paddedGolden(): Buffer {
 }
 
 describe('while big uploads are compared, a big release is cut and a long simulation runs', () => {
+  // The work runs in compute threads at the lowered priority (LW_COMPUTE_NICE): on a machine busy with
+  // other work it finishes late; what this test asserts is the health latency meanwhile, not the total time.
   it(`answers /api/health in ${HEALTH_TARGET_MS} ms typically and always within ${HEALTH_BOUND_MS} ms, and gets each answer right`, async () => {
     const long = longCapture();
     const padded = paddedGolden();
@@ -135,5 +137,5 @@ describe('while big uploads are compared, a big release is cut and a long simula
     expect(cut.status, cut.text.slice(0, 300)).toBe(201);
     // Only the readable capture is stored as a run.
     expect((await firmware.get(`/api/releases/${fixtures.approvedId}/conformance`).expect(200)).body.runs).toHaveLength(runsBefore + 1);
-  });
+  }, 180_000);
 });
