@@ -90,18 +90,25 @@ export function linearLoop(sections: readonly Sos[], kd: number, koTRadPerUnit: 
   return { stateCount: n, inputCount: m, outputCount: p, a, b, c, d, sections, kd, koTRadPerUnit };
 }
 
+/**
+ * out = x·y (n×n). Each element is summed in a local over l in increasing order, skipping x[i][l] = 0:
+ * the same additions in the same order as accumulating into out row by row, without a store per term.
+ */
 function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
-  out.fill(0);
   for (let i = 0; i < n; i++) {
-    for (let l = 0; l < n; l++) {
-      const xil = x[i * n + l]!;
-      if (xil === 0) continue;
-      for (let j = 0; j < n; j++) out[i * n + j] = out[i * n + j]! + xil * y[l * n + j]!;
+    const row = i * n;
+    for (let j = 0; j < n; j++) {
+      let acc = 0;
+      for (let l = 0; l < n; l++) {
+        const xil = x[row + l]!;
+        if (xil !== 0) acc += xil * y[l * n + j]!;
+      }
+      out[row + j] = acc;
     }
   }
 }
 
-/** Q + Mᵀ·Q·M into q (t is scratch). */
+/** Q + Mᵀ·Q·M into q (t and t2 are scratch). */
 function addCongruence(q: Float64Array, mat: Float64Array, n: number, t: Float64Array, t2: Float64Array): void {
   multiply(q, mat, n, t);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
