@@ -159,7 +159,7 @@ describe('the seeded demo', () => {
     expect(mismatches[0]?.slice(0, 2)).toEqual(['2000', 'filter_code']);
     await shoot(page, '[data-test="conformance-verdict"]', 'demo-11-conformance-mismatch');
     const uploads = (await tableRows(page, '[data-test="conformance-runs"]')).map((r) => r.join(' '));
-    expect(uploads.some((r) => r.includes('fpga_capture.csv') && r.includes('bit-exact over 4,096 samples'))).toBe(true);
+    expect(uploads.some((r) => r.includes('fpga_capture.csv') && r.includes('bit-exact over 65,536 samples'))).toBe(true);
     await page.close();
   });
 

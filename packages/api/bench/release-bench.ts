@@ -1,12 +1,16 @@
 /**
  * Release benchmark (not a timed test): cutting a release of each demo design on a real MariaDB,
- * phase by phase — recompute (analysis, quantisation, NCO), render every artifact, store in one
- * transaction, zip the bundle — against the target of 100 ms of server time excluding what
- * computeRelease adds to the plan (golden vectors, their CSV and hex files, the measured acquisition),
- * which is reported apart; the golden-vector run itself in samples per second of CPU time.
+ * phase by phase — recompute (analysis, quantisation, NCO), the golden-vector run, its CSV and hex
+ * files, render every artifact, store in one transaction, zip the bundle — against the target of
+ * 100 ms of server time with the golden vectors (issue 16: a longer record must not slow the cut past
+ * it). The measured acquisition computeRelease adds (under a second per demo spec, its own target in
+ * the dsp bench) is reported apart. Each phase in wall time and in process CPU time: on the shared
+ * 2-core machine the wall figures carry the other users' load, the CPU figures much less of it.
+ * The golden-vector run itself in samples per second of CPU time.
  * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-release and seeds the demo scenario.
  */
 import fs from 'node:fs/promises';
+import { loadavg } from 'node:os';
 import path from 'node:path';
 import { Writable } from 'node:stream';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
@@ -16,7 +20,8 @@ import { Design, User } from '../src/entities/index.ts';
 import { loadHandoffConfig } from '../src/mail/config.ts';
 import { renderArtifacts } from '../src/render/artifacts.ts';
 import { defaultGoldenScenario, goldenVectorsOf, tryPlanDesign } from '@loopwright/dsp';
-import { computeRelease } from '../src/render/compute.ts';
+import { computeRelease, type ReleasablePlan } from '../src/render/compute.ts';
+import { releaseVectors } from '../src/render/vectors.ts';
 import { writeBundle } from '../src/releases/bundle.ts';
 import { createReleaseServices } from '../src/releases/index.ts';
 import { seedDemo } from '../src/seed.ts';
@@ -58,7 +63,7 @@ function nullSink(): Writable & { bytes: number } {
 
 /**
  * The golden-vector run alone (goldenVectorsOf on the release's default scenario, as planDesign runs
- * it for a cut): samples per second of process CPU time over 200 runs after 100 to warm up.
+ * it for a cut): samples per second of process CPU time over 40 runs (of 65 536 samples) after 20 to warm up.
  */
 function goldenVectorCpuSamplesPerS(spec: unknown): number {
   const planned = tryPlanDesign(spec);
@@ -66,10 +71,10 @@ function goldenVectorCpuSamplesPerS(spec: unknown): number {
   const { plan } = planned;
   const loop = { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
   const scenario = defaultGoldenScenario(plan.spec);
-  for (let i = 0; i < 100; i++) goldenVectorsOf(loop, scenario);
+  for (let i = 0; i < 20; i++) goldenVectorsOf(loop, scenario);
   let samples = 0;
   const c0 = cpuNow();
-  for (let i = 0; i < 200; i++) samples += goldenVectorsOf(loop, scenario).record.length;
+  for (let i = 0; i < 40; i++) samples += goldenVectorsOf(loop, scenario).record.length;
   return Math.round((samples / Math.max(1e-3, cpuNow() - c0)) * 1000);
 }
 
@@ -94,49 +99,78 @@ export async function runReleaseBench(): Promise<object> {
     const actor = { id: designer.id, email: designer.email, ip: null };
     const designs = await dataSource.getRepository(Design).find({ order: { id: 'ASC' } });
     const perDesign = [];
+    const load1m = Math.round(loadavg()[0]! * 100) / 100;
     for (const d of designs) {
       const record = await services.designs.get(designer.organizationId, d.id);
-      const phases = { recompute: [] as number[], vectors: [] as number[], render: [] as number[], store: [] as number[], zip: [] as number[], total: [] as number[] };
+      const names = ['recompute', 'vectorRun', 'vectorFiles', 'acquisition', 'render', 'store', 'zip', 'total', 'totalWithoutVectors'] as const;
+      const wall = Object.fromEntries(names.map((n) => [n, [] as number[]])) as Record<(typeof names)[number], number[]>;
+      const cpu = Object.fromEntries(names.map((n) => [n, [] as number[]])) as Record<(typeof names)[number], number[]>;
       let samples = 0;
       let bundleBytes = 0;
+      let vectorFileBytes = 0;
       for (let i = 0; i < WARM_UP + ITERATIONS; i++) {
-        // The plan without and with its golden vectors: the difference is the vector simulation.
-        const t0 = now();
+        // The plan without and with its golden vectors (the difference is the vector run), the
+        // vectors' files alone, then the cut as the server makes it (computeRelease: the same plan,
+        // files and the measured acquisition, which is the rest of its time).
+        const marks: { wall: number; cpu: number }[] = [];
+        const mark = () => marks.push({ wall: now(), cpu: cpuNow() });
+        mark();
         if (!tryPlanDesign(record.spec).ok) throw new Error(`${record.spec.name} does not plan`);
-        const t1 = now();
+        mark();
+        const withVectors = tryPlanDesign(record.spec, { goldenVectors: true });
+        if (!withVectors.ok || !withVectors.plan.goldenVectors) throw new Error(`${record.spec.name} has no golden vectors`);
+        mark();
+        const files = releaseVectors(withVectors.plan as ReleasablePlan);
+        mark();
         const computed = computeRelease(record.spec);
         if (!computed.ok) throw new Error(`${record.spec.name} cannot be released`);
-        const t2 = now();
+        mark();
         const rendered = renderArtifacts(computed.release);
-        const t3 = now();
+        mark();
         const releaseId = await handoff.releases.store(record, rendered, actor);
-        const t4 = now();
+        mark();
         const sink = nullSink();
         await writeBundle(sink, `${record.spec.name}-bench`, rendered.files.map((f) => ({ name: f.name, content: f.bytes })), new Date(0));
-        const t5 = now();
+        mark();
         if (i < WARM_UP) continue;
-        const planMs = t1 - t0;
-        phases.recompute.push(planMs);
-        phases.vectors.push(t2 - t1 - planMs);
-        phases.render.push(t3 - t2);
-        phases.store.push(t4 - t3);
-        phases.zip.push(t5 - t4);
-        phases.total.push(planMs + (t5 - t2));
+        for (const [out, key] of [[wall, 'wall'], [cpu, 'cpu']] as const) {
+          const m = marks.map((x) => x[key]);
+          const plan = m[1]! - m[0]!;
+          const vectorRun = m[2]! - m[1]! - plan;
+          const vectorFiles = m[3]! - m[2]!;
+          const rest = m[7]! - m[4]!;
+          out.recompute.push(plan);
+          out.vectorRun.push(vectorRun);
+          out.vectorFiles.push(vectorFiles);
+          out.acquisition.push(m[4]! - m[3]! - plan - vectorRun - vectorFiles);
+          out.render.push(m[5]! - m[4]!);
+          out.store.push(m[6]! - m[5]!);
+          out.zip.push(m[7]! - m[6]!);
+          out.total.push(plan + vectorRun + vectorFiles + rest);
+          out.totalWithoutVectors.push(plan + rest);
+        }
         samples = computed.release.plan.goldenVectors.record.length;
         bundleBytes = sink.bytes;
+        vectorFileBytes = files.csv.length + files.hex.reduce((sum, h) => sum + h.text.length, 0);
         void releaseId;
       }
-      const total = stats(phases.total);
+      const total = stats(wall.total);
+      const totalCpu = stats(cpu.total);
       const cpuSamplesPerS = goldenVectorCpuSamplesPerS(record.spec);
+      const phases = (from: typeof wall) => Object.fromEntries(names.filter((n) => !n.startsWith('total')).map((n) => [n, stats(from[n])]));
       perDesign.push({
         design: record.spec.name,
-        serverMsExcludingVectors: total,
+        /** The cut with its golden vectors (run, CSV, hex), without the measured acquisition: the figure the target is for. */
+        serverMs: total,
+        serverCpuMs: totalCpu,
         met: total.medianMs < TARGET_MS,
-        phases: { recompute: stats(phases.recompute), render: stats(phases.render), store: stats(phases.store), zip: stats(phases.zip) },
-        /** Everything computeRelease adds to the plan: golden vectors, their CSV and hex files, the measured acquisition. */
-        releaseComputations: { ...stats(phases.vectors) },
+        metInCpuTime: totalCpu.medianMs < TARGET_MS,
+        serverMsWithoutVectors: stats(wall.totalWithoutVectors),
+        phasesMs: phases(wall),
+        phasesCpuMs: phases(cpu),
         goldenVectors: {
           samples,
+          fileBytes: vectorFileBytes,
           cpuSamplesPerS,
           target: VECTOR_TARGET_SAMPLES_PER_S,
           met: cpuSamplesPerS >= VECTOR_TARGET_SAMPLES_PER_S,
@@ -145,7 +179,8 @@ export async function runReleaseBench(): Promise<object> {
       });
     }
     return {
-      what: 'cut a release of each demo design: recompute + render + store + zip, golden-vector simulation apart',
+      what: 'cut a release of each demo design: recompute + golden vectors (run, CSV, hex) + render + store + zip; the measured acquisition apart',
+      loadAverage1m: { atStart: load1m, atEnd: Math.round(loadavg()[0]! * 100) / 100 },
       iterations: ITERATIONS,
       targetMs: TARGET_MS,
       met: perDesign.every((p) => p.met),

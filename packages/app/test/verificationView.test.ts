@@ -24,9 +24,17 @@ describe('verification view', () => {
     expect(verificationSummary({ ...partial, verdict: 'failed' }).tone).toBe('fail');
     expect(verificationSummary({ ...partial, verdict: 'passed' }).tone).toBe('pass');
     expect(simulatorRows(partial)).toEqual([
-      { simulator: 'GHDL', version: 'GHDL 2.0.0', verdict: 'PASS', tone: 'success', samples: '4096', duration: '2.1 s', detail: 'PASS 4096 samples' },
+      { simulator: 'GHDL', version: 'GHDL 2.0.0', verdict: 'PASS', tone: 'success', samples: '4,096', duration: '2.1 s', detail: 'PASS 4096 samples' },
       { simulator: 'Icarus', version: 'not installed', verdict: 'not run', tone: 'info', samples: '—', duration: '—', detail: 'iverilog is not installed' },
     ]);
+  });
+
+  it('shows a replay of a prefix as "replayed of record" (a record made before recordSamples shows the count alone)', () => {
+    const run = { simulator: 'ghdl' as const, label: 'GHDL', version: 'GHDL 2.0.0', verdict: 'pass' as const, samples: 4096, mismatch: null, durationMs: 2150, detail: 'PASS 4096 samples' };
+    const prefix: ReleaseVerificationRecord = { ...base, state: 'done', verdict: 'passed', verification: { verdict: 'passed', samples: 4096, recordSamples: 65536, runs: [run], summary: '' }, approvable: true, blockedReason: null };
+    expect(simulatorRows(prefix).map((r) => r.samples)).toEqual(['4,096 of 65,536']);
+    const whole: ReleaseVerificationRecord = { ...prefix, verification: { verdict: 'passed', samples: 4096, recordSamples: 4096, runs: [run], summary: '' } };
+    expect(simulatorRows(whole).map((r) => r.samples)).toEqual(['4,096']);
   });
 
   it('shows the estimate per part and in total, or why there is none', () => {

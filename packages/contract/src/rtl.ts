@@ -37,6 +37,8 @@ export const rtlVerificationSchema = z.object({
   verdict: rtlVerdictSchema,
   /** Samples each testbench was asked to replay. */
   samples: z.number().int(),
+  /** Samples in the release's golden vectors, of which `samples` were replayed (absent in records made before the testbenches replayed a prefix: they replayed all). */
+  recordSamples: z.number().int().optional(),
   runs: z.array(simulatorRunSchema),
   /** One sentence for the release page, the review page and the review e-mail. */
   summary: z.string(),

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { planDesign, simulatePlan, tryPlanDesign } from '../src/planDesign.ts';
-import { defaultGoldenScenario } from '../src/vectors/goldenVectors.ts';
+import { defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from '../src/vectors/goldenVectors.ts';
 import { exampleSpecs, mainsSyncSpec } from '../src/spec/examples.ts';
 import { requireValidSpec } from '../src/spec/schema.ts';
 
@@ -39,7 +39,7 @@ describe('planDesign: one result, each figure once', () => {
     const again = simulatePlan(plan, defaultGoldenScenario(mains), { mode: 'bit-true', keepRecord: true }).bitTrue!;
     expect(plan.goldenVectors!.checksum).toBe(again.checksum);
     expect(Array.from(plan.goldenVectors!.record.filterCode)).toEqual(Array.from(again.record!.filterCode));
-    expect(plan.goldenVectors!.record.length).toBe(4096);
+    expect(plan.goldenVectors!.record.length).toBe(GOLDEN_VECTOR_SAMPLES);
   });
 
   it('makes golden vectors only when asked', () => {

@@ -81,7 +81,7 @@ export function computeRelease(input: unknown): ComputeReleaseResult {
         // Measured at the cut from the stored spec (under a second per demo spec), beside the estimates.
         acquisition: measurePlanAcquisition(plan),
         vectors: vectors.summary,
-        referenceRtl: referenceRtlSummary(releasable.bitTrue),
+        referenceRtl: referenceRtlSummary(releasable.bitTrue, vectors.summary.samples),
       },
       vectorsCsv: vectors.csv,
       vectorColumns: vectors.columns,

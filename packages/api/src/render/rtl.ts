@@ -144,14 +144,40 @@ export function namedSections(rtl: RtlModel, name: (suffix: string) => string) {
 }
 
 /**
- * What the manifest records of the reference RTL: its timing and the multipliers and ROM bits it has
- * by construction. The yosys estimate is not here: the server makes it after the cut, beside the
- * release, and a manifest's hash is fixed at the cut.
+ * Samples the reference RTL testbenches replay unless told otherwise, and so the server's
+ * verification: the first 4096 of the golden vectors, which hold the acquisition of every demo loop
+ * (they lock after 112–900 samples). GHDL and Icarus run these testbenches at 260–2000 samples/s on
+ * the 2-core development machine (packages/api/README.md, "Reference-RTL benchmark"), so the whole 65 536-sample record would
+ * take 30–250 s per simulator and release; SAMPLES replays more by hand.
  */
-export function referenceRtlSummary(plan: BitTruePlan) {
+export const RTL_REPLAY_SAMPLES = 4096;
+
+/** What the testbenches of a record of `recordSamples` replay by default. */
+export function rtlReplaySamples(recordSamples: number): number {
+  return Math.min(RTL_REPLAY_SAMPLES, recordSamples);
+}
+
+/**
+ * How many golden samples a replay covered, for a sentence: "the first 4,096 of the 65,536 golden
+ * samples", or "all 4,096 golden samples" when it covered the record.
+ */
+export function replayWording(replayedSamples: number, recordSamples: number): string {
+  const count = (n: number) => n.toLocaleString('en');
+  return replayedSamples >= recordSamples
+    ? `all ${count(recordSamples)} golden samples`
+    : `the first ${count(replayedSamples)} of the ${count(recordSamples)} golden samples`;
+}
+
+/**
+ * What the manifest records of the reference RTL: its timing, the multipliers and ROM bits it has
+ * by construction, and how many golden samples its testbenches replay. The yosys estimate is not
+ * here: the server makes it after the cut, beside the release, and a manifest's hash is fixed at the cut.
+ */
+export function referenceRtlSummary(plan: BitTruePlan, recordSamples: number) {
   return {
     ...referenceRtlTiming(plan.sectionCount),
     romBits: plan.waveform === 'square' ? 0 : plan.sineTable.length * plan.amplitudeBits,
+    testbenchSamples: rtlReplaySamples(recordSamples),
     resourceEstimate: 'yosys, made by the server after the cut: see the release verification record',
   };
 }

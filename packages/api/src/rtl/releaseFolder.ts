@@ -7,8 +7,10 @@ import { RTL_PARTS } from '../render/rtl.ts';
 export interface RtlFolder {
   readonly dir: string;
   readonly design: string;
-  /** Golden-vector samples of the release (what the testbenches replay by default). */
+  /** Golden-vector samples of the release. */
   readonly samples: number;
+  /** What the testbenches replay by default: the manifest's referenceRtl.testbenchSamples (releases before it replayed all). */
+  readonly replaySamples: number;
   readonly vhdlFiles: readonly string[];
   readonly verilogFiles: readonly string[];
   readonly vhdlTestbench: string;
@@ -32,10 +34,12 @@ export function rtlFolder(dir: string): RtlFolder {
   const names = artifactNames(manifest.design);
   const vectors = (manifest.results as { vectors?: { samples?: unknown } }).vectors;
   if (typeof vectors?.samples !== 'number') throw new RtlFolderError(`${MANIFEST_FILE} of ${dir} names no golden-vector sample count (results.vectors.samples)`);
+  const replay = (manifest.results as { referenceRtl?: { testbenchSamples?: unknown } }).referenceRtl?.testbenchSamples;
   return {
     dir,
     design: manifest.design,
     samples: vectors.samples,
+    replaySamples: typeof replay === 'number' ? replay : vectors.samples,
     vhdlFiles: [names.vhdl, ...RTL_PARTS.map((p) => names.rtl.vhdl[p])],
     verilogFiles: RTL_PARTS.map((p) => names.rtl.verilog[p]),
     vhdlTestbench: names.rtl.vhdlTestbench,

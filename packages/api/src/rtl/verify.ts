@@ -10,9 +10,10 @@ import { join } from 'node:path';
 import type { RtlVerdict, RtlVerification, Simulator, SimulatorRun } from '@loopwright/contract';
 import { runProcess, toolVersion, type ProcessResult } from './processes.ts';
 import { rtlFolder, type RtlFolder } from './releaseFolder.ts';
+import { replayWording } from '../render/rtl.ts';
 
 export interface VerifyOptions {
-  /** Samples to replay (default: all of the release's golden vectors). */
+  /** Samples to replay (default: the testbenches' own, the first RTL_REPLAY_SAMPLES of the golden vectors). */
   readonly samples?: number;
   /** Clocks between sample strobes (default: the testbench's, the architecture's cycles per sample). */
   readonly strobePeriod?: number;
@@ -113,8 +114,11 @@ export function overallVerdict(runs: readonly SimulatorRun[]): RtlVerdict {
   return passed === runs.length ? 'passed' : 'partial';
 }
 
-/** The one sentence every screen and e-mail shows for a verification. */
-export function verificationSummary(runs: readonly SimulatorRun[], samples: number): string {
+/**
+ * The one sentence every screen and e-mail shows for a verification: which simulators agreed bit for
+ * bit, and on how many of the release's golden samples (a prefix, said as one).
+ */
+export function verificationSummary(runs: readonly SimulatorRun[], samples: number, recordSamples = samples): string {
   const names = (rs: readonly SimulatorRun[]) => rs.map((r) => r.label).join(' and ');
   const passed = runs.filter((r) => r.verdict === 'pass');
   const notRun = runs.filter((r) => r.verdict === 'not-run');
@@ -126,7 +130,7 @@ export function verificationSummary(runs: readonly SimulatorRun[], samples: numb
   }
   if (passed.length === 0) return `reference RTL not verified: ${names(notRun)} not run (not installed)`;
   const sampleCount = passed[0]?.samples ?? samples;
-  const base = `reference RTL bit-exact in ${names(passed)} on ${sampleCount} samples`;
+  const base = `reference RTL bit-exact in ${names(passed)} on ${replayWording(sampleCount, recordSamples)}`;
   return notRun.length > 0 ? `${base}; ${names(notRun)} not run (not installed)` : base;
 }
 
@@ -135,6 +139,6 @@ export async function verifyFolder(dir: string, options: VerifyOptions = {}): Pr
   const folder = rtlFolder(dir);
   const sims = options.simulators ?? ['ghdl', 'icarus'];
   const runs = await Promise.all(sims.map((s) => runSimulator(s, folder, options)));
-  const samples = options.samples ?? folder.samples;
-  return { verdict: overallVerdict(runs), samples, runs, summary: verificationSummary(runs, samples) };
+  const samples = Math.min(options.samples ?? folder.replaySamples, folder.samples);
+  return { verdict: overallVerdict(runs), samples, recordSamples: folder.samples, runs, summary: verificationSummary(runs, samples, folder.samples) };
 }

@@ -186,7 +186,7 @@ describe('hand-off flow', () => {
   it('judges a matching capture bit-exact and a corrupted one with its first mismatch', async () => {
     const golden = downloaded.get('mains_sync_50hz_vectors.csv')!;
     const ok = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', golden, 'sim_out.csv').expect(201);
-    expect(ok.body).toMatchObject({ verdict: 'bit-exact', mismatchCount: 0, firstMismatches: [], samplesCompared: 4096, fileName: 'sim_out.csv' });
+    expect(ok.body).toMatchObject({ verdict: 'bit-exact', mismatchCount: 0, firstMismatches: [], samplesCompared: 65536, fileName: 'sim_out.csv' });
 
     const lines = golden.toString('utf8').split('\n');
     const row = lines[101]!.split(','); // sample 100
@@ -212,10 +212,10 @@ describe('hand-off flow', () => {
     // A header alone, a run cut short and a binary file: refused, saying what is wrong with the file.
     const clean = downloaded.get('mains_sync_50hz_vectors.csv')!.toString('utf8').split('\n');
     const headerOnly = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from(`${golden[0]}\n`), 'empty_run.csv').expect(400);
-    expect(headerOnly.body.error.message).toContain('the file has the wrong length: expected 4,096 samples');
+    expect(headerOnly.body.error.message).toContain('the file has the wrong length: expected 65,536 samples');
     expect(headerOnly.body.error.message).toContain('found none (the file holds the header only)');
     const cut = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from(clean.slice(0, 2001).join('\n')), 'cut.csv').expect(400);
-    expect(cut.body.error.message).toMatch(/wrong length: expected 4,096 samples .*, found 2,000$/);
+    expect(cut.body.error.message).toMatch(/wrong length: expected 65,536 samples .*, found 2,000$/);
     const binary = await firmware.post(`/api/releases/${releaseId}/conformance`).set(csrf).attach('file', Buffer.from([0x1f, 0x8b, 0x08, 0x00, 0xde, 0xad, 0xbe, 0xef]), 'wave.fst').expect(400);
     expect(binary.body.error.message).toMatch(/^wave\.fst: line 1: this is not a CSV text file/);
     const huge = Buffer.alloc(9 * 1024 * 1024, 0x20);

@@ -8,7 +8,7 @@
  */
 import { readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { exampleSpecs, referenceRtlTiming } from '@loopwright/dsp';
+import { exampleSpecs, GOLDEN_VECTOR_SAMPLES, referenceRtlTiming } from '@loopwright/dsp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Manifest } from '../../src/render/artifacts.ts';
 import type { RtlVerification } from '@loopwright/contract';
@@ -103,7 +103,9 @@ describe.each(cases)('reference RTL of $id', ({ id, spec }) => {
       expect(run.verdict).toBe('pass');
     }
     expect(r.verification.runs.map((x) => x.simulator)).toEqual(['ghdl', 'icarus']);
-    expect(r.verification.summary).toBe(`reference RTL bit-exact in GHDL and Icarus on ${SAMPLES} samples`);
+    // A prefix of the record, said as one (the record is GOLDEN_VECTOR_SAMPLES long).
+    expect(r.verification.summary).toBe(`reference RTL bit-exact in GHDL and Icarus on the first 1,024 of the ${GOLDEN_VECTOR_SAMPLES.toLocaleString('en')} golden samples`);
+    expect([r.verification.samples, r.verification.recordSamples]).toEqual([SAMPLES, GOLDEN_VECTOR_SAMPLES]);
     expect(r.lint).toBe('');
   });
 

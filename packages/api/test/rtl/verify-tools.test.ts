@@ -56,7 +56,7 @@ describe('verify without the simulators', () => {
       const v = await verifyFolder(dir, { samples: 64, env: { PATH: onlyIcarus } });
       expect(v.runs.map((r) => r.verdict)).toEqual(['not-run', 'pass']);
       expect(v.verdict).toBe('partial');
-      expect(v.summary).toBe('reference RTL bit-exact in Icarus on 64 samples; GHDL not run (not installed)');
+      expect(v.summary).toBe('reference RTL bit-exact in Icarus on the first 64 of the 65,536 golden samples; GHDL not run (not installed)');
     } finally {
       rmSync(onlyIcarus, { recursive: true, force: true });
     }

@@ -34,13 +34,21 @@ export interface SimulatorRow {
   readonly detail: string;
 }
 
+/** Samples a simulator replayed, "4,096 of 65,536" when that was a prefix of the release's golden vectors. */
+function replayedText(samples: number | null, recordSamples: number | undefined): string {
+  if (samples === null) return '—';
+  const count = (n: number) => n.toLocaleString('en');
+  return recordSamples !== undefined && samples < recordSamples ? `${count(samples)} of ${count(recordSamples)}` : count(samples);
+}
+
 export function simulatorRows(v: ReleaseVerificationRecord): SimulatorRow[] {
+  const recordSamples = v.verification?.recordSamples;
   return (v.verification?.runs ?? []).map((r) => ({
     simulator: r.label,
     version: r.version ?? 'not installed',
     verdict: VERDICT_TEXT[r.verdict],
     tone: r.verdict === 'pass' ? 'success' : r.verdict === 'not-run' ? 'info' : 'danger',
-    samples: r.samples === null ? '—' : String(r.samples),
+    samples: replayedText(r.samples, recordSamples),
     duration: r.verdict === 'not-run' ? '—' : `${(r.durationMs / 1000).toFixed(1)} s`,
     detail: r.detail.split('\n')[0] ?? '',
   }));

@@ -58,6 +58,8 @@ export function compareVectors(golden: GoldenVectors, rows: readonly Row[], maxL
     const want = expectedValues(golden, n);
     const row = rows[n] as Row;
     for (const column of VECTOR_CSV_COLUMNS) {
+      // A cell already in canonical form (what a capture mostly holds) needs no BigInt round trip.
+      if (row[column] === want[column]) continue;
       const got = canonical(row[column]);
       if (got === want[column]) continue;
       mismatchCount++;

@@ -8,13 +8,20 @@ import { FieldError } from '../fixed/fieldError.ts';
 import type { BitTrueRecord } from '../types/sim.ts';
 import { bitTrueRecordOf, type SimLoop } from '../sim/simulate.ts';
 
-/** Samples in a release's golden vectors. */
-export const GOLDEN_VECTOR_SAMPLES = 4096;
+/**
+ * Samples in a release's golden vectors: 2^16. The demo loops lock after 112–900 samples of the
+ * default scenario (bit-true lock time); the rest is settled tracking, where a firmware's slow
+ * integrator drift or a rare overflow under noise shows long after the first few thousand samples.
+ * packages/api/bench/release-bench.ts measures what it costs a cut. The reference RTL testbenches
+ * replay a prefix of it (packages/api/src/render/rtl.ts, RTL_REPLAY_SAMPLES).
+ */
+export const GOLDEN_VECTOR_SAMPLES = 65_536;
 
 /**
  * The release's default scenario: a tone 1 % of the NCO pull range (0.01·gainHzPerUnit) off centre,
  * 30° initial phase, 40 dB SNR noise from seed 1, GOLDEN_VECTOR_SAMPLES samples. Acquisition, noise
  * and the 2·f ripple all exercise the arithmetic, so a firmware that gets any step wrong diverges.
+ * The first samples of a longer record are those of a shorter one (same seed, same loop).
  */
 export function defaultGoldenScenario(spec: Pick<LoopSpec, 'sampleRateHz' | 'nco'>): Scenario {
   return {

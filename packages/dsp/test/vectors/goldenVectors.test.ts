@@ -52,6 +52,13 @@ describe('golden vectors', () => {
     expect(row[3]).toBe((Math.floor(row[2]! / 2 ** (n.accumulatorBits - n.phaseBits)) + 2 ** (n.phaseBits - 2)) % 2 ** n.phaseBits);
   });
 
+  it('hold a shorter run of the same scenario as their first samples (same seed, same loop)', () => {
+    const long = goldenVectors(ultrasonicSinglePoleSpec);
+    const short = goldenVectors(ultrasonicSinglePoleSpec, { ...defaultGoldenScenario(ultrasonicSinglePoleSpec), durationS: 4096 / ultrasonicSinglePoleSpec.sampleRateHz });
+    expect(short.record.length).toBe(4096);
+    expect(formatVectorsCsv(long, 4096)).toBe(formatVectorsCsv(short));
+  });
+
   it('writes 64-bit phases exactly', () => {
     // 2^63 + 5 = 9223372036854775813 (hi = 2^31, lo = 5).
     expect(phaseDecimal(2 ** 31, 5)).toBe('9223372036854775813');

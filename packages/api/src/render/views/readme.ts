@@ -4,7 +4,7 @@ import type { HandoffModel } from '../handoff.ts';
 import { codeNames, commentText } from '../identifiers.ts';
 import { CAUTION_LINES } from '../caution.ts';
 import { clocksPerUpdate } from '@loopwright/dsp';
-import { RTL_PARTS, type RtlFileNames, type RtlModel } from '../rtl.ts';
+import { replayWording, rtlReplaySamples, RTL_PARTS, type RtlFileNames, type RtlModel } from '../rtl.ts';
 
 export interface ReadmeView {
   readonly designName: string;
@@ -39,7 +39,7 @@ export interface ReadmeInput {
   readonly vectorColumns: readonly { name: string; meaning: string }[];
   readonly rtl: RtlModel;
   readonly rtlFiles: RtlFileNames & { readonly vhdlPackage: string };
-  /** Golden-vector samples the testbenches replay. */
+  /** Golden-vector samples of the release (the testbenches replay the first rtlReplaySamples of them). */
   readonly samples: number;
 }
 
@@ -140,14 +140,14 @@ function rtlSection(input: ReadmeInput): ReadmeView['rtl'] {
       text: `${p.direction === 'in' ? 'in ' : 'out'} ${p.kind === 'bit' ? '1 bit' : `${p.widthBits} bits ${p.kind}`}: ${p.meaning}`,
     })),
     run: [
-      `Both testbenches read the ${input.vectorColumns.length - 1} hex files from the working directory, replay all ${input.samples} samples and end with one line:`,
+      `Both testbenches read the ${input.vectorColumns.length - 1} hex files from the working directory, replay ${replayWording(rtlReplaySamples(input.samples), input.samples)} (as the server's verification does) and end with one line:`,
       '"PASS <samples> samples", or "FAIL sample <n> signal <column> expected <value> got <value>" and a non-zero exit.',
       `GHDL:   ghdl -a --std=08 ${[f.vhdlPackage, ...RTL_PARTS.map((p) => f.vhdl[p]), f.vhdlTestbench].join(' ')}`,
       `        ghdl -e --std=08 ${e.testbench} && ghdl -r --std=08 ${e.testbench}`,
       `Icarus: iverilog -g2005 -o ${e.testbench}.vvp ${[...RTL_PARTS.map((p) => f.verilog[p]), f.verilogTestbench].join(' ')}`,
       `        vvp -n ${e.testbench}.vvp`,
       `Lint:   verilator --lint-only -Wall --top-module ${e.loop} ${RTL_PARTS.map((p) => f.verilog[p]).join(' ')}`,
-      `Generics/parameters SAMPLES (fewer samples) and STROBE_PERIOD (clocks between strobes, at least ${t.cyclesPerSample}): ghdl -r ... -gSAMPLES=1024, iverilog -P${e.testbench}.SAMPLES=1024.`,
+      `Generics/parameters SAMPLES (samples to replay, at most ${input.samples}) and STROBE_PERIOD (clocks between strobes, at least ${t.cyclesPerSample}): ghdl -r ... -gSAMPLES=${input.samples}, iverilog -P${e.testbench}.SAMPLES=${input.samples} replay the whole record.`,
       'Or, with Loopwright: npm run -s loopwright -- verify <this folder> (runs whichever simulators are installed).',
     ],
     caution: [

@@ -2,7 +2,7 @@
 import type { HexMemoryFile } from '../hexVectors.ts';
 import { codeNames } from '../identifiers.ts';
 import { verilogLiteral } from '../literals.ts';
-import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, namedSections, type RtlModel, type RtlPart } from '../rtl.ts';
+import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, rtlReplaySamples, namedSections, type RtlModel, type RtlPart } from '../rtl.ts';
 import type { ArtifactHeader } from './header.ts';
 
 type Widths = Record<keyof RtlModel['widths'], string>;
@@ -28,6 +28,8 @@ export interface RtlTestbenchVerilogView {
   /** The RTL files in compile order, space-separated. */
   readonly rtlFiles: string;
   readonly length: string;
+  /** Samples replayed unless SAMPLES says otherwise (rtl.ts, rtlReplaySamples). */
+  readonly replay: string;
   readonly cyclesPerSample: string;
   readonly ranges: Widths;
   readonly zeros: Widths;
@@ -86,6 +88,7 @@ export function rtlTestbenchVerilogView(rtl: RtlModel, header: ArtifactHeader, f
     loopModule: rtl.entities.loop,
     rtlFiles: RTL_PARTS.map((p) => files.parts[p]).join(' '),
     length: String(length),
+    replay: String(rtlReplaySamples(length)),
     cyclesPerSample: String(rtl.timing.cyclesPerSample),
     ranges: ranges(rtl),
     zeros: zeros(rtl),

@@ -1,7 +1,7 @@
 /** View-models of templates/rtl-loop.vhd.hbs and rtl-testbench.vhd.hbs: the reference loop in VHDL-2008. */
 import type { HexMemoryFile } from '../hexVectors.ts';
 import { codeNames } from '../identifiers.ts';
-import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, namedSections, type RtlModel, type RtlPart } from '../rtl.ts';
+import { CHECKED_COLUMNS, RTL_CONSTANTS, RTL_PARTS, rtlConstantNames, rtlReplaySamples, namedSections, type RtlModel, type RtlPart } from '../rtl.ts';
 import type { ArtifactHeader } from './header.ts';
 
 
@@ -29,11 +29,14 @@ export interface RtlTestbenchVhdlView {
   /** The RTL files in analysis order, space-separated. */
   readonly rtlFiles: string;
   readonly length: string;
+  /** Samples replayed unless SAMPLES says otherwise (rtl.ts, rtlReplaySamples). */
+  readonly replay: string;
   readonly cyclesPerSample: string;
   readonly names: Names;
-  readonly inputMemory: string;
-  readonly columns: readonly { memory: string; file: string; digits: string }[];
-  readonly checks: readonly { signal: string; got: string; memory: string; type: string; width: string }[];
+  /** The input column's hex file and the bits of one of its lines (4 per digit). */
+  readonly input: { readonly file: string; readonly lineBits: string };
+  /** Per compared column: its file, the variable a line is read into, and how the port compares. */
+  readonly checks: readonly { signal: string; got: string; file: string; handle: string; word: string; lineBits: string; type: string; width: string }[];
 }
 
 export interface VhdlFiles {
@@ -68,7 +71,6 @@ export function rtlTestbenchVhdlView(
   length: number,
 ): RtlTestbenchVhdlView {
   const names = codeNames(rtl.name);
-  const memory = (column: string) => `golden_${column}`;
   const byColumn = new Map(hex.map((h) => [h.column, h]));
   return {
     header,
@@ -78,13 +80,22 @@ export function rtlTestbenchVhdlView(
     packageFile: files.package,
     rtlFiles: RTL_PARTS.map((p) => files.parts[p]).join(' '),
     length: String(length),
+    replay: String(rtlReplaySamples(length)),
     cyclesPerSample: String(rtl.timing.cyclesPerSample),
     names: rtlConstantNames(names.vhdlConstant),
-    inputMemory: memory('input_code'),
-    columns: hex.map((h) => ({ memory: memory(h.column), file: h.fileName, digits: String(h.digits) })),
+    input: { file: byColumn.get('input_code')!.fileName, lineBits: String(4 * byColumn.get('input_code')!.digits) },
     checks: CHECKED_COLUMNS.map(({ column, port }) => {
       const h = byColumn.get(column)!;
-      return { signal: column, got: port, memory: memory(column), type: h.signed ? 'signed' : 'unsigned', width: String(h.widthBits) };
+      return {
+        signal: column,
+        got: port,
+        file: h.fileName,
+        handle: `golden_${column}_file`,
+        word: `golden_${column}`,
+        lineBits: String(4 * h.digits),
+        type: h.signed ? 'signed' : 'unsigned',
+        width: String(h.widthBits),
+      };
     }),
   };
 }
