@@ -200,7 +200,7 @@ describe('loopwright verify and estimate', () => {
     expect(cli(['render', 'spec.json', 'out'], dir).code).toBe(0);
     const pass = cli(['verify', 'out', '--samples', '200'], dir);
     expect(pass.code, pass.stderr).toBe(0);
-    expect((JSON.parse(pass.stdout) as { summary: string }).summary).toBe('reference RTL bit-exact in GHDL and Icarus on 200 samples');
+    expect((JSON.parse(pass.stdout) as { summary: string }).summary).toBe('reference RTL bit-exact in GHDL and Icarus on the first 200 of the 65,536 golden samples');
 
     const include = join(dir, 'out', 'mains_sync_50hz.vh');
     writeFileSync(include, readFileSync(include, 'utf8').replace(/(MAINS_SYNC_50HZ_NCO_TUNING_WORD = 32'd)(\d+)/, (_m, head: string, v: string) => `${head}${Number(v) + 1}`));

@@ -18,11 +18,13 @@ describe.each([mainsSyncSpec, ultrasonicLagLeadSpec])('synthesis sources of $nam
 });
 
 describe('the manifest of a release', () => {
-  it('records the reference RTL timing and what it has by construction, and leaves the yosys estimate to the verification record', () => {
+  it('records the reference RTL timing, what it has by construction and the samples its testbenches replay, and leaves the yosys estimate to the verification record', () => {
     const results = renderRelease(mainsSyncSpec).manifest.results as { referenceRtl: Record<string, unknown> };
     expect(results.referenceRtl).toEqual({
       ...referenceRtlTiming(2),
       romBits: 4096 * 16,
+      // The first 4096 of the record (render/rtl.ts, RTL_REPLAY_SAMPLES), so a verification replays a few seconds' worth.
+      testbenchSamples: 4096,
       resourceEstimate: 'yosys, made by the server after the cut: see the release verification record',
     });
   });
