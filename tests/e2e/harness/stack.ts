@@ -114,7 +114,8 @@ export async function startStack(options: StackOptions = {}): Promise<Stack> {
     };
     await runApiScript('src/prepare-db.ts', [], env);
     let server = await startServer(env, { expectedProcesses: processes });
-    stops.push(() => stack.server.stop());
+    // `server`, not `stack.server`: a start-up that fails below must still stop it (stack is not made yet).
+    stops.push(() => server.stop());
     const demoLog = options.demoReleases ? await runApiScript('src/demo-releases.ts', [baseUrl], env) : '';
 
     const stack: Stack = {
