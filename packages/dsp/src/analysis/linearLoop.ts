@@ -227,17 +227,38 @@ export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
   const { sections, kd, koTRadPerUnit: koT } = loop;
   const k = sections.length;
   const coef = Float64Array.from(sections.flatMap((x) => [x.b[0], x.b[1], x.b[2], x.a[1], x.a[2]]));
+  const l1 = new Float64Array(k);
+  const l2 = new Float64Array(k);
+  const block = new Float64Array(k);
+  const prevBlock = new Float64Array(k);
+  const run = runImpulse(coef, kd, koT, input, l1, l2, block, prevBlock);
+  const done = run > 0;
+  const samples = Math.abs(run);
+  if (!done) {
+    // A slowly decaying tail: take the block-to-block ratio as its geometric rate (one dominant mode).
+    for (let j = 0; j < k; j++) {
+      const ratio = prevBlock[j]! > 0 ? Math.min(block[j]! / prevBlock[j]!, 0.999999) : 0;
+      l1[j] = l1[j]! + (block[j]! * ratio) / (1 - ratio);
+      l2[j] = l2[j]! + ((block[j]! ** 2 / 64) * (ratio * ratio)) / (1 - ratio * ratio);
+    }
+  }
+  return { l1: Array.from(l1), l2: Array.from(l2, Math.sqrt), samples, extrapolated: !done };
+}
+
+/**
+ * The loop of impulseNorms: L1 (by blocks of 64) and the sum of squares into l1 and l2, the last two
+ * blocks' L1 into block and prevBlock. Returns the samples run, negated when the response had not died
+ * away by MAX_IMPULSE_SAMPLES. Nothing follows the loop but the return: code after a hot loop runs in
+ * the loop's on-stack-replaced compile before it has type feedback, and deoptimised it on every call.
+ */
+function runImpulse(coef: Float64Array, kd: number, koT: number, injectAt: number, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array): number {
+  const k = l1.length;
   // Section states y[n−1], y[n−2]; detector states u[n−1], u[n−2]; NCO phase θ.
   const ys = new Float64Array(2 * k);
   let u1 = 0;
   let u2 = 0;
   let theta = 0;
-  const l1 = new Float64Array(k);
-  const l2 = new Float64Array(k);
-  const block = new Float64Array(k);
-  const prevBlock = new Float64Array(k);
   let impulse = 1;
-  const injectAt = input;
   let peak = 0;
   let samples = 0;
   let done = false;
@@ -275,13 +296,5 @@ export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
     for (let i = 0; i < 2 * k; i++) live = Math.max(live, Math.abs(ys[i]!));
     done = live < 1e-8 * Math.max(peak, 1e-300);
   }
-  if (!done) {
-    // A slowly decaying tail: take the block-to-block ratio as its geometric rate (one dominant mode).
-    for (let j = 0; j < k; j++) {
-      const ratio = prevBlock[j]! > 0 ? Math.min(block[j]! / prevBlock[j]!, 0.999999) : 0;
-      l1[j] = l1[j]! + (block[j]! * ratio) / (1 - ratio);
-      l2[j] = l2[j]! + ((block[j]! ** 2 / 64) * (ratio * ratio)) / (1 - ratio * ratio);
-    }
-  }
-  return { l1: Array.from(l1), l2: Array.from(l2, Math.sqrt), samples, extrapolated: !done };
+  return done ? samples : -samples;
 }

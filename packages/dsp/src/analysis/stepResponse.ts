@@ -87,5 +87,13 @@ export function stepResponses(
     phaseStepErrorRad.push(p);
     frequencyStepErrorRad.push(f);
   }
-  return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
+  return traces(useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged);
+}
+
+/**
+ * The result of stepResponses, made outside it: code after its hot loop ran in the loop's on-stack-replaced
+ * compile without type feedback and deoptimised it on every other call (a recompile each time).
+ */
+function traces(source: StepResponses['source'], timeS: number[], phaseStepErrorRad: number[], frequencyStepErrorRad: number[], diverged: boolean): StepResponses {
+  return { source, timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
 }
