@@ -249,7 +249,7 @@ export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
  * The loop of impulseNorms: L1 (by blocks of 64) and the sum of squares into l1 and l2, the last two
  * blocks' L1 into block and prevBlock. Returns the samples run, negated when the response had not died
  * away by MAX_IMPULSE_SAMPLES. Nothing follows the loop but the return: code after a hot loop runs in
- * the loop's on-stack-replaced compile before it has type feedback, and deoptimised it on every call.
+ * the loop's on-stack-replaced compile without type feedback and left it by a deoptimisation.
  */
 function runImpulse(coef: Float64Array, kd: number, koT: number, injectAt: number, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array): number {
   const k = l1.length;

@@ -92,7 +92,7 @@ export function stepResponses(
 
 /**
  * The result of stepResponses, made outside it: code after its hot loop ran in the loop's on-stack-replaced
- * compile without type feedback and deoptimised it on every other call (a recompile each time).
+ * compile without type feedback and left that code by a deoptimisation on about every other call.
  */
 function traces(source: StepResponses['source'], timeS: number[], phaseStepErrorRad: number[], frequencyStepErrorRad: number[], diverged: boolean): StepResponses {
   return { source, timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
