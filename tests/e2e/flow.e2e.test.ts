@@ -416,13 +416,17 @@ describe('Loopwright in the browser', () => {
     expect(await page.isVisible('[data-test="safety-notice"]')).toBe(true);
     expect(await textOf(page, '[data-test="review-title"]')).toContain('v1');
     expect(await textOf(page, '[data-test="rtl-verification-summary"]')).toBe(BIT_EXACT);
-    expect(posts).toEqual(['GET']);
+    expect(posts.length).toBeGreaterThan(0);
+    expect(posts.filter((m) => m !== 'GET'), 'opening the link sends nothing but reads').toEqual([]);
     await screenshot(page, '08-review');
     await page.fill('textarea[data-test="review-comment"]', 'Margins and codes checked against the bench plan.');
     await page.click('[data-test="submit-decision"]');
     await page.waitForSelector('[data-test="review-outcome"]');
     expect(await textOf(page, '[data-test="review-outcome"]')).toMatch(/approved/);
-    expect(posts).toEqual(['GET', 'POST']);
+    // Until the RTL verdict (and the resource estimate) is done the page reads the link again now and
+    // then; reading never uses it up. The decision is one POST, sent by the click.
+    expect(posts[0]).toBe('GET');
+    expect(posts.filter((m) => m !== 'GET')).toEqual(['POST']);
 
     // The link is single-use: opening it again shows the server's refusal, not the form.
     const again = await freshPage();

@@ -43,7 +43,7 @@ const envSchema = z.object({
    * Added to the nice value of each compute thread (0 keeps the server's own): at 19 the scheduler
    * hands the CPU to the event loop thread whenever a request is waiting, and computes with the rest.
    */
-  LW_COMPUTE_NICE: int(0, 19).default(19),
+  LW_COMPUTE_NICE: int(0, 19).default(10),
   /** Largest simulation one request may ask for: durationS × sampleRateHz loop samples. */
   LW_SIM_MAX_SAMPLES: int(1_000, 50_000_000).default(5_000_000),
   /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
