@@ -1,10 +1,10 @@
 /**
  * Release benchmark (not a timed test): cutting a release of each demo design on a real MariaDB,
  * phase by phase — recompute (analysis, quantisation, NCO), the golden-vector run, its CSV and hex
- * files, render every artifact, store in one transaction, zip the bundle — against the target of
+ * files, render every artifact, store in one transaction — against the target of
  * 100 ms of server time with the golden vectors (issue 16: a longer record must not slow the cut past
  * it). The measured acquisition computeRelease adds (under a second per demo spec, its own target in
- * the dsp bench) is reported apart. Each phase in wall time and in process CPU time: on the shared
+ * the dsp bench) and the zip of the bundle (made when firmware downloads it, never at the cut) are reported apart. Each phase in wall time and in process CPU time: on the shared
  * 2-core machine the wall figures carry the other users' load, the CPU figures much less of it.
  * The golden-vector run itself in samples per second of CPU time.
  * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-release and seeds the demo scenario.
@@ -138,7 +138,9 @@ export async function runReleaseBench(): Promise<object> {
           const plan = m[1]! - m[0]!;
           const vectorRun = m[2]! - m[1]! - plan;
           const vectorFiles = m[3]! - m[2]!;
-          const rest = m[7]! - m[4]!;
+          // The server zips a bundle when firmware downloads it (downloadService), not at the cut: the zip
+          // is reported as its own phase and left out of the cut's total.
+          const rest = m[6]! - m[4]!;
           out.recompute.push(plan);
           out.vectorRun.push(vectorRun);
           out.vectorFiles.push(vectorFiles);
@@ -179,7 +181,7 @@ export async function runReleaseBench(): Promise<object> {
       });
     }
     return {
-      what: 'cut a release of each demo design: recompute + golden vectors (run, CSV, hex) + render + store + zip; the measured acquisition apart',
+      what: 'cut a release of each demo design: recompute + golden vectors (run, CSV, hex) + render + store; the measured acquisition and the zip a download makes apart',
       loadAverage1m: { atStart: load1m, atEnd: Math.round(loadavg()[0]! * 100) / 100 },
       iterations: ITERATIONS,
       targetMs: TARGET_MS,
