@@ -1,6 +1,6 @@
 /**
- * The disk under the release file store full during a cut, for real: LW_FILE_STORE_DIR is a 2 MiB
- * tmpfs (mount(8), tmpfs(5) "size"), filled up by the test before the cut, under the real server (two
+ * The disk under the release file store full during a cut, for real: LW_FILE_STORE_DIR is a 32 MiB
+ * tmpfs (mount(8), tmpfs(5) "size"; room for a release with its 65,536-sample vectors, about 6 MB), filled up by the test before the cut, under the real server (two
  * API processes behind nginx). The cut must fail with a clear 507, leave no release row and no
  * half-written file in the store (a file under a SHA-256 name always holds exactly those bytes, and no
  * temporary file is left), and succeed once there is room again. The same with a simulated ENOSPC, in
@@ -34,9 +34,9 @@ function privileged(command: string, args: readonly string[]): void {
 beforeAll(async () => {
   await fs.mkdir(STORE, { recursive: true });
   try {
-    privileged('mount', ['-t', 'tmpfs', '-o', 'size=2m,mode=0755', 'tmpfs', STORE]);
+    privileged('mount', ['-t', 'tmpfs', '-o', 'size=32m,mode=0755', 'tmpfs', STORE]);
   } catch (err) {
-    throw new Error(`could not mount a 2 MiB tmpfs for the file store (needs root or password-less sudo): ${String((err as { stderr?: Buffer }).stderr ?? err).trim()}`);
+    throw new Error(`could not mount a 32 MiB tmpfs for the file store (needs root or password-less sudo): ${String((err as { stderr?: Buffer }).stderr ?? err).trim()}`);
   }
   mounted = true;
   stack = await startStack({ app: false, dataDir: path.join(ROOT, '.data', `fault-disk-${process.pid}`), env: { LW_FILE_STORE_DIR: STORE } });
