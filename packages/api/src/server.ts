@@ -110,6 +110,8 @@ async function main(): Promise<void> {
       await supervisor.add(clusterSlots(config));
     }
   } catch (err) {
+    // A SIGTERM during start-up makes the starts give up; that stop then ends the server, with code 0.
+    if (stopping) return;
     log(`error: ${(err as Error).message}; stopping`);
     await supervisor.stop();
     process.exit(1);

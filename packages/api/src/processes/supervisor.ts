@@ -28,8 +28,18 @@ interface Slot {
   child: ChildProcess;
 }
 
+function stopSignalOf(spec: SlotSpec): NodeJS.Signals {
+  return spec.stopSignal ?? 'SIGTERM';
+}
+
 export class Supervisor {
   private readonly slots: Slot[] = [];
+  /** Processes started but not yet serving: a stop must end these too, or they outlive the supervisor. */
+  private readonly starting = new Map<ChildProcess, SlotSpec>();
+  /** The stops a stop() began of processes that were still starting. */
+  private readonly ending = new Map<ChildProcess, Promise<void>>();
+  /** Start-ups under way (first starts and restarts); a stop waits for them to give up. */
+  private readonly startUps = new Set<Promise<unknown>>();
   private stopping: Promise<void> | undefined;
 
   constructor(
@@ -42,7 +52,7 @@ export class Supervisor {
   async add(specs: readonly SlotSpec[]): Promise<void> {
     const results = await Promise.allSettled(
       specs.map(async (spec) => {
-        const slot: Slot = { spec, child: await this.startUntilReady(spec) };
+        const slot: Slot = { spec, child: await this.tracked(this.startUntilReady(spec)) };
         // Registered as soon as it serves, so stop() ends it even when a sibling fails to start.
         this.slots.push(slot);
         this.watch(slot);
@@ -58,7 +68,11 @@ export class Supervisor {
 
   stop(): Promise<void> {
     this.stopping ??= (async () => {
-      for (const slot of [...this.slots].reverse()) await stopChild(slot.child, slot.spec.stopSignal ?? 'SIGTERM');
+      // A stop can come while a process is still starting (a SIGTERM during start-up, or just after a
+      // crash): end it, and wait until its start-up has given up, before ending the serving ones.
+      for (const [child, spec] of this.starting) this.ending.set(child, stopChild(child, stopSignalOf(spec)));
+      await Promise.allSettled([...this.startUps]);
+      for (const slot of [...this.slots].reverse()) await stopChild(slot.child, stopSignalOf(slot.spec));
     })();
     return this.stopping;
   }
@@ -66,26 +80,50 @@ export class Supervisor {
   private async startUntilReady(spec: SlotSpec): Promise<ChildProcess> {
     let lastError = '';
     for (let attempt = 1; attempt <= START_ATTEMPTS; attempt += 1) {
-      if (this.stopping) throw new Error(`${spec.name}: not started, the server is stopping`);
+      if (this.stopping) throw notStarted(spec);
       const child = await spec.start();
-      try {
-        await spec.ready(child);
-        return child;
-      } catch (err) {
-        lastError = (err as Error).message;
-        await stopChild(child, 'SIGKILL');
-        this.log(`${spec.name} did not start (attempt ${attempt} of ${START_ATTEMPTS}): ${lastError}`);
-        if (attempt < START_ATTEMPTS) await new Promise((resolve) => setTimeout(resolve, RETRY_DELAY_MS));
+      const failure = await this.readyOrFailure(spec, child);
+      if (this.stopping) {
+        // It may have come up meanwhile: end it like a serving one, once, before giving up.
+        await (this.ending.get(child) ?? stopChild(child, stopSignalOf(spec)));
+        this.ending.delete(child);
+        throw notStarted(spec);
       }
+      if (!failure) return child;
+      lastError = failure.message;
+      await stopChild(child, 'SIGKILL');
+      this.log(`${spec.name} did not start (attempt ${attempt} of ${START_ATTEMPTS}): ${lastError}`);
+      if (attempt < START_ATTEMPTS) await new Promise((resolve) => setTimeout(resolve, RETRY_DELAY_MS));
     }
     throw new Error(`${spec.name} could not be started: ${lastError}`);
+  }
+
+  /** Waits until the child serves (undefined) or cannot (the error); a stop meanwhile ends the wait. */
+  private async readyOrFailure(spec: SlotSpec, child: ChildProcess): Promise<Error | undefined> {
+    if (this.stopping) return undefined;
+    this.starting.set(child, spec);
+    try {
+      await spec.ready(child);
+      return undefined;
+    } catch (err) {
+      return err as Error;
+    } finally {
+      this.starting.delete(child);
+    }
+  }
+
+  private tracked<T>(startUp: Promise<T>): Promise<T> {
+    this.startUps.add(startUp);
+    const settled = () => this.startUps.delete(startUp);
+    startUp.then(settled, settled);
+    return startUp;
   }
 
   private watch(slot: Slot): void {
     slot.child.once('exit', (code, signal) => {
       if (this.stopping) return;
       this.log(`${slot.spec.name} (pid ${slot.child.pid}) exited (${signal ?? `code ${code}`}); starting it again`);
-      this.startUntilReady(slot.spec).then(
+      this.tracked(this.startUntilReady(slot.spec)).then(
         (child) => {
           slot.child = child;
           this.log(`${slot.spec.name} is back (pid ${child.pid})`);
@@ -98,6 +136,10 @@ export class Supervisor {
       );
     });
   }
+}
+
+function notStarted(spec: SlotSpec): Error {
+  return new Error(`${spec.name}: not started, the server is stopping`);
 }
 
 function hasExited(child: ChildProcess): boolean {
