@@ -28,6 +28,15 @@ function setup() {
   return { client, workers };
 }
 
+/** An analysis job started with an abort signal, and the id the client gave it. */
+function abortableJob() {
+  const { client, workers } = setup();
+  const controller = new AbortController();
+  const job = client.run('analyze', mainsSyncSpec, null, { signal: controller.signal });
+  const worker = workers[0]!;
+  return { job, controller, worker, id: (worker.sent[0] as { id: number }).id };
+}
+
 describe('DSP worker client', () => {
   afterEach(() => vi.useRealTimers());
 
@@ -44,23 +53,17 @@ describe('DSP worker client', () => {
   });
 
   it('sends cancel on abort and reports the job cancelled', async () => {
-    const { client, workers } = setup();
-    const controller = new AbortController();
-    const job = client.run('analyze', mainsSyncSpec, null, { signal: controller.signal });
-    const id = (workers[0]!.sent[0] as { id: number }).id;
+    const { job, controller, worker, id } = abortableJob();
     controller.abort();
-    expect(workers[0]!.sent[1]).toEqual({ type: 'cancel', id });
-    workers[0]!.reply({ type: 'failed', id, message: 'Cancelled', cancelled: true });
+    expect(worker.sent[1]).toEqual({ type: 'cancel', id });
+    worker.reply({ type: 'failed', id, message: 'Cancelled', cancelled: true });
     await expect(job).rejects.toBeInstanceOf(JobCancelledError);
   });
 
   it('reports a job cancelled whose result arrives after Cancel was pressed (a fast search beats the message)', async () => {
-    const { client, workers } = setup();
-    const controller = new AbortController();
-    const job = client.run('analyze', mainsSyncSpec, null, { signal: controller.signal });
-    const id = (workers[0]!.sent[0] as { id: number }).id;
+    const { job, controller, worker, id } = abortableJob();
     controller.abort();
-    workers[0]!.reply({ type: 'done', id, output: { figure: 1 }, elapsedMs: 3 } as unknown as FromWorker);
+    worker.reply({ type: 'done', id, output: { figure: 1 }, elapsedMs: 3 } as unknown as FromWorker);
     await expect(job).rejects.toBeInstanceOf(JobCancelledError);
   });
 
