@@ -40,8 +40,9 @@ const envSchema = z.object({
   LW_COMPUTE_TIMEOUT_S: int(1, 3600).default(60),
   LW_COMPUTE_MAX_QUEUE: int(1, 10_000).default(64),
   /**
-   * Added to the nice value of each compute thread (0 keeps the server's own): at 19 the scheduler
-   * hands the CPU to the event loop thread whenever a request is waiting, and computes with the rest.
+   * Added to the nice value of each compute thread (0 keeps the server's own), so the scheduler hands
+   * the CPU to the event loop thread whenever a request is waiting. 10, not 19: at 19 a release cut and
+   * the demo seeding waited past LW_COMPUTE_TIMEOUT_S on a machine busy with other work.
    */
   LW_COMPUTE_NICE: int(0, 19).default(10),
   /** Largest simulation one request may ask for: durationS × sampleRateHz loop samples. */
