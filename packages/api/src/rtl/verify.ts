@@ -118,7 +118,7 @@ export function overallVerdict(runs: readonly SimulatorRun[]): RtlVerdict {
  * The one sentence every screen and e-mail shows for a verification: which simulators agreed bit for
  * bit, and on how many of the release's golden samples (a prefix, said as one).
  */
-export function verificationSummary(runs: readonly SimulatorRun[], samples: number, recordSamples = samples): string {
+export function verificationSummary(runs: readonly SimulatorRun[], samples: number, recordSamples: number): string {
   const names = (rs: readonly SimulatorRun[]) => rs.map((r) => r.label).join(' and ');
   const passed = runs.filter((r) => r.verdict === 'pass');
   const notRun = runs.filter((r) => r.verdict === 'not-run');
