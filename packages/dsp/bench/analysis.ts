@@ -59,7 +59,8 @@ interface FirstCallFigure {
   readonly firstCallCpuMs: number;
 }
 
-const median = (xs: readonly number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+/** The upper median (the middle value, or the higher of the two middle ones). */
+export const median = (xs: readonly number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
 /**
  * One analyzeDesign call of each example in each of FIRST_CALL_PROCESSES fresh processes (cold JIT,
@@ -134,7 +135,7 @@ export function runAnalysisBench(runs = 300, warmup = 100): { scipyVersion: stri
     }
     const steady = times.slice(warmup).sort((a, b) => a - b);
     const at = (q: number) => steady[Math.min(steady.length - 1, Math.floor(q * steady.length))]!;
-    const cpuMedianMs = round3([...cpu].sort((a, b) => a - b)[Math.floor(cpu.length / 2)]!);
+    const cpuMedianMs = round3(median(cpu));
     const medianMs = round3(at(0.5));
     const cold = first.get(e.id);
     const firstCallMs = cold ? round3(cold.firstCallMs) : null;

@@ -25,7 +25,7 @@ import { measureAcquisition } from '../src/analysis/acquisitionSim.ts';
 import { defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES, goldenVectorsOf, releaseGoldenVectors } from '../src/vectors/goldenVectors.ts';
 import { formatVectorsCsv } from '../src/vectors/vectorsCsv.ts';
 import { formatCParams } from './cParams.ts';
-import { runAnalysisBench, runWordLengthBench } from './analysis.ts';
+import { median, runAnalysisBench, runWordLengthBench } from './analysis.ts';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
 const SAMPLES = 4_000_000;
@@ -161,7 +161,6 @@ function goldenVectorFigures(runs = 40): { example: string; samples: number; sam
  * are in the release bench (packages/api/bench/release-bench.ts).
  */
 function recordFigures(): { samples: number; examples: { example: string; vectorsCpuMs: number; csvCpuMs: number; csvBytes: number }[] } {
-  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
   const examples = exampleSpecs.map((e) => {
     const plan = planDesign(requireValidSpec(e.spec));
     const loop = { spec: plan.spec, sections: plan.filter.sections, bitTrue: plan.bitTrue, bitTrueIssue: plan.bitTrueIssue };
