@@ -183,7 +183,9 @@ async function concurrentSimulations(baseUrl: string, cookie: string, headers: {
   const perSecond = new Map<number, number[]>();
   for (const a of answers.list) {
     const second = Math.floor(a.atS);
-    perSecond.set(second, [...(perSecond.get(second) ?? []), a.ms]);
+    const inSecond = perSecond.get(second);
+    if (inSecond) inSecond.push(a.ms);
+    else perSecond.set(second, [a.ms]);
   }
   const p99MsPerSecond = [...perSecond.keys()].sort((a, b) => a - b).map((second) => ms1(quantile(perSecond.get(second) ?? [], 0.99)));
   const times = answers.list.map((a) => a.ms);
