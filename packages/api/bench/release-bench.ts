@@ -153,7 +153,7 @@ export async function runReleaseBench(): Promise<object> {
         }
         samples = computed.release.plan.goldenVectors.record.length;
         bundleBytes = sink.bytes;
-        vectorFileBytes = files.csv.length + files.hex.reduce((sum, h) => sum + h.text.length, 0);
+        vectorFileBytes = files.csv.length + files.hex.reduce((sum, h) => sum + h.bytes.length, 0);
         void releaseId;
       }
       const total = stats(wall.total);

@@ -15,7 +15,7 @@ import { CAUTION } from '../render/caution.ts';
 import { sha256Hex } from '../render/digest.ts';
 import { StoredFileError, type FileStore } from '../storage/fileStore.ts';
 import type { ComputePool } from '../services/compute.ts';
-import { asBuffer } from '../workers/handoffTasks.ts';
+import { asBuffer } from '../render/artifactFile.ts';
 import type { ReleaseDiff, ReleaseRecord, ReleaseSummary, ReleaseVerificationRecord } from '@loopwright/contract';
 import { releaseDiff } from './diff.ts';
 import { Release, ReleaseFile } from './entities/index.ts';

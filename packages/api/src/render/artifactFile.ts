@@ -23,8 +23,17 @@ export function checkArtifactSize(name: string, bytes: number, limitBytes = MAX_
   }
 }
 
-export function artifactFile(name: string, mediaType: string, text: string): ArtifactFile {
-  const bytes = Buffer.from(text, 'utf8');
+/** A file of rendered text (UTF-8), or of bytes made as they are stored (the golden vectors' ASCII). */
+/**
+ * A Uint8Array's bytes viewed as a Buffer, not copied: dsp writes plain Uint8Arrays (it runs in the
+ * browser too), and Buffers come back from a worker thread as plain Uint8Arrays (structured clone).
+ */
+export function asBuffer(bytes: Uint8Array): Buffer {
+  return Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+}
+
+export function artifactFile(name: string, mediaType: string, content: string | Buffer): ArtifactFile {
+  const bytes = typeof content === 'string' ? Buffer.from(content, 'utf8') : content;
   checkArtifactSize(name, bytes.length);
   return { name, mediaType, bytes, sha256: sha256Hex(bytes) };
 }

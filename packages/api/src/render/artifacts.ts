@@ -122,7 +122,7 @@ export function renderArtifacts(computation: ReleaseComputation): RenderedReleas
     file(names.verilog, 'text/x-verilog', renderTemplate('verilog', verilogView(model, header(names.verilog)))),
     file(names.cHeader, 'text/x-c', renderTemplate('cHeader', cHeaderView(model, header(names.cHeader)))),
     file(names.vectors, 'text/csv', computation.vectorsCsv),
-    ...computation.vectorHex.map((h) => file(h.fileName, 'text/plain', h.text)),
+    ...computation.vectorHex.map((h) => file(h.fileName, 'text/plain', h.bytes)),
     ...renderRtl({
       rtl,
       files: names.rtl,

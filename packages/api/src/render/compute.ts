@@ -21,7 +21,8 @@ export interface ReleaseComputation {
   readonly plan: ReleasablePlan;
   /** Everything the server computed, stored verbatim in the manifest's `results` (each figure once). */
   readonly results: Readonly<Record<string, unknown>>;
-  readonly vectorsCsv: string;
+  /** The golden-vector CSV's bytes. */
+  readonly vectorsCsv: Buffer;
   readonly vectorColumns: readonly { name: string; meaning: string }[];
   /** The golden vectors as $readmemh files, one per column. */
   readonly vectorHex: readonly HexMemoryFile[];

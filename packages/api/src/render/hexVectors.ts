@@ -3,7 +3,8 @@
  * the format Verilog's $readmemh reads: one word per line, exactly ceil(W/4) hex digits, two's
  * complement for signed columns, "\n" line ends. The testbenches of both languages read these files.
  */
-import { AsciiText, type BitTrueRecord, type GoldenVectors, type LoopSpec, type VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
+import { asBuffer } from './artifactFile.ts';
+import { putHex, type BitTrueRecord, type GoldenVectors, type LoopSpec, type VECTOR_CSV_COLUMNS } from '@loopwright/dsp';
 
 type HexColumn = Exclude<(typeof VECTOR_CSV_COLUMNS)[number], 'sample'>;
 
@@ -13,7 +14,8 @@ export interface HexMemoryFile {
   readonly widthBits: number;
   readonly signed: boolean;
   readonly digits: number;
-  readonly text: string;
+  /** The file's bytes (ASCII). */
+  readonly bytes: Buffer;
 }
 
 /** Width and signedness of every column but the sample index, in the CSV's column order. */
@@ -45,37 +47,39 @@ const NEWLINE = 0x0a;
 
 /**
  * One column as W-bit words (W ≤ 32), two's complement when negative, `digits` hex digits a line.
- * Digits go straight into one buffer (dsp's AsciiText): a toString(16) and padStart per word was
- * 4–5 times slower at 65 536 samples, for the same bytes.
+ * Digits go straight into one buffer of the file's exact size (dsp's putHex): a toString(16) and
+ * padStart per word was 4–5 times slower at 65 536 samples, for the same bytes.
  */
-function wordsText(values: ArrayLike<number>, length: number, widthBits: number, digits: number): string {
-  const out = new AsciiText(length * (digits + 1));
+function wordsBytes(values: ArrayLike<number>, length: number, widthBits: number, digits: number): Buffer {
+  const buf = new Uint8Array(length * (digits + 1));
   const wrap = 2 ** widthBits;
+  let at = 0;
   for (let n = 0; n < length; n++) {
     const v = values[n] as number;
-    out.hex(v < 0 ? v + wrap : v, digits);
-    out.byte(NEWLINE);
+    at = putHex(buf, at, v < 0 ? v + wrap : v, digits);
+    buf[at++] = NEWLINE;
   }
-  return out.toString();
+  return asBuffer(buf);
 }
 
 /** The phase accumulator, hi·2^32 + lo: wider than 32 bits, the hi word's digits then lo's eight. */
-function phaseText(r: BitTrueRecord, widthBits: number, digits: number): string {
-  if (widthBits <= 32) return wordsText(r.phaseLo, r.length, widthBits, digits);
-  const out = new AsciiText(r.length * (digits + 1));
+function phaseBytes(r: BitTrueRecord, widthBits: number, digits: number): Buffer {
+  if (widthBits <= 32) return wordsBytes(r.phaseLo, r.length, widthBits, digits);
+  const buf = new Uint8Array(r.length * (digits + 1));
+  let at = 0;
   for (let n = 0; n < r.length; n++) {
-    out.hex(r.phaseHi[n] as number, digits - 8);
-    out.hex(r.phaseLo[n] as number, 8);
-    out.byte(NEWLINE);
+    at = putHex(buf, at, r.phaseHi[n] as number, digits - 8);
+    at = putHex(buf, at, r.phaseLo[n] as number, 8);
+    buf[at++] = NEWLINE;
   }
-  return out.toString();
+  return asBuffer(buf);
 }
 
 export function hexMemoryFiles(spec: LoopSpec, golden: GoldenVectors): HexMemoryFile[] {
   const r = golden.record;
   return hexColumns(spec).map(({ column, widthBits, signed }) => {
     const digits = Math.ceil(widthBits / 4);
-    const text = column === 'nco_phase' ? phaseText(r, widthBits, digits) : wordsText(VALUES[column](r), r.length, widthBits, digits);
-    return { column, fileName: hexFileName(spec.name, column), widthBits, signed, digits, text };
+    const bytes = column === 'nco_phase' ? phaseBytes(r, widthBits, digits) : wordsBytes(VALUES[column](r), r.length, widthBits, digits);
+    return { column, fileName: hexFileName(spec.name, column), widthBits, signed, digits, bytes };
   });
 }

@@ -3,7 +3,8 @@
  * (packages/dsp/src/vectors/vectorsCsv.ts). The column meanings below are keyed by dsp's column list,
  * so a column added there fails the type check here until README.txt describes it.
  */
-import { formatVectorsCsv, VECTOR_CSV_COLUMNS, type GoldenVectors, type LoopSpec, type Scenario } from '@loopwright/dsp';
+import { vectorsCsvBytes, VECTOR_CSV_COLUMNS, type GoldenVectors, type LoopSpec, type Scenario } from '@loopwright/dsp';
+import { asBuffer } from './artifactFile.ts';
 import { hexMemoryFiles, type HexMemoryFile } from './hexVectors.ts';
 
 type VectorColumn = (typeof VECTOR_CSV_COLUMNS)[number];
@@ -24,7 +25,8 @@ export const VECTOR_COLUMNS: readonly { name: VectorColumn; meaning: string }[] 
 }));
 
 export interface ReleaseVectors {
-  readonly csv: string;
+  /** The CSV's bytes (ASCII), as the release stores them. */
+  readonly csv: Buffer;
   readonly columns: readonly { name: string; meaning: string }[];
   /** The same vectors as $readmemh files, one per column. */
   readonly hex: readonly HexMemoryFile[];
@@ -35,7 +37,7 @@ export interface ReleaseVectors {
 /** A plan's golden vectors in the release's CSV and hex files, with the summary the manifest records. */
 export function releaseVectors({ spec, goldenVectors: v }: { readonly spec: LoopSpec; readonly goldenVectors: GoldenVectors }): ReleaseVectors {
   return {
-    csv: formatVectorsCsv(v),
+    csv: asBuffer(vectorsCsvBytes(v)),
     columns: VECTOR_COLUMNS,
     hex: hexMemoryFiles(spec, v),
     summary: { scenario: v.scenario, samples: v.record.length, checksum: v.checksum },

@@ -55,8 +55,3 @@ export async function runHandoffTask(task: HandoffTask): Promise<HandoffOutcome>
     throw err;
   }
 }
-
-/** Buffers come back from a worker thread as plain Uint8Arrays (structured clone); this views them as Buffers again. */
-export function asBuffer(bytes: Uint8Array): Buffer {
-  return Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-}

@@ -10,7 +10,7 @@
  *   filter_code    loop-filter output y[n] (last section), dataBits signed
  */
 import type { GoldenVectors } from './goldenVectors.ts';
-import { AsciiText } from './asciiText.ts';
+import { asciiString, putDecimal, putInt32, putText, putUint32 } from './asciiText.ts';
 
 export const VECTOR_CSV_COLUMNS = ['sample', 'input_code', 'nco_phase', 'table_address', 'nco_code', 'detector_code', 'filter_code'] as const;
 export type VectorCsvColumn = (typeof VECTOR_CSV_COLUMNS)[number];
@@ -26,6 +26,7 @@ export function phaseDecimal(hi: number, lo: number): string {
 const MAX_ROW_BYTES = 10 + 5 * 11 + 20 + 7;
 const COMMA = 0x2c;
 const NEWLINE = 0x0a;
+const HEADER = `${VECTOR_CSV_COLUMNS.join(',')}\n`;
 
 /**
  * Kept by hand rather than csv-stringify (csv-parse's sibling): every field is a decimal integer, so
@@ -35,31 +36,38 @@ const NEWLINE = 0x0a;
  * (asciiText.ts), with the same bytes as that template string: at 65 536 samples the template string
  * took most of a release cut (packages/dsp/bench/bench.ts, "goldenVectors", for the figures).
  * `samples` keeps the first rows only (a simulation's first vectors); the default is the whole record.
+ * The bytes, ASCII, exactly as long as the text (a release stores them as they are).
  */
-export function formatVectorsCsv(v: GoldenVectors, samples = v.record.length): string {
+export function vectorsCsvBytes(v: GoldenVectors, samples = v.record.length): Uint8Array {
   const r = v.record;
   const rows = Math.max(0, Math.min(samples, r.length));
-  const out = new AsciiText(64 + rows * MAX_ROW_BYTES);
-  out.text(VECTOR_CSV_COLUMNS.join(','));
-  out.byte(NEWLINE);
+  const buf = new Uint8Array(HEADER.length + rows * MAX_ROW_BYTES);
+  let at = putText(buf, 0, HEADER);
   const { inputCode, phaseHi, phaseLo, tableAddress, ncoCode, detectorCode, filterCode } = r;
   for (let n = 0; n < rows; n++) {
-    out.decimal(n);
-    out.byte(COMMA);
-    out.decimal(inputCode[n] as number);
-    out.byte(COMMA);
+    at = putUint32(buf, at, n);
+    buf[at++] = COMMA;
+    at = putInt32(buf, at, inputCode[n] as number);
+    buf[at++] = COMMA;
+    // Up to 2^53 the phase is a safe integer; a wider one (a 64-bit accumulator) takes BigInt's digits.
     const hi = phaseHi[n] as number;
-    if (hi < 0x200000) out.decimal(hi * 4294967296 + (phaseLo[n] as number));
-    else out.text(phaseDecimal(hi, phaseLo[n] as number));
-    out.byte(COMMA);
-    out.decimal(tableAddress[n] as number);
-    out.byte(COMMA);
-    out.decimal(ncoCode[n] as number);
-    out.byte(COMMA);
-    out.decimal(detectorCode[n] as number);
-    out.byte(COMMA);
-    out.decimal(filterCode[n] as number);
-    out.byte(NEWLINE);
+    if (hi === 0) at = putUint32(buf, at, phaseLo[n] as number);
+    else if (hi < 0x200000) at = putDecimal(buf, at, hi * 4294967296 + (phaseLo[n] as number));
+    else at = putText(buf, at, phaseDecimal(hi, phaseLo[n] as number));
+    buf[at++] = COMMA;
+    at = putInt32(buf, at, tableAddress[n] as number);
+    buf[at++] = COMMA;
+    at = putInt32(buf, at, ncoCode[n] as number);
+    buf[at++] = COMMA;
+    at = putInt32(buf, at, detectorCode[n] as number);
+    buf[at++] = COMMA;
+    at = putInt32(buf, at, filterCode[n] as number);
+    buf[at++] = NEWLINE;
   }
-  return out.toString();
+  return buf.slice(0, at);
+}
+
+/** The golden-vector CSV as text (vectorsCsvBytes decoded). */
+export function formatVectorsCsv(v: GoldenVectors, samples = v.record.length): string {
+  return asciiString(vectorsCsvBytes(v, samples));
 }

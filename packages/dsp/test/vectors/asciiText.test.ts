@@ -11,7 +11,7 @@ const written = (write: (t: AsciiText) => void, capacity = 1) => {
 };
 
 describe('AsciiText', () => {
-  const edges = [0, 1, -1, 9, 10, 99, 100, 101, -100, 999, 1000, 2 ** 31 - 1, -(2 ** 31), 2 ** 31, 2 ** 32 - 1, 2 ** 32, 2 ** 53 - 1, -(2 ** 53 - 1), 10 ** 15, 10 ** 15 - 1];
+  const edges = [0, 1, -1, 9, 10, 99, 100, 101, -100, 999, 1000, 2 ** 31 - 1, -(2 ** 31), 2 ** 31, 2 ** 31 + 99, 2 ** 32 - 1, 2 ** 32, 2 ** 32 + 1, 10 ** 16 - 1, 9007199200000000, 9007199199999999, 2 ** 53 - 1, -(2 ** 53 - 1), 10 ** 15, 10 ** 15 - 1];
 
   it('writes safe integers as String(v) does, edges and random widths', () => {
     const rnd = mulberry32(7);
@@ -23,7 +23,7 @@ describe('AsciiText', () => {
   it('writes unsigned words as toString(16) zero-padded to the digit count', () => {
     const rnd = mulberry32(11);
     const words = [0, 1, 15, 16, 255, 0xffff, 2 ** 31, 2 ** 32 - 1, ...Array.from({ length: 200 }, () => Math.floor(rnd() * 2 ** 32))];
-    for (const digits of [1, 4, 8, 12]) {
+    for (const digits of [1, 3, 4, 5, 7, 8, 12]) {
       const fit = words.map((w) => (digits >= 8 ? w : w % 16 ** digits));
       expect(written((t) => fit.forEach((w) => t.hex(w, digits)))).toBe(fit.map((w) => w.toString(16).padStart(digits, '0')).join(''));
     }
