@@ -47,7 +47,7 @@ export { checksumRecord, CHECKSUM_BASIS } from './sim/checksum.ts';
 export { mulberry32, gaussianSource } from './sim/prng.ts';
 export { goldenVectorsOf, defaultGoldenScenario, GOLDEN_VECTOR_SAMPLES } from './vectors/goldenVectors.ts';
 export { formatVectorsCsv, vectorsCsvBytes, VECTOR_CSV_COLUMNS, phaseDecimal } from './vectors/vectorsCsv.ts';
-export { AsciiText, asciiString, putHex } from './vectors/asciiText.ts';
+export { putHex } from './vectors/asciiText.ts';
 export { compareAcquisition } from './analysis/acquisitionReport.ts';
 export { measureAcquisition, cascadeDcGain, DEFAULT_ACQUISITION_SAMPLES, ACQUISITION_RELATIVE_TOLERANCE, ACQUISITION_FLOOR_TOLERANCE_HZ } from './analysis/acquisitionSim.ts';
 export { wordLengthSearch, wordLengthSearchAsync, wordLengthSteps } from './wordlength/wordLengthSearch.ts';

@@ -1,5 +1,5 @@
 /**
- * ASCII text built byte by byte in one preallocated buffer: decimal and hex integers written as
+ * ASCII text written byte by byte into one preallocated buffer: decimal and hex integers written as
  * digits straight into it, with no string per value. The golden-vector CSV and the $readmemh files
  * hold hundreds of thousands of integers (65 536 samples × 6 columns), and a template string or a
  * toString per cell was most of a release cut's time (packages/dsp/bench/bench.ts, "goldenVectors").
@@ -139,49 +139,3 @@ export function asciiString(bytes: Uint8Array): string {
  * and 22–31 ms for String.fromCharCode over 8 KiB chunks.
  */
 const UTF8 = new TextDecoder('utf-8');
-
-/** A growing text over the writers above, for callers that cannot bound their length in advance. */
-export class AsciiText {
-  private bytes: Uint8Array;
-  private at = 0;
-
-  /** `capacityBytes` is a first guess; the buffer grows (doubling) when a write would pass it. */
-  constructor(capacityBytes: number) {
-    this.bytes = new Uint8Array(Math.max(64, capacityBytes));
-  }
-
-  private room(n: number): void {
-    if (this.at + n <= this.bytes.length) return;
-    const grown = new Uint8Array(Math.max(this.bytes.length * 2, this.at + n));
-    grown.set(this.bytes.subarray(0, this.at));
-    this.bytes = grown;
-  }
-
-  /** One byte, by its code (',' = 0x2c, '\n' = 0x0a). */
-  byte(code: number): void {
-    this.room(1);
-    this.bytes[this.at++] = code;
-  }
-
-  text(s: string): void {
-    this.room(s.length);
-    this.at = putText(this.bytes, this.at, s);
-  }
-
-  /** A safe integer (|v| ≤ 2^53 − 1) in decimal, as String(v) writes it. */
-  decimal(v: number): void {
-    this.room(MAX_DECIMAL_BYTES);
-    this.at = putDecimal(this.bytes, this.at, v);
-  }
-
-  /** An unsigned word 0 ≤ v < 2^32 as exactly `digits` lower-case hex digits (zero-padded on the left). */
-  hex(v: number, digits: number): void {
-    this.room(digits);
-    this.at = putHex(this.bytes, this.at, v, digits);
-  }
-
-  /** The text written so far. */
-  toString(): string {
-    return asciiString(this.bytes.subarray(0, this.at));
-  }
-}
