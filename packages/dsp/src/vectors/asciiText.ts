@@ -31,7 +31,7 @@ function digitCount32(v: number): number {
 
 /**
  * 0 ≤ v < 2^32 in decimal, its last digit at end − 1, written backwards a pair at a time. Below 2^31
- * (v / 100) | 0 is an int32 division by a constant, which V8 compiles to a multiply and shifts; the
+ * (v / 100) | 0 is an int32 division by a constant, which the JavaScript engine compiles to a multiply and shifts; the
  * one step above it divides doubles, (v / 100) >>> 0 being floor(v / 100) there: the quotient is
  * correctly rounded, and for an integer v it lies at least 0.01 below the next integer, far more
  * than its rounding error.
