@@ -198,6 +198,21 @@ function firstBucketSamples(boxcarLength: number): number {
  * one first width up to 8192 of them and a 4096th of the time after that, whatever the run's length;
  * a run of 50 M samples needs about 60 000 buckets.
  */
+/**
+ * The per-sample loops of pushRange run elsewhere (the WebAssembly module, wasmTraced.ts) on arrays
+ * in its memory: the same comparisons and additions in the same order.
+ */
+export interface LockKernel {
+  /** An array of the kernel's memory for the corrected error (a chunk's worth). */
+  readonly scratch: Float64Array;
+  /** The open bucket's min and max, then the tail sum: what band and sum fold into. */
+  readonly slots: Float64Array;
+  /** Fold values[i0..i1) into slots[0] and slots[1] as pushRange's loop does; values lie in the kernel's memory. */
+  band(values: Float64Array, i0: number, i1: number): void;
+  /** Add values[i0..i1) to slots[2], in order. */
+  sum(values: Float64Array, i0: number, i1: number): void;
+}
+
 export class LockTracker {
   private readonly min: number[] = [];
   private readonly max: number[] = [];
@@ -218,9 +233,12 @@ export class LockTracker {
   private readonly table: Float64Array | null;
   /** Table points per sample. */
   private readonly tableStep: number;
-  private scratch = new Float64Array(0);
+  private scratch: Float64Array = new Float64Array(0);
 
-  constructor(private readonly s: LockSetup) {
+  constructor(
+    private readonly s: LockSetup,
+    private readonly kernel: LockKernel | null = null,
+  ) {
     const ref = s.model.reference;
     this.table = ref ? Float64Array.from([...ref.errorRad, ref.errorRad[0] as number]) : null;
     this.tableStep = ref ? (ref.rateHz / s.sampleRateHz) * ref.errorRad.length : 0;
@@ -252,6 +270,10 @@ export class LockTracker {
   /** Smoothed unwrapped phase error (rad) and the input's frequency offset (Hz) of samples n0 … n0 + count − 1, in order. */
   pushRange(n0: number, count: number, smooth: Float64Array, offsetHz: Float64Array): void {
     const d = this.corrected(n0, count, smooth, offsetHz);
+    if (this.kernel) {
+      this.kernelRange(this.kernel, n0, count, d);
+      return;
+    }
     let i = 0;
     while (i < count) {
       if (n0 + i >= this.bucketEnd) this.nextBucket();
@@ -274,12 +296,36 @@ export class LockTracker {
     this.tailCount += Math.max(0, n0 + count - Math.max(n0, this.tailStart));
   }
 
+  /** pushRange's bucket and tail loops through the kernel, on the corrected chunk d in its memory. */
+  private kernelRange(kernel: LockKernel, n0: number, count: number, d: Float64Array): void {
+    const slots = kernel.slots;
+    let i = 0;
+    while (i < count) {
+      if (n0 + i >= this.bucketEnd) this.nextBucket();
+      const end = Math.min(count, this.bucketEnd - n0);
+      slots[0] = this.lo;
+      slots[1] = this.hi;
+      kernel.band(d, i, end);
+      this.lo = slots[0] as number;
+      this.hi = slots[1] as number;
+      i = end;
+    }
+    const from = Math.max(0, this.tailStart - n0);
+    if (from < count) {
+      slots[2] = this.tailSum;
+      kernel.sum(d, from, count);
+      this.tailSum = slots[2] as number;
+    }
+    this.tailCount += Math.max(0, n0 + count - Math.max(n0, this.tailStart));
+  }
+
   /** The chunk less the reference (in the scratch array), or the chunk itself when there is none. */
   private corrected(n0: number, count: number, smooth: Float64Array, offsetHz: Float64Array): Float64Array {
     const table = this.table;
     const holdInHz = this.s.model.staticHoldInHz;
     if (!table && holdInHz === null) return smooth;
-    if (this.scratch.length < count) this.scratch = new Float64Array(count);
+    if (this.kernel) this.scratch = this.kernel.scratch;
+    else if (this.scratch.length < count) this.scratch = new Float64Array(count);
     const out = this.scratch;
     if (!table) {
       // asin(Δf/hold-in), beyond hold-in the nearest equilibrium ±π/2 (there is none: the loop slips);

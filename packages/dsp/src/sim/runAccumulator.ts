@@ -6,7 +6,7 @@
 import type { SimFullTraces, SimMetrics, SimRun } from '../types/sim.ts';
 import { MinMaxDecimator } from './decimate.ts';
 import { SweepTracker } from './sweepMetrics.ts';
-import { LockTracker, type LockModel } from './lockMetric.ts';
+import { LockTracker, type LockKernel, type LockModel } from './lockMetric.ts';
 import { rippleBoxcarSamples } from './rippleBoxcar.ts';
 
 const TWO_PI = 2 * Math.PI;
@@ -57,6 +57,8 @@ export interface AccumulatorCore {
   /** Per sample of the last chunk: the smoothed unwrapped error and the wrapped phase error (rad). */
   readonly smooth: Float64Array;
   readonly phaseErr: Float64Array;
+  /** The lock test's loops over those arrays. */
+  readonly lock: LockKernel;
   /** Start a run: zero state and boxcar, and the run's constants. */
   reset(constants: { readonly amplitude: number; readonly lockAlpha: number; readonly centerHz: number; readonly gainHzPerUnit: number; readonly boxcarLength: number }): void;
   /** Samples i0 … i1 − 1 of the chunk from sample n0, all in one trace bucket, with or without the tail and demodulation sums. */
@@ -106,7 +108,7 @@ export class RunAccumulator {
     this.lock = new MinMaxDecimator(total, buckets, sampleRateHz);
     const boxcarLength = rippleBoxcarSamples(sampleRateHz, s.centerHz, total);
     this.boxcar = new Float64Array(core ? 0 : boxcarLength);
-    this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength, model: s.lockModel });
+    this.settle = new LockTracker({ total, sampleRateHz, lockToleranceRad: s.lockToleranceRad, boxcarLength, model: s.lockModel }, core?.lock ?? null);
     // Lock indicator: one-pole low-pass at centerHz/8 of the quadrature arm (common practice, no source).
     this.lockAlpha = 1 - Math.exp((-TWO_PI * (s.centerHz / 8)) / sampleRateHz);
     core?.reset({ amplitude: s.amplitude, lockAlpha: this.lockAlpha, centerHz: s.centerHz, gainHzPerUnit: s.gainHzPerUnit, boxcarLength });

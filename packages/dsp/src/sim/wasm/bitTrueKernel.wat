@@ -26,7 +26,7 @@
   ;; value is the double the TypeScript loops compute.
   (import "math" "sin" (func $sin (param f64) (result f64)))
   (import "math" "cos" (func $cos (param f64) (result f64)))
-  (memory (export "memory") 27)
+  (memory (export "memory") 30)
   (func (export "run") (param $count i32)
     (local $i i32) (local $o i32) (local $j i32) (local $k i32) (local $q i32)
     (local $addr i32) (local $c i32) (local $h i32)
@@ -189,6 +189,8 @@
   ;;           at 1442496
   ;;   1442816 float loop: constants and phase, section state (4 x f64) at +64, coefficients (5 x f64) at +320
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
+  ;;   1769600 lock band k at 1769600 + k*32: the open bucket's min and max, the tail sum (f64 each)
+  ;;   1835008 lock scratch k at 1835008 + k*65536, f64 x 8192: the phase error less the expected one
 
   ;; The bit-true outputs of the last `run` as doubles in observation block 1 (simulate.ts bitTrueRunner):
   ;; NCO phase hi*2^(32-N) + lo*2^-N cycles, filter output y*2^-(D-1), NCO frequency M' + delta*fs/2^N.
@@ -402,4 +404,42 @@
         (i32.store offset=264192 (i32.shl (local.get $i) (i32.const 2)) (i32.trunc_sat_f64_s (local.get $q)))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample))))
+
+  ;; The lock test's bucket min and max (lockMetric.ts LockTracker.pushRange) of the f64 values at
+  ;; byte offset $src, samples i0 .. i1-1, folded into the two doubles at $slot: compared in sample
+  ;; order as pushRange does, and a NaN anywhere makes both NaN (the bucket stays out of band).
+  (func (export "band") (param $src i32) (param $i0 i32) (param $i1 i32) (param $slot i32)
+    (local $p i32) (local $end i32) (local $v f64) (local $lo f64) (local $hi f64) (local $nan i32)
+    (local.set $lo (f64.load offset=0 (local.get $slot)))
+    (local.set $hi (f64.load offset=8 (local.get $slot)))
+    (local.set $p (i32.add (local.get $src) (i32.shl (local.get $i0) (i32.const 3))))
+    (local.set $end (i32.add (local.get $src) (i32.shl (local.get $i1) (i32.const 3))))
+    (block $done
+      (loop $sample
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $v (f64.load (local.get $p)))
+        (local.set $lo (select (local.get $v) (local.get $lo) (f64.lt (local.get $v) (local.get $lo))))
+        (local.set $hi (select (local.get $v) (local.get $hi) (f64.gt (local.get $v) (local.get $hi))))
+        (local.set $nan (i32.or (local.get $nan) (f64.ne (local.get $v) (local.get $v))))
+        (local.set $p (i32.add (local.get $p) (i32.const 8)))
+        (br $sample)))
+    (if (local.get $nan)
+      (then (local.set $lo (f64.const nan)) (local.set $hi (f64.const nan))))
+    (f64.store offset=0 (local.get $slot) (local.get $lo))
+    (f64.store offset=8 (local.get $slot) (local.get $hi)))
+
+  ;; The running sum at $slot plus the f64 values at byte offset $src, samples i0 .. i1-1, in order
+  ;; (the lock test's tail sum).
+  (func (export "sum") (param $src i32) (param $i0 i32) (param $i1 i32) (param $slot i32)
+    (local $p i32) (local $end i32) (local $s f64)
+    (local.set $s (f64.load (local.get $slot)))
+    (local.set $p (i32.add (local.get $src) (i32.shl (local.get $i0) (i32.const 3))))
+    (local.set $end (i32.add (local.get $src) (i32.shl (local.get $i1) (i32.const 3))))
+    (block $done
+      (loop $sample
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $s (f64.add (local.get $s) (f64.load (local.get $p))))
+        (local.set $p (i32.add (local.get $p) (i32.const 8)))
+        (br $sample)))
+    (f64.store (local.get $slot) (local.get $s)))
 )

@@ -56,6 +56,8 @@ export interface WasmExports {
   readonly convert: (count: number) => void;
   readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number) => void;
   readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
+  readonly band: (src: number, i0: number, i1: number, slot: number) => void;
+  readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
 }
 
 /** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */
@@ -174,7 +176,7 @@ export class WasmBitTrueLoop {
 }
 
 /**
- * Instances handed back by finished runs. A new instance allocates and clears its 1.7 MiB memory,
+ * Instances handed back by finished runs. A new instance allocates and clears its 1.9 MiB memory,
  * which took longer than a whole 4096-sample golden-vector run; `load` resets every byte a run reads.
  */
 const spare: WasmBitTrueLoop[] = [];

@@ -10,6 +10,7 @@
 import type { FloatLoopConfig } from '../floatKernel.ts';
 import type { InputChunk } from '../inputSignal.ts';
 import type { AccumulatorCore } from '../runAccumulator.ts';
+import type { LockKernel } from '../lockMetric.ts';
 import type { BitTruePlan } from '../../types/sim.ts';
 import { MODE } from '../bitTrueKernel.ts';
 import { MAX_SECTIONS, WASM_CHUNK_SAMPLES, releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmInstanceLoop, type WasmBitTrueLoop } from './wasmKernel.ts';
@@ -28,6 +29,8 @@ const TRACED = {
   floatSections: 1442880,
   floatCoefficients: 1443136,
   boxcars: 1507328,
+  lockSlots: 1769600,
+  lockScratch: 1835008,
 } as const;
 
 /** Boxcar samples the memory holds per loop; a longer ripple period runs the TypeScript accumulator. */
@@ -116,8 +119,16 @@ export class WasmTraced {
     const blockAt = TRACED.block + k * TRACED.blockBytes;
     const boxAt = TRACED.boxcars + k * MAX_WASM_BOXCAR * 8;
     const f64 = this.f64;
-    const accumulate = this.loop.exports.accumulate;
+    const { accumulate, band, sum } = this.loop.exports;
+    const slotAt = TRACED.lockSlots + k * 32;
+    const lock: LockKernel = {
+      scratch: new Float64Array(buffer, TRACED.lockScratch + k * WASM_CHUNK_SAMPLES * 8, WASM_CHUNK_SAMPLES),
+      slots: new Float64Array(buffer, slotAt, 3),
+      band: (values, i0, i1) => band(values.byteOffset, i0, i1, slotAt),
+      sum: (values, i0, i1) => sum(values.byteOffset, i0, i1, slotAt + 16),
+    };
     return {
+      lock,
       state,
       smooth: new Float64Array(buffer, blockAt + 196608, WASM_CHUNK_SAMPLES),
       phaseErr: new Float64Array(buffer, blockAt + 262144, WASM_CHUNK_SAMPLES),
