@@ -14,7 +14,9 @@ function deferred<T>() {
 }
 
 describe('analysis store', () => {
-  beforeEach(() => {
+  beforeEach(async () => {
+    // A warm-up an earlier test left scheduled runs now, before the mock is reset.
+    await new Promise((resolve) => setTimeout(resolve, 5));
     setActivePinia(createPinia());
     run.mockReset();
   });
@@ -55,5 +57,43 @@ describe('analysis store', () => {
     const store = useAnalysisStore();
     await store.runNow(mainsSyncSpec);
     expect(store.error).toBe('loop filter cannot be designed');
+  });
+
+  it('analyses and draws the first result once more when idle, with no status change and no new generation', async () => {
+    run.mockResolvedValueOnce({ output: 'first', elapsedMs: 1 }).mockResolvedValueOnce({ output: 'warm', elapsedMs: 1 });
+    const store = useAnalysisStore();
+    await store.runNow(mainsSyncSpec);
+    expect(store.result).toBe('first');
+    await vi.waitFor(() => expect(store.result).toBe('warm'));
+    expect(run).toHaveBeenCalledTimes(2);
+    expect(run.mock.calls[1]![1]).toBe(mainsSyncSpec);
+    expect(store.running).toBe(false);
+    expect(store.generation).toBe(1);
+  });
+
+  it('lets an edit made during the warm-up run next, and drops the warm-up answer', async () => {
+    const warm = deferred<unknown>();
+    run.mockResolvedValueOnce({ output: 'first', elapsedMs: 1 }).mockReturnValueOnce(warm.promise).mockResolvedValueOnce({ output: 'edited', elapsedMs: 1 });
+    const store = useAnalysisStore();
+    await store.runNow(mainsSyncSpec);
+    await vi.waitFor(() => expect(run).toHaveBeenCalledTimes(2));
+    store.request(ultrasonicSinglePoleSpec);
+    expect(run).toHaveBeenCalledTimes(2);
+    expect(store.running).toBe(true);
+    warm.resolve({ output: 'warm', elapsedMs: 1 });
+    await vi.waitFor(() => expect(store.running).toBe(false));
+    expect(run.mock.calls[2]![1]).toBe(ultrasonicSinglePoleSpec);
+    expect(store.result).toBe('edited');
+    expect(store.generation).toBe(2);
+  });
+
+  it('skips the warm-up when an edit comes before the browser is idle', async () => {
+    run.mockResolvedValue({ output: 'answer', elapsedMs: 1 });
+    const store = useAnalysisStore();
+    await store.runNow(mainsSyncSpec);
+    store.request(ultrasonicSinglePoleSpec);
+    await vi.waitFor(() => expect(store.running).toBe(false));
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    expect(run).toHaveBeenCalledTimes(2);
   });
 });
