@@ -20,6 +20,12 @@ export interface InputChunk {
 export interface InputGenerator {
   /** Fill the chunk with samples n0 … n0 + count − 1 (calls must be consecutive). */
   next(chunk: InputChunk, n0: number, count: number): void;
+  /**
+   * As `next` but for x: the chunk's phases and offsets, and noise[0..count) when the scenario has
+   * noise (then true). x[i] is amplitude·sin(2π·phaseCycles[i]) + noise[i] (+ 0 without noise), the
+   * caller's to compute (wasmTraced.ts does it in the WebAssembly module).
+   */
+  phases(chunk: InputChunk, n0: number, count: number, noise: Float64Array): boolean;
 }
 
 /** Modulating waveform of unit peak at phase p in cycles: sine, triangle (starts at 0 rising), square. */
@@ -75,24 +81,33 @@ export function inputGenerator(
   let phase = (s.initialPhaseDeg ?? 0) / 360;
   phase -= Math.floor(phase);
   let noiseBuf = new Float64Array(0);
+  const advance = (chunk: InputChunk, n0: number, count: number): void => {
+    for (let i = 0; i < count; i++) {
+      const n = n0 + i;
+      if (n === stepSample) {
+        phase += stepCycles;
+        phase -= Math.floor(phase);
+      }
+      const off = constantHz !== null ? constantHz : offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
+      chunk.phaseCycles[i] = phase;
+      chunk.offsetHz[i] = off;
+      phase += constantHz !== null ? constantStep : (centerHz + off) / sampleRateHz;
+      // phase − floor(phase) only off [0, 1) (it is the identity on (0, 1); +0 and −0 take it, as before).
+      if (!(phase > 0 && phase < 1)) phase -= Math.floor(phase);
+    }
+  };
   return {
     next(chunk, n0, count) {
       if (noise && noiseBuf.length < count) noiseBuf = new Float64Array(count);
       if (noise) noise.fill(noiseBuf, count, sigma);
-      for (let i = 0; i < count; i++) {
-        const n = n0 + i;
-        if (n === stepSample) {
-          phase += stepCycles;
-          phase -= Math.floor(phase);
-        }
-        const off = constantHz !== null ? constantHz : offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
-        chunk.phaseCycles[i] = phase;
-        chunk.offsetHz[i] = off;
-        chunk.x[i] = amplitude * Math.sin(2 * Math.PI * phase) + (noise ? (noiseBuf[i] as number) : 0);
-        phase += constantHz !== null ? constantStep : (centerHz + off) / sampleRateHz;
-        // phase − floor(phase) only off [0, 1) (it is the identity on (0, 1); +0 and −0 take it, as before).
-        if (!(phase > 0 && phase < 1)) phase -= Math.floor(phase);
-      }
+      advance(chunk, n0, count);
+      const { x, phaseCycles } = chunk;
+      for (let i = 0; i < count; i++) x[i] = amplitude * Math.sin(2 * Math.PI * (phaseCycles[i] as number)) + (noise ? (noiseBuf[i] as number) : 0);
+    },
+    phases(chunk, n0, count, out) {
+      if (noise) noise.fill(out, count, sigma);
+      advance(chunk, n0, count);
+      return noise !== null;
     },
   };
 }

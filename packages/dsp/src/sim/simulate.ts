@@ -324,7 +324,8 @@ export function* simulationSteps(loop: SimLoop, scenario: Scenario, options: Sim
   for (let n0 = 0; n0 < total; n0 += CHUNK_SAMPLES) {
     if (options.signal?.aborted) throw new SimulationAbortedError();
     const count = Math.min(CHUNK_SAMPLES, total - n0);
-    gen.next(input, n0, count);
+    if (traced) traced.generate(gen, n0, count, spec.input.amplitude);
+    else gen.next(input, n0, count);
     floatLoop?.chunk(input, n0, count);
     bitLoop?.chunk(input, n0, count);
     const fraction = (n0 + count) / total;

@@ -26,7 +26,7 @@
   ;; value is the double the TypeScript loops compute.
   (import "math" "sin" (func $sin (param f64) (result f64)))
   (import "math" "cos" (func $cos (param f64) (result f64)))
-  (memory (export "memory") 30)
+  (memory (export "memory") 32)
   (func (export "run") (param $count i32)
     (local $i i32) (local $o i32) (local $j i32) (local $k i32) (local $q i32)
     (local $addr i32) (local $c i32) (local $h i32)
@@ -191,6 +191,9 @@
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
   ;;   1769600 lock band k at 1769600 + k*32: the open bucket's min and max, the tail sum (f64 each)
   ;;   1835008 lock scratch k at 1835008 + k*65536, f64 x 8192: the phase error less the expected one
+  ;;   1966080 input noise, f64 x 8192 (zero without noise)
+  ;;   2031616 sin(2*pi*NCO phase) of the bit-true loop, f64 x 8192 (its quadrature arm)
+  ;;   1769472 high words of n*pi/2 for the sine (below)
 
   ;; The bit-true outputs of the last `run` as doubles in observation block 1 (simulate.ts bitTrueRunner):
   ;; NCO phase hi*2^(32-N) + lo*2^-N cycles, filter output y*2^-(D-1), NCO frequency M' + delta*fs/2^N.
@@ -333,7 +336,9 @@
         ;; quadrature arm (2*x*sin(2*pi*phase))/A through the one-pole lock filter
         (local.set $q (f64.div
           (f64.mul (f64.mul (f64.const 2) (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))))
-                   (call $sin (f64.mul (f64.const 6.283185307179586) (local.get $phaseNco))))
+                   (if (result f64) (local.get $withFloat)
+                     (then (call $sin (f64.mul (f64.const 6.283185307179586) (local.get $phaseNco))))
+                     (else (f64.load offset=2031616 (i32.shl (local.get $i) (i32.const 3))))))
           (local.get $amplitude)))
         (local.set $lockState (f64.add (local.get $lockState) (f64.mul (local.get $alpha) (f64.sub (local.get $q) (local.get $lockState)))))
         (local.set $pe (f64.mul (local.get $e) (f64.const 6.283185307179586)))
@@ -391,15 +396,21 @@
         (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
         (local.set $v (f64.mul (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))) (local.get $scale)))
         (local.set $q (f64.floor (local.get $v)))
-        (if (local.get $mode)
+        ;; up by (double)(test), no branch: whether a sample rounds up is as random as the noise on it
+        ;; (q + 0 may turn -0 into +0, which converts to the same code)
+        (if (i32.eq (local.get $mode) (i32.const 1))
           (then
             (local.set $r (f64.sub (local.get $v) (local.get $q)))
-            (if (i32.or (f64.gt (local.get $r) (f64.const 0.5))
+            (local.set $q (f64.add (local.get $q) (f64.convert_i32_u
+              (i32.or (f64.gt (local.get $r) (f64.const 0.5))
+                (i32.and (f64.eq (local.get $r) (f64.const 0.5)) (f64.ge (local.get $v) (f64.const 0))))))))
+          (else (if (local.get $mode)
+            (then
+              (local.set $r (f64.sub (local.get $v) (local.get $q)))
+              (local.set $q (f64.add (local.get $q) (f64.convert_i32_u
+                (i32.or (f64.gt (local.get $r) (f64.const 0.5))
                   (i32.and (f64.eq (local.get $r) (f64.const 0.5))
-                    (if (result i32) (i32.eq (local.get $mode) (i32.const 1))
-                      (then (f64.ge (local.get $v) (f64.const 0)))
-                      (else (f64.ne (f64.sub (local.get $q) (f64.mul (f64.const 2) (f64.floor (f64.mul (local.get $q) (f64.const 0.5))))) (f64.const 0))))))
-              (then (local.set $q (f64.add (local.get $q) (f64.const 1)))))))
+                    (f64.ne (f64.sub (local.get $q) (f64.mul (f64.const 2) (f64.floor (f64.mul (local.get $q) (f64.const 0.5))))) (f64.const 0)))))))))))
         (local.set $q (select (local.get $max) (select (local.get $min) (local.get $q) (f64.lt (local.get $q) (local.get $min))) (f64.gt (local.get $q) (local.get $max))))
         (i32.store offset=264192 (i32.shl (local.get $i) (i32.const 2)) (i32.trunc_sat_f64_s (local.get $q)))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
@@ -442,4 +453,163 @@
         (local.set $p (i32.add (local.get $p) (i32.const 8)))
         (br $sample)))
     (f64.store (local.get $slot) (local.get $s)))
+
+  ;; ---- The engine's sine, in the module ----
+  ;; Node's JavaScript engine computes Math.sin with fdlibm's algorithm (FD93: s_sin.c, k_sin.c,
+  ;; k_cos.c, e_rem_pio2.c). Below is that algorithm operation for operation for |x| < 2^19*pi/2 (the
+  ;; argument reduced by pi/2 in two or three pieces, then the kernel polynomials), and the imported
+  ;; Math.sin beyond, so each value is the double Math.sin gives; inside a loop the core pipelines it,
+  ;; where a call of the engine's C function costs a third more. wasmTraced.ts checks the engine's own
+  ;; Math.sin against it on probe arguments before a run uses it.
+  ;;
+  ;;   Copyright (C) 1993 by Sun Microsystems, Inc. All rights reserved.
+  ;;   Developed at SunSoft, a Sun Microsystems, Inc. business.
+  ;;   Permission to use, copy, modify, and distribute this software is freely granted, provided
+  ;;   that this notice is preserved.
+  (data (i32.const 1769472)
+    ;; high words of n*pi/2, n = 1 .. 32: an argument with the same high word may cancel in the reduction
+    "\fb\21\f9\3f" "\fb\21\09\40" "\7c\d9\12\40" "\fb\21\19\40" "\7a\6a\1f\40" "\7c\d9\22\40" "\bb\fd\25\40" "\fb\21\29\40"
+    "\3a\46\2c\40" "\7a\6a\2f\40" "\5c\47\31\40" "\7c\d9\32\40" "\9c\6b\34\40" "\bb\fd\35\40" "\db\8f\37\40" "\fb\21\39\40"
+    "\1b\b4\3a\40" "\3a\46\3c\40" "\5a\d8\3d\40" "\7a\6a\3f\40" "\4c\7e\40\40" "\5c\47\41\40" "\6c\10\42\40" "\7c\d9\42\40"
+    "\8c\a2\43\40" "\9c\6b\44\40" "\ac\34\45\40" "\bb\fd\45\40" "\cb\c6\46\40" "\db\8f\47\40" "\eb\58\48\40" "\fb\21\49\40")
+
+  ;; dst[i] = sin(2*pi*src[i]) for i < count (byte offsets src, dst); with $affine, amplitude*that +
+  ;; add[i] instead (the input: inputSignal.ts's amplitude*Math.sin(2*Math.PI*phase) + noise, noise 0
+  ;; without any). $own 0 calls the imported Math.sin for every sample.
+  (func (export "sine") (param $count i32) (param $src i32) (param $dst i32) (param $affine i32) (param $amplitude f64) (param $add i32) (param $own i32)
+    (local $i i32) (local $o i32) (local $a f64) (local $s f64)
+    (local $hx i32) (local $ix i32) (local $n i32) (local $j i32) (local $e i32) (local $iy i32)
+    (local $y0 f64) (local $y1 f64) (local $t f64) (local $fn f64) (local $r f64) (local $w f64) (local $z f64) (local $v f64) (local $q f64)
+    (block $done
+      (loop $sample
+        (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
+        (local.set $o (i32.shl (local.get $i) (i32.const 3)))
+        (local.set $a (f64.mul (f64.const 6.283185307179586) (f64.load (i32.add (local.get $src) (local.get $o)))))
+        (local.set $hx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $a)) (i64.const 32))))
+        (local.set $ix (i32.and (local.get $hx) (i32.const 0x7fffffff)))
+        (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $ix) (i32.const 0x413921fb)))
+          (then (local.set $s (call $sin (local.get $a))))
+          (else
+            ;; reduction: a = n*pi/2 + y0 + y1
+            (if (i32.le_u (local.get $ix) (i32.const 0x3fe921fb))
+              (then
+                (local.set $y0 (local.get $a))
+                (local.set $y1 (f64.const 0))
+                (local.set $n (i32.const 0))
+                (local.set $iy (i32.const 0)))
+              (else
+                (local.set $iy (i32.const 1))
+                (if (i32.lt_u (local.get $ix) (i32.const 0x4002d97c))
+                  (then
+                    ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
+                    (if (i32.gt_s (local.get $hx) (i32.const 0))
+                      (then
+                        (local.set $z (f64.sub (local.get $a) (f64.const 0x1.921fb54400000p+0)))
+                        (if (i32.ne (local.get $ix) (i32.const 0x3ff921fb))
+                          (then
+                            (local.set $y0 (f64.sub (local.get $z) (f64.const 0x1.0b4611a626331p-34)))
+                            (local.set $y1 (f64.sub (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.0b4611a626331p-34))))
+                          (else
+                            (local.set $z (f64.sub (local.get $z) (f64.const 0x1.0b4611a600000p-34)))
+                            (local.set $y0 (f64.sub (local.get $z) (f64.const 0x1.3198a2e037073p-69)))
+                            (local.set $y1 (f64.sub (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.3198a2e037073p-69)))))
+                        (local.set $n (i32.const 1)))
+                      (else
+                        (local.set $z (f64.add (local.get $a) (f64.const 0x1.921fb54400000p+0)))
+                        (if (i32.ne (local.get $ix) (i32.const 0x3ff921fb))
+                          (then
+                            (local.set $y0 (f64.add (local.get $z) (f64.const 0x1.0b4611a626331p-34)))
+                            (local.set $y1 (f64.add (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.0b4611a626331p-34))))
+                          (else
+                            (local.set $z (f64.add (local.get $z) (f64.const 0x1.0b4611a600000p-34)))
+                            (local.set $y0 (f64.add (local.get $z) (f64.const 0x1.3198a2e037073p-69)))
+                            (local.set $y1 (f64.add (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.3198a2e037073p-69)))))
+                        (local.set $n (i32.const -1)))))
+                  (else
+                    ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
+                    (local.set $t (f64.abs (local.get $a)))
+                    (local.set $n (i32.trunc_f64_s (f64.add (f64.mul (local.get $t) (f64.const 0x1.45f306dc9c883p-1)) (f64.const 0.5))))
+                    (local.set $fn (f64.convert_i32_s (local.get $n)))
+                    (local.set $r (f64.sub (local.get $t) (f64.mul (local.get $fn) (f64.const 0x1.921fb54400000p+0))))
+                    (local.set $w (f64.mul (local.get $fn) (f64.const 0x1.0b4611a626331p-34)))
+                    (local.set $y0 (f64.sub (local.get $r) (local.get $w)))
+                    (if (i32.or (i32.ge_s (local.get $n) (i32.const 32))
+                          (i32.eq (local.get $ix)
+                            (i32.load offset=1769472 (i32.shl (select (i32.sub (local.get $n) (i32.const 1)) (i32.const 31) (i32.lt_s (local.get $n) (i32.const 32))) (i32.const 2)))))
+                      (then
+                        (local.set $j (i32.shr_u (local.get $ix) (i32.const 20)))
+                        (local.set $e (i32.sub (local.get $j)
+                          (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $y0)) (i64.const 52))) (i32.const 0x7ff))))
+                        (if (i32.gt_s (local.get $e) (i32.const 16))
+                          (then
+                            ;; second piece of pi/2, good to 118 bits
+                            (local.set $t (local.get $r))
+                            (local.set $w (f64.mul (local.get $fn) (f64.const 0x1.0b4611a600000p-34)))
+                            (local.set $r (f64.sub (local.get $t) (local.get $w)))
+                            (local.set $w (f64.sub (f64.mul (local.get $fn) (f64.const 0x1.3198a2e037073p-69))
+                              (f64.sub (f64.sub (local.get $t) (local.get $r)) (local.get $w))))
+                            (local.set $y0 (f64.sub (local.get $r) (local.get $w)))
+                            (local.set $e (i32.sub (local.get $j)
+                              (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $y0)) (i64.const 52))) (i32.const 0x7ff))))
+                            (if (i32.gt_s (local.get $e) (i32.const 49))
+                              (then
+                                ;; third piece, good to 151 bits
+                                (local.set $t (local.get $r))
+                                (local.set $w (f64.mul (local.get $fn) (f64.const 0x1.3198a2e000000p-69)))
+                                (local.set $r (f64.sub (local.get $t) (local.get $w)))
+                                (local.set $w (f64.sub (f64.mul (local.get $fn) (f64.const 0x1.b839a252049c1p-104))
+                                  (f64.sub (f64.sub (local.get $t) (local.get $r)) (local.get $w))))
+                                (local.set $y0 (f64.sub (local.get $r) (local.get $w)))))))))
+                    (local.set $y1 (f64.sub (f64.sub (local.get $r) (local.get $y0)) (local.get $w)))
+                    (if (i32.lt_s (local.get $hx) (i32.const 0))
+                      (then
+                        (local.set $y0 (f64.neg (local.get $y0)))
+                        (local.set $y1 (f64.neg (local.get $y1)))
+                        (local.set $n (i32.sub (i32.const 0) (local.get $n)))))))))
+            ;; kernels on [-pi/4, pi/4]: sin in quadrants 0 and 2, cos in 1 and 3, negated in 2 and 3
+            (local.set $e (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $y0)) (i64.const 32))) (i32.const 0x7fffffff)))
+            (local.set $z (f64.mul (local.get $y0) (local.get $y0)))
+            (if (i32.and (local.get $n) (i32.const 1))
+              (then
+                ;; cos(y0 + y1) = 1 - (z/2 - (z*r - y0*y1)), with 1 - qx split off above |y0| = 0.3
+                (if (i32.lt_u (local.get $e) (i32.const 0x3e400000))
+                  (then (local.set $s (f64.const 1)))
+                  (else
+                    (local.set $q (f64.mul (local.get $z) (f64.add (f64.const 0x1.555555555554cp-5) (f64.mul (local.get $z)
+                      (f64.add (f64.const -0x1.6c16c16c15177p-10) (f64.mul (local.get $z) (f64.add (f64.const 0x1.a01a019cb1590p-16) (f64.mul (local.get $z)
+                      (f64.add (f64.const -0x1.27e4f809c52adp-22) (f64.mul (local.get $z) (f64.add (f64.const 0x1.1ee9ebdb4b1c4p-29)
+                      (f64.mul (local.get $z) (f64.const -0x1.8fae9be8838d4p-37)))))))))))))
+                    (if (i32.lt_u (local.get $e) (i32.const 0x3fd33333))
+                      (then
+                        (local.set $s (f64.sub (f64.const 1) (f64.sub (f64.mul (f64.const 0.5) (local.get $z))
+                          (f64.sub (f64.mul (local.get $z) (local.get $q)) (f64.mul (local.get $y0) (local.get $y1)))))))
+                      (else
+                        (local.set $v (select (f64.const 0.28125)
+                          (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $e) (i32.const 0x00200000))) (i64.const 32)))
+                          (i32.gt_u (local.get $e) (i32.const 0x3fe90000))))
+                        (local.set $s (f64.sub (f64.sub (f64.const 1) (local.get $v))
+                          (f64.sub (f64.sub (f64.mul (f64.const 0.5) (local.get $z)) (local.get $v))
+                            (f64.sub (f64.mul (local.get $z) (local.get $q)) (f64.mul (local.get $y0) (local.get $y1)))))))))))
+              (else
+                ;; sin(y0 + y1) = y0 + (S1*y0^3 + (y0^2*(r*y0^3 - y1/2) + y1)), without y1 when not reduced
+                (if (i32.lt_u (local.get $e) (i32.const 0x3e400000))
+                  (then (local.set $s (local.get $y0)))
+                  (else
+                    (local.set $v (f64.mul (local.get $z) (local.get $y0)))
+                    (local.set $q (f64.add (f64.const 0x1.111111110f8a6p-7) (f64.mul (local.get $z)
+                      (f64.add (f64.const -0x1.a01a019c161d5p-13) (f64.mul (local.get $z) (f64.add (f64.const 0x1.71de357b1fe7dp-19)
+                      (f64.mul (local.get $z) (f64.add (f64.const -0x1.ae5e68a2b9cebp-26) (f64.mul (local.get $z) (f64.const 0x1.5d93a5acfd57cp-33))))))))))
+                    (local.set $s (if (result f64) (local.get $iy)
+                      (then (f64.sub (local.get $y0) (f64.sub (f64.sub (f64.mul (local.get $z)
+                        (f64.sub (f64.mul (f64.const 0.5) (local.get $y1)) (f64.mul (local.get $v) (local.get $q))))
+                        (local.get $y1)) (f64.mul (local.get $v) (f64.const -0x1.5555555555549p-3)))))
+                      (else (f64.add (local.get $y0) (f64.mul (local.get $v)
+                        (f64.add (f64.const -0x1.5555555555549p-3) (f64.mul (local.get $z) (local.get $q))))))))))))
+            (if (i32.and (local.get $n) (i32.const 2)) (then (local.set $s (f64.neg (local.get $s)))))))
+        (f64.store (i32.add (local.get $dst) (local.get $o))
+          (if (result f64) (local.get $affine)
+            (then (f64.add (f64.mul (local.get $amplitude) (local.get $s)) (f64.load (i32.add (local.get $add) (local.get $o)))))
+            (else (local.get $s))))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $sample))))
 )

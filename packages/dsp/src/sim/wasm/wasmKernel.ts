@@ -58,6 +58,7 @@ export interface WasmExports {
   readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
   readonly band: (src: number, i0: number, i1: number, slot: number) => void;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
+  readonly sine: (count: number, src: number, dst: number, affine: number, amplitude: number, add: number, own: number) => void;
 }
 
 /** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */

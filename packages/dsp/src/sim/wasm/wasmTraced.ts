@@ -3,17 +3,19 @@
  * quantiser, the bit-true kernel, the conversion of its outputs and the per-sample part of both trace
  * and metric accumulators run in one instance, on one input chunk in its memory, with no copies between them and none of
  * the JIT's deoptimisations of long TypeScript loops. Each function is the same double operations in
- * the same order as its TypeScript twin (floatKernel.ts, simulate.ts, runAccumulator.ts) and calls the
- * engine's own Math.sin and Math.cos, so every code, trace and metric is the same;
- * test/sim/fastPaths.test.ts compares the two paths bit for bit.
+ * the same order as its TypeScript twin (floatKernel.ts, simulate.ts, inputSignal.ts, runAccumulator.ts,
+ * lockMetric.ts), and its sines are the engine's: the module's port of the engine's algorithm (FD93)
+ * where the engine's Math.sin gives the same doubles on the probes below, the imported Math.sin and
+ * Math.cos otherwise; so every code, trace and metric is the same; test/sim/fastPaths.test.ts
+ * compares the two paths bit for bit.
  */
 import type { FloatLoopConfig } from '../floatKernel.ts';
-import type { InputChunk } from '../inputSignal.ts';
+import type { InputChunk, InputGenerator } from '../inputSignal.ts';
 import type { AccumulatorCore } from '../runAccumulator.ts';
 import type { LockKernel } from '../lockMetric.ts';
 import type { BitTruePlan } from '../../types/sim.ts';
 import { MODE } from '../bitTrueKernel.ts';
-import { MAX_SECTIONS, WASM_CHUNK_SAMPLES, releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmInstanceLoop, type WasmBitTrueLoop } from './wasmKernel.ts';
+import { MAX_SECTIONS, WASM_CHUNK_SAMPLES, releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmInstanceLoop, type WasmBitTrueLoop, type WasmExports } from './wasmKernel.ts';
 
 /** Byte offsets of the traced areas (the layout comment of bitTrueKernel.wat). */
 const TRACED = {
@@ -31,7 +33,43 @@ const TRACED = {
   boxcars: 1507328,
   lockSlots: 1769600,
   lockScratch: 1835008,
+  noise: 1966080,
+  bitTrueSine: 2031616,
 } as const;
+
+/**
+ * Phases p whose sin(2πp) the module's sine and a correctly rounded one give differently (found with
+ * mpmath at 200 bits), then an even spread: an engine whose Math.sin is not the module's algorithm
+ * differs on some of them (on about 3 % of arguments), and its traced runs call Math.sin instead.
+ */
+const SINE_PROBES = [
+  0.6298827202168019, 0.6539225335338404, 0.6155627045785708, 0.36878537037226267, 0.14034718714561778, 0.017894197067565343,
+  0.6257335582373686, 0.8728290543523024, 0.8073849109462133, 0.839976442440497, 0.5729890800837248, 0.12696758910775785,
+  0.09524642363025815, 0.8048214000641909, 0.8965450698875688, 0.597536583754638,
+  ...Array.from({ length: 496 }, (_, i) => (i * 0.6180339887498949) % 1),
+];
+
+let ownSine: boolean | undefined;
+
+/**
+ * sin(2π·p) of each p (at most WASM_CHUNK_SAMPLES) by the module's port of the engine's sine (FD93),
+ * through an instance's noise and sine areas (which a run rewrites before it reads them).
+ */
+export function moduleSine(exports: WasmExports, phases: ArrayLike<number>): Float64Array {
+  const f64 = new Float64Array(exports.memory.buffer);
+  f64.set(phases, TRACED.noise / 8);
+  exports.sine(phases.length, TRACED.noise, TRACED.bitTrueSine, 0, 1, 0, 1);
+  return f64.slice(TRACED.bitTrueSine / 8, TRACED.bitTrueSine / 8 + phases.length);
+}
+
+/** Whether the module's sine gives the engine's Math.sin on every probe (checked once per engine, on the first instance). */
+function checkOwnSine(exports: WasmExports): boolean {
+  if (ownSine === undefined) {
+    const values = moduleSine(exports, SINE_PROBES);
+    ownSine = SINE_PROBES.every((p, i) => Object.is(values[i], Math.sin(2 * Math.PI * p)));
+  }
+  return ownSine;
+}
 
 /** Boxcar samples the memory holds per loop; a longer ripple period runs the TypeScript accumulator. */
 export const MAX_WASM_BOXCAR = 16384;
@@ -62,6 +100,11 @@ export class WasmTraced {
   readonly observations: readonly [TracedObservations, TracedObservations];
   private readonly f64: Float64Array;
   private readonly i32: Int32Array;
+  private readonly noise: Float64Array;
+  /** 1 when the module's sine is the engine's (checkOwnSine), else 0: the module then calls Math.sin. */
+  private readonly own: number;
+  /** Whether the noise area may hold another run's noise (a spare instance). */
+  private noiseDirty = true;
 
   constructor(readonly loop: WasmBitTrueLoop) {
     const buffer = loop.exports.memory.buffer;
@@ -74,6 +117,21 @@ export class WasmTraced {
     this.observations = [block(0), block(1)];
     this.f64 = new Float64Array(buffer);
     this.i32 = new Int32Array(buffer);
+    this.noise = view(TRACED.noise);
+    this.own = checkOwnSine(loop.exports) ? 1 : 0;
+  }
+
+  /**
+   * Samples n0 … n0 + count − 1 of the input into `input`: phases, offsets and noise from the
+   * generator, x = amplitude·sin(2π·phase) + noise in the module (inputSignal.ts's expression).
+   */
+  generate(gen: InputGenerator, n0: number, count: number, amplitude: number): void {
+    if (gen.phases(this.input, n0, count, this.noise)) this.noiseDirty = true;
+    else if (this.noiseDirty) {
+      this.noise.fill(0);
+      this.noiseDirty = false;
+    }
+    this.loop.exports.sine(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own);
   }
 
   /** Load the float loop's constants and start it from phase 0 and zero section states. */
@@ -105,9 +163,10 @@ export class WasmTraced {
     this.loop.exports.quantize(count, scale, MODE[plan.rounding], -scale, scale - 1);
   }
 
-  /** The last kernel run's outputs as doubles, into observation block 1. */
+  /** The last kernel run's outputs as doubles, into observation block 1, and the sine of its NCO phase for the quadrature arm. */
   convert(count: number): void {
     this.loop.exports.convert(count);
+    this.loop.exports.sine(count, TRACED.block + TRACED.blockBytes, TRACED.bitTrueSine, 0, 1, 0, this.own);
   }
 
   /** Accumulator k's core (k = 0 float, 1 bit-true); the float core runs the float loop itself, a sample ahead of its accumulation. */

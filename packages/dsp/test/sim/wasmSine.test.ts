@@ -1,0 +1,51 @@
+/**
+ * The WebAssembly module's sine is a port of the engine's own (FD93); the traced simulation uses it
+ * only where it gives Math.sin's doubles, so the reference here is the engine's Math.sin itself.
+ */
+import { describe, expect, it } from 'vitest';
+import { wasmInstanceLoop, releaseWasmBitTrueLoop, WASM_CHUNK_SAMPLES } from '../../src/sim/wasm/wasmKernel.ts';
+import { moduleSine } from '../../src/sim/wasm/wasmTraced.ts';
+import { mulberry32 } from '../../src/sim/prng.ts';
+
+/** How many of the phases p give a sin(2π·p) other than Math.sin's (compared as doubles, −0 apart from +0). */
+function mismatches(phases: Float64Array): number {
+  const loop = wasmInstanceLoop();
+  if (!loop) throw new Error('WebAssembly is not available');
+  let bad = 0;
+  try {
+    for (let k = 0; k < phases.length; k += WASM_CHUNK_SAMPLES) {
+      const part = phases.subarray(k, k + WASM_CHUNK_SAMPLES);
+      const got = moduleSine(loop.exports, part);
+      for (let i = 0; i < part.length; i++) if (!Object.is(got[i], Math.sin(2 * Math.PI * (part[i] as number)))) bad++;
+    }
+  } finally {
+    releaseWasmBitTrueLoop(loop);
+  }
+  return bad;
+}
+
+function phases(count: number, seed: number, of: (u: number, i: number) => number): Float64Array {
+  const rnd = mulberry32(seed);
+  return Float64Array.from({ length: count }, (_, i) => of(rnd(), i));
+}
+
+describe('the module sine', () => {
+  // Math.sin is the reference: the engine's own sine (FD93 in Node's engine).
+  it('gives Math.sin(2π·p) for 400 000 phases in [0, 1), the range the simulation reads', () => {
+    expect(mismatches(phases(400_000, 1, (u) => u))).toBe(0);
+  });
+
+  it('gives Math.sin next to every multiple of π/4 up to 64 turns, where the reduction may cancel', () => {
+    expect(mismatches(phases(200_000, 2, (u, i) => (i % 256) / 4 + (u - 0.5) * 2 ** -(20 + (i % 33))))).toBe(0);
+  });
+
+  it('gives Math.sin for negative phases, the medium range up to 2^19·π/2 and beyond it (the imported Math.sin)', () => {
+    expect(mismatches(phases(100_000, 3, (u) => -u * 3))).toBe(0);
+    expect(mismatches(phases(100_000, 4, (u) => (u - 0.5) * 2 ** 18))).toBe(0);
+    expect(mismatches(phases(20_000, 5, (u) => (u - 0.5) * 2 ** 40))).toBe(0);
+  });
+
+  it('gives Math.sin for zeros, tiny, subnormal and non-finite phases', () => {
+    expect(mismatches(Float64Array.from([0, -0, 5e-324, -5e-324, 1e-300, 2 ** -30, -(2 ** -28), Infinity, -Infinity, NaN, 0.25, 0.5, 0.75, 1]))).toBe(0);
+  });
+});
