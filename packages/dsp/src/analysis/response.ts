@@ -42,13 +42,28 @@ function analogCoefficients(sections: readonly AnalogTf[]): AnalogCoefficients {
 }
 
 /**
+ * product ← product · n/d for the complex product held in product[0] + j·product[1], n = nr + j·ni,
+ * d = dr + j·di: the quotient as cdiv and the product as cmul compute them (filters/complex.ts), the same
+ * operations in the same order written out on numbers, so the same doubles without an object per step.
+ */
+function multiplyByQuotient(product: Float64Array, nr: number, ni: number, dr: number, di: number): void {
+  const d = dr * dr + di * di;
+  const qr = (nr * dr + ni * di) / d;
+  const qi = (ni * dr - nr * di) / d;
+  const hr = product[0]!;
+  const hi = product[1]!;
+  product[0] = hr * qr - hi * qi;
+  product[1] = hr * qi + hi * qr;
+}
+
+/**
  * out ← Π N_i(jω)/D_i(jω) over the sections: each polynomial by Horner's rule in jω, each quotient and
- * product written out on numbers (the innermost loop of every grid and root search: no object per step).
+ * product by multiplyByQuotient (the innermost loop of every grid and root search: no object per step).
  */
 function analogProductAt(c: AnalogCoefficients, w: number, out: Float64Array): void {
   const { values, lengths } = c;
-  let hr = 1;
-  let hi = 0;
+  out[0] = 1;
+  out[1] = 0;
   let at = 0;
   for (let s = 0; s < lengths.length; s += 2) {
     let nr = 0;
@@ -65,15 +80,8 @@ function analogProductAt(c: AnalogCoefficients, w: number, out: Float64Array): v
       di = dr * w;
       dr = t;
     }
-    const d = dr * dr + di * di;
-    const qr = (nr * dr + ni * di) / d;
-    const qi = (ni * dr - nr * di) / d;
-    const r = hr * qr - hi * qi;
-    hi = hr * qi + hi * qr;
-    hr = r;
+    multiplyByQuotient(out, nr, ni, dr, di);
   }
-  out[0] = hr;
-  out[1] = hi;
 }
 
 /** F(jω) of analog sections (or one transfer function) at freqHz. */
@@ -90,26 +98,19 @@ function sectionCoefficients(filter: readonly Sos[]): Float64Array {
 /**
  * out ← Π N_i/D_i of the sections at z = e^{jω} given as cos ω, sin ω, cos 2ω, sin 2ω: each section as
  * sectionOnUnitCircle (filters/sections.ts) evaluates it, P(e^{−jω}) = p0 + p1·e^{−jω} + p2·e^{−j2ω},
- * and the quotient and product as cdiv and cmul compute them, the same operations in the same order
- * written out on numbers (so the same doubles, several times faster than through scratch objects).
+ * and the quotient and product by multiplyByQuotient (so the same doubles as cdiv and cmul, several
+ * times faster than through scratch objects).
  */
 function sectionsProductAt(coef: Float64Array, c1: number, s1: number, c2: number, s2: number, out: Float64Array): void {
-  let hr = 1;
-  let hi = 0;
+  out[0] = 1;
+  out[1] = 0;
   for (let o = 0; o < coef.length; o += 6) {
     const nr = coef[o]! + coef[o + 1]! * c1 + coef[o + 2]! * c2;
     const ni = -(coef[o + 1]! * s1 + coef[o + 2]! * s2);
     const dr = coef[o + 3]! + coef[o + 4]! * c1 + coef[o + 5]! * c2;
     const di = -(coef[o + 4]! * s1 + coef[o + 5]! * s2);
-    const d = dr * dr + di * di;
-    const qr = (nr * dr + ni * di) / d;
-    const qi = (ni * dr - nr * di) / d;
-    const r = hr * qr - hi * qi;
-    hi = hr * qi + hi * qr;
-    hr = r;
+    multiplyByQuotient(out, nr, ni, dr, di);
   }
-  out[0] = hr;
-  out[1] = hi;
 }
 
 /** H(e^{jωT}) of a digital filter at freqHz for the sample rate fs. */
