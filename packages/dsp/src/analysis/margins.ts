@@ -91,17 +91,23 @@ function phaseCrossings(fn: ResponseFn, s: SampledResponse): PhaseCrossing[] {
       const da = pa - level;
       const db = pb - level;
       if (!((da > 0 && db <= 0) || (da < 0 && db >= 0) || (i === 0 && da === 0))) continue;
-      const fa = s.freqHz[i]!;
-      const fb = s.freqHz[i + 1]!;
-      const ref = sampleAt(s, i);
-      const f =
-        db === 0
-          ? fb
-          : Math.exp(brentRoot((lx) => phaseNear(fn, Math.exp(lx), ref, pa) - level, Math.log(fa), Math.log(fb), 1e-13));
+      const f = db === 0 ? s.freqHz[i + 1]! : phaseCrossingHz(fn, s, i, level);
       const db0 = toDb(fn(f));
       if (db0 <= ZERO_MAGNITUDE_DB) continue;
       out.push({ freqHz: f, gainMarginDb: -db0 });
     }
   }
   return out;
+}
+
+/**
+ * The frequency between grid points i and i + 1 where the phase, continued from point i, reaches
+ * `level`. Its own function so the search's closure captures these values here, once per crossing:
+ * captured by a closure inside phaseCrossings' loops, they were a context allocated per grid point.
+ */
+function phaseCrossingHz(fn: ResponseFn, s: SampledResponse, i: number, level: number): number {
+  const ref = sampleAt(s, i);
+  const refPhaseDeg = s.phaseDeg[i]!;
+  const x = brentRoot((lx) => phaseNear(fn, Math.exp(lx), ref, refPhaseDeg) - level, Math.log(s.freqHz[i]!), Math.log(s.freqHz[i + 1]!), 1e-13);
+  return Math.exp(x);
 }
