@@ -93,30 +93,58 @@ export function linearLoop(sections: readonly Sos[], kd: number, koTRadPerUnit: 
 /**
  * out = x·y (n×n). Each element is summed in a local over l in increasing order, skipping x[i][l] = 0:
  * the same additions in the same order as accumulating into out row by row, without a store per term.
+ * Two elements of a row are summed side by side: each sum is a chain of dependent additions, and two
+ * independent chains keep the processor's adders busy where one waits on the last (each element still
+ * gets its own terms in its own order, so the same doubles).
  */
 function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
   for (let i = 0; i < n; i++) {
     const row = i * n;
-    for (let j = 0; j < n; j++) {
-      let acc = 0;
-      for (let l = 0; l < n; l++) {
+    let j = 0;
+    for (; j + 1 < n; j += 2) {
+      let acc0 = 0;
+      let acc1 = 0;
+      for (let l = 0, yl = j; l < n; l++, yl += n) {
         const xil = x[row + l]!;
-        if (xil !== 0) acc += xil * y[l * n + j]!;
+        if (xil === 0) continue;
+        acc0 += xil * y[yl]!;
+        acc1 += xil * y[yl + 1]!;
       }
-      out[row + j] = acc;
+      out[row + j] = acc0;
+      out[row + j + 1] = acc1;
     }
+    if (j === n) continue;
+    let acc = 0;
+    for (let l = 0, yl = j; l < n; l++, yl += n) {
+      const xil = x[row + l]!;
+      if (xil !== 0) acc += xil * y[yl]!;
+    }
+    out[row + j] = acc;
   }
 }
 
-/** Q + Mᵀ·Q·M into q (t and t2 are scratch). */
-function addCongruence(q: Float64Array, mat: Float64Array, n: number, t: Float64Array, t2: Float64Array): void {
+/** q ← Q + Mᵀ·Q·M (t is scratch); the elements of Mᵀ·(Q·M) summed two side by side, as in multiply. */
+function addCongruence(q: Float64Array, mat: Float64Array, n: number, t: Float64Array): void {
   multiply(q, mat, n, t);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    let j = 0;
+    for (; j + 1 < n; j += 2) {
+      let acc0 = 0;
+      let acc1 = 0;
+      for (let l = 0, o = 0; l < n; l++, o += n) {
+        const mli = mat[o + i]!;
+        acc0 += mli * t[o + j]!;
+        acc1 += mli * t[o + j + 1]!;
+      }
+      q[row + j] = q[row + j]! + acc0;
+      q[row + j + 1] = q[row + j + 1]! + acc1;
+    }
+    if (j === n) continue;
     let acc = 0;
-    for (let l = 0; l < n; l++) acc += mat[l * n + i]! * t[l * n + j]!;
-    t2[i * n + j] = acc;
+    for (let l = 0, o = 0; l < n; l++, o += n) acc += mat[o + i]! * t[o + j]!;
+    q[row + j] = q[row + j]! + acc;
   }
-  for (let i = 0; i < n * n; i++) q[i] = q[i]! + t2[i]!;
 }
 
 /**
@@ -135,10 +163,9 @@ export function noiseGains(loop: LinearLoop, outputs: readonly number[]): number
   let power = Float64Array.from(a);
   let square = new Float64Array(n * n);
   const t = new Float64Array(n * n);
-  const t2 = new Float64Array(n * n);
   let converged = false;
   for (let iter = 0; iter < 64; iter++) {
-    for (const q of grams) addCongruence(q, power, n, t, t2);
+    for (const q of grams) addCongruence(q, power, n, t);
     multiply(power, power, n, square);
     [power, square] = [square, power];
     let big = 0;
