@@ -246,19 +246,30 @@ export interface ImpulseNorms {
 
 /**
  * Run the impulse response from input `input` until every state has fallen below 1e-8 of the largest
- * output seen (checked every 64 samples), accumulating L1 and L2 of each section output. The same
- * step as linearStep, written flat over typed arrays (O(K) per sample, no dense matrices): this loop is
- * most of the cost of the noise analysis.
+ * output seen (checked every 64 samples), accumulating L1 and L2 of each section output. Sample 0, where
+ * the impulse enters, is linearStep itself; after it the response is the free evolution of the state,
+ * run flat over typed arrays (O(K) per sample, no dense matrices): this loop is most of the cost of the
+ * noise analysis.
  */
 export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
-  const { sections, kd, koTRadPerUnit: koT } = loop;
+  const { sections, kd, koTRadPerUnit: koT, stateCount, inputCount, outputCount } = loop;
   const k = sections.length;
   const coef = Float64Array.from(sections.flatMap((x) => [x.b[0], x.b[1], x.b[2], x.a[1], x.a[2]]));
   const l1 = new Float64Array(k);
   const l2 = new Float64Array(k);
   const block = new Float64Array(k);
   const prevBlock = new Float64Array(k);
-  const run = runImpulse(coef, kd, koT, input, l1, l2, block, prevBlock);
+  const impulse = new Float64Array(inputCount);
+  impulse[input] = 1;
+  const state = new Float64Array(stateCount);
+  const out = new Float64Array(outputCount);
+  linearStep(sections, kd, koT, new Float64Array(stateCount), impulse, state, out);
+  for (let j = 0; j < k; j++) {
+    const h = Math.abs(out[j]!);
+    block[j] = block[j]! + h;
+    l2[j] = l2[j]! + h * h;
+  }
+  const run = runFreeResponse(coef, kd, koT, state, l1, l2, block, prevBlock);
   const done = run > 0;
   const samples = Math.abs(run);
   if (!done) {
@@ -273,27 +284,29 @@ export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
 }
 
 /**
- * The loop of impulseNorms: L1 (by blocks of 64) and the sum of squares into l1 and l2, the last two
- * blocks' L1 into block and prevBlock. Returns the samples run, negated when the response had not died
- * away by MAX_IMPULSE_SAMPLES. Nothing follows the loop but the return: code after a hot loop runs in
- * the loop's on-stack-replaced compile without type feedback and left it by a deoptimisation.
+ * The loop of impulseNorms from sample 1 on, the state after the impulse given (linearStep's layout) and
+ * sample 0's |h| already in block and its square in l2: L1 (by blocks of 64) and the sum of squares into
+ * l1 and l2, the last two blocks' L1 into block and prevBlock. Returns the samples run, negated when the
+ * response had not died away by MAX_IMPULSE_SAMPLES. Without an input the step has no "+ e" terms: one
+ * addition fewer per section, the detector and the phase on the chain every sample waits for; a dropped
+ * "+ 0" can only turn a −0 into +0, which no |h|, sum or comparison here can tell apart. Nothing follows
+ * the loop but the return: code after a hot loop runs in the loop's on-stack-replaced compile without
+ * type feedback and left it by a deoptimisation.
  */
-function runImpulse(coef: Float64Array, kd: number, koT: number, injectAt: number, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array): number {
+function runFreeResponse(coef: Float64Array, kd: number, koT: number, x: Float64Array, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array): number {
   const k = l1.length;
   // Section states y[n−1], y[n−2]; detector states u[n−1], u[n−2]; NCO phase θ.
-  const ys = new Float64Array(2 * k);
-  let u1 = 0;
-  let u2 = 0;
-  let theta = 0;
-  let impulse = 1;
+  const ys = x.slice(3);
+  let u1 = x[1]!;
+  let u2 = x[2]!;
+  let theta = x[0]!;
   let peak = 0;
-  let samples = 0;
+  for (let j = 0; j < k; j++) if (block[j]! > peak) peak = block[j]!;
+  let samples = 1;
   let done = false;
-  while (!done && samples < MAX_IMPULSE_SAMPLES) {
-    prevBlock.set(block);
-    block.fill(0);
-    for (let i = 0; i < 64; i++) {
-      const u = -kd * theta + (injectAt === 0 ? impulse : 0);
+  for (;;) {
+    for (let i = samples % 64; i < 64; i++) {
+      const u = -kd * theta;
       let v = u;
       let x1 = u1;
       let x2 = u2;
@@ -301,7 +314,7 @@ function runImpulse(coef: Float64Array, kd: number, koT: number, injectAt: numbe
         const o = 5 * j;
         const y1 = ys[2 * j]!;
         const y2 = ys[2 * j + 1]!;
-        const y = coef[o]! * v + coef[o + 1]! * x1 + coef[o + 2]! * x2 - coef[o + 3]! * y1 - coef[o + 4]! * y2 + (injectAt === 1 + j ? impulse : 0);
+        const y = coef[o]! * v + coef[o + 1]! * x1 + coef[o + 2]! * x2 - coef[o + 3]! * y1 - coef[o + 4]! * y2;
         ys[2 * j] = y;
         ys[2 * j + 1] = y1;
         x1 = y1;
@@ -314,14 +327,16 @@ function runImpulse(coef: Float64Array, kd: number, koT: number, injectAt: numbe
       }
       u2 = u1;
       u1 = u;
-      theta = theta + koT * v + (injectAt === k + 1 ? impulse : 0);
-      impulse = 0;
+      theta = theta + koT * v;
       samples++;
     }
     for (let j = 0; j < k; j++) l1[j] = l1[j]! + block[j]!;
     let live = Math.max(Math.abs(theta), Math.abs(u1), Math.abs(u2));
     for (let i = 0; i < 2 * k; i++) live = Math.max(live, Math.abs(ys[i]!));
     done = live < 1e-8 * Math.max(peak, 1e-300);
+    if (done || samples >= MAX_IMPULSE_SAMPLES) break;
+    prevBlock.set(block);
+    block.fill(0);
   }
   return done ? samples : -samples;
 }
