@@ -17,12 +17,26 @@ export const PLOT_POINTS = 400;
 /** Phase errors beyond this (rad) end the traces of an unstable loop (flagged `diverged`). */
 export const DIVERGED_RAD = 1e6;
 
+/** The traces being kept (every stride-th sample) and whether the loop diverged before their end. */
+interface Traces {
+  readonly timeS: number[];
+  readonly phaseStepErrorRad: number[];
+  readonly frequencyStepErrorRad: number[];
+  diverged: boolean;
+}
+
 /**
- * Phase error of the discrete loop for a 1 rad phase step, every sample (DF2T sections). The
- * coefficients are read once into a typed array (this loop runs up to MAX_SAMPLES times per section).
+ * The discrete loop for a 1 rad phase step (DF2T sections), n samples, keeping every stride-th sample's
+ * errors in `out` as it runs (no array of every sample, no second pass over one). The loop is linear and
+ * the 1 Hz step's input phase 2π·i·T is a sum of i steps of 2π·T, so its error is 2π·T times the running
+ * sum of the phase-step error over the earlier samples. The coefficients are read once into a typed
+ * array (this loop runs up to MAX_SAMPLES times per section). Nothing follows the loop but the return:
+ * code after a hot loop runs in the loop's on-stack-replaced compile without type feedback.
  */
-function discreteLoopPhaseStep(sections: readonly Sos[], kRadPerS: number, sampleRateHz: number, n: number): Float64Array {
+function runDiscreteSteps(sections: readonly Sos[], kRadPerS: number, sampleRateHz: number, n: number, stride: number, out: Traces): void {
   const kt = kRadPerS / sampleRateHz;
+  const t = 1 / sampleRateHz;
+  const twoPiT = 2 * Math.PI * t;
   const k = sections.length;
   const coef = new Float64Array(5 * k);
   for (let j = 0; j < k; j++) {
@@ -30,11 +44,22 @@ function discreteLoopPhaseStep(sections: readonly Sos[], kRadPerS: number, sampl
     coef.set([b[0], b[1], b[2], a[1], a[2]], 5 * j);
   }
   const state = new Float64Array(2 * k);
-  const out = new Float64Array(n);
   let thetaO = 0;
-  for (let i = 0; i < n; i++) {
+  let before = 0;
+  for (let i = 0, untilKept = 0; i < n; i++, untilKept--) {
     const e = 1 - thetaO;
-    out[i] = e;
+    const f = twoPiT * before;
+    before += e;
+    if (!(Math.abs(f) < DIVERGED_RAD && Math.abs(e) < DIVERGED_RAD)) {
+      out.diverged = true; // an unstable loop: the linear model means nothing past here
+      return;
+    }
+    if (untilKept === 0) {
+      untilKept = stride; // every stride-th sample, as i % stride === 0
+      out.timeS.push(i * t);
+      out.phaseStepErrorRad.push(e);
+      out.frequencyStepErrorRad.push(f);
+    }
     let x = e;
     for (let j = 0; j < k; j++) {
       const o = 5 * j;
@@ -45,7 +70,26 @@ function discreteLoopPhaseStep(sections: readonly Sos[], kRadPerS: number, sampl
     }
     thetaO += kt * x;
   }
-  return out;
+}
+
+/** The same traces from every sample's phase-step error of the analog prototype's E(z) at rateHz (see runDiscreteSteps). */
+function analogSteps(phase: readonly number[], rateHz: number, stride: number, out: Traces): void {
+  const t = 1 / rateHz;
+  const twoPiT = 2 * Math.PI * t;
+  let before = 0;
+  for (let i = 0; i < phase.length; i++) {
+    const p = phase[i]!;
+    const f = twoPiT * before;
+    before += p;
+    if (!(Math.abs(f) < DIVERGED_RAD && Math.abs(p) < DIVERGED_RAD)) {
+      out.diverged = true;
+      return;
+    }
+    if (i % stride !== 0) continue;
+    out.timeS.push(i * t);
+    out.phaseStepErrorRad.push(p);
+    out.frequencyStepErrorRad.push(f);
+  }
 }
 
 /** Step responses over durationS seconds: the discrete loop with `sections`, or E(s) for long spans. */
@@ -58,42 +102,14 @@ export function stepResponses(
 ): StepResponses {
   const loopSamples = Math.ceil(durationS * sampleRateHz);
   const useDiscrete = loopSamples <= MAX_SAMPLES;
-  const rateHz = useDiscrete ? sampleRateHz : MAX_SAMPLES / durationS;
   const n = useDiscrete ? loopSamples : MAX_SAMPLES;
-  const phase = useDiscrete
-    ? discreteLoopPhaseStep(sections, kRadPerS, sampleRateHz, n)
-    : runFilter(bilinearTf(analogE, rateHz, null), n, () => 1, 1);
   const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
-  const t = 1 / rateHz;
-  // The loop is linear and the 1 Hz step's input phase 2π·i·T is a sum of i steps of 2π·T, so its
-  // error is 2π·T times the running sum of the phase-step error over the earlier samples.
-  const phaseStepErrorRad: number[] = [];
-  const frequencyStepErrorRad: number[] = [];
-  const timeS: number[] = [];
-  let before = 0;
-  let diverged = false;
-  const twoPiT = 2 * Math.PI * t;
-  for (let i = 0, untilKept = 0; i < n; i++, untilKept--) {
-    const p = phase[i]!;
-    const f = twoPiT * before;
-    before += p;
-    if (!(Math.abs(f) < DIVERGED_RAD && Math.abs(p) < DIVERGED_RAD)) {
-      diverged = true; // an unstable loop: the linear model means nothing past here
-      break;
-    }
-    if (untilKept !== 0) continue; // every stride-th sample, as i % stride === 0
-    untilKept = stride;
-    timeS.push(i * t);
-    phaseStepErrorRad.push(p);
-    frequencyStepErrorRad.push(f);
+  const traces: Traces = { timeS: [], phaseStepErrorRad: [], frequencyStepErrorRad: [], diverged: false };
+  if (useDiscrete) runDiscreteSteps(sections, kRadPerS, sampleRateHz, n, stride, traces);
+  else {
+    const rateHz = MAX_SAMPLES / durationS;
+    analogSteps(runFilter(bilinearTf(analogE, rateHz, null), n, () => 1, 1), rateHz, stride, traces);
   }
-  return traces(useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged);
-}
-
-/**
- * The result of stepResponses, made outside it: code after its hot loop ran in the loop's on-stack-replaced
- * compile without type feedback and left that code by a deoptimisation on about every other call.
- */
-function traces(source: StepResponses['source'], timeS: number[], phaseStepErrorRad: number[], frequencyStepErrorRad: number[], diverged: boolean): StepResponses {
-  return { source, timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
+  const { timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged } = traces;
+  return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
 }
