@@ -39,6 +39,18 @@ async function withdrawalReason(manager: EntityManager, releaseId: number): Prom
   return typeof detail?.reason === 'string' && detail.reason !== '' ? detail.reason : null;
 }
 
+/**
+ * Waits for every promise, then rejects with the first failure, if any. Unlike Promise.all it never
+ * settles while work is still running: a transaction rolled back while one of its inserts was still
+ * queued on the connection would let that insert run after the rollback, on its own.
+ */
+async function allSettledOrThrow<T extends readonly unknown[]>(work: { readonly [K in keyof T]: Promise<T[K]> }): Promise<T> {
+  const settled = await Promise.allSettled(work);
+  const failed = settled.find((s) => s.status === 'rejected');
+  if (failed) throw failed.reason;
+  return settled.map((s) => (s as PromiseFulfilledResult<unknown>).value) as unknown as T;
+}
+
 /** A rendered release as it comes back from a worker thread, its bytes as Buffers again. */
 function fromWorker(r: RenderedRelease): RenderedRelease {
   return { ...r, files: r.files.map((f) => ({ ...f, bytes: asBuffer(f.bytes) })) };
@@ -96,40 +108,53 @@ export class ReleaseService {
    */
   async store(design: Pick<DesignRecord, 'id' | 'revision'>, unstamped: RenderedRelease, actor: Actor): Promise<number> {
     const designId = design.id;
-    // Bytes first: a row never names bytes the store does not hold (an interrupted cut leaves at most
-    // unreferenced files, which a later cut of the same content reuses).
-    for (const f of unstamped.files) {
-      if (f.name !== MANIFEST_FILE) await this.putChecked(f);
-    }
+    // Bytes before rows: every file is in the store before the transaction that names it commits (an
+    // interrupted cut leaves at most unreferenced files, which a later cut of the same content reuses).
+    // The files are written at once, so their syncs overlap, and meanwhile the transaction takes the
+    // number; it waits for them (and the stamped manifest) before it commits.
+    const files = allSettledOrThrow(unstamped.files.filter((f) => f.name !== MANIFEST_FILE).map((f) => this.putChecked(f)));
+    // Awaited in the transaction; a transaction that fails before it gets there reports its own error.
+    files.catch(() => undefined);
     return this.dataSource.transaction(async (manager) => {
       await manager.query('SELECT `id` FROM `designs` WHERE `id` = ? FOR UPDATE', [designId]);
-      const [{ next }] = (await manager.query('SELECT COALESCE(MAX(`number`), 0) + 1 AS `next` FROM `releases` WHERE `designId` = ?', [designId])) as [{ next: number | string }];
-      const number = Number(next);
-      const [names] = (await manager.query('SELECT d.`name` AS designTitle, p.`name` AS project FROM `designs` d JOIN `projects` p ON p.`id` = d.`projectId` WHERE d.`id` = ?', [designId])) as { designTitle: string; project: string }[];
-      const rendered = stampRelease(unstamped, { project: names?.project ?? '', designTitle: names?.designTitle ?? '', label: releaseLabel(number), cutAt: new Date().toISOString() });
-      await this.putChecked(rendered.files[0]!);
-      const [same] = (await manager.query('SELECT `number` FROM `releases` WHERE `designId` = ? AND `specSha256` = ? ORDER BY `number` DESC LIMIT 1', [designId, rendered.specSha256])) as { number: number }[];
-      const inserted = await manager.insert(Release, {
-        designId,
-        number,
-        state: 'draft',
-        specJson: JSON.stringify(rendered.manifest.spec),
-        resultsJson: JSON.stringify(rendered.manifest.results),
-        specSha256: rendered.specSha256,
-        manifestSha256: rendered.manifestSha256,
-        designRevision: design.revision,
-        createdById: actor.id,
-      });
-      const releaseId = Number(inserted.identifiers[0]?.id);
-      await manager.insert(
-        ReleaseFile,
-        rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: null })),
-      );
-      await this.verification.queue(manager, releaseId);
-      const sameSpecAs = same ? releaseLabel(Number(same.number)) : null;
-      await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256, sameSpecAs } }, manager);
+      // Read after the lock is granted, so the number sees every cut committed before this one.
+      const [row] = (await manager.query(
+        'SELECT (SELECT COALESCE(MAX(`number`), 0) + 1 FROM `releases` WHERE `designId` = d.`id`) AS `next`, ' +
+          '(SELECT MAX(`number`) FROM `releases` WHERE `designId` = d.`id` AND `specSha256` = ?) AS `sameNumber`, ' +
+          'd.`name` AS designTitle, p.`name` AS project FROM `designs` d JOIN `projects` p ON p.`id` = d.`projectId` WHERE d.`id` = ?',
+        [unstamped.specSha256, designId],
+      )) as { next: number | string; sameNumber: number | string | null; designTitle: string; project: string }[];
+      if (!row) throw notFound('design');
+      const number = Number(row.next);
+      const rendered = stampRelease(unstamped, { project: row.project, designTitle: row.designTitle, label: releaseLabel(number), cutAt: new Date().toISOString() });
+      const [, , releaseId] = await allSettledOrThrow<[unknown, void, number]>([files, this.putChecked(rendered.files[0]!), this.insertRows(manager, design, number, rendered, row.sameNumber, actor)]);
       return releaseId;
     });
+  }
+
+  /** The rows of a cut: the release, its files, its queued verification and the audit entry. */
+  private async insertRows(manager: EntityManager, design: Pick<DesignRecord, 'id' | 'revision'>, number: number, rendered: RenderedRelease, sameNumber: number | string | null, actor: Actor): Promise<number> {
+    const designId = design.id;
+    const inserted = await manager.insert(Release, {
+      designId,
+      number,
+      state: 'draft',
+      specJson: JSON.stringify(rendered.manifest.spec),
+      resultsJson: JSON.stringify(rendered.manifest.results),
+      specSha256: rendered.specSha256,
+      manifestSha256: rendered.manifestSha256,
+      designRevision: design.revision,
+      createdById: actor.id,
+    });
+    const releaseId = Number(inserted.identifiers[0]?.id);
+    await manager.insert(
+      ReleaseFile,
+      rendered.files.map((f, position) => ({ releaseId, position, name: f.name, mediaType: f.mediaType, sizeBytes: f.bytes.length, sha256: f.sha256, content: null })),
+    );
+    await this.verification.queue(manager, releaseId);
+    const sameSpecAs = sameNumber === null ? null : releaseLabel(Number(sameNumber));
+    await this.audit.record(actor, { action: 'release.cut', objectType: 'release', objectId: releaseId, detail: { designId, number, designRevision: design.revision, manifestSha256: rendered.manifestSha256, sameSpecAs } }, manager);
+    return releaseId;
   }
 
   private async putChecked(f: RenderedRelease['files'][number]): Promise<void> {
