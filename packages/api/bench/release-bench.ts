@@ -1,11 +1,19 @@
 /**
  * Release benchmark (not a timed test): cutting a release of each demo design on a real MariaDB,
  * phase by phase — recompute (analysis, quantisation, NCO), the golden-vector run, its CSV and hex
- * files, render every artifact, store in one transaction — against the target of
- * 100 ms of server time with the golden vectors (issue 16: a longer record must not slow the cut past
- * it). The measured acquisition computeRelease adds (under a second per demo spec, its own target in
- * the dsp bench) and the zip of the bundle (made when firmware downloads it, never at the cut) are reported apart. Each phase in wall time and in process CPU time: on the shared
- * 2-core machine the wall figures carry the other users' load, the CPU figures much less of it.
+ * files, render every artifact, hand the rendered files over from the compute thread, store them
+ * (file store, then one transaction) — against the target of 100 ms of server time with the golden
+ * vectors (issue 16: a longer record must not slow the cut past it). The measured acquisition
+ * computeRelease adds (under a second per demo spec, its own target in the dsp bench) and the zip of
+ * the bundle (made when firmware downloads it, never at the cut) are reported apart.
+ *
+ * Which figure meets the target: the cut's time on cores of its own (threadClock.ts), i.e. its wall
+ * time less what its threads and MariaDB's waited for a core that the other users of the shared
+ * 2-core machine held. Wall time alone carries their load (two to four times the cut's own time at a
+ * load average of 3 to 6); the process's CPU time alone leaves out the disk's and MariaDB's share of
+ * the store. All three are reported for every phase, with MariaDB's CPU time, and the load average.
+ * Each cut is made as the first cut of its spec is: the file store is emptied before it (outside the
+ * timing), so it writes and syncs every file, and no verification of an earlier cut runs beside it.
  * The golden-vector run itself in samples per second of CPU time.
  * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-release and seeds the demo scenario.
  */
@@ -13,6 +21,7 @@ import fs from 'node:fs/promises';
 import { loadavg } from 'node:os';
 import path from 'node:path';
 import { Writable } from 'node:stream';
+import { ownCoresMs, threadClockAvailable, threadTimes, type ThreadTimes } from './threadClock.ts';
 import { startMariaDb } from '../../../scripts/lib/mariadb.ts';
 import { dbEnv, loadConfig } from '../src/config.ts';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
@@ -78,6 +87,25 @@ function goldenVectorCpuSamplesPerS(spec: unknown): number {
   return Math.round((samples / Math.max(1e-3, cpuNow() - c0)) * 1000);
 }
 
+/**
+ * Deletes the stored files but keeps their folders, as in a store that has served many releases, and
+ * syncs the folders, so the deletions are on disk before the cut's own syncs (which would otherwise
+ * write them out too).
+ */
+async function emptyFileStore(dir: string): Promise<void> {
+  const root = path.join(dir, 'sha256');
+  const prefixes = await fs.readdir(root).catch(() => [] as string[]);
+  for (const prefix of prefixes) {
+    const folder = path.join(root, prefix);
+    const names = await fs.readdir(folder);
+    if (names.length === 0) continue;
+    await Promise.all(names.map((name) => fs.rm(path.join(folder, name))));
+    const handle = await fs.open(folder, 'r');
+    await handle.sync();
+    await handle.close();
+  }
+}
+
 export async function runReleaseBench(): Promise<object> {
   const dataDir = path.join(ROOT, '.data', 'bench-release');
   const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_bench', user: 'loopwright', password: 'bench-only-password' });
@@ -90,21 +118,31 @@ export async function runReleaseBench(): Promise<object> {
   const dataSource = createDataSource(config.db);
   await dataSource.initialize();
   const services = createServices(dataSource, config);
-  // No mail is sent while cutting; the outbox timer stays off.
-  const handoff = createReleaseServices(dataSource, { ...services, files: services.handoff.files }, loadHandoffConfig({ LW_OUTBOX_INTERVAL_MS: '0' }));
+  // createServices starts the hand-off's timers from the process environment: its verification would
+  // run GHDL, Icarus and yosys on every earlier cut beside the ones measured. The cuts below go
+  // through a hand-off of their own with both timers off.
+  services.handoff.close();
+  // No mail is sent and no verification runs while cutting: both timers stay off.
+  const handoff = createReleaseServices(dataSource, { ...services, files: services.handoff.files }, loadHandoffConfig({ LW_OUTBOX_INTERVAL_MS: '0', LW_VERIFY_INTERVAL_MS: '0' }));
   try {
     await runMigrations(dataSource);
     await seedDemo(dataSource, config.bcryptRounds);
     const designer = await dataSource.getRepository(User).findOneByOrFail({ email: 'designer@example.test' });
-    const actor = { id: designer.id, email: designer.email, ip: null };
+    // As the routes make it (routes/table.ts), with the organisation the audit entry belongs to.
+    const actor = { id: designer.id, email: designer.email, ip: null, organizationId: designer.organizationId };
     const designs = await dataSource.getRepository(Design).find({ order: { id: 'ASC' } });
+    const dbPid = Number((await fs.readFile(path.join(dataDir, 'mariadbd.pid'), 'utf8')).trim()) || undefined;
     const perDesign = [];
     const load1m = Math.round(loadavg()[0]! * 100) / 100;
     for (const d of designs) {
       const record = await services.designs.get(designer.organizationId, d.id);
-      const names = ['recompute', 'vectorRun', 'vectorFiles', 'acquisition', 'render', 'store', 'zip', 'total', 'totalWithoutVectors'] as const;
-      const wall = Object.fromEntries(names.map((n) => [n, [] as number[]])) as Record<(typeof names)[number], number[]>;
-      const cpu = Object.fromEntries(names.map((n) => [n, [] as number[]])) as Record<(typeof names)[number], number[]>;
+      const names = ['recompute', 'vectorRun', 'vectorFiles', 'acquisition', 'render', 'handOver', 'store', 'zip', 'total', 'totalWithoutVectors'] as const;
+      type Series = Record<(typeof names)[number], number[]>;
+      const series = () => Object.fromEntries(names.map((n) => [n, [] as number[]])) as Series;
+      const wall = series();
+      const cpu = series();
+      const own = series();
+      const dbCpu = series();
       let samples = 0;
       let bundleBytes = 0;
       let vectorFileBytes = 0;
@@ -112,8 +150,15 @@ export async function runReleaseBench(): Promise<object> {
         // The plan without and with its golden vectors (the difference is the vector run), the
         // vectors' files alone, then the cut as the server makes it (computeRelease: the same plan,
         // files and the measured acquisition, which is the rest of its time).
-        const marks: { wall: number; cpu: number }[] = [];
-        const mark = () => marks.push({ wall: now(), cpu: cpuNow() });
+        await emptyFileStore(config.fileStoreDir);
+        // Each mark reads the thread figures between two pairs of clock readings, so the reading is in no phase.
+        const marks: { wallEnd: number; cpuEnd: number; threads: ThreadTimes; wallStart: number; cpuStart: number }[] = [];
+        const mark = () => {
+          const wallEnd = now();
+          const cpuEnd = cpuNow();
+          const threads = threadTimes(dbPid);
+          marks.push({ wallEnd, cpuEnd, threads, cpuStart: cpuNow(), wallStart: now() });
+        };
         mark();
         if (!tryPlanDesign(record.spec).ok) throw new Error(`${record.spec.name} does not plan`);
         mark();
@@ -127,27 +172,39 @@ export async function runReleaseBench(): Promise<object> {
         mark();
         const rendered = renderArtifacts(computed.release);
         mark();
+        // The compute thread's answer crosses to the event loop by structured clone (workers/compute.ts).
+        structuredClone(rendered);
+        mark();
         const releaseId = await handoff.releases.store(record, rendered, actor);
         mark();
         const sink = nullSink();
         await writeBundle(sink, `${record.spec.name}-bench`, rendered.files.map((f) => ({ name: f.name, content: f.bytes })), new Date(0));
         mark();
         if (i < WARM_UP) continue;
-        for (const [out, key] of [[wall, 'wall'], [cpu, 'cpu']] as const) {
-          const m = marks.map((x) => x[key]);
-          const plan = m[1]! - m[0]!;
-          const vectorRun = m[2]! - m[1]! - plan;
-          const vectorFiles = m[3]! - m[2]!;
+        // Segment k runs from mark k to mark k + 1, in each of the four figures.
+        const segments = (length: (from: (typeof marks)[number], to: (typeof marks)[number]) => number) => marks.slice(1).map((to, k) => length(marks[k]!, to));
+        const wallOf = segments((a, b) => b.wallEnd - a.wallStart);
+        const figures: [Series, number[]][] = [
+          [wall, wallOf],
+          [cpu, segments((a, b) => b.cpuEnd - a.cpuStart)],
+          [own, segments((a, b) => ownCoresMs(b.wallEnd - a.wallStart, a.threads, b.threads)).map((x, k) => Math.min(x, wallOf[k]!))],
+          [dbCpu, segments((a, b) => (b.threads.dbCpuNs - a.threads.dbCpuNs) / 1e6)],
+        ];
+        for (const [out, s] of figures) {
+          const plan = s[0]!;
+          const vectorRun = s[1]! - plan;
+          const vectorFiles = s[2]!;
           // The server zips a bundle when firmware downloads it (downloadService), not at the cut: the zip
           // is reported as its own phase and left out of the cut's total.
-          const rest = m[6]! - m[4]!;
+          const rest = s[4]! + s[5]! + s[6]!;
           out.recompute.push(plan);
           out.vectorRun.push(vectorRun);
           out.vectorFiles.push(vectorFiles);
-          out.acquisition.push(m[4]! - m[3]! - plan - vectorRun - vectorFiles);
-          out.render.push(m[5]! - m[4]!);
-          out.store.push(m[6]! - m[5]!);
-          out.zip.push(m[7]! - m[6]!);
+          out.acquisition.push(s[3]! - plan - vectorRun - vectorFiles);
+          out.render.push(s[4]!);
+          out.handOver.push(s[5]!);
+          out.store.push(s[6]!);
+          out.zip.push(s[7]!);
           out.total.push(plan + vectorRun + vectorFiles + rest);
           out.totalWithoutVectors.push(plan + rest);
         }
@@ -156,20 +213,29 @@ export async function runReleaseBench(): Promise<object> {
         vectorFileBytes = files.csv.length + files.hex.reduce((sum, h) => sum + h.bytes.length, 0);
         void releaseId;
       }
-      const total = stats(wall.total);
+      const total = stats(own.total);
+      const totalWall = stats(wall.total);
       const totalCpu = stats(cpu.total);
       const cpuSamplesPerS = goldenVectorCpuSamplesPerS(record.spec);
       const phases = (from: typeof wall) => Object.fromEntries(names.filter((n) => !n.startsWith('total')).map((n) => [n, stats(from[n])]));
       perDesign.push({
         design: record.spec.name,
-        /** The cut with its golden vectors (run, CSV, hex), without the measured acquisition: the figure the target is for. */
+        /**
+         * The cut with its golden vectors (run, CSV, hex), without the measured acquisition, on cores of
+         * its own (wall less the run-queue wait of its threads): the figure the target is for.
+         */
         serverMs: total,
-        serverCpuMs: totalCpu,
         met: total.medianMs < TARGET_MS,
-        metInCpuTime: totalCpu.medianMs < TARGET_MS,
-        serverMsWithoutVectors: stats(wall.totalWithoutVectors),
-        phasesMs: phases(wall),
+        serverWallMs: totalWall,
+        metInWallTime: totalWall.medianMs < TARGET_MS,
+        /** This process's CPU time (every thread), and MariaDB's beside it. */
+        serverCpuMs: totalCpu,
+        dbCpuMs: stats(dbCpu.total),
+        serverMsWithoutVectors: stats(own.totalWithoutVectors),
+        phasesMs: phases(own),
+        phasesWallMs: phases(wall),
         phasesCpuMs: phases(cpu),
+        phasesDbCpuMs: phases(dbCpu),
         goldenVectors: {
           samples,
           fileBytes: vectorFileBytes,
@@ -181,7 +247,9 @@ export async function runReleaseBench(): Promise<object> {
       });
     }
     return {
-      what: 'cut a release of each demo design: recompute + golden vectors (run, CSV, hex) + render + store; the measured acquisition and the zip a download makes apart',
+      what: 'cut a release of each demo design: recompute + golden vectors (run, CSV, hex) + render + hand-over + store, every file written; the measured acquisition and the zip a download makes apart',
+      /** serverMs and phasesMs: wall time less the threads' run-queue wait (Linux schedstat); plain wall time where the system has no such figures. */
+      ownCoresFigures: threadClockAvailable,
       loadAverage1m: { atStart: load1m, atEnd: Math.round(loadavg()[0]! * 100) / 100 },
       iterations: ITERATIONS,
       targetMs: TARGET_MS,
