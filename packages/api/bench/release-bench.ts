@@ -18,7 +18,7 @@
  * Starts its own MariaDB (scripts/lib/mariadb.ts) in .data/bench-release and seeds the demo scenario.
  */
 import fs from 'node:fs/promises';
-import { loadavg } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import path from 'node:path';
 import { Writable } from 'node:stream';
 import { ownCoresMs, threadClockAvailable, threadTimes, type ThreadTimes } from './threadClock.ts';
@@ -40,6 +40,7 @@ const ROOT = path.resolve(import.meta.dirname, '../../..');
 const ITERATIONS = 30;
 const WARM_UP = 5;
 const TARGET_MS = 100;
+const CORES = availableParallelism();
 /** Issue 16: golden vectors at >= 5 M samples per second (of process CPU time, so the shared machine's load does not count). */
 const VECTOR_TARGET_SAMPLES_PER_S = 5_000_000;
 
@@ -187,7 +188,7 @@ export async function runReleaseBench(): Promise<object> {
         const figures: [Series, number[]][] = [
           [wall, wallOf],
           [cpu, segments((a, b) => b.cpuEnd - a.cpuStart)],
-          [own, segments((a, b) => ownCoresMs(b.wallEnd - a.wallStart, a.threads, b.threads)).map((x, k) => Math.min(x, wallOf[k]!))],
+          [own, segments((a, b) => ownCoresMs(b.wallEnd - a.wallStart, a.threads, b.threads, CORES)).map((x, k) => Math.min(x, wallOf[k]!))],
           [dbCpu, segments((a, b) => (b.threads.dbCpuNs - a.threads.dbCpuNs) / 1e6)],
         ];
         for (const [out, s] of figures) {

@@ -69,15 +69,18 @@ export function threadTimes(dbPid: number | undefined): ThreadTimes {
 /**
  * A phase's time on cores of its own, in ms: its wall time less its main thread's run-queue wait, and
  * less the other threads' wait for the share of the phase the main thread spent blocked on them (the
- * file store's writes, the database's answers); never less than the main thread's own CPU time.
- * While the main thread computes, the other threads' waits (the garbage collector's helpers, the
- * database's background work) do not hold the phase up, so they are not taken off.
+ * file store's writes, the database's answers). While the main thread computes, the other threads'
+ * waits (the garbage collector's helpers, the database's background work) do not hold the phase up,
+ * so they are not taken off. Never less than the main thread's CPU time, nor than the CPU time of
+ * every thread of both processes spread over `cores` (threads that queue behind each other wait for
+ * the phase's own work, not another user's).
  */
-export function ownCoresMs(wallMs: number, from: ThreadTimes, to: ThreadTimes): number {
+export function ownCoresMs(wallMs: number, from: ThreadTimes, to: ThreadTimes, cores: number): number {
   const ms = (ns: number) => ns / 1e6;
   const mainCpu = ms(to.mainCpuNs - from.mainCpuNs);
   const mainWait = ms(to.mainWaitNs - from.mainWaitNs);
+  const allCpu = mainCpu + ms(to.poolCpuNs - from.poolCpuNs + to.dbCpuNs - from.dbCpuNs);
   const othersWait = ms(to.poolWaitNs - from.poolWaitNs + to.dbWaitNs - from.dbWaitNs);
   const blocked = wallMs > 0 ? Math.min(1, Math.max(0, 1 - (mainCpu + mainWait) / wallMs)) : 0;
-  return Math.max(mainCpu, wallMs - mainWait - othersWait * blocked);
+  return Math.max(mainCpu, allCpu / cores, wallMs - mainWait - othersWait * blocked);
 }
