@@ -18,6 +18,7 @@ import {
 } from '@loopwright/dsp';
 import { encodeJson } from '../encodedJson.ts';
 import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
+import { movingBytes } from './movedBytes.ts';
 
 export type ComputeTask =
   | HandoffTask
@@ -50,7 +51,7 @@ export type ComputeOutcome = { readonly threadId: number } & (
 
 /** Every task plans its spec (planDesign) and reads what it needs from that one result; a release is planned with its golden vectors (render/compute.ts). */
 export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<ComputeOutcome> {
-  if (task.kind === 'release' || task.kind === 'conformance') return runHandoffTask(task).then((outcome) => ({ threadId, ...outcome }));
+  if (task.kind === 'release' || task.kind === 'conformance') return runHandoffTask(task).then((outcome) => withMovedFiles({ threadId, ...outcome }));
   const planned = tryPlanDesign(task.spec);
   if (!planned.ok) return { threadId, ok: false, issues: planned.issues, prefix: 'spec' };
   if (task.kind === 'analysis') return { threadId, ok: true, kind: 'analysis', analysis: planned.plan.analysis };
@@ -64,6 +65,11 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<Comp
     if (err instanceof FieldError) return fieldFailure(err);
     throw err;
   }
+}
+
+/** A rendered release's file bytes go to the event loop's thread moved, not copied (movedBytes.ts). */
+function withMovedFiles(outcome: ComputeOutcome): ComputeOutcome {
+  return outcome.ok && outcome.kind === 'release' ? movingBytes(outcome, outcome.rendered.files.map((f) => f.bytes)) : outcome;
 }
 
 /** Estimates beside the measurement; progress is posted at most every 2 % so the port stays quiet. */
