@@ -58,6 +58,48 @@ export function scenarioOffsetHz(s: Scenario, tS: number): number {
   }
 }
 
+/** What the per-sample loops read and advance, in one object: V8 boxes a double stored to a closure's variable. */
+interface PhaseState {
+  readonly s: Scenario;
+  readonly sampleRateHz: number;
+  readonly centerHz: number;
+  readonly offsetFnHz: ((tS: number) => number) | undefined;
+  /** The sample the phase step lands on (−1: none) and its size in cycles. */
+  readonly stepSample: number;
+  readonly stepCycles: number;
+  /** A tone's or phase step's one offset and its per-sample phase step; null for the other inputs. */
+  readonly constantHz: number | null;
+  readonly constantStep: number;
+  phase: number;
+}
+
+/** Input phases (before each sample advances them) and offsets of samples n0 … n0 + count − 1. */
+function advancePhases(st: PhaseState, chunk: InputChunk, n0: number, count: number): void {
+  const { s, sampleRateHz, centerHz, offsetFnHz, stepSample, stepCycles, constantHz, constantStep } = st;
+  const { phaseCycles, offsetHz } = chunk;
+  let phase = st.phase;
+  for (let i = 0; i < count; i++) {
+    const n = n0 + i;
+    if (n === stepSample) {
+      phase += stepCycles;
+      phase -= Math.floor(phase);
+    }
+    const off = constantHz !== null ? constantHz : offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
+    phaseCycles[i] = phase;
+    offsetHz[i] = off;
+    phase += constantHz !== null ? constantStep : (centerHz + off) / sampleRateHz;
+    // phase − floor(phase) only off [0, 1) (it is the identity on (0, 1); +0 and −0 take it, as before).
+    if (!(phase > 0 && phase < 1)) phase -= Math.floor(phase);
+  }
+  st.phase = phase;
+}
+
+/** x = amplitude·sin(2π·phase) + noise (+ 0 without noise) of the chunk's first `count` samples. */
+function sineInput(chunk: InputChunk, count: number, amplitude: number, noise: Float64Array | null): void {
+  const { x, phaseCycles } = chunk;
+  for (let i = 0; i < count; i++) x[i] = amplitude * Math.sin(2 * Math.PI * (phaseCycles[i] as number)) + (noise ? (noise[i] as number) : 0);
+}
+
 /**
  * `offsetFnHz` replaces the scenario's frequency offset (used by the acquisition search for a
  * ramp-and-hold input); noise, seed and initial phase still come from the scenario.
@@ -72,41 +114,32 @@ export function inputGenerator(
   const noise: GaussianSource | null = s.snrDb === undefined ? null : gaussianSource(s.seed ?? DEFAULT_SEED);
   // SNR = (A²/2)/σ² for a sine of peak A in white noise of variance σ².
   const sigma = s.snrDb === undefined ? 0 : Math.sqrt((amplitude * amplitude) / 2 / 10 ** (s.snrDb / 10));
-  const stepSample = s.kind === 'phase-step' ? Math.ceil(s.atS * sampleRateHz) : -1;
-  const stepCycles = s.kind === 'phase-step' ? s.stepDeg / 360 : 0;
   // A tone or a phase step has one frequency offset throughout: its per-sample step is computed once
   // (the same division, so the same double as per sample).
   const constantHz = offsetFnHz ? null : s.kind === 'tone' ? s.offsetHz : s.kind === 'phase-step' ? 0 : null;
-  const constantStep = constantHz === null ? 0 : (centerHz + constantHz) / sampleRateHz;
-  let phase = (s.initialPhaseDeg ?? 0) / 360;
-  phase -= Math.floor(phase);
-  let noiseBuf = new Float64Array(0);
-  const advance = (chunk: InputChunk, n0: number, count: number): void => {
-    for (let i = 0; i < count; i++) {
-      const n = n0 + i;
-      if (n === stepSample) {
-        phase += stepCycles;
-        phase -= Math.floor(phase);
-      }
-      const off = constantHz !== null ? constantHz : offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
-      chunk.phaseCycles[i] = phase;
-      chunk.offsetHz[i] = off;
-      phase += constantHz !== null ? constantStep : (centerHz + off) / sampleRateHz;
-      // phase − floor(phase) only off [0, 1) (it is the identity on (0, 1); +0 and −0 take it, as before).
-      if (!(phase > 0 && phase < 1)) phase -= Math.floor(phase);
-    }
+  const initialCycles = (s.initialPhaseDeg ?? 0) / 360;
+  const st: PhaseState = {
+    s,
+    sampleRateHz,
+    centerHz,
+    offsetFnHz,
+    stepSample: s.kind === 'phase-step' ? Math.ceil(s.atS * sampleRateHz) : -1,
+    stepCycles: s.kind === 'phase-step' ? s.stepDeg / 360 : 0,
+    constantHz,
+    constantStep: constantHz === null ? 0 : (centerHz + constantHz) / sampleRateHz,
+    phase: initialCycles - Math.floor(initialCycles),
   };
+  let noiseBuf = new Float64Array(0);
   return {
     next(chunk, n0, count) {
       if (noise && noiseBuf.length < count) noiseBuf = new Float64Array(count);
       if (noise) noise.fill(noiseBuf, count, sigma);
-      advance(chunk, n0, count);
-      const { x, phaseCycles } = chunk;
-      for (let i = 0; i < count; i++) x[i] = amplitude * Math.sin(2 * Math.PI * (phaseCycles[i] as number)) + (noise ? (noiseBuf[i] as number) : 0);
+      advancePhases(st, chunk, n0, count);
+      sineInput(chunk, count, amplitude, noise ? noiseBuf : null);
     },
     phases(chunk, n0, count, out) {
       if (noise) noise.fill(out, count, sigma);
-      advance(chunk, n0, count);
+      advancePhases(st, chunk, n0, count);
       return noise !== null;
     },
   };

@@ -7,7 +7,7 @@ import { wasmInstanceLoop, releaseWasmBitTrueLoop, WASM_CHUNK_SAMPLES } from '..
 import { moduleSine } from '../../src/sim/wasm/wasmTraced.ts';
 import { mulberry32 } from '../../src/sim/prng.ts';
 
-/** How many of the phases p give a sin(2π·p) other than Math.sin's (compared as doubles, −0 apart from +0). */
+/** How many of the phases p give a sin(2π·p) or cos(2π·p) other than Math.sin's or Math.cos's (compared as doubles, −0 apart from +0). */
 function mismatches(phases: Float64Array): number {
   const loop = wasmInstanceLoop();
   if (!loop) throw new Error('WebAssembly is not available');
@@ -15,8 +15,12 @@ function mismatches(phases: Float64Array): number {
   try {
     for (let k = 0; k < phases.length; k += WASM_CHUNK_SAMPLES) {
       const part = phases.subarray(k, k + WASM_CHUNK_SAMPLES);
-      const got = moduleSine(loop.exports, part);
-      for (let i = 0; i < part.length; i++) if (!Object.is(got[i], Math.sin(2 * Math.PI * (part[i] as number)))) bad++;
+      const sin = moduleSine(loop.exports, part);
+      const cos = moduleSine(loop.exports, part, true);
+      for (let i = 0; i < part.length; i++) {
+        const x = 2 * Math.PI * (part[i] as number);
+        if (!Object.is(sin[i], Math.sin(x)) || !Object.is(cos[i], Math.cos(x))) bad++;
+      }
     }
   } finally {
     releaseWasmBitTrueLoop(loop);
@@ -29,9 +33,9 @@ function phases(count: number, seed: number, of: (u: number, i: number) => numbe
   return Float64Array.from({ length: count }, (_, i) => of(rnd(), i));
 }
 
-describe('the module sine', () => {
-  // Math.sin is the reference: the engine's own sine (FD93 in Node's engine).
-  it('gives Math.sin(2π·p) for 400 000 phases in [0, 1), the range the simulation reads', () => {
+describe('the module sine and cosine', () => {
+  // Math.sin and Math.cos are the reference: the engine's own (FD93 in Node's engine).
+  it('gives Math.sin(2π·p) and Math.cos(2π·p) for 400 000 phases in [0, 1), the range the simulation reads', () => {
     expect(mismatches(phases(400_000, 1, (u) => u))).toBe(0);
   });
 
@@ -39,7 +43,7 @@ describe('the module sine', () => {
     expect(mismatches(phases(200_000, 2, (u, i) => (i % 256) / 4 + (u - 0.5) * 2 ** -(20 + (i % 33))))).toBe(0);
   });
 
-  it('gives Math.sin for negative phases, the medium range up to 2^19·π/2 and beyond it (the imported Math.sin)', () => {
+  it('gives Math.sin for negative phases, the medium range up to 2^19·π/2 and beyond it (the imported functions)', () => {
     expect(mismatches(phases(100_000, 3, (u) => -u * 3))).toBe(0);
     expect(mismatches(phases(100_000, 4, (u) => (u - 0.5) * 2 ** 18))).toBe(0);
     expect(mismatches(phases(20_000, 5, (u) => (u - 0.5) * 2 ** 40))).toBe(0);

@@ -225,8 +225,10 @@
   ;; of the four traces, and (flags) the tail and demodulation sums. The segment lies in one trace bucket.
   ;; With withFloat (k = 0) each sample first runs the float loop (floatKernel.ts runFloatChunk, and
   ;; ncoHz as simulate.ts has it) into observation block 0: its feedback chain (cosine, sections, phase)
-  ;; leaves the core idle, and the accumulator's independent work fills those cycles.
-  (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32) (param $withFloat i32)
+  ;; leaves the core idle, and the accumulator's independent work fills those cycles. Its cosine and the
+  ;; quadrature arm's sine share one reduction (the module's sine below; the imported Math.cos and
+  ;; Math.sin when $own is 0). The bit-true loop's quadrature sine comes precomputed (sine, from convert).
+  (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32) (param $withFloat i32) (param $own i32)
     (local $st i32) (local $blk i32) (local $i i32) (local $o i32) (local $bp i32)
     (local $boxIndex i32) (local $boxFilled i32) (local $boxLength i32) (local $boxBase i32)
     (local $prev f64) (local $unwrapped f64) (local $boxSum f64) (local $lockState f64)
@@ -238,6 +240,10 @@
     (local $fo i32) (local $fj i32) (local $fk i32) (local $fq i32) (local $fSections i32) (local $fSquare i32)
     (local $ph f64) (local $fc f64) (local $fv f64) (local $fx1 f64) (local $fy1 f64) (local $fy f64)
     (local $base f64) (local $gain f64) (local $fCenterHz f64) (local $fGainHz f64)
+    ;; the float loop's cosine and sine (as in the sine function)
+    (local $ta f64) (local $thx i32) (local $tix i32) (local $tn i32) (local $tj i32) (local $te i32) (local $tiy i32)
+    (local $ty0 f64) (local $ty1 f64) (local $tt f64) (local $tfn f64) (local $tr f64) (local $tw f64) (local $tz f64)
+    (local $tv f64) (local $tq f64) (local $tc f64) (local $ts f64)
     (local.set $base (f64.load offset=1442816 (i32.const 0)))
     (local.set $gain (f64.load offset=1442824 (i32.const 0)))
     (local.set $fCenterHz (f64.load offset=1442832 (i32.const 0)))
@@ -278,7 +284,133 @@
         (if (local.get $withFloat)
           (then
             (local.set $fo (i32.shl (local.get $i) (i32.const 3)))
-            (local.set $fc (call $cos (f64.mul (f64.const 6.283185307179586) (local.get $ph))))
+            ;; cos and sin of 2*pi*ph with one reduction (the module's sine, FD93), or the imported ones
+            (local.set $ta (f64.mul (f64.const 6.283185307179586) (local.get $ph)))
+            (local.set $thx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ta)) (i64.const 32))))
+            (local.set $tix (i32.and (local.get $thx) (i32.const 0x7fffffff)))
+            (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $tix) (i32.const 0x413921fb)))
+              (then
+                (local.set $tc (call $cos (local.get $ta)))
+                (local.set $ts (call $sin (local.get $ta))))
+              (else
+                ;; reduction: a = n*pi/2 + y0 + y1
+                (if (i32.le_u (local.get $tix) (i32.const 0x3fe921fb))
+                  (then
+                    (local.set $ty0 (local.get $ta))
+                    (local.set $ty1 (f64.const 0))
+                    (local.set $tn (i32.const 0))
+                    (local.set $tiy (i32.const 0)))
+                  (else
+                    (local.set $tiy (i32.const 1))
+                    (if (i32.lt_u (local.get $tix) (i32.const 0x4002d97c))
+                      (then
+                        ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
+                        (if (i32.gt_s (local.get $thx) (i32.const 0))
+                          (then
+                            (local.set $tz (f64.sub (local.get $ta) (f64.const 0x1.921fb54400000p+0)))
+                            (if (i32.ne (local.get $tix) (i32.const 0x3ff921fb))
+                              (then
+                                (local.set $ty0 (f64.sub (local.get $tz) (f64.const 0x1.0b4611a626331p-34)))
+                                (local.set $ty1 (f64.sub (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.0b4611a626331p-34))))
+                              (else
+                                (local.set $tz (f64.sub (local.get $tz) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $ty0 (f64.sub (local.get $tz) (f64.const 0x1.3198a2e037073p-69)))
+                                (local.set $ty1 (f64.sub (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.3198a2e037073p-69)))))
+                            (local.set $tn (i32.const 1)))
+                          (else
+                            (local.set $tz (f64.add (local.get $ta) (f64.const 0x1.921fb54400000p+0)))
+                            (if (i32.ne (local.get $tix) (i32.const 0x3ff921fb))
+                              (then
+                                (local.set $ty0 (f64.add (local.get $tz) (f64.const 0x1.0b4611a626331p-34)))
+                                (local.set $ty1 (f64.add (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.0b4611a626331p-34))))
+                              (else
+                                (local.set $tz (f64.add (local.get $tz) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $ty0 (f64.add (local.get $tz) (f64.const 0x1.3198a2e037073p-69)))
+                                (local.set $ty1 (f64.add (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.3198a2e037073p-69)))))
+                            (local.set $tn (i32.const -1)))))
+                      (else
+                        ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
+                        (local.set $tt (f64.abs (local.get $ta)))
+                        ;; fn as floor, n from it: the same integer as the int conversion and back, sooner
+                        (local.set $tfn (f64.floor (f64.add (f64.mul (local.get $tt) (f64.const 0x1.45f306dc9c883p-1)) (f64.const 0.5))))
+                        (local.set $tn (i32.trunc_f64_s (local.get $tfn)))
+                        (local.set $tr (f64.sub (local.get $tt) (f64.mul (local.get $tfn) (f64.const 0x1.921fb54400000p+0))))
+                        (local.set $tw (f64.mul (local.get $tfn) (f64.const 0x1.0b4611a626331p-34)))
+                        (local.set $ty0 (f64.sub (local.get $tr) (local.get $tw)))
+                        (if (i32.or (i32.ge_s (local.get $tn) (i32.const 32))
+                              (i32.eq (local.get $tix)
+                                (i32.load offset=1769472 (i32.shl (select (i32.sub (local.get $tn) (i32.const 1)) (i32.const 31) (i32.lt_s (local.get $tn) (i32.const 32))) (i32.const 2)))))
+                          (then
+                            (local.set $tj (i32.shr_u (local.get $tix) (i32.const 20)))
+                            (local.set $te (i32.sub (local.get $tj)
+                              (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ty0)) (i64.const 52))) (i32.const 0x7ff))))
+                            (if (i32.gt_s (local.get $te) (i32.const 16))
+                              (then
+                                ;; second piece of pi/2, good to 118 bits
+                                (local.set $tt (local.get $tr))
+                                (local.set $tw (f64.mul (local.get $tfn) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $tr (f64.sub (local.get $tt) (local.get $tw)))
+                                (local.set $tw (f64.sub (f64.mul (local.get $tfn) (f64.const 0x1.3198a2e037073p-69))
+                                  (f64.sub (f64.sub (local.get $tt) (local.get $tr)) (local.get $tw))))
+                                (local.set $ty0 (f64.sub (local.get $tr) (local.get $tw)))
+                                (local.set $te (i32.sub (local.get $tj)
+                                  (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ty0)) (i64.const 52))) (i32.const 0x7ff))))
+                                (if (i32.gt_s (local.get $te) (i32.const 49))
+                                  (then
+                                    ;; third piece, good to 151 bits
+                                    (local.set $tt (local.get $tr))
+                                    (local.set $tw (f64.mul (local.get $tfn) (f64.const 0x1.3198a2e000000p-69)))
+                                    (local.set $tr (f64.sub (local.get $tt) (local.get $tw)))
+                                    (local.set $tw (f64.sub (f64.mul (local.get $tfn) (f64.const 0x1.b839a252049c1p-104))
+                                      (f64.sub (f64.sub (local.get $tt) (local.get $tr)) (local.get $tw))))
+                                    (local.set $ty0 (f64.sub (local.get $tr) (local.get $tw)))))))))
+                        (local.set $ty1 (f64.sub (f64.sub (local.get $tr) (local.get $ty0)) (local.get $tw)))
+                        (if (i32.lt_s (local.get $thx) (i32.const 0))
+                          (then
+                            (local.set $ty0 (f64.neg (local.get $ty0)))
+                            (local.set $ty1 (f64.neg (local.get $ty1)))
+                            (local.set $tn (i32.sub (i32.const 0) (local.get $tn)))))))))
+                ;; both kernels on [-pi/4, pi/4]: cos for the loop, sin for its quadrature arm
+                (local.set $te (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ty0)) (i64.const 32))) (i32.const 0x7fffffff)))
+                (local.set $tz (f64.mul (local.get $ty0) (local.get $ty0)))
+                (if (i32.lt_u (local.get $te) (i32.const 0x3e400000))
+                  (then (local.set $tc (f64.const 1)))
+                  (else
+                    (local.set $tq (f64.mul (local.get $tz) (f64.add (f64.const 0x1.555555555554cp-5) (f64.mul (local.get $tz)
+                      (f64.add (f64.const -0x1.6c16c16c15177p-10) (f64.mul (local.get $tz) (f64.add (f64.const 0x1.a01a019cb1590p-16) (f64.mul (local.get $tz)
+                      (f64.add (f64.const -0x1.27e4f809c52adp-22) (f64.mul (local.get $tz) (f64.add (f64.const 0x1.1ee9ebdb4b1c4p-29)
+                      (f64.mul (local.get $tz) (f64.const -0x1.8fae9be8838d4p-37)))))))))))))
+                    (if (i32.lt_u (local.get $te) (i32.const 0x3fd33333))
+                      (then
+                        (local.set $tc (f64.sub (f64.const 1) (f64.sub (f64.mul (f64.const 0.5) (local.get $tz))
+                          (f64.sub (f64.mul (local.get $tz) (local.get $tq)) (f64.mul (local.get $ty0) (local.get $ty1)))))))
+                      (else
+                        (local.set $tv (select (f64.const 0.28125)
+                          (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $te) (i32.const 0x00200000))) (i64.const 32)))
+                          (i32.gt_u (local.get $te) (i32.const 0x3fe90000))))
+                        (local.set $tc (f64.sub (f64.sub (f64.const 1) (local.get $tv))
+                          (f64.sub (f64.sub (f64.mul (f64.const 0.5) (local.get $tz)) (local.get $tv))
+                            (f64.sub (f64.mul (local.get $tz) (local.get $tq)) (f64.mul (local.get $ty0) (local.get $ty1))))))))))
+                (if (i32.lt_u (local.get $te) (i32.const 0x3e400000))
+                  (then (local.set $ts (local.get $ty0)))
+                  (else
+                    (local.set $tv (f64.mul (local.get $tz) (local.get $ty0)))
+                    (local.set $tq (f64.add (f64.const 0x1.111111110f8a6p-7) (f64.mul (local.get $tz)
+                      (f64.add (f64.const -0x1.a01a019c161d5p-13) (f64.mul (local.get $tz) (f64.add (f64.const 0x1.71de357b1fe7dp-19)
+                      (f64.mul (local.get $tz) (f64.add (f64.const -0x1.ae5e68a2b9cebp-26) (f64.mul (local.get $tz) (f64.const 0x1.5d93a5acfd57cp-33))))))))))
+                    (local.set $ts (if (result f64) (local.get $tiy)
+                      (then (f64.sub (local.get $ty0) (f64.sub (f64.sub (f64.mul (local.get $tz)
+                        (f64.sub (f64.mul (f64.const 0.5) (local.get $ty1)) (f64.mul (local.get $tv) (local.get $tq))))
+                        (local.get $ty1)) (f64.mul (local.get $tv) (f64.const -0x1.5555555555549p-3)))))
+                      (else (f64.add (local.get $ty0) (f64.mul (local.get $tv)
+                        (f64.add (f64.const -0x1.5555555555549p-3) (f64.mul (local.get $tz) (local.get $tq))))))))))
+                ;; quadrant n: cos is kc, -ks, -kc, ks and sin is ks, kc, -ks, -kc
+                (local.set $tv (select (local.get $ts) (local.get $tc) (i32.and (local.get $tn) (i32.const 1))))
+                (local.set $tq (select (local.get $tc) (local.get $ts) (i32.and (local.get $tn) (i32.const 1))))
+                (local.set $tc (select (f64.neg (local.get $tv)) (local.get $tv) (i32.and (i32.add (local.get $tn) (i32.const 1)) (i32.const 2))))
+                (local.set $ts (select (f64.neg (local.get $tq)) (local.get $tq) (i32.and (local.get $tn) (i32.const 2))))
+              ))
+            (local.set $fc (local.get $tc))
             (if (local.get $fSquare)
               (then (local.set $fc (select (f64.const 1) (f64.const -1) (f64.ge (local.get $fc) (f64.const 0))))))
             (local.set $fv (f64.mul (f64.load offset=589824 (local.get $fo)) (local.get $fc)))
@@ -310,7 +442,9 @@
             (f64.store offset=851968 (local.get $fo) (local.get $fv))
             (f64.store offset=917504 (local.get $fo) (f64.add (local.get $fCenterHz) (f64.mul (local.get $fGainHz) (local.get $fv))))
             (local.set $ph (f64.add (local.get $ph) (f64.add (local.get $base) (f64.mul (local.get $gain) (local.get $fv)))))
-            (local.set $ph (f64.sub (local.get $ph) (f64.floor (local.get $ph))))))
+            ;; ph - floor(ph) only off (0, 1), where it is ph itself: the floor leaves the feedback chain
+            (if (i32.eqz (i32.and (f64.gt (local.get $ph) (f64.const 0)) (f64.lt (local.get $ph) (f64.const 1))))
+              (then (local.set $ph (f64.sub (local.get $ph) (f64.floor (local.get $ph))))))))
         (local.set $o (i32.add (local.get $blk) (i32.shl (local.get $i) (i32.const 3))))
         (local.set $phaseNco (f64.load offset=786432 (local.get $o)))
         ;; e = d - round(d) for d in (-1, 1), written out as runAccumulator.ts has it (+ 0 turns -0 into +0)
@@ -337,7 +471,7 @@
         (local.set $q (f64.div
           (f64.mul (f64.mul (f64.const 2) (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))))
                    (if (result f64) (local.get $withFloat)
-                     (then (call $sin (f64.mul (f64.const 6.283185307179586) (local.get $phaseNco))))
+                     (then (local.get $ts))
                      (else (f64.load offset=2031616 (i32.shl (local.get $i) (i32.const 3))))))
           (local.get $amplitude)))
         (local.set $lockState (f64.add (local.get $lockState) (f64.mul (local.get $alpha) (f64.sub (local.get $q) (local.get $lockState)))))
@@ -475,8 +609,10 @@
 
   ;; dst[i] = sin(2*pi*src[i]) for i < count (byte offsets src, dst); with $affine, amplitude*that +
   ;; add[i] instead (the input: inputSignal.ts's amplitude*Math.sin(2*Math.PI*phase) + noise, noise 0
-  ;; without any). $own 0 calls the imported Math.sin for every sample.
-  (func (export "sine") (param $count i32) (param $src i32) (param $dst i32) (param $affine i32) (param $amplitude f64) (param $add i32) (param $own i32)
+  ;; without any). $own 0 calls the imported Math.sin for every sample. With $cosine, cos instead: its
+  ;; quadrant is one on (cos(x) is fdlibm's kernel choice for sin with n + 1), for wasmTraced.ts's probes
+  ;; of the float loop's cosine.
+  (func (export "sine") (param $count i32) (param $src i32) (param $dst i32) (param $affine i32) (param $amplitude f64) (param $add i32) (param $own i32) (param $cosine i32)
     (local $i i32) (local $o i32) (local $a f64) (local $s f64)
     (local $hx i32) (local $ix i32) (local $n i32) (local $j i32) (local $e i32) (local $iy i32)
     (local $y0 f64) (local $y1 f64) (local $t f64) (local $fn f64) (local $r f64) (local $w f64) (local $z f64) (local $v f64) (local $q f64)
@@ -488,7 +624,7 @@
         (local.set $hx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $a)) (i64.const 32))))
         (local.set $ix (i32.and (local.get $hx) (i32.const 0x7fffffff)))
         (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $ix) (i32.const 0x413921fb)))
-          (then (local.set $s (call $sin (local.get $a))))
+          (then (local.set $s (if (result f64) (local.get $cosine) (then (call $cos (local.get $a))) (else (call $sin (local.get $a))))))
           (else
             ;; reduction: a = n*pi/2 + y0 + y1
             (if (i32.le_u (local.get $ix) (i32.const 0x3fe921fb))
@@ -567,6 +703,7 @@
                         (local.set $y1 (f64.neg (local.get $y1)))
                         (local.set $n (i32.sub (i32.const 0) (local.get $n)))))))))
             ;; kernels on [-pi/4, pi/4]: sin in quadrants 0 and 2, cos in 1 and 3, negated in 2 and 3
+            (local.set $n (i32.add (local.get $n) (local.get $cosine)))
             (local.set $e (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $y0)) (i64.const 32))) (i32.const 0x7fffffff)))
             (local.set $z (f64.mul (local.get $y0) (local.get $y0)))
             (if (i32.and (local.get $n) (i32.const 1))

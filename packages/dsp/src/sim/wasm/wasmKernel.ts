@@ -54,11 +54,11 @@ export interface WasmExports {
   readonly memory: { readonly buffer: ArrayBuffer };
   readonly run: (count: number) => void;
   readonly convert: (count: number) => void;
-  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number) => void;
+  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number) => void;
   readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
   readonly band: (src: number, i0: number, i1: number, slot: number) => void;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
-  readonly sine: (count: number, src: number, dst: number, affine: number, amplitude: number, add: number, own: number) => void;
+  readonly sine: (count: number, src: number, dst: number, affine: number, amplitude: number, add: number, own: number, cosine: number) => void;
 }
 
 /** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */

@@ -39,8 +39,9 @@ const TRACED = {
 
 /**
  * Phases p whose sin(2πp) the module's sine and a correctly rounded one give differently (found with
- * mpmath at 200 bits), then an even spread: an engine whose Math.sin is not the module's algorithm
- * differs on some of them (on about 3 % of arguments), and its traced runs call Math.sin instead.
+ * mpmath at 200 bits), then an even spread: an engine whose Math.sin or Math.cos is not the module's
+ * algorithm differs on some of them (a correctly rounded one on about 3 % of arguments), and its
+ * traced runs call the engine's functions instead.
  */
 const SINE_PROBES = [
   0.6298827202168019, 0.6539225335338404, 0.6155627045785708, 0.36878537037226267, 0.14034718714561778, 0.017894197067565343,
@@ -52,21 +53,22 @@ const SINE_PROBES = [
 let ownSine: boolean | undefined;
 
 /**
- * sin(2π·p) of each p (at most WASM_CHUNK_SAMPLES) by the module's port of the engine's sine (FD93),
- * through an instance's noise and sine areas (which a run rewrites before it reads them).
+ * sin(2π·p) (or cos) of each p (at most WASM_CHUNK_SAMPLES) by the module's port of the engine's
+ * sine (FD93), through an instance's noise and sine areas (which a run rewrites before it reads them).
  */
-export function moduleSine(exports: WasmExports, phases: ArrayLike<number>): Float64Array {
+export function moduleSine(exports: WasmExports, phases: ArrayLike<number>, cosine = false): Float64Array {
   const f64 = new Float64Array(exports.memory.buffer);
   f64.set(phases, TRACED.noise / 8);
-  exports.sine(phases.length, TRACED.noise, TRACED.bitTrueSine, 0, 1, 0, 1);
+  exports.sine(phases.length, TRACED.noise, TRACED.bitTrueSine, 0, 1, 0, 1, cosine ? 1 : 0);
   return f64.slice(TRACED.bitTrueSine / 8, TRACED.bitTrueSine / 8 + phases.length);
 }
 
-/** Whether the module's sine gives the engine's Math.sin on every probe (checked once per engine, on the first instance). */
+/** Whether the module's sine and cosine give the engine's Math.sin and Math.cos on every probe (checked once per engine). */
 function checkOwnSine(exports: WasmExports): boolean {
   if (ownSine === undefined) {
-    const values = moduleSine(exports, SINE_PROBES);
-    ownSine = SINE_PROBES.every((p, i) => Object.is(values[i], Math.sin(2 * Math.PI * p)));
+    const sin = moduleSine(exports, SINE_PROBES);
+    const cos = moduleSine(exports, SINE_PROBES, true);
+    ownSine = SINE_PROBES.every((p, i) => Object.is(sin[i], Math.sin(2 * Math.PI * p)) && Object.is(cos[i], Math.cos(2 * Math.PI * p)));
   }
   return ownSine;
 }
@@ -131,7 +133,7 @@ export class WasmTraced {
       this.noise.fill(0);
       this.noiseDirty = false;
     }
-    this.loop.exports.sine(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own);
+    this.loop.exports.sine(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own, 0);
   }
 
   /** Load the float loop's constants and start it from phase 0 and zero section states. */
@@ -166,7 +168,7 @@ export class WasmTraced {
   /** The last kernel run's outputs as doubles, into observation block 1, and the sine of its NCO phase for the quadrature arm. */
   convert(count: number): void {
     this.loop.exports.convert(count);
-    this.loop.exports.sine(count, TRACED.block + TRACED.blockBytes, TRACED.bitTrueSine, 0, 1, 0, this.own);
+    this.loop.exports.sine(count, TRACED.block + TRACED.blockBytes, TRACED.bitTrueSine, 0, 1, 0, this.own, 0);
   }
 
   /** Accumulator k's core (k = 0 float, 1 bit-true); the float core runs the float loop itself, a sample ahead of its accumulation. */
@@ -179,6 +181,7 @@ export class WasmTraced {
     const boxAt = TRACED.boxcars + k * MAX_WASM_BOXCAR * 8;
     const f64 = this.f64;
     const { accumulate, band, sum } = this.loop.exports;
+    const own = this.own;
     const slotAt = TRACED.lockSlots + k * 32;
     const lock: LockKernel = {
       scratch: new Float64Array(buffer, TRACED.lockScratch + k * WASM_CHUNK_SAMPLES * 8, WASM_CHUNK_SAMPLES),
@@ -201,7 +204,7 @@ export class WasmTraced {
         f64.fill(0, boxAt / 8, boxAt / 8 + c.boxcarLength);
       },
       run(n0, i0, i1, tail, demod) {
-        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0);
+        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0, own);
       },
     };
   }
