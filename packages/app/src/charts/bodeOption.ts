@@ -6,6 +6,7 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import { CHART_COLORS, chartAnimation } from './echarts.ts';
 import { fmtHz } from '../lib/format.ts';
+import { keptIndices } from './thinLine.ts';
 
 export interface BodeTrace {
   readonly label: string;
@@ -66,6 +67,45 @@ export function flatPairs(x: readonly number[], y: readonly number[]): Float64Ar
   return k === out.length ? out : out.slice(0, k);
 }
 
+/**
+ * How far (vertically, as a fraction of the axis span) a point left out may lie from the line drawn
+ * without it: a ten-thousandth is under 0.1 px on a plot 1000 px tall, so the line looks the same.
+ */
+const THIN_FRACTION = 1e-4;
+
+/** `flatPairs` of the points that bend the line on the log-frequency axis (thinLine.ts). */
+function thinnedPairs(x: readonly number[], y: readonly number[], toleranceY: number): Float64Array {
+  const all = flatPairs(x, y);
+  const n = all.length / 2;
+  const logX = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    logX[i] = Math.log10(all[2 * i] as number);
+    ys[i] = all[2 * i + 1] as number;
+  }
+  const kept = keptIndices(logX, ys, toleranceY);
+  if (kept.length === n) return all;
+  const out = new Float64Array(2 * kept.length);
+  kept.forEach((i, k) => {
+    out[2 * k] = all[2 * i] as number;
+    out[2 * k + 1] = all[2 * i + 1] as number;
+  });
+  return out;
+}
+
+function finiteSpan(arrays: readonly (readonly number[])[], floor = -Infinity): number {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const a of arrays) {
+    for (const v of a) {
+      if (!Number.isFinite(v) || v <= floor) continue;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+  }
+  return hi > lo ? hi - lo : 0;
+}
+
 function markerLines(m: BodeMarkers, axis: 'mag' | 'phase'): object[] {
   const lines: object[] = [];
   if (m.crossoverHz !== null) {
@@ -97,7 +137,19 @@ export function magnitudeAxisMin(traces: readonly BodeTrace[]): number {
   return Math.max(MAG_FLOOR_DB, Math.floor((lowest - 10) / 20) * 20);
 }
 
-export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): EChartsCoreOption {
+export interface BodeOptionSettings {
+  /**
+   * Draw only the points that bend each line (`thinnedPairs`): the same picture, but the axis tooltip
+   * and its highlighted points snap to the points drawn, so a plot being hovered wants every point.
+   */
+  readonly thin?: boolean;
+}
+
+export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, settings: BodeOptionSettings = {}): EChartsCoreOption {
+  const magMin = magnitudeAxisMin(traces);
+  // The spans of what the axes show (the data's, at most the axes' own): the tolerances stay under them.
+  const magTolerance = settings.thin ? THIN_FRACTION * finiteSpan(traces.map((t) => t.magnitudeDb), magMin) : 0;
+  const phaseTolerance = settings.thin ? THIN_FRACTION * finiteSpan(traces.map((t) => t.phaseDeg)) : 0;
   const series = traces.flatMap((t, index) => {
     const lineStyle = t.color ? { ...STYLE[t.style], color: t.color } : STYLE[t.style];
     // ECharts reads typed-array data only with its dimensions named (flatPairs: x, y per point).
@@ -110,7 +162,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
         id: `${t.label}/magnitude`,
         xAxisIndex: 0,
         yAxisIndex: 0,
-        data: flatPairs(t.freqHz, t.magnitudeDb),
+        data: settings.thin ? thinnedPairs(t.freqHz, t.magnitudeDb, magTolerance) : flatPairs(t.freqHz, t.magnitudeDb),
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'mag') } } : {}),
       },
       {
@@ -118,7 +170,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
         id: `${t.label}/phase`,
         xAxisIndex: 1,
         yAxisIndex: 1,
-        data: flatPairs(t.freqHz, t.phaseDeg),
+        data: settings.thin ? thinnedPairs(t.freqHz, t.phaseDeg, phaseTolerance) : flatPairs(t.freqHz, t.phaseDeg),
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'phase') } } : {}),
       },
     ];
@@ -145,7 +197,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers): 
     ],
     xAxis: [xAxis(0, ''), xAxis(1, 'Frequency')],
     yAxis: [
-      { type: 'value', gridIndex: 0, name: 'Magnitude (dB)', nameLocation: 'middle', nameGap: 40, min: magnitudeAxisMin(traces), axisLabel: { showMinLabel: false }, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+      { type: 'value', gridIndex: 0, name: 'Magnitude (dB)', nameLocation: 'middle', nameGap: 40, min: magMin, axisLabel: { showMinLabel: false }, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
       { type: 'value', gridIndex: 1, name: 'Phase (°)', nameLocation: 'middle', nameGap: 40, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
     ],
     dataZoom: [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }],
