@@ -225,10 +225,11 @@
   ;; of the four traces, and (flags) the tail and demodulation sums. The segment lies in one trace bucket.
   ;; With withFloat (k = 0) each sample first runs the float loop (floatKernel.ts runFloatChunk, and
   ;; ncoHz as simulate.ts has it) into observation block 0: its feedback chain (cosine, sections, phase)
-  ;; leaves the core idle, and the accumulator's independent work fills those cycles. Its cosine and the
+  ;; leaves the core idle, and the accumulator's independent work fills those cycles; with makeInput
+  ;; it also makes the input sample, which both loops read. Its cosine and the
   ;; quadrature arm's sine share one reduction (the module's sine below; the imported Math.cos and
   ;; Math.sin when $own is 0). The bit-true loop's quadrature sine comes precomputed (sine, from convert).
-  (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32) (param $withFloat i32) (param $own i32)
+  (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32) (param $withFloat i32) (param $own i32) (param $makeInput i32) (param $inputAmplitude f64)
     (local $st i32) (local $blk i32) (local $i i32) (local $o i32) (local $bp i32)
     (local $boxIndex i32) (local $boxFilled i32) (local $boxLength i32) (local $boxBase i32)
     (local $prev f64) (local $unwrapped f64) (local $boxSum f64) (local $lockState f64)
@@ -244,6 +245,9 @@
     (local $ta f64) (local $thx i32) (local $tix i32) (local $tn i32) (local $tj i32) (local $te i32) (local $tiy i32)
     (local $ty0 f64) (local $ty1 f64) (local $tt f64) (local $tfn f64) (local $tr f64) (local $tw f64) (local $tz f64)
     (local $tv f64) (local $tq f64) (local $tc f64) (local $ts f64)
+    ;; the input sample's sine (makeInput)
+    (local $ua f64) (local $us f64) (local $uhx i32) (local $uix i32) (local $un i32) (local $uj i32) (local $ue i32) (local $uiy i32)
+    (local $uy0 f64) (local $uy1 f64) (local $ut f64) (local $ufn f64) (local $ur f64) (local $uw f64) (local $uz f64) (local $uv f64) (local $uq f64)
     (local.set $base (f64.load offset=1442816 (i32.const 0)))
     (local.set $gain (f64.load offset=1442824 (i32.const 0)))
     (local.set $fCenterHz (f64.load offset=1442832 (i32.const 0)))
@@ -284,6 +288,134 @@
         (if (local.get $withFloat)
           (then
             (local.set $fo (i32.shl (local.get $i) (i32.const 3)))
+            (if (local.get $makeInput)
+              (then
+                ;; this sample's input (inputSignal.ts: amplitude*sin(2*pi*phase) + noise) for both loops,
+                ;; here where the feedback chain below leaves the core idle; the module's sine as in sine
+                (local.set $ua (f64.mul (f64.const 6.283185307179586) (f64.load offset=655360 (local.get $fo))))
+            (local.set $uhx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ua)) (i64.const 32))))
+            (local.set $uix (i32.and (local.get $uhx) (i32.const 0x7fffffff)))
+            (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $uix) (i32.const 0x413921fb)))
+              (then (local.set $us (call $sin (local.get $ua))))
+              (else
+                ;; reduction: a = n*pi/2 + y0 + y1
+                (if (i32.le_u (local.get $uix) (i32.const 0x3fe921fb))
+                  (then
+                    (local.set $uy0 (local.get $ua))
+                    (local.set $uy1 (f64.const 0))
+                    (local.set $un (i32.const 0))
+                    (local.set $uiy (i32.const 0)))
+                  (else
+                    (local.set $uiy (i32.const 1))
+                    (if (i32.lt_u (local.get $uix) (i32.const 0x4002d97c))
+                      (then
+                        ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
+                        (if (i32.gt_s (local.get $uhx) (i32.const 0))
+                          (then
+                            (local.set $uz (f64.sub (local.get $ua) (f64.const 0x1.921fb54400000p+0)))
+                            (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
+                              (then
+                                (local.set $uy0 (f64.sub (local.get $uz) (f64.const 0x1.0b4611a626331p-34)))
+                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.0b4611a626331p-34))))
+                              (else
+                                (local.set $uz (f64.sub (local.get $uz) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $uy0 (f64.sub (local.get $uz) (f64.const 0x1.3198a2e037073p-69)))
+                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.3198a2e037073p-69)))))
+                            (local.set $un (i32.const 1)))
+                          (else
+                            (local.set $uz (f64.add (local.get $ua) (f64.const 0x1.921fb54400000p+0)))
+                            (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
+                              (then
+                                (local.set $uy0 (f64.add (local.get $uz) (f64.const 0x1.0b4611a626331p-34)))
+                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.0b4611a626331p-34))))
+                              (else
+                                (local.set $uz (f64.add (local.get $uz) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $uy0 (f64.add (local.get $uz) (f64.const 0x1.3198a2e037073p-69)))
+                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.3198a2e037073p-69)))))
+                            (local.set $un (i32.const -1)))))
+                      (else
+                        ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
+                        (local.set $ut (f64.abs (local.get $ua)))
+                        (local.set $un (i32.trunc_f64_s (f64.add (f64.mul (local.get $ut) (f64.const 0x1.45f306dc9c883p-1)) (f64.const 0.5))))
+                        (local.set $ufn (f64.convert_i32_s (local.get $un)))
+                        (local.set $ur (f64.sub (local.get $ut) (f64.mul (local.get $ufn) (f64.const 0x1.921fb54400000p+0))))
+                        (local.set $uw (f64.mul (local.get $ufn) (f64.const 0x1.0b4611a626331p-34)))
+                        (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
+                        (if (i32.or (i32.ge_s (local.get $un) (i32.const 32))
+                              (i32.eq (local.get $uix)
+                                (i32.load offset=1769472 (i32.shl (select (i32.sub (local.get $un) (i32.const 1)) (i32.const 31) (i32.lt_s (local.get $un) (i32.const 32))) (i32.const 2)))))
+                          (then
+                            (local.set $uj (i32.shr_u (local.get $uix) (i32.const 20)))
+                            (local.set $ue (i32.sub (local.get $uj)
+                              (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 52))) (i32.const 0x7ff))))
+                            (if (i32.gt_s (local.get $ue) (i32.const 16))
+                              (then
+                                ;; second piece of pi/2, good to 118 bits
+                                (local.set $ut (local.get $ur))
+                                (local.set $uw (f64.mul (local.get $ufn) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
+                                (local.set $uw (f64.sub (f64.mul (local.get $ufn) (f64.const 0x1.3198a2e037073p-69))
+                                  (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
+                                (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
+                                (local.set $ue (i32.sub (local.get $uj)
+                                  (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 52))) (i32.const 0x7ff))))
+                                (if (i32.gt_s (local.get $ue) (i32.const 49))
+                                  (then
+                                    ;; third piece, good to 151 bits
+                                    (local.set $ut (local.get $ur))
+                                    (local.set $uw (f64.mul (local.get $ufn) (f64.const 0x1.3198a2e000000p-69)))
+                                    (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
+                                    (local.set $uw (f64.sub (f64.mul (local.get $ufn) (f64.const 0x1.b839a252049c1p-104))
+                                      (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
+                                    (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))))))))
+                        (local.set $uy1 (f64.sub (f64.sub (local.get $ur) (local.get $uy0)) (local.get $uw)))
+                        (if (i32.lt_s (local.get $uhx) (i32.const 0))
+                          (then
+                            (local.set $uy0 (f64.neg (local.get $uy0)))
+                            (local.set $uy1 (f64.neg (local.get $uy1)))
+                            (local.set $un (i32.sub (i32.const 0) (local.get $un)))))))))
+                ;; kernels on [-pi/4, pi/4]: sin in quadrants 0 and 2, cos in 1 and 3, negated in 2 and 3
+                (local.set $ue (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 32))) (i32.const 0x7fffffff)))
+                (local.set $uz (f64.mul (local.get $uy0) (local.get $uy0)))
+                (if (i32.and (local.get $un) (i32.const 1))
+                  (then
+                    ;; cos(y0 + y1) = 1 - (z/2 - (z*r - y0*y1)), with 1 - qx split off above |y0| = 0.3
+                    (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
+                      (then (local.set $us (f64.const 1)))
+                      (else
+                        (local.set $uq (f64.mul (local.get $uz) (f64.add (f64.const 0x1.555555555554cp-5) (f64.mul (local.get $uz)
+                          (f64.add (f64.const -0x1.6c16c16c15177p-10) (f64.mul (local.get $uz) (f64.add (f64.const 0x1.a01a019cb1590p-16) (f64.mul (local.get $uz)
+                          (f64.add (f64.const -0x1.27e4f809c52adp-22) (f64.mul (local.get $uz) (f64.add (f64.const 0x1.1ee9ebdb4b1c4p-29)
+                          (f64.mul (local.get $uz) (f64.const -0x1.8fae9be8838d4p-37)))))))))))))
+                        (if (i32.lt_u (local.get $ue) (i32.const 0x3fd33333))
+                          (then
+                            (local.set $us (f64.sub (f64.const 1) (f64.sub (f64.mul (f64.const 0.5) (local.get $uz))
+                              (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))
+                          (else
+                            (local.set $uv (select (f64.const 0.28125)
+                              (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $ue) (i32.const 0x00200000))) (i64.const 32)))
+                              (i32.gt_u (local.get $ue) (i32.const 0x3fe90000))))
+                            (local.set $us (f64.sub (f64.sub (f64.const 1) (local.get $uv))
+                              (f64.sub (f64.sub (f64.mul (f64.const 0.5) (local.get $uz)) (local.get $uv))
+                                (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))))))
+                  (else
+                    ;; sin(y0 + y1) = y0 + (S1*y0^3 + (y0^2*(r*y0^3 - y1/2) + y1)), without y1 when not reduced
+                    (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
+                      (then (local.set $us (local.get $uy0)))
+                      (else
+                        (local.set $uv (f64.mul (local.get $uz) (local.get $uy0)))
+                        (local.set $uq (f64.add (f64.const 0x1.111111110f8a6p-7) (f64.mul (local.get $uz)
+                          (f64.add (f64.const -0x1.a01a019c161d5p-13) (f64.mul (local.get $uz) (f64.add (f64.const 0x1.71de357b1fe7dp-19)
+                          (f64.mul (local.get $uz) (f64.add (f64.const -0x1.ae5e68a2b9cebp-26) (f64.mul (local.get $uz) (f64.const 0x1.5d93a5acfd57cp-33))))))))))
+                        (local.set $us (if (result f64) (local.get $uiy)
+                          (then (f64.sub (local.get $uy0) (f64.sub (f64.sub (f64.mul (local.get $uz)
+                            (f64.sub (f64.mul (f64.const 0.5) (local.get $uy1)) (f64.mul (local.get $uv) (local.get $uq))))
+                            (local.get $uy1)) (f64.mul (local.get $uv) (f64.const -0x1.5555555555549p-3)))))
+                          (else (f64.add (local.get $uy0) (f64.mul (local.get $uv)
+                            (f64.add (f64.const -0x1.5555555555549p-3) (f64.mul (local.get $uz) (local.get $uq))))))))))))
+                (if (i32.and (local.get $un) (i32.const 2)) (then (local.set $us (f64.neg (local.get $us)))))))
+                (f64.store offset=589824 (local.get $fo)
+                  (f64.add (f64.mul (local.get $inputAmplitude) (local.get $us)) (f64.load offset=1966080 (local.get $fo))))))
             ;; cos and sin of 2*pi*ph with one reduction (the module's sine, FD93), or the imported ones
             (local.set $ta (f64.mul (f64.const 6.283185307179586) (local.get $ph)))
             (local.set $thx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ta)) (i64.const 32))))

@@ -54,7 +54,7 @@ export interface WasmExports {
   readonly memory: { readonly buffer: ArrayBuffer };
   readonly run: (count: number) => void;
   readonly convert: (count: number) => void;
-  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number) => void;
+  readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
   readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
   readonly band: (src: number, i0: number, i1: number, slot: number) => void;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;

@@ -107,6 +107,9 @@ export class WasmTraced {
   private readonly own: number;
   /** Whether the noise area may hold another run's noise (a spare instance). */
   private noiseDirty = true;
+  /** Set by loadFloat: the float loop's accumulate computes each input sample (the first to read it). */
+  private floatMakesInput = false;
+  private inputAmplitude = 0;
 
   constructor(readonly loop: WasmBitTrueLoop) {
     const buffer = loop.exports.memory.buffer;
@@ -133,11 +136,14 @@ export class WasmTraced {
       this.noise.fill(0);
       this.noiseDirty = false;
     }
-    this.loop.exports.sine(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own, 0);
+    // With the float loop its accumulate makes x, sample by sample, in the time its feedback chain leaves idle.
+    this.inputAmplitude = amplitude;
+    if (!this.floatMakesInput) this.loop.exports.sine(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own, 0);
   }
 
   /** Load the float loop's constants and start it from phase 0 and zero section states. */
   loadFloat(cfg: FloatLoopConfig): void {
+    this.floatMakesInput = true;
     const f = this.f64;
     const at = TRACED.float / 8;
     // The expressions of runFloatChunk and floatRunner.
@@ -182,6 +188,7 @@ export class WasmTraced {
     const f64 = this.f64;
     const { accumulate, band, sum } = this.loop.exports;
     const own = this.own;
+    const traced = this;
     const slotAt = TRACED.lockSlots + k * 32;
     const lock: LockKernel = {
       scratch: new Float64Array(buffer, TRACED.lockScratch + k * WASM_CHUNK_SAMPLES * 8, WASM_CHUNK_SAMPLES),
@@ -204,7 +211,7 @@ export class WasmTraced {
         f64.fill(0, boxAt / 8, boxAt / 8 + c.boxcarLength);
       },
       run(n0, i0, i1, tail, demod) {
-        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0, own);
+        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0, own, k === 0 && traced.floatMakesInput ? 1 : 0, traced.inputAmplitude);
       },
     };
   }
