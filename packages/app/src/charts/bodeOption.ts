@@ -137,6 +137,9 @@ export function magnitudeAxisMin(traces: readonly BodeTrace[]): number {
   return Math.max(MAG_FLOOR_DB, Math.floor((lowest - 10) / 20) * 20);
 }
 
+const GRID_LEFT_PX = 62;
+const GRID_RIGHT_PX = 30;
+
 export interface BodeOptionSettings {
   /**
    * Draw only the points that bend each line (`thinnedPairs`): the same picture, but the axis tooltip
@@ -191,9 +194,13 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
     legend: { top: 0, data: traces.map((t) => t.label) },
     tooltip: { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) },
     axisPointer: { link: [{ xAxisIndex: 'all' }] },
+    // Fixed margins, with room for the axis names and for the widest end label of a log axis (seven
+    // characters, '100 kHz'): ECharts' default outer-bounds layout measures every axis label a second
+    // time on each redraw only to shrink the grid until they fit, about a fifth of an in-place update
+    // of this plot in Chromium's trace, and it made the plot's width change with the sample rate.
     grid: [
-      { left: 58, right: 18, top: 28, height: '36%' },
-      { left: 58, right: 18, top: '58%', bottom: 36 },
+      { left: GRID_LEFT_PX, right: GRID_RIGHT_PX, top: 28, height: '36%', outerBoundsMode: 'none' },
+      { left: GRID_LEFT_PX, right: GRID_RIGHT_PX, top: '58%', bottom: 36, outerBoundsMode: 'none' },
     ],
     xAxis: [xAxis(0, ''), xAxis(1, 'Frequency')],
     yAxis: [
