@@ -23,9 +23,10 @@ export interface InputGenerator {
   /**
    * As `next` but for x: the chunk's phases and offsets, and noise[0..count) when the scenario has
    * noise (then true). x[i] is amplitude·sin(2π·phaseCycles[i]) + noise[i] (+ 0 without noise), the
-   * caller's to compute (wasmTraced.ts does it in the WebAssembly module).
+   * caller's to compute (wasmTraced.ts does it in the WebAssembly module). With `recurrence` the
+   * phases come from it, after the offsets are filled.
    */
-  phases(chunk: InputChunk, n0: number, count: number, noise: Float64Array): boolean;
+  phases(chunk: InputChunk, n0: number, count: number, noise: Float64Array, recurrence?: PhaseRecurrence): boolean;
 }
 
 /** Modulating waveform of unit peak at phase p in cycles: sine, triangle (starts at 0 rising), square. */
@@ -58,8 +59,15 @@ export function scenarioOffsetHz(s: Scenario, tS: number): number {
   }
 }
 
+/**
+ * The input phase recurrence of advancePhases run elsewhere (wasmTraced.ts, in the WebAssembly
+ * module) on a chunk whose offsets are filled: the same operations in the same order, from
+ * `state.phase`; returns the phase after the chunk.
+ */
+export type PhaseRecurrence = (state: Readonly<PhaseState>, n0: number, count: number) => number;
+
 /** What the per-sample loops read and advance, in one object: V8 boxes a double stored to a closure's variable. */
-interface PhaseState {
+export interface PhaseState {
   readonly s: Scenario;
   readonly sampleRateHz: number;
   readonly centerHz: number;
@@ -92,6 +100,20 @@ function advancePhases(st: PhaseState, chunk: InputChunk, n0: number, count: num
     if (!(phase > 0 && phase < 1)) phase -= Math.floor(phase);
   }
   st.phase = phase;
+}
+
+/** The offsets of samples n0 … n0 + count − 1 alone (advancePhases's), for a PhaseRecurrence to read. */
+function fillOffsets(st: PhaseState, chunk: InputChunk, n0: number, count: number): void {
+  const { s, sampleRateHz, offsetFnHz, constantHz } = st;
+  const offsetHz = chunk.offsetHz;
+  if (constantHz !== null) {
+    offsetHz.fill(constantHz, 0, count);
+    return;
+  }
+  for (let i = 0; i < count; i++) {
+    const n = n0 + i;
+    offsetHz[i] = offsetFnHz ? offsetFnHz(n / sampleRateHz) : scenarioOffsetHz(s, n / sampleRateHz);
+  }
 }
 
 /** x = amplitude·sin(2π·phase) + noise (+ 0 without noise) of the chunk's first `count` samples. */
@@ -137,9 +159,12 @@ export function inputGenerator(
       advancePhases(st, chunk, n0, count);
       sineInput(chunk, count, amplitude, noise ? noiseBuf : null);
     },
-    phases(chunk, n0, count, out) {
+    phases(chunk, n0, count, out, recurrence) {
       if (noise) noise.fill(out, count, sigma);
-      advancePhases(st, chunk, n0, count);
+      if (recurrence) {
+        fillOffsets(st, chunk, n0, count);
+        st.phase = recurrence(st, n0, count);
+      } else advancePhases(st, chunk, n0, count);
       return noise !== null;
     },
   };

@@ -881,4 +881,30 @@
             (else (local.get $s))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample))))
+
+  ;; The input phases of samples n0 .. n0+count-1 into the input chunk (inputSignal.ts advancePhases),
+  ;; from $phase, reading the offsets already there: the phase step at sample $stepSample, then each
+  ;; sample's phase before it advances by the constant step or by (centerHz + offset)/fs, wrapped
+  ;; by phase - floor(phase) only off (0, 1). Returns the phase after the chunk.
+  (func (export "phases") (param $count i32) (param $n0 i32) (param $phase f64) (param $constant i32) (param $constantStep f64)
+    (param $centerHz f64) (param $sampleRateHz f64) (param $stepSample f64) (param $stepCycles f64) (result f64)
+    (local $i i32) (local $o i32)
+    (block $done
+      (loop $sample
+        (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
+        (local.set $o (i32.shl (local.get $i) (i32.const 3)))
+        (if (f64.eq (f64.convert_i32_s (i32.add (local.get $n0) (local.get $i))) (local.get $stepSample))
+          (then
+            (local.set $phase (f64.add (local.get $phase) (local.get $stepCycles)))
+            (local.set $phase (f64.sub (local.get $phase) (f64.floor (local.get $phase))))))
+        (f64.store offset=655360 (local.get $o) (local.get $phase))
+        (local.set $phase (f64.add (local.get $phase)
+          (if (result f64) (local.get $constant)
+            (then (local.get $constantStep))
+            (else (f64.div (f64.add (local.get $centerHz) (f64.load offset=720896 (local.get $o))) (local.get $sampleRateHz))))))
+        (if (i32.eqz (i32.and (f64.gt (local.get $phase) (f64.const 0)) (f64.lt (local.get $phase) (f64.const 1))))
+          (then (local.set $phase (f64.sub (local.get $phase) (f64.floor (local.get $phase))))))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $sample)))
+    (local.get $phase))
 )

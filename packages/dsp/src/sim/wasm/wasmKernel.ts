@@ -58,6 +58,7 @@ export interface WasmExports {
   readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
   readonly band: (src: number, i0: number, i1: number, slot: number) => void;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
+  readonly phases: (count: number, n0: number, phase: number, constant: number, constantStep: number, centerHz: number, sampleRateHz: number, stepSample: number, stepCycles: number) => number;
   readonly sine: (count: number, src: number, dst: number, affine: number, amplitude: number, add: number, own: number, cosine: number) => void;
 }
 

@@ -10,7 +10,7 @@
  * compares the two paths bit for bit.
  */
 import type { FloatLoopConfig } from '../floatKernel.ts';
-import type { InputChunk, InputGenerator } from '../inputSignal.ts';
+import type { InputChunk, InputGenerator, PhaseRecurrence } from '../inputSignal.ts';
 import type { AccumulatorCore } from '../runAccumulator.ts';
 import type { LockKernel } from '../lockMetric.ts';
 import type { BitTruePlan } from '../../types/sim.ts';
@@ -110,6 +110,8 @@ export class WasmTraced {
   /** Set by loadFloat: the float loop's accumulate computes each input sample (the first to read it). */
   private floatMakesInput = false;
   private inputAmplitude = 0;
+  /** inputSignal.ts's phase recurrence in the module. */
+  private readonly recurrence: PhaseRecurrence;
 
   constructor(readonly loop: WasmBitTrueLoop) {
     const buffer = loop.exports.memory.buffer;
@@ -124,6 +126,9 @@ export class WasmTraced {
     this.i32 = new Int32Array(buffer);
     this.noise = view(TRACED.noise);
     this.own = checkOwnSine(loop.exports) ? 1 : 0;
+    const phases = loop.exports.phases;
+    this.recurrence = (st, n0, count) =>
+      phases(count, n0, st.phase, st.constantHz !== null ? 1 : 0, st.constantStep, st.centerHz, st.sampleRateHz, st.stepSample, st.stepCycles);
   }
 
   /**
@@ -131,7 +136,7 @@ export class WasmTraced {
    * generator, x = amplitude·sin(2π·phase) + noise in the module (inputSignal.ts's expression).
    */
   generate(gen: InputGenerator, n0: number, count: number, amplitude: number): void {
-    if (gen.phases(this.input, n0, count, this.noise)) this.noiseDirty = true;
+    if (gen.phases(this.input, n0, count, this.noise, this.recurrence)) this.noiseDirty = true;
     else if (this.noiseDirty) {
       this.noise.fill(0);
       this.noiseDirty = false;
