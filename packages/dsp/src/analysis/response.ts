@@ -36,8 +36,18 @@ interface AnalogCoefficients {
 }
 
 function analogCoefficients(sections: readonly AnalogTf[]): AnalogCoefficients {
-  const values = Float64Array.from(sections.flatMap((tf) => [...tf.num, ...tf.den]));
-  const lengths = Int32Array.from(sections.flatMap((tf) => [tf.num.length, tf.den.length]));
+  let size = 0;
+  for (const tf of sections) size += tf.num.length + tf.den.length;
+  const values = new Float64Array(size);
+  const lengths = new Int32Array(2 * sections.length);
+  let at = 0;
+  for (let s = 0; s < sections.length; s++) {
+    const { num, den } = sections[s]!;
+    lengths[2 * s] = num.length;
+    lengths[2 * s + 1] = den.length;
+    for (let i = 0; i < num.length; i++) values[at++] = num[i]!;
+    for (let i = 0; i < den.length; i++) values[at++] = den[i]!;
+  }
   return { values, lengths };
 }
 
@@ -92,7 +102,17 @@ export function analogResponse(sections: readonly AnalogTf[], freqHz: number): C
 
 /** b0, b1, b2, a0, a1, a2 of every section, flat (read once per response, not once per point). */
 function sectionCoefficients(filter: readonly Sos[]): Float64Array {
-  return Float64Array.from(filter.flatMap((s) => [s.b[0], s.b[1], s.b[2], s.a[0], s.a[1], s.a[2]]));
+  const coef = new Float64Array(6 * filter.length);
+  for (let j = 0; j < filter.length; j++) {
+    const { b, a } = filter[j]!;
+    coef[6 * j] = b[0];
+    coef[6 * j + 1] = b[1];
+    coef[6 * j + 2] = b[2];
+    coef[6 * j + 3] = a[0];
+    coef[6 * j + 4] = a[1];
+    coef[6 * j + 5] = a[2];
+  }
+  return coef;
 }
 
 /**
