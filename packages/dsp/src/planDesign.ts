@@ -118,8 +118,9 @@ function deepFreeze<T>(value: T): T {
     return value;
   }
   Object.freeze(value);
-  const keys = Object.keys(value);
-  for (let i = 0; i < keys.length; i++) deepFreeze((value as Record<string, unknown>)[keys[i]!]);
+  // for…in rather than Object.keys: no array of keys per object (half of this walk's 31 µs on the
+  // mains demo). The plan holds plain objects only, so it visits the same own keys.
+  for (const key in value) deepFreeze((value as Record<string, unknown>)[key]);
   return value;
 }
 
