@@ -16,24 +16,35 @@ import { polyAddDescending, polyMul } from '../filters/polynomial.ts';
 /** First-column entries below this fraction of the row's scale count as zero (marginal = not stable). */
 const ZERO_TOL = 1e-13;
 
-/** True when every root of the descending s polynomial p has a strictly negative real part. */
+/**
+ * True when every root of the descending s polynomial p has a strictly negative real part. The Routh
+ * rows are small typed arrays filled by loops: as JavaScript arrays built by map, filter and push, their
+ * element kinds (small integers or doubles, depending on the coefficients) changed from call to call, and
+ * the optimised code of this function was thrown away four times in the first 600 analyses.
+ */
 export function routhHurwitzStable(p: readonly number[]): boolean {
-  let q = trimLeading(p);
+  const q = trimLeading(p);
   const n = q.length - 1;
   if (n < 1) return true;
   if (q[n] === 0) return false; // a root at s = 0
   // Scale s = ρ·s̃ with ρ = |q_n/q_0|^(1/n): the roots of q̃ have geometric-mean magnitude 1.
   const rho = Math.abs(q[n]! / q[0]!) ** (1 / n);
-  q = q.map((c, i) => c * rho ** (n - i));
-  const lead = q[0]! > 0 ? 1 : -1;
-  let row0 = q.filter((_, i) => i % 2 === 0).map((c) => c * lead);
-  let row1 = q.filter((_, i) => i % 2 === 1).map((c) => c * lead);
+  const lead = q[0]! * rho ** n > 0 ? 1 : -1;
+  let row0 = new Float64Array(Math.floor(n / 2) + 1);
+  let row1 = new Float64Array(Math.floor((n + 1) / 2));
+  for (let i = 0; i <= n; i++) {
+    const c = q[i]! * rho ** (n - i) * lead;
+    if (i % 2 === 0) row0[i / 2] = c;
+    else row1[(i - 1) / 2] = c;
+  }
   for (let r = 1; r <= n; r++) {
-    const scale = Math.max(...row1.map(Math.abs), ...row0.map(Math.abs));
+    let scale = -Infinity;
+    for (let k = 0; k < row1.length; k++) scale = Math.max(scale, Math.abs(row1[k]!));
+    for (let k = 0; k < row0.length; k++) scale = Math.max(scale, Math.abs(row0[k]!));
     const pivot = row1[0] ?? 0;
     if (!(pivot > ZERO_TOL * scale)) return false;
-    const next: number[] = [];
-    for (let k = 0; k < row0.length - 1; k++) next.push((pivot * (row0[k + 1] ?? 0) - row0[0]! * (row1[k + 1] ?? 0)) / pivot);
+    const next = new Float64Array(Math.max(0, row0.length - 1));
+    for (let k = 0; k < next.length; k++) next[k] = (pivot * (row0[k + 1] ?? 0) - row0[0]! * (row1[k + 1] ?? 0)) / pivot;
     row0 = row1;
     row1 = next;
   }
