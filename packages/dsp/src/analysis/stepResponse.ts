@@ -17,12 +17,22 @@ export const PLOT_POINTS = 400;
 /** Phase errors beyond this (rad) end the traces of an unstable loop (flagged `diverged`). */
 export const DIVERGED_RAD = 1e6;
 
-/** The traces being kept (every stride-th sample) and whether the loop diverged before their end. */
+/** The traces being kept (every stride-th sample: `kept` of them so far) and whether the loop diverged before their end. */
 interface Traces {
   readonly timeS: number[];
   readonly phaseStepErrorRad: number[];
   readonly frequencyStepErrorRad: number[];
+  kept: number;
   diverged: boolean;
+}
+
+/**
+ * Room for `length` kept samples, as arrays of doubles from the start: the first kept values (t = 0,
+ * errors 1 and 0) are integers, and arrays that began as small integers took the loop's optimised code
+ * out twice per call in the first analyses when the doubles came (a wrong map, a lost precision).
+ */
+function doubles(length: number): number[] {
+  return new Array<number>(length).fill(0.5);
 }
 
 /**
@@ -56,9 +66,10 @@ function runDiscreteSteps(sections: readonly Sos[], kRadPerS: number, sampleRate
     }
     if (untilKept === 0) {
       untilKept = stride; // every stride-th sample, as i % stride === 0
-      out.timeS.push(i * t);
-      out.phaseStepErrorRad.push(e);
-      out.frequencyStepErrorRad.push(f);
+      out.timeS[out.kept] = i * t;
+      out.phaseStepErrorRad[out.kept] = e;
+      out.frequencyStepErrorRad[out.kept] = f;
+      out.kept++;
     }
     let x = e;
     for (let j = 0; j < k; j++) {
@@ -86,9 +97,10 @@ function analogSteps(phase: readonly number[], rateHz: number, stride: number, o
       return;
     }
     if (i % stride !== 0) continue;
-    out.timeS.push(i * t);
-    out.phaseStepErrorRad.push(p);
-    out.frequencyStepErrorRad.push(f);
+    out.timeS[out.kept] = i * t;
+    out.phaseStepErrorRad[out.kept] = p;
+    out.frequencyStepErrorRad[out.kept] = f;
+    out.kept++;
   }
 }
 
@@ -104,12 +116,16 @@ export function stepResponses(
   const useDiscrete = loopSamples <= MAX_SAMPLES;
   const n = useDiscrete ? loopSamples : MAX_SAMPLES;
   const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
-  const traces: Traces = { timeS: [], phaseStepErrorRad: [], frequencyStepErrorRad: [], diverged: false };
+  const room = Math.ceil(n / stride);
+  const traces: Traces = { timeS: doubles(room), phaseStepErrorRad: doubles(room), frequencyStepErrorRad: doubles(room), kept: 0, diverged: false };
   if (useDiscrete) runDiscreteSteps(sections, kRadPerS, sampleRateHz, n, stride, traces);
   else {
     const rateHz = MAX_SAMPLES / durationS;
     analogSteps(runFilter(bilinearTf(analogE, rateHz, null), n, () => 1, 1), rateHz, stride, traces);
   }
-  const { timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged } = traces;
+  const { timeS, phaseStepErrorRad, frequencyStepErrorRad, kept, diverged } = traces;
+  timeS.length = kept;
+  phaseStepErrorRad.length = kept;
+  frequencyStepErrorRad.length = kept;
   return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
 }
