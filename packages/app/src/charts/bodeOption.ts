@@ -4,7 +4,7 @@
  * marked, with the margins written beside them.
  */
 import type { EChartsCoreOption } from 'echarts/core';
-import { CHART_COLORS, chartAnimation } from './echarts.ts';
+import { CHART_COLORS } from './echarts.ts';
 import { fmtHz } from '../lib/format.ts';
 import { keptIndices } from './thinLine.ts';
 
@@ -190,7 +190,10 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
     minorSplitLine: { show: true, lineStyle: { color: '#f1eee7' } },
   });
   return {
-    animation: chartAnimation(),
+    // Never animated, not only under test (chartAnimation): the editor redraws this plot on every
+    // keystroke, and a second of sliding axis labels and marker lines after each one would show the
+    // new figures late and keep the main thread painting while the next edit is analysed.
+    animation: false,
     legend: { top: 0, data: traces.map((t) => t.label) },
     tooltip: { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) },
     axisPointer: { link: [{ xAxisIndex: 'all' }] },
