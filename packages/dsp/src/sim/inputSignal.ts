@@ -66,7 +66,7 @@ export function scenarioOffsetHz(s: Scenario, tS: number): number {
  */
 export type PhaseRecurrence = (state: Readonly<PhaseState>, n0: number, count: number) => number;
 
-/** What the per-sample loops read and advance, in one object: V8 boxes a double stored to a closure's variable. */
+/** What the per-sample loops read and advance, in one object: the engine boxes every double stored to a closure's variable. */
 export interface PhaseState {
   readonly s: Scenario;
   readonly sampleRateHz: number;
