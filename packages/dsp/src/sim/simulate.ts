@@ -186,8 +186,9 @@ function bitTrueRunner(
   const wasm = traced ? traced.loop : options.kernel === 'wasm' ? wasmBitTrueLoop(plan) : null;
   const scratch = record || wasm ? null : allocRecord(CHUNK_SAMPLES);
   const state = wasm ? null : initialBitTrueState(plan);
-  const { toCycles, hiWeight, yScale, hzPerLsb, centerHz } = bitTrueScales(plan);
-  traced?.loadConvert(bitTrueScales(plan));
+  const scales = bitTrueScales(plan);
+  const { toCycles, hiWeight, yScale, hzPerLsb, centerHz } = scales;
+  traced?.loadConvert(scales);
   const ncoHzOf = bitTrueNcoHzOf(plan);
   const [ncoPhase, y, ncoHz] = traced
     ? [traced.observations[1].ncoPhase, traced.observations[1].y, traced.observations[1].ncoHz]
