@@ -195,13 +195,14 @@ function bitTrueRunner(
     : [new Float64Array(CHUNK_SAMPLES), new Float64Array(CHUNK_SAMPLES), new Float64Array(CHUNK_SAMPLES)];
   return {
     chunk(input, n0, count) {
-      if (traced && wasm) {
+      if (traced) {
         // Quantiser, kernel and the conversion below in the module, into the block the accumulator core reads.
+        const { loop } = traced;
         const slice = record ? sliceRecord(record, n0, n0 + count) : null;
         traced.quantize(plan, count);
-        if (slice) slice.inputCode.set(wasm.input.subarray(0, count));
-        wasm.runInPlace(count);
-        if (slice) copyChunk(wasm.out, slice, count);
+        if (slice) slice.inputCode.set(loop.input.subarray(0, count));
+        loop.runInPlace(count);
+        if (slice) copyChunk(loop.out, slice, count);
         traced.convert(count);
       } else if (wasm) {
         // Without a record the codes are quantised straight into the kernel's input area.
