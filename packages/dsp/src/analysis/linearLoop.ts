@@ -165,9 +165,11 @@ export function noiseGains(loop: LinearLoop, outputs: readonly number[]): number
   const t = new Float64Array(n * n);
   let converged = false;
   for (let iter = 0; iter < 64; iter++) {
-    for (const q of grams) addCongruence(q, power, n, t);
+    for (let g = 0; g < grams.length; g++) addCongruence(grams[g]!, power, n, t);
     multiply(power, power, n, square);
-    [power, square] = [square, power];
+    const previous = power;
+    power = square;
+    square = previous;
     let big = 0;
     for (let i = 0; i < n * n; i++) big = Math.max(big, Math.abs(power[i]!));
     if (!Number.isFinite(big) || big > 1e150) return null;
