@@ -36,13 +36,16 @@ function solveSymmetric(map: SymmetricMap, rhs: Float64Array, n: number): Float6
       for (let i = 0; i < n; i++) for (let j = i; j < n; j++) system[symmetricIndex(i, j, n) * m + col] = image[i * n + j]!;
     }
   }
-  const p = fromUnknowns(solveLinear(system, toUnknowns(rhs, n), m), n);
-  if (!p) return null;
+  const pivots = factorize(system, m);
+  if (!pivots) return null;
+  const x = toUnknowns(rhs, n);
+  solveFactorized(system, pivots, x);
+  const p = fromUnknowns(x, n);
   map(p, image);
   for (let i = 0; i < n * n; i++) image[i] = rhs[i]! - image[i]!;
-  const delta = fromUnknowns(solveLinear(system, toUnknowns(image, n), m), n);
-  if (!delta) return null;
-  for (let i = 0; i < n * n; i++) p[i] = p[i]! + delta[i]!;
+  const delta = toUnknowns(image, n);
+  solveFactorized(system, pivots, delta);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) p[i * n + j] = p[i * n + j]! + delta[symmetricIndex(i, j, n)]!;
   return p;
 }
 
@@ -52,46 +55,63 @@ function toUnknowns(s: Float64Array, n: number): Float64Array {
   return x;
 }
 
-function fromUnknowns(x: Float64Array | null, n: number): Float64Array | null {
-  if (!x) return null;
+function fromUnknowns(x: Float64Array, n: number): Float64Array {
   const p = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) p[i * n + j] = x[symmetricIndex(i, j, n)]!;
   return p;
 }
 
-/** x with M·x = r (M row-major m×m, left untouched); null when singular. */
-function solveLinear(matrix: Float64Array, r: Float64Array, m: number): Float64Array | null {
-  const w = m + 1;
-  const aug = new Float64Array(m * w);
-  for (let i = 0; i < m; i++) {
-    for (let j = 0; j < m; j++) aug[i * w + j] = matrix[i * m + j]!;
-    aug[i * w + m] = r[i]!;
-  }
+/**
+ * Gaussian elimination with partial pivoting of the m×m row-major matrix, in place: its upper triangle
+ * becomes U, and below the diagonal each row keeps the multiplier it was reduced by at that column
+ * (where the elimination leaves only a rounding residue nothing reads). Returns the pivot row of each
+ * column, or null when singular. The solve and its refinement share one elimination: solveFactorized
+ * repeats on a right-hand side exactly the operations an elimination of [M | r] did to r.
+ */
+function factorize(lu: Float64Array, m: number): Int32Array | null {
+  const pivots = new Int32Array(m);
   for (let col = 0; col < m; col++) {
     let piv = col;
-    for (let row = col + 1; row < m; row++) if (Math.abs(aug[row * w + col]!) > Math.abs(aug[piv * w + col]!)) piv = row;
-    if (!(Math.abs(aug[piv * w + col]!) > 1e-300)) return null;
+    for (let row = col + 1; row < m; row++) if (Math.abs(lu[row * m + col]!) > Math.abs(lu[piv * m + col]!)) piv = row;
+    if (!(Math.abs(lu[piv * m + col]!) > 1e-300)) return null;
+    pivots[col] = piv;
     if (piv !== col) {
-      for (let j = col; j < w; j++) {
-        const t = aug[col * w + j]!;
-        aug[col * w + j] = aug[piv * w + j]!;
-        aug[piv * w + j] = t;
+      for (let j = col; j < m; j++) {
+        const t = lu[col * m + j]!;
+        lu[col * m + j] = lu[piv * m + j]!;
+        lu[piv * m + j] = t;
       }
     }
-    const pv = aug[col * w + col]!;
+    const pv = lu[col * m + col]!;
     for (let row = col + 1; row < m; row++) {
-      const f = aug[row * w + col]! / pv;
-      if (f === 0) continue;
-      for (let j = col; j < w; j++) aug[row * w + j] = aug[row * w + j]! - f * aug[col * w + j]!;
+      const f = lu[row * m + col]! / pv;
+      if (f !== 0) for (let j = col + 1; j < m; j++) lu[row * m + j] = lu[row * m + j]! - f * lu[col * m + j]!;
+      lu[row * m + col] = f;
     }
   }
-  const x = new Float64Array(m);
-  for (let row = m - 1; row >= 0; row--) {
-    let acc = aug[row * w + m]!;
-    for (let j = row + 1; j < m; j++) acc -= aug[row * w + j]! * x[j]!;
-    x[row] = acc / aug[row * w + row]!;
+  return pivots;
+}
+
+/** x ← M⁻¹·x from factorize's lu and pivots: the row swaps and reductions in their order, then back substitution. */
+function solveFactorized(lu: Float64Array, pivots: Int32Array, x: Float64Array): void {
+  const m = x.length;
+  for (let col = 0; col < m; col++) {
+    const piv = pivots[col]!;
+    if (piv !== col) {
+      const t = x[col]!;
+      x[col] = x[piv]!;
+      x[piv] = t;
+    }
+    for (let row = col + 1; row < m; row++) {
+      const f = lu[row * m + col]!;
+      if (f !== 0) x[row] = x[row]! - f * x[col]!;
+    }
   }
-  return x;
+  for (let row = m - 1; row >= 0; row--) {
+    let acc = x[row]!;
+    for (let j = row + 1; j < m; j++) acc -= lu[row * m + j]! * x[j]!;
+    x[row] = acc / lu[row * m + row]!;
+  }
 }
 
 /** out = A·p·Aᵀ (row-major n×n; t is n×n scratch). */
