@@ -185,9 +185,11 @@
   ;;   786432  observation block k (k = 0 float loop, 1 bit-true loop) at 786432 + k*327680, f64 x 8192
   ;;           each: NCO phase (cycles), filter output, NCO frequency (Hz), smoothed unwrapped error,
   ;;           wrapped phase error (rad)
-  ;;   1441792 accumulator state k at 1441792 + k*512 (slots below); the bit-true conversion constants
-  ;;           at 1442496
-  ;;   1442816 float loop: constants and phase, section state (4 x f64) at +64, coefficients (5 x f64) at +320
+  ;;   1441792 accumulator state k at 1441792 + k*512: 20 f64 (runAccumulator.ts AccumulatorCore.state),
+  ;;           then at +160 the boxcar's index, fill, length and address (i32 each); the bit-true
+  ;;           conversion constants at 1442496
+  ;;   1442816 float loop: constants and phase, waveform (1 square) and section count (i32) at +40 and +44,
+  ;;           section state (4 x f64) at +64, coefficients (5 x f64) at +320
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
   ;;   1769600 lock band k at 1769600 + k*32: the open bucket's min and max, the tail sum (f64 each)
   ;;   1835008 lock scratch k at 1835008 + k*65536, f64 x 8192: the phase error less the expected one

@@ -17,17 +17,30 @@ import type { BitTruePlan } from '../../types/sim.ts';
 import { MODE } from '../bitTrueKernel.ts';
 import { MAX_SECTIONS, WASM_CHUNK_SAMPLES, releaseWasmBitTrueLoop, wasmBitTrueLoop, wasmInstanceLoop, type WasmBitTrueLoop, type WasmExports } from './wasmKernel.ts';
 
-/** Byte offsets of the traced areas (the layout comment of bitTrueKernel.wat). */
+/**
+ * Byte offsets of the traced areas (the layout comment of bitTrueKernel.wat); those named after an
+ * area (blockY, stateInts, floatWaveform …) are offsets within it.
+ */
 const TRACED = {
   inputX: 589824,
   inputPhase: 655360,
   inputOffset: 720896,
   block: 786432,
   blockBytes: 327680,
+  /** Within a block, after the NCO phase at 0: filter output, NCO frequency, smoothed unwrapped and wrapped phase error. */
+  blockY: 65536,
+  blockNcoHz: 131072,
+  blockSmooth: 196608,
+  blockPhaseErr: 262144,
   state: 1441792,
   stateBytes: 512,
+  /** A state's i32 after its 20 doubles: boxcar index, fill, length and address. */
+  stateInts: 160,
   convert: 1442496,
   float: 1442816,
+  /** The float loop's waveform (1 square) and section count, i32 each, after its constants and phase. */
+  floatWaveform: 40,
+  floatSectionCount: 44,
   floatSections: 1442880,
   floatCoefficients: 1443136,
   boxcars: 1507328,
@@ -119,7 +132,7 @@ export class WasmTraced {
     this.input = { x: view(TRACED.inputX), phaseCycles: view(TRACED.inputPhase), offsetHz: view(TRACED.inputOffset) };
     const block = (k: number): TracedObservations => {
       const at = TRACED.block + k * TRACED.blockBytes;
-      return { ncoPhase: view(at), y: view(at + 65536), ncoHz: view(at + 131072) };
+      return { ncoPhase: view(at), y: view(at + TRACED.blockY), ncoHz: view(at + TRACED.blockNcoHz) };
     };
     this.observations = [block(0), block(1)];
     this.f64 = new Float64Array(buffer);
@@ -157,8 +170,8 @@ export class WasmTraced {
     f[at + 2] = cfg.centerHz;
     f[at + 3] = cfg.gainHzPerUnit;
     f[at + 4] = 0;
-    this.i32[(TRACED.float + 40) / 4] = cfg.waveform === 'square' ? 1 : 0;
-    this.i32[(TRACED.float + 44) / 4] = cfg.sections.length;
+    this.i32[(TRACED.float + TRACED.floatWaveform) / 4] = cfg.waveform === 'square' ? 1 : 0;
+    this.i32[(TRACED.float + TRACED.floatSectionCount) / 4] = cfg.sections.length;
     f.fill(0, TRACED.floatSections / 8, TRACED.floatSections / 8 + 4 * MAX_SECTIONS);
     f.set(
       cfg.sections.flatMap((s) => [s.b[0], s.b[1], s.b[2], s.a[1], s.a[2]]),
@@ -187,7 +200,7 @@ export class WasmTraced {
     const buffer = this.loop.exports.memory.buffer;
     const stateAt = TRACED.state + k * TRACED.stateBytes;
     const state = new Float64Array(buffer, stateAt, 20);
-    const ints = new Int32Array(buffer, stateAt + 160, 4);
+    const ints = new Int32Array(buffer, stateAt + TRACED.stateInts, 4);
     const blockAt = TRACED.block + k * TRACED.blockBytes;
     const boxAt = TRACED.boxcars + k * MAX_WASM_BOXCAR * 8;
     const f64 = this.f64;
@@ -204,8 +217,8 @@ export class WasmTraced {
     return {
       lock,
       state,
-      smooth: new Float64Array(buffer, blockAt + 196608, WASM_CHUNK_SAMPLES),
-      phaseErr: new Float64Array(buffer, blockAt + 262144, WASM_CHUNK_SAMPLES),
+      smooth: new Float64Array(buffer, blockAt + TRACED.blockSmooth, WASM_CHUNK_SAMPLES),
+      phaseErr: new Float64Array(buffer, blockAt + TRACED.blockPhaseErr, WASM_CHUNK_SAMPLES),
       reset(c) {
         state.fill(0);
         state[16] = c.amplitude;
