@@ -33,14 +33,19 @@ const STYLE = {
   quantised: { color: CHART_COLORS.fixed, type: 'dotted' as const, width: 1.5 },
 };
 
-/** [x, y] points with finite y; x > 0 only (a log axis), unless `fromZero` (a time axis). */
+/** A point a plot can draw: finite y, and x > 0 (a log axis) unless `fromZero` (a time axis). */
+function drawable(x: number, y: number, fromZero: boolean): boolean {
+  return (fromZero ? x >= 0 : x > 0) && Number.isFinite(y);
+}
+
+/** The drawable [x, y] points. */
 export function pairs(x: readonly number[], y: readonly number[], fromZero = false): [number, number][] {
   const out: [number, number][] = [];
   const n = Math.min(x.length, y.length);
   for (let i = 0; i < n; i++) {
     const xi = x[i] as number;
     const yi = y[i] as number;
-    if ((fromZero ? xi >= 0 : xi > 0) && Number.isFinite(yi)) out.push([xi, yi]);
+    if (drawable(xi, yi, fromZero)) out.push([xi, yi]);
   }
   return out;
 }
@@ -59,7 +64,7 @@ export function flatPairs(x: readonly number[], y: readonly number[]): Float64Ar
   for (let i = 0; i < n; i++) {
     const xi = x[i] as number;
     const yi = y[i] as number;
-    if (xi > 0 && Number.isFinite(yi)) {
+    if (drawable(xi, yi, false)) {
       out[k++] = xi;
       out[k++] = yi;
     }
