@@ -83,7 +83,7 @@ function lineOfRecord(buffer: Buffer, index: number): number {
  * row past `maxRows`: a capture longer than the release's vectors is refused there, without reading
  * the rest. Synchronous: it runs in the compute pool (workers/handoffTasks.ts), not on the event loop.
  */
-export async function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE_INFINITY): Promise<string[][]> {
+export function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE_INFINITY): string[][] {
   const want = VECTOR_CSV_COLUMNS.join(',');
   refuseBinary(bytes);
   const buffer = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
@@ -129,9 +129,9 @@ export function storedGoldenRows(golden: Uint8Array): string[][] {
 }
 
 /** A capture against a release's stored golden CSV, capped at the golden rows (run in the compute pool). */
-export async function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario: GoldenVectors['scenario'], ncoAccumulatorBits: number): Promise<Comparison> {
+export function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario: GoldenVectors['scenario'], ncoAccumulatorBits: number): Comparison {
   const goldenRows = storedGoldenRows(golden);
-  const rows = await readVectorCsv(capture, goldenRows.length);
+  const rows = readVectorCsv(capture, goldenRows.length);
   // A short file (a header alone, a run cut off) is the wrong file or an unfinished run, not a list of
   // mismatching values: say so, with both counts.
   if (rows.length !== goldenRows.length) {

@@ -50,8 +50,8 @@ export type ComputeOutcome = { readonly threadId: number } & (
 );
 
 /** Every task plans its spec (planDesign) and reads what it needs from that one result; a release is planned with its golden vectors (render/compute.ts). */
-export function runComputeTask(task: ComputeTask): ComputeOutcome | Promise<ComputeOutcome> {
-  if (task.kind === 'release' || task.kind === 'conformance') return runHandoffTask(task).then((outcome) => withMovedFiles({ threadId, ...outcome }));
+export function runComputeTask(task: ComputeTask): ComputeOutcome {
+  if (task.kind === 'release' || task.kind === 'conformance') return withMovedFiles({ threadId, ...runHandoffTask(task) });
   const planned = tryPlanDesign(task.spec);
   if (!planned.ok) return { threadId, ok: false, issues: planned.issues, prefix: 'spec' };
   if (task.kind === 'analysis') return { threadId, ok: true, kind: 'analysis', analysis: planned.plan.analysis };

@@ -36,7 +36,7 @@ export type HandoffOutcome =
   | { readonly ok: true; readonly kind: 'conformance'; readonly comparison: Comparison; readonly sha256: string }
   | HandoffFailure;
 
-export async function runHandoffTask(task: HandoffTask): Promise<HandoffOutcome> {
+export function runHandoffTask(task: HandoffTask): HandoffOutcome {
   if (task.kind === 'release') {
     const computed = computeRelease(task.spec);
     if (!computed.ok) return { ok: false, issues: computed.issues, prefix: 'spec' };
@@ -48,7 +48,7 @@ export async function runHandoffTask(task: HandoffTask): Promise<HandoffOutcome>
     }
   }
   try {
-    const comparison = await compareCapture(task.golden, task.capture, task.scenario, task.ncoAccumulatorBits);
+    const comparison = compareCapture(task.golden, task.capture, task.scenario, task.ncoAccumulatorBits);
     return { ok: true, kind: 'conformance', comparison, sha256: createHash('sha256').update(task.capture).digest('hex') };
   } catch (err) {
     if (err instanceof MalformedCapture) return { ok: false, issues: [{ field: '', message: err.message }], prefix: 'file' };

@@ -72,65 +72,65 @@ describe('golden vector comparison (dsp compareVectors on the stored CSV)', () =
   const parseVectorCsv = (text: string, maxRows?: number) => readVectorCsv(Buffer.from(text), maxRows);
   const goldenText = [header, row(0), row(1), row(2)].join('\n') + '\n';
 
-  it('is bit-exact for the same numbers, however they are spaced or zero-padded', async () => {
-    const got = await parseVectorCsv(`${header}\r\n${row(0)}\r\n 1, 10, 4294967295, 3, -07, 5, 0\r\n${row(2)}\r\n`);
-    expect(compareVectors(await parseVectorCsv(goldenText), got)).toEqual({ verdict: 'bit-exact', samplesCompared: 3, mismatchCount: 0, firstMismatches: [] });
+  it('is bit-exact for the same numbers, however they are spaced or zero-padded', () => {
+    const got = parseVectorCsv(`${header}\r\n${row(0)}\r\n 1, 10, 4294967295, 3, -07, 5, 0\r\n${row(2)}\r\n`);
+    expect(compareVectors(parseVectorCsv(goldenText), got)).toEqual({ verdict: 'bit-exact', samplesCompared: 3, mismatchCount: 0, firstMismatches: [] });
   });
 
-  it('counts every differing value and reports the first ten', async () => {
-    const many = await parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n))].join('\n'));
-    const got = await parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n, n % 2))].join('\n'));
+  it('counts every differing value and reports the first ten', () => {
+    const many = parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n))].join('\n'));
+    const got = parseVectorCsv([header, ...Array.from({ length: 30 }, (_, n) => row(n, n % 2))].join('\n'));
     const r = compareVectors(many, got);
     expect(r.mismatchCount).toBe(15);
     expect(r.firstMismatches).toHaveLength(10);
     expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'filter_code', expected: '0', got: '1' });
   });
 
-  it('keeps 64-bit phase words exact through the stored-CSV record', async () => {
-    const wide = await parseVectorCsv(`${header}\n0,1,18446744073709551615,2,3,4,5\n`);
+  it('keeps 64-bit phase words exact through the stored-CSV record', () => {
+    const wide = parseVectorCsv(`${header}\n0,1,18446744073709551615,2,3,4,5\n`);
     expect(compareVectors(wide, wide).verdict).toBe('bit-exact');
-    const off = await parseVectorCsv(`${header}\n0,1,18446744073709551614,2,3,4,5\n`);
+    const off = parseVectorCsv(`${header}\n0,1,18446744073709551614,2,3,4,5\n`);
     expect(compareVectors(wide, off).firstMismatches).toEqual([{ sampleIndex: 0, column: 'nco_phase', expected: '18446744073709551615', got: '18446744073709551614' }]);
   });
 
-  it('counts missing samples as mismatches', async () => {
-    const got = await parseVectorCsv([header, row(0)].join('\n'));
-    const r = compareVectors(await parseVectorCsv(goldenText), got);
+  it('counts missing samples as mismatches', () => {
+    const got = parseVectorCsv([header, row(0)].join('\n'));
+    const r = compareVectors(parseVectorCsv(goldenText), got);
     expect(r.verdict).toBe('mismatch');
     expect(r.mismatchCount).toBe(2);
     expect(r.firstMismatches[0]).toEqual({ sampleIndex: 1, column: 'sample', expected: '1', got: '(missing)' });
   });
 
-  it('names the line of a malformed file', async () => {
-    await expect(parseVectorCsv('')).rejects.toThrow(/^line 1: the file is empty/);
-    await expect(parseVectorCsv('a,b\n1,2\n')).rejects.toThrow(/^line 1: the header must be/);
-    await expect(parseVectorCsv(`${header}\n${row(0)}\n1,2,3\n`)).rejects.toThrow(/^line 3: expected 7 values, got 3/);
-    await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1).replace('-7', 'x')}\n`)).rejects.toThrow(/^line 3: column nco_code: "x" is not a decimal integer/);
-    await expect(parseVectorCsv(`${header}\n"unterminated\n`)).rejects.toThrow(/^line \d+: not readable as CSV/);
-    await expect(parseVectorCsv(`${header}\n${row(0)}\n${row(1)}\n${row(2)}\n`, 2)).rejects.toThrow(/^line 4: the file has the wrong length: the release's golden vectors hold 2 samples, and this file has more rows/);
+  it('names the line of a malformed file', () => {
+    expect(() => parseVectorCsv('')).toThrow(/^line 1: the file is empty/);
+    expect(() => parseVectorCsv('a,b\n1,2\n')).toThrow(/^line 1: the header must be/);
+    expect(() => parseVectorCsv(`${header}\n${row(0)}\n1,2,3\n`)).toThrow(/^line 3: expected 7 values, got 3/);
+    expect(() => parseVectorCsv(`${header}\n${row(0)}\n${row(1).replace('-7', 'x')}\n`)).toThrow(/^line 3: column nco_code: "x" is not a decimal integer/);
+    expect(() => parseVectorCsv(`${header}\n"unterminated\n`)).toThrow(/^line \d+: not readable as CSV/);
+    expect(() => parseVectorCsv(`${header}\n${row(0)}\n${row(1)}\n${row(2)}\n`, 2)).toThrow(/^line 4: the file has the wrong length: the release's golden vectors hold 2 samples, and this file has more rows/);
   });
 
-  it('says a header-only or cut-off file has the wrong length, with both sample counts', async () => {
+  it('says a header-only or cut-off file has the wrong length, with both sample counts', () => {
     const golden = Buffer.from(goldenText);
-    await expect(compareCapture(golden, Buffer.from(`${header}\n`), scenario, 32)).rejects.toThrow(
+    expect(() => compareCapture(golden, Buffer.from(`${header}\n`), scenario, 32)).toThrow(
       /^the file has the wrong length: expected 3 samples \(one row each after the header, as in the release's golden vectors\), found none \(the file holds the header only\)$/,
     );
-    await expect(compareCapture(golden, Buffer.from([header, row(0), row(1)].join('\n')), scenario, 32)).rejects.toThrow(/^the file has the wrong length: expected 3 samples .*, found 2$/);
-    expect((await compareCapture(golden, golden, scenario, 32)).verdict).toBe('bit-exact');
+    expect(() => compareCapture(golden, Buffer.from([header, row(0), row(1)].join('\n')), scenario, 32)).toThrow(/^the file has the wrong length: expected 3 samples .*, found 2$/);
+    expect(compareCapture(golden, golden, scenario, 32).verdict).toBe('bit-exact');
   });
 
-  it('refuses a binary file as not CSV text instead of quoting what the parser made of it', async () => {
+  it('refuses a binary file as not CSV text instead of quoting what the parser made of it', () => {
     // A gzip member starts 1f 8b 08 (RFC 1952); a UTF-16 export puts a NUL after every ASCII byte.
     const gzip = Buffer.from([0x1f, 0x8b, 0x08, 0x00, 0x00, 0x00, 0x00, 0x00, 0x00, 0x03, 0x4b, 0x4c]);
-    await expect(parseVectorCsv(gzip.toString('latin1'))).rejects.toThrow(/^line 1: this is not a CSV text file \(byte 0x1f at byte offset 0: binary data/);
-    await expect(readVectorCsv(gzip)).rejects.toThrow(/not a CSV text file/);
+    expect(() => parseVectorCsv(gzip.toString('latin1'))).toThrow(/^line 1: this is not a CSV text file \(byte 0x1f at byte offset 0: binary data/);
+    expect(() => readVectorCsv(gzip)).toThrow(/not a CSV text file/);
     const utf16 = Buffer.from(`${header}\n${row(0)}\n`, 'utf16le');
-    await expect(readVectorCsv(utf16)).rejects.toThrow(/^line 1: this is not a CSV text file \(byte 0x00 at byte offset 1/);
-    await expect(readVectorCsv(Buffer.from([0x73, 0x61, 0xff, 0xfe, 0x0a]))).rejects.toThrow(/^this is not a CSV text file \(it is not valid UTF-8/);
+    expect(() => readVectorCsv(utf16)).toThrow(/^line 1: this is not a CSV text file \(byte 0x00 at byte offset 1/);
+    expect(() => readVectorCsv(Buffer.from([0x73, 0x61, 0xff, 0xfe, 0x0a]))).toThrow(/^this is not a CSV text file \(it is not valid UTF-8/);
   });
 
-  it('quotes a wrong header with its invisible characters escaped', async () => {
-    await expect(parseVectorCsv('sample,\u202einput\n1\n')).rejects.toThrow(/got "sample,\\u202einput"/);
+  it('quotes a wrong header with its invisible characters escaped', () => {
+    expect(() => parseVectorCsv('sample,\u202einput\n1\n')).toThrow(/got "sample,\\u202einput"/);
   });
 });
 
