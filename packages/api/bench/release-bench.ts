@@ -154,62 +154,68 @@ export async function runReleaseBench(): Promise<object> {
         // vectors' files alone, then the cut as the server makes it (computeRelease: the same plan,
         // files and the measured acquisition, which is the rest of its time).
         await emptyFileStore(config.fileStoreDir);
-        // Each mark reads the thread figures between two pairs of clock readings, so the reading is in no phase.
-        const marks: { wallEnd: number; cpuEnd: number; threads: ThreadTimes; wallStart: number; cpuStart: number }[] = [];
-        const mark = () => {
+        // Each mark reads the thread figures between two pairs of clock readings, so the reading is in no
+        // phase. Phases are spans between two marks named by what has just been done, so a mark added
+        // later changes no other phase.
+        type MarkName = 'start' | 'planned' | 'plannedWithVectors' | 'vectorFilesWritten' | 'computed' | 'rendered' | 'handedOver' | 'stored' | 'zipped';
+        const marks = {} as Record<MarkName, { wallEnd: number; cpuEnd: number; threads: ThreadTimes; wallStart: number; cpuStart: number }>;
+        const mark = (name: MarkName) => {
           const wallEnd = now();
           const cpuEnd = cpuNow();
           const threads = threadTimes(dbPid);
-          marks.push({ wallEnd, cpuEnd, threads, cpuStart: cpuNow(), wallStart: now() });
+          marks[name] = { wallEnd, cpuEnd, threads, cpuStart: cpuNow(), wallStart: now() };
         };
-        mark();
+        mark('start');
         if (!tryPlanDesign(record.spec).ok) throw new Error(`${record.spec.name} does not plan`);
-        mark();
+        mark('planned');
         const withVectors = tryPlanDesign(record.spec, { goldenVectors: true });
         if (!withVectors.ok || !withVectors.plan.goldenVectors) throw new Error(`${record.spec.name} has no golden vectors`);
-        mark();
+        mark('plannedWithVectors');
         const files = releaseVectors(withVectors.plan as ReleasablePlan);
-        mark();
+        mark('vectorFilesWritten');
         const computed = computeRelease(record.spec);
         if (!computed.ok) throw new Error(`${record.spec.name} cannot be released`);
-        mark();
+        mark('computed');
         const rendered = renderArtifacts(computed.release);
-        mark();
+        mark('rendered');
         // The compute thread's answer crosses to the event loop by structured clone, the files' own
         // buffers moved (workers/movedBytes.ts), and is stored as it arrives.
         const arrived = structuredClone(rendered, { transfer: ownedBuffers(rendered.files.map((f) => f.bytes)) });
         const handedOver = { ...arrived, files: arrived.files.map((f) => ({ ...f, bytes: asBuffer(f.bytes) })) };
-        mark();
+        mark('handedOver');
         const releaseId = await handoff.releases.store(record, handedOver, actor);
-        mark();
+        mark('stored');
         const sink = nullSink();
         await writeBundle(sink, `${record.spec.name}-bench`, handedOver.files.map((f) => ({ name: f.name, content: f.bytes })), new Date(0));
-        mark();
+        mark('zipped');
         if (i < WARM_UP) continue;
-        // Segment k runs from mark k to mark k + 1, in each of the four figures.
-        const segments = (length: (from: (typeof marks)[number], to: (typeof marks)[number]) => number) => marks.slice(1).map((to, k) => length(marks[k]!, to));
-        const wallOf = segments((a, b) => b.wallEnd - a.wallStart);
-        const figures: [Series, number[]][] = [
+        // A span from the end of mark `from` to the start of mark `to`, in each of the four figures.
+        type Span = (from: MarkName, to: MarkName) => number;
+        const wallOf: Span = (from, to) => marks[to].wallEnd - marks[from].wallStart;
+        const figures: [Series, Span][] = [
           [wall, wallOf],
-          [cpu, segments((a, b) => b.cpuEnd - a.cpuStart)],
-          [own, segments((a, b) => ownCoresMs(b.wallEnd - a.wallStart, a.threads, b.threads, CORES)).map((x, k) => Math.min(x, wallOf[k]!))],
-          [dbCpu, segments((a, b) => (b.threads.dbCpuNs - a.threads.dbCpuNs) / 1e6)],
+          [cpu, (from, to) => marks[to].cpuEnd - marks[from].cpuStart],
+          [own, (from, to) => Math.min(ownCoresMs(wallOf(from, to), marks[from].threads, marks[to].threads, CORES), wallOf(from, to))],
+          [dbCpu, (from, to) => (marks[to].threads.dbCpuNs - marks[from].threads.dbCpuNs) / 1e6],
         ];
-        for (const [out, s] of figures) {
-          const plan = s[0]!;
-          const vectorRun = s[1]! - plan;
-          const vectorFiles = s[2]!;
+        for (const [out, span] of figures) {
+          const plan = span('start', 'planned');
+          const vectorRun = span('planned', 'plannedWithVectors') - plan;
+          const vectorFiles = span('plannedWithVectors', 'vectorFilesWritten');
+          const render = span('computed', 'rendered');
+          const handOver = span('rendered', 'handedOver');
+          const store = span('handedOver', 'stored');
           // The server zips a bundle when firmware downloads it (downloadService), not at the cut: the zip
           // is reported as its own phase and left out of the cut's total.
-          const rest = s[4]! + s[5]! + s[6]!;
+          const rest = render + handOver + store;
           out.recompute.push(plan);
           out.vectorRun.push(vectorRun);
           out.vectorFiles.push(vectorFiles);
-          out.acquisition.push(s[3]! - plan - vectorRun - vectorFiles);
-          out.render.push(s[4]!);
-          out.handOver.push(s[5]!);
-          out.store.push(s[6]!);
-          out.zip.push(s[7]!);
+          out.acquisition.push(span('vectorFilesWritten', 'computed') - plan - vectorRun - vectorFiles);
+          out.render.push(render);
+          out.handOver.push(handOver);
+          out.store.push(store);
+          out.zip.push(span('stored', 'zipped'));
           out.total.push(plan + vectorRun + vectorFiles + rest);
           out.totalWithoutVectors.push(plan + rest);
         }
