@@ -102,7 +102,7 @@ export interface BitTrueScales {
 }
 
 /** One loop's per-sample observations in the instance's memory. */
-export interface TracedObservations {
+interface TracedObservations {
   readonly ncoPhase: Float64Array;
   readonly y: Float64Array;
   readonly ncoHz: Float64Array;
