@@ -178,8 +178,9 @@ export class WasmBitTrueLoop {
 }
 
 /**
- * Instances handed back by finished runs. A new instance allocates and clears its 1.9 MiB memory,
- * which took longer than a whole 4096-sample golden-vector run; `load` resets every byte a run reads.
+ * Instances handed back by finished runs, so a short run (a golden-vector cut, an editor's simulation)
+ * does not pay for allocating and clearing a new instance's 2 MiB memory (32 pages); `load` resets
+ * every byte a run reads.
  */
 const spare: WasmBitTrueLoop[] = [];
 const MAX_SPARE = 4;
