@@ -28,15 +28,14 @@ import type { RunSetup } from '../../src/sim/runAccumulator.ts';
 import { lockModel } from '../../src/sim/lockMetric.ts';
 import type { DesignPlan } from '../../src/planDesign.ts';
 import { PerSampleAccumulator } from './reference/perSampleAccumulator.ts';
-import { MAX_WASM_BOXCAR, wasmTraced } from '../../src/sim/wasm/wasmTraced.ts';
-import { MAX_SECTIONS } from '../../src/sim/wasm/wasmKernel.ts';
+import { tracedRunFits, wasmTraced } from '../../src/sim/wasm/wasmTraced.ts';
 import { rippleBoxcarSamples } from '../../src/sim/rippleBoxcar.ts';
 
 /** Whether simulatePlan runs this case in the module (wasmTraced.ts) rather than in TypeScript. */
 function runsTraced(plan: DesignPlan, scenario: Scenario): boolean {
   const { sampleRateHz, centerHz } = plan.spec;
   const total = Math.round(scenario.durationS * sampleRateHz);
-  return plan.filter.sections.length <= MAX_SECTIONS && rippleBoxcarSamples(sampleRateHz, centerHz, total) <= MAX_WASM_BOXCAR;
+  return tracedRunFits(plan.filter.sections.length, rippleBoxcarSamples(sampleRateHz, centerHz, total));
 }
 
 /** A random spec of the cross-check generator with random widths and modes (valid, or null). */

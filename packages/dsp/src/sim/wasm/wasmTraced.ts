@@ -87,7 +87,7 @@ function checkOwnSine(exports: WasmExports): boolean {
 }
 
 /** Boxcar samples the memory holds per loop; a longer ripple period runs the TypeScript accumulator. */
-export const MAX_WASM_BOXCAR = 16384;
+const MAX_WASM_BOXCAR = 16384;
 
 /** The doubles the bit-true outputs are scaled by (simulate.ts computes them once for both paths). */
 export interface BitTrueScales {
@@ -241,12 +241,19 @@ export class WasmTraced {
 }
 
 /**
+ * Whether a traced run's float sections and ripple boxcar fit the module's memory: the one rule for
+ * which runs wasmTraced takes (where WebAssembly runs at all), also read by the tests that count them.
+ */
+export function tracedRunFits(floatSections: number, boxcarLength: number): boolean {
+  return floatSections <= MAX_SECTIONS && boxcarLength <= MAX_WASM_BOXCAR;
+}
+
+/**
  * An instance for a traced run (the bit-true plan loaded when there is one), or null when the
- * TypeScript path must run: no WebAssembly, more sections than the memory holds, or a ripple boxcar
- * longer than its area.
+ * TypeScript path must run: no WebAssembly, or a run that does not fit (tracedRunFits).
  */
 export function wasmTraced(plan: BitTruePlan | undefined, floatSections: number, boxcarLength: number): WasmTraced | null {
-  if (floatSections > MAX_SECTIONS || boxcarLength > MAX_WASM_BOXCAR) return null;
+  if (!tracedRunFits(floatSections, boxcarLength)) return null;
   const loop = plan ? wasmBitTrueLoop(plan) : wasmInstanceLoop();
   return loop ? new WasmTraced(loop) : null;
 }
