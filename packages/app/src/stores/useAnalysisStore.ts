@@ -6,7 +6,7 @@ import type { DesignAnalysis } from '../workers/dspJobs.ts';
 import { errorText } from '../lib/errorText.ts';
 
 /**
- * How often the first result is analysed and drawn again: V8 optimises a function only after it has
+ * How often the first result is analysed and drawn again: the engine optimises a function only after it has
  * run several times, and one pass left the first edit at about 1.15 times the main-thread CPU of three
  * passes (A/B in Chromium, 11 fresh browsers each).
  */
