@@ -1,11 +1,12 @@
 /**
  * Conformance: an uploaded capture in the golden-vector CSV layout (dsp's VECTOR_CSV_COLUMNS, one
  * header line, one row of decimal integers per sample) compared value by value with the release's
- * golden vectors. Parsing is csv-parse's (its synchronous API, in the compute pool), and a malformed file is refused with the line that is wrong:
- * a binary file before any parsing (it is not text, and the parser's view of it means nothing to a
- * reader), a file with more or fewer samples than the golden vectors as having the wrong length;
- * the comparison is dsp's compareVectors against the release's stored golden CSV. Both run in the
- * compute pool (workers/handoffTasks.ts), never on the event loop.
+ * golden vectors. Parsing is csv-parse's (its synchronous API, in the compute pool), and a malformed
+ * file is refused with the line that is wrong: a binary file before any parsing (it is not text, and
+ * the parser's view of it means nothing to a reader), a file with more or fewer samples than the
+ * golden vectors as having the wrong length; the comparison is dsp's compareVectors against the
+ * release's stored golden CSV. Both run in the compute pool (workers/handoffTasks.ts), never on the
+ * event loop.
  */
 import { parse as parseSync } from 'csv-parse/sync';
 import { compareVectors, VECTOR_CSV_COLUMNS, type GoldenVectors } from '@loopwright/dsp';
@@ -118,7 +119,7 @@ function checkedRow(record: string[], line: () => number): string[] {
  * took 610–700 ms CPU of a 65 536-row file here (load 15), most of a compare. Anything else is refused
  * as a damaged store, not read on.
  */
-export function storedGoldenRows(golden: Uint8Array): string[][] {
+function storedGoldenRows(golden: Uint8Array): string[][] {
   const [header, ...lines] = Buffer.from(golden.buffer, golden.byteOffset, golden.byteLength).toString('utf8').split('\n');
   if (header !== VECTOR_CSV_COLUMNS.join(',') || lines.pop() !== '') throw new Error('the stored golden vectors are not in the release CSV layout');
   return lines.map((line, i) => {
