@@ -72,6 +72,7 @@ export function rtlTestbenchVhdlView(
 ): RtlTestbenchVhdlView {
   const names = codeNames(rtl.name);
   const byColumn = new Map(hex.map((h) => [h.column, h]));
+  const input = byColumn.get('input_code')!;
   return {
     header,
     entity: rtl.entities.testbench,
@@ -83,7 +84,7 @@ export function rtlTestbenchVhdlView(
     replay: String(rtlReplaySamples(length)),
     cyclesPerSample: String(rtl.timing.cyclesPerSample),
     names: rtlConstantNames(names.vhdlConstant),
-    input: { file: byColumn.get('input_code')!.fileName, lineBits: String(4 * byColumn.get('input_code')!.digits) },
+    input: { file: input.fileName, lineBits: String(4 * input.digits) },
     checks: CHECKED_COLUMNS.map(({ column, port }) => {
       const h = byColumn.get(column)!;
       return {
