@@ -11,6 +11,7 @@
 import { parse as parseSync } from 'csv-parse/sync';
 import { compareVectors, VECTOR_CSV_COLUMNS, type GoldenVectors } from '@loopwright/dsp';
 import { HIDDEN_TEXT_CHARACTERS } from '@loopwright/contract';
+import { countText } from '../render/countText.ts';
 
 export const MAX_REPORTED_MISMATCHES = 10;
 
@@ -45,8 +46,6 @@ function printable(text: string, max = 80): string {
   return cut.replace(new RegExp(HIDDEN_TEXT_CHARACTERS.source, 'g'), (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 }
 
-const count = (n: number) => n.toLocaleString('en');
-
 /**
  * Refuse a file that is not text: a NUL or another control byte (tab, CR and LF aside) in the first
  * 64 KiB, or bytes that are not UTF-8 (common practice, no source: how tools tell text from binary).
@@ -56,7 +55,7 @@ function refuseBinary(bytes: Uint8Array): void {
   const at = head.findIndex((b) => b < 0x20 && b !== 0x09 && b !== 0x0a && b !== 0x0d);
   if (at >= 0) {
     const line = 1 + head.subarray(0, at).filter((b) => b === 0x0a).length;
-    throw new MalformedCapture(line, `this is not a CSV text file (byte 0x${(head[at] as number).toString(16).padStart(2, '0')} at byte offset ${count(at)}: binary data, such as a waveform database or an archive); export the run as CSV text`);
+    throw new MalformedCapture(line, `this is not a CSV text file (byte 0x${(head[at] as number).toString(16).padStart(2, '0')} at byte offset ${countText(at)}: binary data, such as a waveform database or an archive); export the run as CSV text`);
   }
   try {
     new TextDecoder('utf-8', { fatal: true }).decode(bytes);
@@ -99,7 +98,7 @@ export function readVectorCsv(bytes: Uint8Array, maxRows = Number.POSITIVE_INFIN
   if (!header) throw new MalformedCapture(1, `the file is empty; expected the header ${want}`);
   if (header.join(',') !== want) throw new MalformedCapture(lineOfRecord(buffer, 0), `the header must be "${want}", got "${printable(header.join(','))}"`);
   if (rows.length > maxRows) {
-    throw new MalformedCapture(lineOfRecord(buffer, maxRows + 1), `the file has the wrong length: the release's golden vectors hold ${count(maxRows)} samples, and this file has more rows; compare the first ${count(maxRows)} samples of the run`);
+    throw new MalformedCapture(lineOfRecord(buffer, maxRows + 1), `the file has the wrong length: the release's golden vectors hold ${countText(maxRows)} samples, and this file has more rows; compare the first ${countText(maxRows)} samples of the run`);
   }
   rows.forEach((row, i) => checkedRow(row, () => lineOfRecord(buffer, i + 1)));
   return rows;
@@ -136,8 +135,8 @@ export function compareCapture(golden: Uint8Array, capture: Uint8Array, scenario
   // A short file (a header alone, a run cut off) is the wrong file or an unfinished run, not a list of
   // mismatching values: say so, with both counts.
   if (rows.length !== goldenRows.length) {
-    const found = rows.length === 0 ? 'found none (the file holds the header only)' : `found ${count(rows.length)}`;
-    throw new MalformedCapture(null, `the file has the wrong length: expected ${count(goldenRows.length)} samples (one row each after the header, as in the release's golden vectors), ${found}`);
+    const found = rows.length === 0 ? 'found none (the file holds the header only)' : `found ${countText(rows.length)}`;
+    throw new MalformedCapture(null, `the file has the wrong length: expected ${countText(goldenRows.length)} samples (one row each after the header, as in the release's golden vectors), ${found}`);
   }
   return compareWithGolden(goldenFromRows(goldenRows, scenario, ncoAccumulatorBits), rows);
 }

@@ -5,6 +5,7 @@
  */
 import { referenceRtlTiming, type BitTruePlan, type ReferenceRtlTiming } from '@loopwright/dsp';
 import { codeNames } from './identifiers.ts';
+import { countText } from './countText.ts';
 
 export const COEFFICIENT_SUFFIXES = ['B0', 'B1', 'B2', 'A1', 'A2'] as const;
 
@@ -162,10 +163,9 @@ export function rtlReplaySamples(recordSamples: number): number {
  * samples", or "all 4,096 golden samples" when it covered the record.
  */
 export function replayWording(replayedSamples: number, recordSamples: number): string {
-  const count = (n: number) => n.toLocaleString('en');
   return replayedSamples >= recordSamples
-    ? `all ${count(recordSamples)} golden samples`
-    : `the first ${count(replayedSamples)} of the ${count(recordSamples)} golden samples`;
+    ? `all ${countText(recordSamples)} golden samples`
+    : `the first ${countText(replayedSamples)} of the ${countText(recordSamples)} golden samples`;
 }
 
 /**
