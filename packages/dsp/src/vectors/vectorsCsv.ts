@@ -15,11 +15,26 @@ import { asciiString, putDecimal, putInt32, putText, putUint32 } from './asciiTe
 export const VECTOR_CSV_COLUMNS = ['sample', 'input_code', 'nco_phase', 'table_address', 'nco_code', 'detector_code', 'filter_code'] as const;
 export type VectorCsvColumn = (typeof VECTOR_CSV_COLUMNS)[number];
 
+/** hi·2^32 + lo is a safe integer (at most 2^53 − 1) exactly when hi is below 2^21. */
+const SAFE_PHASE_HI = 0x200000;
+
+/**
+ * The accumulator value hi·2^32 + lo, exactly: a number while it is a safe integer, and past 2^53
+ * (the upper half of a 64-bit accumulator) BigInt's decimal digits, which a double would round.
+ */
+function phaseValue(hi: number, lo: number): number | string {
+  return hi < SAFE_PHASE_HI ? hi * 4294967296 + lo : ((BigInt(hi) << 32n) + BigInt(lo)).toString();
+}
+
 /** The accumulator value hi·2^32 + lo as a decimal string (exact for any width up to 64 bits). */
 export function phaseDecimal(hi: number, lo: number): string {
-  if (hi === 0) return String(lo);
-  const v = hi * 4294967296 + lo;
-  return Number.isSafeInteger(v) ? String(v) : ((BigInt(hi) << 32n) + BigInt(lo)).toString();
+  return String(phaseValue(hi, lo));
+}
+
+/** phaseDecimal's digits at `at`; returns the position after them. */
+function putPhase(buf: Uint8Array, at: number, hi: number, lo: number): number {
+  const v = phaseValue(hi, lo);
+  return typeof v === 'number' ? putDecimal(buf, at, v) : putText(buf, at, v);
 }
 
 /** Bytes of a row at most: sample (10 digits), five signed 32-bit codes (11 each), the phase (20), 7 separators. */
@@ -29,14 +44,14 @@ const NEWLINE = 0x0a;
 const HEADER = `${VECTOR_CSV_COLUMNS.join(',')}\n`;
 
 /**
- * Kept by hand rather than csv-stringify (csv-parse's sibling): every field is a decimal integer, so
- * there is nothing to quote or escape, and csv-stringify 6.9.0 wrote the same bytes for the four demo
- * specs (SHA-256 equal) in 9.6–11.4 ms per 4096-row file against 1.9 ms for a template string per
- * row (median of 100 runs, 2-core machine). The digits are now written straight into one buffer
- * (asciiText.ts), with the same bytes as that template string: at 65 536 samples the template string
- * took most of a release cut (packages/dsp/bench/bench.ts, "goldenVectors", for the figures).
- * `samples` keeps the first rows only (a simulation's first vectors); the default is the whole record.
- * The bytes, ASCII, exactly as long as the text (a release stores them as they are).
+ * The golden-vector CSV as its ASCII bytes, exactly as long as the text (a release stores them as
+ * they are). `samples` keeps the first rows only (a simulation's first vectors); the default is the
+ * whole record. Every field is a decimal integer, so there is nothing to quote or escape, and the
+ * digits go straight into one buffer (asciiText.ts), with the bytes String(v) gives, because a string
+ * per value was the cost: csv-stringify 6.9.0 (csv-parse's sibling) wrote the same bytes in 9.6–11.4 ms
+ * per 4096-row file against 1.9 ms for a template string per row (median of 100 runs, 2-core machine),
+ * and at 65 536 samples the template string took most of a release cut (packages/dsp/bench/bench.ts,
+ * "goldenVectors").
  */
 export function vectorsCsvBytes(v: GoldenVectors, samples = v.record.length): Uint8Array {
   const r = v.record;
@@ -49,11 +64,7 @@ export function vectorsCsvBytes(v: GoldenVectors, samples = v.record.length): Ui
     buf[at++] = COMMA;
     at = putInt32(buf, at, inputCode[n] as number);
     buf[at++] = COMMA;
-    // Up to 2^53 the phase is a safe integer; a wider one (a 64-bit accumulator) takes BigInt's digits.
-    const hi = phaseHi[n] as number;
-    if (hi === 0) at = putUint32(buf, at, phaseLo[n] as number);
-    else if (hi < 0x200000) at = putDecimal(buf, at, hi * 4294967296 + (phaseLo[n] as number));
-    else at = putText(buf, at, phaseDecimal(hi, phaseLo[n] as number));
+    at = putPhase(buf, at, phaseHi[n] as number, phaseLo[n] as number);
     buf[at++] = COMMA;
     at = putInt32(buf, at, tableAddress[n] as number);
     buf[at++] = COMMA;
