@@ -123,28 +123,20 @@ function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array
   }
 }
 
-/** q ← Q + Mᵀ·Q·M (t is scratch); the elements of Mᵀ·(Q·M) summed two side by side, as in multiply. */
-function addCongruence(q: Float64Array, mat: Float64Array, n: number, t: Float64Array): void {
+/** out = xᵀ (n×n). */
+function transpose(x: Float64Array, n: number, out: Float64Array): void {
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[j * n + i] = x[i * n + j]!;
+}
+
+/**
+ * q ← Q + Mᵀ·Q·M, both products by multiply (t and u are scratch, matT is Mᵀ). The zero terms multiply
+ * skips would add ±0 to a sum that starts at +0 and so is never -0: for a finite Q the doubles are those of
+ * summing every term, in the same order.
+ */
+function addCongruence(q: Float64Array, mat: Float64Array, matT: Float64Array, n: number, t: Float64Array, u: Float64Array): void {
   multiply(q, mat, n, t);
-  for (let i = 0; i < n; i++) {
-    const row = i * n;
-    let j = 0;
-    for (; j + 1 < n; j += 2) {
-      let acc0 = 0;
-      let acc1 = 0;
-      for (let l = 0, o = 0; l < n; l++, o += n) {
-        const mli = mat[o + i]!;
-        acc0 += mli * t[o + j]!;
-        acc1 += mli * t[o + j + 1]!;
-      }
-      q[row + j] = q[row + j]! + acc0;
-      q[row + j + 1] = q[row + j + 1]! + acc1;
-    }
-    if (j === n) continue;
-    let acc = 0;
-    for (let l = 0, o = 0; l < n; l++, o += n) acc += mat[o + i]! * t[o + j]!;
-    q[row + j] = q[row + j]! + acc;
-  }
+  multiply(matT, t, n, u);
+  for (let k = 0; k < n * n; k++) q[k] = q[k]! + u[k]!;
 }
 
 /**
@@ -163,9 +155,12 @@ export function noiseGains(loop: LinearLoop, outputs: readonly number[]): number
   let power = Float64Array.from(a);
   let square = new Float64Array(n * n);
   const t = new Float64Array(n * n);
+  const u = new Float64Array(n * n);
+  const powerT = new Float64Array(n * n);
   let converged = false;
   for (let iter = 0; iter < 64; iter++) {
-    for (let g = 0; g < grams.length; g++) addCongruence(grams[g]!, power, n, t);
+    transpose(power, n, powerT);
+    for (let g = 0; g < grams.length; g++) addCongruence(grams[g]!, power, powerT, n, t, u);
     multiply(power, power, n, square);
     const previous = power;
     power = square;
