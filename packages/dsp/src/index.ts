@@ -53,4 +53,5 @@ export { measureAcquisition, cascadeDcGain, DEFAULT_ACQUISITION_SAMPLES, ACQUISI
 export { wordLengthSearch, wordLengthSearchAsync, wordLengthSteps } from './wordlength/wordLengthSearch.ts';
 export { compareVectors } from './vectors/compareVectors.ts';
 export { simResultToJson } from './sim/simResultJson.ts';
+export { mergeSimResults, type SimResultParts } from './sim/mergeSimResults.ts';
 export { referenceRtlTiming, referenceRtlWarnings, clocksPerUpdate } from './rtl/referenceTiming.ts';
