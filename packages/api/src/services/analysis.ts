@@ -76,7 +76,7 @@ export class AnalysisService {
       throw invalidInput('scenario.durationS', `scenario.durationS ${request.scenario.durationS} s is ${samples} loop samples at ${spec.sampleRateHz} Hz; this server simulates at most ${this.maxSimulationSamples} per request (durationS ≤ ${Number(maxDurationS.toPrecision(4))} s)`);
     }
     const options = { mode: request.mode, buckets: request.buckets };
-    const outcome = await this.compute.run({ kind: 'simulation', spec, scenario: request.scenario, options }, cancel);
+    const outcome = await this.compute.runSimulation({ kind: 'simulation', spec, scenario: request.scenario, options }, cancel);
     if (!outcome.ok) throw issuesError(outcome.issues, outcome.prefix);
     if (outcome.kind !== 'simulation') throw new Error('compute pool answered a simulation with another kind');
     return encodedJsonOf(outcome.simulationJson);

@@ -14,22 +14,31 @@ import {
   type AcquisitionComparison,
   type AnalysisResult,
   type SimOptions,
+  type SimResult,
   type SpecIssue,
 } from '@loopwright/dsp';
 import { encodeJson } from '../encodedJson.ts';
 import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
 import { movingBytes } from './movedBytes.ts';
+import { mapSimParts, type EncodedSimParts } from './simHalves.ts';
+
+export interface SimulationTask {
+  readonly kind: 'simulation';
+  /** A stored design's spec or a request body's (planned here, so parsed once more as it enters dsp). */
+  readonly spec: unknown;
+  readonly scenario: unknown;
+  readonly options: Pick<SimOptions, 'mode' | 'buckets'>;
+  /**
+   * A half of a split 'both' run (services/compute.ts runSimulation): the answer is the result's
+   * members, each run and the plan encoded on their own, for mergeSimResults on the event loop's thread.
+   */
+  readonly half?: boolean;
+}
 
 export type ComputeTask =
   | HandoffTask
   | { readonly kind: 'analysis'; readonly spec: unknown }
-  | {
-      readonly kind: 'simulation';
-      /** A stored design's spec or a request body's (planned here, so parsed once more as it enters dsp). */
-      readonly spec: unknown;
-      readonly scenario: unknown;
-      readonly options: Pick<SimOptions, 'mode' | 'buckets'>;
-    }
+  | SimulationTask
   | {
       readonly kind: 'acquisition';
       readonly spec: unknown;
@@ -44,7 +53,14 @@ export type ComputeOutcome = { readonly threadId: number } & (
   | HandoffOutcome
   | { readonly ok: true; readonly kind: 'analysis'; readonly analysis: AnalysisResult }
   /** The SimResult as UTF-8 JSON (encodedJson.ts): encoded here so the event loop only sends the bytes. */
-  | { readonly ok: true; readonly kind: 'simulation'; readonly simulationJson: Uint8Array }
+  | {
+      readonly ok: true;
+      readonly kind: 'simulation';
+      readonly simulationJson: Uint8Array;
+      /** The threads of a split run's halves, float then bit-true (absent when one thread ran both). */
+      readonly halvesOn?: readonly [number, number];
+    }
+  | { readonly ok: true; readonly kind: 'simulationHalf'; readonly half: EncodedSimParts }
   | { readonly ok: true; readonly kind: 'acquisition'; readonly acquisition: AcquisitionComparison }
   | ComputeFailure
 );
@@ -59,7 +75,9 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome {
   const scenario = parseScenario(task.scenario);
   if (!scenario.ok) return { threadId, ok: false, issues: scenario.issues, prefix: 'scenario' };
   try {
-    return { threadId, ok: true, kind: 'simulation', simulationJson: encodeJson(simulatePlan(planned.plan, scenario.scenario, task.options)) };
+    const result = simulatePlan(planned.plan, scenario.scenario, task.options);
+    if (task.half) return encodedHalf(result);
+    return { threadId, ok: true, kind: 'simulation', simulationJson: encodeJson(result) };
   } catch (err) {
     // Checks that need the spec and the scenario together (the input band, the record size) throw.
     if (err instanceof FieldError) return fieldFailure(err);
@@ -70,6 +88,13 @@ export function runComputeTask(task: ComputeTask): ComputeOutcome {
 /** A rendered release's file bytes go to the event loop's thread moved, not copied (movedBytes.ts). */
 function withMovedFiles(outcome: ComputeOutcome): ComputeOutcome {
   return outcome.ok && outcome.kind === 'release' ? movingBytes(outcome, outcome.rendered.files.map((f) => f.bytes)) : outcome;
+}
+
+/** The members of a half run, its run and plan encoded here and moved to the event loop's thread. */
+function encodedHalf(result: SimResult): ComputeOutcome {
+  const half: EncodedSimParts = mapSimParts(result, encodeJson);
+  const bytes = [half.float, half.bitTrue, half.plan].filter((b): b is Uint8Array => b !== undefined);
+  return movingBytes({ threadId, ok: true, kind: 'simulationHalf', half }, bytes);
 }
 
 /** Estimates beside the measurement; progress is posted at most every 2 % so the port stays quiet. */
