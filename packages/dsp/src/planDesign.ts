@@ -68,15 +68,21 @@ function attempt<T>(step: () => T): { readonly value: T; readonly issue: null } 
   }
 }
 
-/** Plan a valid spec (see the module comment); never throws for a ValidSpec. */
-export function planDesign(spec: ValidSpec, options: PlanOptions = {}): DesignPlan {
+/** The steps of planDesign up to its analysis: what the bit-true constants and the vectors are planned from. */
+function analysisSteps(spec: ValidSpec, options: AnalyzeOptions) {
   const filter = designLoopFilter(spec);
   const q = attempt(() => quantizeSections(filter.sections, spec.fixedPoint));
   const quantization: QuantizationOutcome = q.value ? { filter: q.value, error: null } : { filter: null, error: q.issue };
   const nco = ncoSummary(spec);
+  const analysis = analyzeParts(spec, specWarnings(spec), { filter, quantization, nco }, options);
+  return { filter, q, nco, analysis };
+}
+
+/** Plan a valid spec (see the module comment); never throws for a ValidSpec. */
+export function planDesign(spec: ValidSpec, options: PlanOptions = {}): DesignPlan {
+  const { filter, q, nco, analysis } = analysisSteps(spec, options);
   const bitTrueIssue = q.issue ?? nco.controlError;
   const bitTrue = q.value && nco.control ? planBitTrue(spec, { quantized: q.value, tuning: nco.tuning, control: nco.control }) : null;
-  const analysis = analyzeParts(spec, specWarnings(spec), { filter, quantization, nco }, options);
   const loop: SimLoop = { spec, sections: filter.sections, bitTrue, bitTrueIssue };
   const wanted = options.goldenVectors;
   const vectors = !wanted || !bitTrue ? null : attempt(() => (wanted === true ? releaseGoldenVectors(loop) : goldenVectorsOf(loop, wanted)));
@@ -155,9 +161,12 @@ export async function simulatePlanAsync(plan: DesignPlan, scenario: Scenario, op
 
 // Conveniences for a spec held as a plain object (examples and tests): validate, plan, read one part.
 
-/** The analysis of a spec (planDesign(...).analysis); throws LoopSpecError naming the fields of an invalid spec. */
+/**
+ * The analysis of a spec, as planDesign(...).analysis (the same steps, frozen alike) without the bit-true
+ * constants and the sine table it never reads; throws LoopSpecError naming the fields of an invalid spec.
+ */
 export function analyzeDesign(spec: LoopSpec, options: AnalyzeOptions = {}): AnalysisResult {
-  return planDesign(requireValidSpec(spec), options).analysis;
+  return deepFreeze(analysisSteps(requireValidSpec(spec), options).analysis);
 }
 
 /** The analysis of any input, or its field issues; never throws. */

@@ -4,6 +4,7 @@
  * Outputs are plain data so they cross postMessage.
  */
 import {
+  analyzeDesign,
   measurePlanAcquisition,
   planDesign,
   requireValidSpec,
@@ -58,10 +59,11 @@ export interface JobContext {
 
 /**
  * The page sends a spec it validated with the same schema (form/specValidation.ts); the brand does not
- * survive postMessage, so it is parsed once more here, as it enters dsp.
+ * survive postMessage, so analyzeDesign parses it once more as it enters dsp. It plans what the analysis
+ * reads and no more: the job returns the analysis alone, never the bit-true constants.
  */
 export function analyzeJob(spec: LoopSpec): DesignAnalysis {
-  return { analysis: planDesign(requireValidSpec(spec)).analysis };
+  return { analysis: analyzeDesign(spec) };
 }
 
 /** Runs up to this many samples also return every sample, so the modulating signal can be drawn. */
