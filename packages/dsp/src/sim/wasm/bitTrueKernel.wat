@@ -14,6 +14,7 @@
 ;;
 ;; Memory layout (bytes; LAYOUT in src/sim/wasm/wasmKernel.ts holds the same numbers):
 ;;   0      constants, one i64 each (in the order of the loads below; wasmKernel.ts writes them)
+;;   160    the constants run derives from them (run writes them there and reads them back)
 ;;   256    state: phase accumulator (i64), checksum (i32 in an i64 slot)
 ;;   512    section state, 4 x i64 per section: x[n-1], x[n-2], y[n-1], y[n-2]
 ;;   1024   coefficient codes, 5 x i64 per section: b0 b1 b2 a1 a2
@@ -72,6 +73,27 @@
     (local.set $detH (select (i64.shr_u (i64.shl (i64.const 1) (local.get $detS)) (i64.const 1)) (i64.const 0) (local.get $detMode)))
     (local.set $fcH (select (i64.shr_u (i64.shl (i64.const 1) (local.get $fcS)) (i64.const 1)) (i64.const 0) (local.get $fcMode)))
     (local.set $gH (select (i64.shr_u (i64.shl (i64.const 1) (local.get $gS)) (i64.const 1)) (i64.const 0) (local.get $gMode)))
+    ;; the derived constants through memory and back: V8 otherwise recomputes each at every use in the loop
+    (i64.store offset=160 (i32.const 0) (local.get $dMin))
+    (i64.store offset=168 (i32.const 0) (local.get $waMin))
+    (i64.store offset=176 (i32.const 0) (local.get $gLeft))
+    (i64.store offset=184 (i32.const 0) (local.get $gS))
+    (i32.store offset=192 (i32.const 0) (local.get $detMode))
+    (i32.store offset=200 (i32.const 0) (local.get $fcMode))
+    (i32.store offset=208 (i32.const 0) (local.get $gMode))
+    (i64.store offset=216 (i32.const 0) (local.get $detH))
+    (i64.store offset=224 (i32.const 0) (local.get $fcH))
+    (i64.store offset=232 (i32.const 0) (local.get $gH))
+    (local.set $dMin (i64.load offset=160 (i32.const 0)))
+    (local.set $waMin (i64.load offset=168 (i32.const 0)))
+    (local.set $gLeft (i64.load offset=176 (i32.const 0)))
+    (local.set $gS (i64.load offset=184 (i32.const 0)))
+    (local.set $detMode (i32.load offset=192 (i32.const 0)))
+    (local.set $fcMode (i32.load offset=200 (i32.const 0)))
+    (local.set $gMode (i32.load offset=208 (i32.const 0)))
+    (local.set $detH (i64.load offset=216 (i32.const 0)))
+    (local.set $fcH (i64.load offset=224 (i32.const 0)))
+    (local.set $gH (i64.load offset=232 (i32.const 0)))
     (local.set $acc (i64.load offset=256 (i32.const 0)))
     (local.set $h (i32.load offset=264 (i32.const 0)))
     (block $done
@@ -196,6 +218,7 @@
   ;;   1966080 input noise, f64 x 8192 (zero without noise)
   ;;   2031616 sin(2*pi*NCO phase) of the bit-true loop, f64 x 8192 (its quadrature arm)
   ;;   1769472 high words of n*pi/2 for the sine (below)
+;;   1769728 the loops' f64 constants (the data segments at the end)
 
   ;; The bit-true outputs of the last `run` as doubles in observation block 1 (simulate.ts bitTrueRunner):
   ;; NCO phase hi*2^(32-N) + lo*2^-N cycles, filter output y*2^-(D-1), NCO frequency M' + delta*fs/2^N.
@@ -250,6 +273,37 @@
     ;; the input sample's sine (makeInput)
     (local $ua f64) (local $us f64) (local $uhx i32) (local $uix i32) (local $un i32) (local $uj i32) (local $ue i32) (local $uiy i32)
     (local $uy0 f64) (local $uy1 f64) (local $ut f64) (local $ufn f64) (local $ur f64) (local $uw f64) (local $uz f64) (local $uv f64) (local $uq f64)
+    ;; the constants from the pool (a literal in the loop would be rebuilt in a register at every use)
+    (local $twoPi f64) (local $half f64) (local $minusHalf f64) (local $one f64) (local $minusOne f64) (local $two f64) (local $invpio2 f64) (local $pio2_1 f64)
+    (local $pio2_1t f64) (local $pio2_2 f64) (local $pio2_2t f64) (local $pio2_3 f64) (local $pio2_3t f64) (local $S1 f64) (local $S2 f64) (local $S3 f64)
+    (local $S4 f64) (local $S5 f64) (local $S6 f64) (local $C1 f64) (local $C2 f64) (local $C3 f64) (local $C4 f64) (local $C5 f64)
+    (local $C6 f64) (local $qx f64)
+    (local.set $twoPi (f64.load offset=1769728 (i32.const 0)))
+    (local.set $half (f64.load offset=1769736 (i32.const 0)))
+    (local.set $minusHalf (f64.load offset=1769744 (i32.const 0)))
+    (local.set $one (f64.load offset=1769752 (i32.const 0)))
+    (local.set $minusOne (f64.load offset=1769760 (i32.const 0)))
+    (local.set $two (f64.load offset=1769768 (i32.const 0)))
+    (local.set $invpio2 (f64.load offset=1769776 (i32.const 0)))
+    (local.set $pio2_1 (f64.load offset=1769784 (i32.const 0)))
+    (local.set $pio2_1t (f64.load offset=1769792 (i32.const 0)))
+    (local.set $pio2_2 (f64.load offset=1769800 (i32.const 0)))
+    (local.set $pio2_2t (f64.load offset=1769808 (i32.const 0)))
+    (local.set $pio2_3 (f64.load offset=1769816 (i32.const 0)))
+    (local.set $pio2_3t (f64.load offset=1769824 (i32.const 0)))
+    (local.set $S1 (f64.load offset=1769832 (i32.const 0)))
+    (local.set $S2 (f64.load offset=1769840 (i32.const 0)))
+    (local.set $S3 (f64.load offset=1769848 (i32.const 0)))
+    (local.set $S4 (f64.load offset=1769856 (i32.const 0)))
+    (local.set $S5 (f64.load offset=1769864 (i32.const 0)))
+    (local.set $S6 (f64.load offset=1769872 (i32.const 0)))
+    (local.set $C1 (f64.load offset=1769880 (i32.const 0)))
+    (local.set $C2 (f64.load offset=1769888 (i32.const 0)))
+    (local.set $C3 (f64.load offset=1769896 (i32.const 0)))
+    (local.set $C4 (f64.load offset=1769904 (i32.const 0)))
+    (local.set $C5 (f64.load offset=1769912 (i32.const 0)))
+    (local.set $C6 (f64.load offset=1769920 (i32.const 0)))
+    (local.set $qx (f64.load offset=1769928 (i32.const 0)))
     (local.set $base (f64.load offset=1442816 (i32.const 0)))
     (local.set $gain (f64.load offset=1442824 (i32.const 0)))
     (local.set $fCenterHz (f64.load offset=1442832 (i32.const 0)))
@@ -294,7 +348,7 @@
               (then
                 ;; this sample's input (inputSignal.ts: amplitude*sin(2*pi*phase) + noise) for both loops,
                 ;; here where the feedback chain below leaves the core idle; the module's sine as in sine
-                (local.set $ua (f64.mul (f64.const 6.283185307179586) (f64.load offset=655360 (local.get $fo))))
+                (local.set $ua (f64.mul (local.get $twoPi) (f64.load offset=655360 (local.get $fo))))
             (local.set $uhx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ua)) (i64.const 32))))
             (local.set $uix (i32.and (local.get $uhx) (i32.const 0x7fffffff)))
             (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $uix) (i32.const 0x413921fb)))
@@ -314,34 +368,34 @@
                         ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
                         (if (i32.gt_s (local.get $uhx) (i32.const 0))
                           (then
-                            (local.set $uz (f64.sub (local.get $ua) (f64.const 0x1.921fb54400000p+0)))
+                            (local.set $uz (f64.sub (local.get $ua) (local.get $pio2_1)))
                             (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
                               (then
-                                (local.set $uy0 (f64.sub (local.get $uz) (f64.const 0x1.0b4611a626331p-34)))
-                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.0b4611a626331p-34))))
+                                (local.set $uy0 (f64.sub (local.get $uz) (local.get $pio2_1t)))
+                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_1t))))
                               (else
-                                (local.set $uz (f64.sub (local.get $uz) (f64.const 0x1.0b4611a600000p-34)))
-                                (local.set $uy0 (f64.sub (local.get $uz) (f64.const 0x1.3198a2e037073p-69)))
-                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.3198a2e037073p-69)))))
+                                (local.set $uz (f64.sub (local.get $uz) (local.get $pio2_2)))
+                                (local.set $uy0 (f64.sub (local.get $uz) (local.get $pio2_2t)))
+                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_2t)))))
                             (local.set $un (i32.const 1)))
                           (else
-                            (local.set $uz (f64.add (local.get $ua) (f64.const 0x1.921fb54400000p+0)))
+                            (local.set $uz (f64.add (local.get $ua) (local.get $pio2_1)))
                             (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
                               (then
-                                (local.set $uy0 (f64.add (local.get $uz) (f64.const 0x1.0b4611a626331p-34)))
-                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.0b4611a626331p-34))))
+                                (local.set $uy0 (f64.add (local.get $uz) (local.get $pio2_1t)))
+                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_1t))))
                               (else
-                                (local.set $uz (f64.add (local.get $uz) (f64.const 0x1.0b4611a600000p-34)))
-                                (local.set $uy0 (f64.add (local.get $uz) (f64.const 0x1.3198a2e037073p-69)))
-                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (f64.const 0x1.3198a2e037073p-69)))))
+                                (local.set $uz (f64.add (local.get $uz) (local.get $pio2_2)))
+                                (local.set $uy0 (f64.add (local.get $uz) (local.get $pio2_2t)))
+                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_2t)))))
                             (local.set $un (i32.const -1)))))
                       (else
                         ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
                         (local.set $ut (f64.abs (local.get $ua)))
-                        (local.set $un (i32.trunc_f64_s (f64.add (f64.mul (local.get $ut) (f64.const 0x1.45f306dc9c883p-1)) (f64.const 0.5))))
+                        (local.set $un (i32.trunc_f64_s (f64.add (f64.mul (local.get $ut) (local.get $invpio2)) (local.get $half))))
                         (local.set $ufn (f64.convert_i32_s (local.get $un)))
-                        (local.set $ur (f64.sub (local.get $ut) (f64.mul (local.get $ufn) (f64.const 0x1.921fb54400000p+0))))
-                        (local.set $uw (f64.mul (local.get $ufn) (f64.const 0x1.0b4611a626331p-34)))
+                        (local.set $ur (f64.sub (local.get $ut) (f64.mul (local.get $ufn) (local.get $pio2_1))))
+                        (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_1t)))
                         (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
                         (if (i32.or (i32.ge_s (local.get $un) (i32.const 32))
                               (i32.eq (local.get $uix)
@@ -354,9 +408,9 @@
                               (then
                                 ;; second piece of pi/2, good to 118 bits
                                 (local.set $ut (local.get $ur))
-                                (local.set $uw (f64.mul (local.get $ufn) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_2)))
                                 (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
-                                (local.set $uw (f64.sub (f64.mul (local.get $ufn) (f64.const 0x1.3198a2e037073p-69))
+                                (local.set $uw (f64.sub (f64.mul (local.get $ufn) (local.get $pio2_2t))
                                   (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
                                 (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
                                 (local.set $ue (i32.sub (local.get $uj)
@@ -365,9 +419,9 @@
                                   (then
                                     ;; third piece, good to 151 bits
                                     (local.set $ut (local.get $ur))
-                                    (local.set $uw (f64.mul (local.get $ufn) (f64.const 0x1.3198a2e000000p-69)))
+                                    (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_3)))
                                     (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
-                                    (local.set $uw (f64.sub (f64.mul (local.get $ufn) (f64.const 0x1.b839a252049c1p-104))
+                                    (local.set $uw (f64.sub (f64.mul (local.get $ufn) (local.get $pio2_3t))
                                       (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
                                     (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))))))))
                         (local.set $uy1 (f64.sub (f64.sub (local.get $ur) (local.get $uy0)) (local.get $uw)))
@@ -383,22 +437,22 @@
                   (then
                     ;; cos(y0 + y1) = 1 - (z/2 - (z*r - y0*y1)), with 1 - qx split off above |y0| = 0.3
                     (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
-                      (then (local.set $us (f64.const 1)))
+                      (then (local.set $us (local.get $one)))
                       (else
-                        (local.set $uq (f64.mul (local.get $uz) (f64.add (f64.const 0x1.555555555554cp-5) (f64.mul (local.get $uz)
-                          (f64.add (f64.const -0x1.6c16c16c15177p-10) (f64.mul (local.get $uz) (f64.add (f64.const 0x1.a01a019cb1590p-16) (f64.mul (local.get $uz)
-                          (f64.add (f64.const -0x1.27e4f809c52adp-22) (f64.mul (local.get $uz) (f64.add (f64.const 0x1.1ee9ebdb4b1c4p-29)
-                          (f64.mul (local.get $uz) (f64.const -0x1.8fae9be8838d4p-37)))))))))))))
+                        (local.set $uq (f64.mul (local.get $uz) (f64.add (local.get $C1) (f64.mul (local.get $uz)
+                          (f64.add (local.get $C2) (f64.mul (local.get $uz) (f64.add (local.get $C3) (f64.mul (local.get $uz)
+                          (f64.add (local.get $C4) (f64.mul (local.get $uz) (f64.add (local.get $C5)
+                          (f64.mul (local.get $uz) (local.get $C6)))))))))))))
                         (if (i32.lt_u (local.get $ue) (i32.const 0x3fd33333))
                           (then
-                            (local.set $us (f64.sub (f64.const 1) (f64.sub (f64.mul (f64.const 0.5) (local.get $uz))
+                            (local.set $us (f64.sub (local.get $one) (f64.sub (f64.mul (local.get $half) (local.get $uz))
                               (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))
                           (else
-                            (local.set $uv (select (f64.const 0.28125)
+                            (local.set $uv (select (local.get $qx)
                               (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $ue) (i32.const 0x00200000))) (i64.const 32)))
                               (i32.gt_u (local.get $ue) (i32.const 0x3fe90000))))
-                            (local.set $us (f64.sub (f64.sub (f64.const 1) (local.get $uv))
-                              (f64.sub (f64.sub (f64.mul (f64.const 0.5) (local.get $uz)) (local.get $uv))
+                            (local.set $us (f64.sub (f64.sub (local.get $one) (local.get $uv))
+                              (f64.sub (f64.sub (f64.mul (local.get $half) (local.get $uz)) (local.get $uv))
                                 (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))))))
                   (else
                     ;; sin(y0 + y1) = y0 + (S1*y0^3 + (y0^2*(r*y0^3 - y1/2) + y1)), without y1 when not reduced
@@ -406,20 +460,20 @@
                       (then (local.set $us (local.get $uy0)))
                       (else
                         (local.set $uv (f64.mul (local.get $uz) (local.get $uy0)))
-                        (local.set $uq (f64.add (f64.const 0x1.111111110f8a6p-7) (f64.mul (local.get $uz)
-                          (f64.add (f64.const -0x1.a01a019c161d5p-13) (f64.mul (local.get $uz) (f64.add (f64.const 0x1.71de357b1fe7dp-19)
-                          (f64.mul (local.get $uz) (f64.add (f64.const -0x1.ae5e68a2b9cebp-26) (f64.mul (local.get $uz) (f64.const 0x1.5d93a5acfd57cp-33))))))))))
+                        (local.set $uq (f64.add (local.get $S2) (f64.mul (local.get $uz)
+                          (f64.add (local.get $S3) (f64.mul (local.get $uz) (f64.add (local.get $S4)
+                          (f64.mul (local.get $uz) (f64.add (local.get $S5) (f64.mul (local.get $uz) (local.get $S6))))))))))
                         (local.set $us (if (result f64) (local.get $uiy)
                           (then (f64.sub (local.get $uy0) (f64.sub (f64.sub (f64.mul (local.get $uz)
-                            (f64.sub (f64.mul (f64.const 0.5) (local.get $uy1)) (f64.mul (local.get $uv) (local.get $uq))))
-                            (local.get $uy1)) (f64.mul (local.get $uv) (f64.const -0x1.5555555555549p-3)))))
+                            (f64.sub (f64.mul (local.get $half) (local.get $uy1)) (f64.mul (local.get $uv) (local.get $uq))))
+                            (local.get $uy1)) (f64.mul (local.get $uv) (local.get $S1)))))
                           (else (f64.add (local.get $uy0) (f64.mul (local.get $uv)
-                            (f64.add (f64.const -0x1.5555555555549p-3) (f64.mul (local.get $uz) (local.get $uq))))))))))))
+                            (f64.add (local.get $S1) (f64.mul (local.get $uz) (local.get $uq))))))))))))
                 (if (i32.and (local.get $un) (i32.const 2)) (then (local.set $us (f64.neg (local.get $us)))))))
                 (f64.store offset=589824 (local.get $fo)
                   (f64.add (f64.mul (local.get $inputAmplitude) (local.get $us)) (f64.load offset=1966080 (local.get $fo))))))
             ;; cos and sin of 2*pi*ph with one reduction (the module's sine, FD93), or the imported ones
-            (local.set $ta (f64.mul (f64.const 6.283185307179586) (local.get $ph)))
+            (local.set $ta (f64.mul (local.get $twoPi) (local.get $ph)))
             (local.set $thx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ta)) (i64.const 32))))
             (local.set $tix (i32.and (local.get $thx) (i32.const 0x7fffffff)))
             (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $tix) (i32.const 0x413921fb)))
@@ -441,35 +495,35 @@
                         ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
                         (if (i32.gt_s (local.get $thx) (i32.const 0))
                           (then
-                            (local.set $tz (f64.sub (local.get $ta) (f64.const 0x1.921fb54400000p+0)))
+                            (local.set $tz (f64.sub (local.get $ta) (local.get $pio2_1)))
                             (if (i32.ne (local.get $tix) (i32.const 0x3ff921fb))
                               (then
-                                (local.set $ty0 (f64.sub (local.get $tz) (f64.const 0x1.0b4611a626331p-34)))
-                                (local.set $ty1 (f64.sub (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.0b4611a626331p-34))))
+                                (local.set $ty0 (f64.sub (local.get $tz) (local.get $pio2_1t)))
+                                (local.set $ty1 (f64.sub (f64.sub (local.get $tz) (local.get $ty0)) (local.get $pio2_1t))))
                               (else
-                                (local.set $tz (f64.sub (local.get $tz) (f64.const 0x1.0b4611a600000p-34)))
-                                (local.set $ty0 (f64.sub (local.get $tz) (f64.const 0x1.3198a2e037073p-69)))
-                                (local.set $ty1 (f64.sub (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.3198a2e037073p-69)))))
+                                (local.set $tz (f64.sub (local.get $tz) (local.get $pio2_2)))
+                                (local.set $ty0 (f64.sub (local.get $tz) (local.get $pio2_2t)))
+                                (local.set $ty1 (f64.sub (f64.sub (local.get $tz) (local.get $ty0)) (local.get $pio2_2t)))))
                             (local.set $tn (i32.const 1)))
                           (else
-                            (local.set $tz (f64.add (local.get $ta) (f64.const 0x1.921fb54400000p+0)))
+                            (local.set $tz (f64.add (local.get $ta) (local.get $pio2_1)))
                             (if (i32.ne (local.get $tix) (i32.const 0x3ff921fb))
                               (then
-                                (local.set $ty0 (f64.add (local.get $tz) (f64.const 0x1.0b4611a626331p-34)))
-                                (local.set $ty1 (f64.add (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.0b4611a626331p-34))))
+                                (local.set $ty0 (f64.add (local.get $tz) (local.get $pio2_1t)))
+                                (local.set $ty1 (f64.add (f64.sub (local.get $tz) (local.get $ty0)) (local.get $pio2_1t))))
                               (else
-                                (local.set $tz (f64.add (local.get $tz) (f64.const 0x1.0b4611a600000p-34)))
-                                (local.set $ty0 (f64.add (local.get $tz) (f64.const 0x1.3198a2e037073p-69)))
-                                (local.set $ty1 (f64.add (f64.sub (local.get $tz) (local.get $ty0)) (f64.const 0x1.3198a2e037073p-69)))))
+                                (local.set $tz (f64.add (local.get $tz) (local.get $pio2_2)))
+                                (local.set $ty0 (f64.add (local.get $tz) (local.get $pio2_2t)))
+                                (local.set $ty1 (f64.add (f64.sub (local.get $tz) (local.get $ty0)) (local.get $pio2_2t)))))
                             (local.set $tn (i32.const -1)))))
                       (else
                         ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
                         (local.set $tt (f64.abs (local.get $ta)))
                         ;; fn as floor, n from it: the same integer as the int conversion and back, sooner
-                        (local.set $tfn (f64.floor (f64.add (f64.mul (local.get $tt) (f64.const 0x1.45f306dc9c883p-1)) (f64.const 0.5))))
+                        (local.set $tfn (f64.floor (f64.add (f64.mul (local.get $tt) (local.get $invpio2)) (local.get $half))))
                         (local.set $tn (i32.trunc_f64_s (local.get $tfn)))
-                        (local.set $tr (f64.sub (local.get $tt) (f64.mul (local.get $tfn) (f64.const 0x1.921fb54400000p+0))))
-                        (local.set $tw (f64.mul (local.get $tfn) (f64.const 0x1.0b4611a626331p-34)))
+                        (local.set $tr (f64.sub (local.get $tt) (f64.mul (local.get $tfn) (local.get $pio2_1))))
+                        (local.set $tw (f64.mul (local.get $tfn) (local.get $pio2_1t)))
                         (local.set $ty0 (f64.sub (local.get $tr) (local.get $tw)))
                         (if (i32.or (i32.ge_s (local.get $tn) (i32.const 32))
                               (i32.eq (local.get $tix)
@@ -482,9 +536,9 @@
                               (then
                                 ;; second piece of pi/2, good to 118 bits
                                 (local.set $tt (local.get $tr))
-                                (local.set $tw (f64.mul (local.get $tfn) (f64.const 0x1.0b4611a600000p-34)))
+                                (local.set $tw (f64.mul (local.get $tfn) (local.get $pio2_2)))
                                 (local.set $tr (f64.sub (local.get $tt) (local.get $tw)))
-                                (local.set $tw (f64.sub (f64.mul (local.get $tfn) (f64.const 0x1.3198a2e037073p-69))
+                                (local.set $tw (f64.sub (f64.mul (local.get $tfn) (local.get $pio2_2t))
                                   (f64.sub (f64.sub (local.get $tt) (local.get $tr)) (local.get $tw))))
                                 (local.set $ty0 (f64.sub (local.get $tr) (local.get $tw)))
                                 (local.set $te (i32.sub (local.get $tj)
@@ -493,9 +547,9 @@
                                   (then
                                     ;; third piece, good to 151 bits
                                     (local.set $tt (local.get $tr))
-                                    (local.set $tw (f64.mul (local.get $tfn) (f64.const 0x1.3198a2e000000p-69)))
+                                    (local.set $tw (f64.mul (local.get $tfn) (local.get $pio2_3)))
                                     (local.set $tr (f64.sub (local.get $tt) (local.get $tw)))
-                                    (local.set $tw (f64.sub (f64.mul (local.get $tfn) (f64.const 0x1.b839a252049c1p-104))
+                                    (local.set $tw (f64.sub (f64.mul (local.get $tfn) (local.get $pio2_3t))
                                       (f64.sub (f64.sub (local.get $tt) (local.get $tr)) (local.get $tw))))
                                     (local.set $ty0 (f64.sub (local.get $tr) (local.get $tw)))))))))
                         (local.set $ty1 (f64.sub (f64.sub (local.get $tr) (local.get $ty0)) (local.get $tw)))
@@ -508,36 +562,36 @@
                 (local.set $te (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ty0)) (i64.const 32))) (i32.const 0x7fffffff)))
                 (local.set $tz (f64.mul (local.get $ty0) (local.get $ty0)))
                 (if (i32.lt_u (local.get $te) (i32.const 0x3e400000))
-                  (then (local.set $tc (f64.const 1)))
+                  (then (local.set $tc (local.get $one)))
                   (else
-                    (local.set $tq (f64.mul (local.get $tz) (f64.add (f64.const 0x1.555555555554cp-5) (f64.mul (local.get $tz)
-                      (f64.add (f64.const -0x1.6c16c16c15177p-10) (f64.mul (local.get $tz) (f64.add (f64.const 0x1.a01a019cb1590p-16) (f64.mul (local.get $tz)
-                      (f64.add (f64.const -0x1.27e4f809c52adp-22) (f64.mul (local.get $tz) (f64.add (f64.const 0x1.1ee9ebdb4b1c4p-29)
-                      (f64.mul (local.get $tz) (f64.const -0x1.8fae9be8838d4p-37)))))))))))))
+                    (local.set $tq (f64.mul (local.get $tz) (f64.add (local.get $C1) (f64.mul (local.get $tz)
+                      (f64.add (local.get $C2) (f64.mul (local.get $tz) (f64.add (local.get $C3) (f64.mul (local.get $tz)
+                      (f64.add (local.get $C4) (f64.mul (local.get $tz) (f64.add (local.get $C5)
+                      (f64.mul (local.get $tz) (local.get $C6)))))))))))))
                     (if (i32.lt_u (local.get $te) (i32.const 0x3fd33333))
                       (then
-                        (local.set $tc (f64.sub (f64.const 1) (f64.sub (f64.mul (f64.const 0.5) (local.get $tz))
+                        (local.set $tc (f64.sub (local.get $one) (f64.sub (f64.mul (local.get $half) (local.get $tz))
                           (f64.sub (f64.mul (local.get $tz) (local.get $tq)) (f64.mul (local.get $ty0) (local.get $ty1)))))))
                       (else
-                        (local.set $tv (select (f64.const 0.28125)
+                        (local.set $tv (select (local.get $qx)
                           (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $te) (i32.const 0x00200000))) (i64.const 32)))
                           (i32.gt_u (local.get $te) (i32.const 0x3fe90000))))
-                        (local.set $tc (f64.sub (f64.sub (f64.const 1) (local.get $tv))
-                          (f64.sub (f64.sub (f64.mul (f64.const 0.5) (local.get $tz)) (local.get $tv))
+                        (local.set $tc (f64.sub (f64.sub (local.get $one) (local.get $tv))
+                          (f64.sub (f64.sub (f64.mul (local.get $half) (local.get $tz)) (local.get $tv))
                             (f64.sub (f64.mul (local.get $tz) (local.get $tq)) (f64.mul (local.get $ty0) (local.get $ty1))))))))))
                 (if (i32.lt_u (local.get $te) (i32.const 0x3e400000))
                   (then (local.set $ts (local.get $ty0)))
                   (else
                     (local.set $tv (f64.mul (local.get $tz) (local.get $ty0)))
-                    (local.set $tq (f64.add (f64.const 0x1.111111110f8a6p-7) (f64.mul (local.get $tz)
-                      (f64.add (f64.const -0x1.a01a019c161d5p-13) (f64.mul (local.get $tz) (f64.add (f64.const 0x1.71de357b1fe7dp-19)
-                      (f64.mul (local.get $tz) (f64.add (f64.const -0x1.ae5e68a2b9cebp-26) (f64.mul (local.get $tz) (f64.const 0x1.5d93a5acfd57cp-33))))))))))
+                    (local.set $tq (f64.add (local.get $S2) (f64.mul (local.get $tz)
+                      (f64.add (local.get $S3) (f64.mul (local.get $tz) (f64.add (local.get $S4)
+                      (f64.mul (local.get $tz) (f64.add (local.get $S5) (f64.mul (local.get $tz) (local.get $S6))))))))))
                     (local.set $ts (if (result f64) (local.get $tiy)
                       (then (f64.sub (local.get $ty0) (f64.sub (f64.sub (f64.mul (local.get $tz)
-                        (f64.sub (f64.mul (f64.const 0.5) (local.get $ty1)) (f64.mul (local.get $tv) (local.get $tq))))
-                        (local.get $ty1)) (f64.mul (local.get $tv) (f64.const -0x1.5555555555549p-3)))))
+                        (f64.sub (f64.mul (local.get $half) (local.get $ty1)) (f64.mul (local.get $tv) (local.get $tq))))
+                        (local.get $ty1)) (f64.mul (local.get $tv) (local.get $S1)))))
                       (else (f64.add (local.get $ty0) (f64.mul (local.get $tv)
-                        (f64.add (f64.const -0x1.5555555555549p-3) (f64.mul (local.get $tz) (local.get $tq))))))))))
+                        (f64.add (local.get $S1) (f64.mul (local.get $tz) (local.get $tq))))))))))
                 ;; quadrant n: cos is kc, -ks, -kc, ks and sin is ks, kc, -ks, -kc
                 (local.set $tv (select (local.get $ts) (local.get $tc) (i32.and (local.get $tn) (i32.const 1))))
                 (local.set $tq (select (local.get $tc) (local.get $ts) (i32.and (local.get $tn) (i32.const 1))))
@@ -546,7 +600,7 @@
               ))
             (local.set $fc (local.get $tc))
             (if (local.get $fSquare)
-              (then (local.set $fc (select (f64.const 1) (f64.const -1) (f64.ge (local.get $fc) (f64.const 0))))))
+              (then (local.set $fc (select (local.get $one) (local.get $minusOne) (f64.ge (local.get $fc) (f64.const 0))))))
             (local.set $fv (f64.mul (f64.load offset=589824 (local.get $fo)) (local.get $fc)))
             (local.set $fj (i32.const 0))
             (local.set $fk (i32.const 1443136))
@@ -577,23 +631,23 @@
             (f64.store offset=917504 (local.get $fo) (f64.add (local.get $fCenterHz) (f64.mul (local.get $fGainHz) (local.get $fv))))
             (local.set $ph (f64.add (local.get $ph) (f64.add (local.get $base) (f64.mul (local.get $gain) (local.get $fv)))))
             ;; ph - floor(ph) only off (0, 1), where it is ph itself: the floor leaves the feedback chain
-            (if (i32.eqz (i32.and (f64.gt (local.get $ph) (f64.const 0)) (f64.lt (local.get $ph) (f64.const 1))))
+            (if (i32.eqz (i32.and (f64.gt (local.get $ph) (f64.const 0)) (f64.lt (local.get $ph) (local.get $one))))
               (then (local.set $ph (f64.sub (local.get $ph) (f64.floor (local.get $ph))))))))
         (local.set $o (i32.add (local.get $blk) (i32.shl (local.get $i) (i32.const 3))))
         (local.set $phaseNco (f64.load offset=786432 (local.get $o)))
         ;; e = d - round(d) for d in (-1, 1), written out as runAccumulator.ts has it (+ 0 turns -0 into +0)
         (local.set $d (f64.sub (f64.load offset=655360 (i32.shl (local.get $i) (i32.const 3))) (local.get $phaseNco)))
-        (local.set $e (select (f64.sub (local.get $d) (f64.const 1))
-          (select (f64.add (local.get $d) (f64.const 1)) (f64.add (local.get $d) (f64.const 0)) (f64.lt (local.get $d) (f64.const -0.5)))
-          (f64.ge (local.get $d) (f64.const 0.5))))
+        (local.set $e (select (f64.sub (local.get $d) (local.get $one))
+          (select (f64.add (local.get $d) (local.get $one)) (f64.add (local.get $d) (f64.const 0)) (f64.lt (local.get $d) (local.get $minusHalf)))
+          (f64.ge (local.get $d) (local.get $half))))
         (local.set $d (f64.sub (local.get $e) (local.get $prev)))
-        (local.set $d (select (f64.sub (local.get $d) (f64.const 1))
-          (select (f64.add (local.get $d) (f64.const 1)) (f64.add (local.get $d) (f64.const 0)) (f64.lt (local.get $d) (f64.const -0.5)))
-          (f64.ge (local.get $d) (f64.const 0.5))))
+        (local.set $d (select (f64.sub (local.get $d) (local.get $one))
+          (select (f64.add (local.get $d) (local.get $one)) (f64.add (local.get $d) (f64.const 0)) (f64.lt (local.get $d) (local.get $minusHalf)))
+          (f64.ge (local.get $d) (local.get $half))))
         (local.set $prev (local.get $e))
         (local.set $unwrapped (if (result f64) (i32.eqz (i32.add (local.get $n0) (local.get $i)))
-          (then (f64.mul (local.get $e) (f64.const 6.283185307179586)))
-          (else (f64.add (local.get $unwrapped) (f64.mul (local.get $d) (f64.const 6.283185307179586))))))
+          (then (f64.mul (local.get $e) (local.get $twoPi)))
+          (else (f64.add (local.get $unwrapped) (f64.mul (local.get $d) (local.get $twoPi))))))
         (local.set $bp (i32.add (local.get $boxBase) (i32.shl (local.get $boxIndex) (i32.const 3))))
         (local.set $boxSum (f64.add (local.get $boxSum) (f64.sub (local.get $unwrapped) (f64.load (local.get $bp)))))
         (f64.store (local.get $bp) (local.get $unwrapped))
@@ -603,13 +657,13 @@
         (f64.store offset=983040 (local.get $o) (f64.div (local.get $boxSum) (f64.convert_i32_s (local.get $boxFilled))))
         ;; quadrature arm (2*x*sin(2*pi*phase))/A through the one-pole lock filter
         (local.set $q (f64.div
-          (f64.mul (f64.mul (f64.const 2) (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))))
+          (f64.mul (f64.mul (local.get $two) (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))))
                    (if (result f64) (local.get $withFloat)
                      (then (local.get $ts))
                      (else (f64.load offset=2031616 (i32.shl (local.get $i) (i32.const 3))))))
           (local.get $amplitude)))
         (local.set $lockState (f64.add (local.get $lockState) (f64.mul (local.get $alpha) (f64.sub (local.get $q) (local.get $lockState)))))
-        (local.set $pe (f64.mul (local.get $e) (f64.const 6.283185307179586)))
+        (local.set $pe (f64.mul (local.get $e) (local.get $twoPi)))
         (f64.store offset=1048576 (local.get $o) (local.get $pe))
         (local.set $y (f64.load offset=851968 (local.get $o)))
         (local.set $hz (f64.load offset=917504 (local.get $o)))
@@ -659,6 +713,10 @@
   ;; v >= 0; half-even: q odd), saturated to [min, max] (an ADC clips).
   (func (export "quantize") (param $count i32) (param $scale f64) (param $mode i32) (param $min f64) (param $max f64)
     (local $i i32) (local $v f64) (local $q f64) (local $r f64)
+    ;; the constants from the pool (a literal in the loop would be rebuilt in a register at every use)
+    (local $half f64) (local $two f64)
+    (local.set $half (f64.load offset=1769736 (i32.const 0)))
+    (local.set $two (f64.load offset=1769768 (i32.const 0)))
     (block $done
       (loop $sample
         (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
@@ -670,15 +728,15 @@
           (then
             (local.set $r (f64.sub (local.get $v) (local.get $q)))
             (local.set $q (f64.add (local.get $q) (f64.convert_i32_u
-              (i32.or (f64.gt (local.get $r) (f64.const 0.5))
-                (i32.and (f64.eq (local.get $r) (f64.const 0.5)) (f64.ge (local.get $v) (f64.const 0))))))))
+              (i32.or (f64.gt (local.get $r) (local.get $half))
+                (i32.and (f64.eq (local.get $r) (local.get $half)) (f64.ge (local.get $v) (f64.const 0))))))))
           (else (if (local.get $mode)
             (then
               (local.set $r (f64.sub (local.get $v) (local.get $q)))
               (local.set $q (f64.add (local.get $q) (f64.convert_i32_u
-                (i32.or (f64.gt (local.get $r) (f64.const 0.5))
-                  (i32.and (f64.eq (local.get $r) (f64.const 0.5))
-                    (f64.ne (f64.sub (local.get $q) (f64.mul (f64.const 2) (f64.floor (f64.mul (local.get $q) (f64.const 0.5))))) (f64.const 0)))))))))))
+                (i32.or (f64.gt (local.get $r) (local.get $half))
+                  (i32.and (f64.eq (local.get $r) (local.get $half))
+                    (f64.ne (f64.sub (local.get $q) (f64.mul (local.get $two) (f64.floor (f64.mul (local.get $q) (local.get $half))))) (f64.const 0)))))))))))
         (local.set $q (select (local.get $max) (select (local.get $min) (local.get $q) (f64.lt (local.get $q) (local.get $min))) (f64.gt (local.get $q) (local.get $max))))
         (i32.store offset=264192 (i32.shl (local.get $i) (i32.const 2)) (i32.trunc_sat_f64_s (local.get $q)))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
@@ -750,11 +808,38 @@
     (local $i i32) (local $o i32) (local $a f64) (local $s f64)
     (local $hx i32) (local $ix i32) (local $n i32) (local $j i32) (local $e i32) (local $iy i32)
     (local $y0 f64) (local $y1 f64) (local $t f64) (local $fn f64) (local $r f64) (local $w f64) (local $z f64) (local $v f64) (local $q f64)
+    ;; the constants from the pool (a literal in the loop would be rebuilt in a register at every use)
+    (local $twoPi f64) (local $half f64) (local $one f64) (local $invpio2 f64) (local $pio2_1 f64) (local $pio2_1t f64) (local $pio2_2 f64) (local $pio2_2t f64)
+    (local $pio2_3 f64) (local $pio2_3t f64) (local $S1 f64) (local $S2 f64) (local $S3 f64) (local $S4 f64) (local $S5 f64) (local $S6 f64)
+    (local $C1 f64) (local $C2 f64) (local $C3 f64) (local $C4 f64) (local $C5 f64) (local $C6 f64) (local $qx f64)
+    (local.set $twoPi (f64.load offset=1769728 (i32.const 0)))
+    (local.set $half (f64.load offset=1769736 (i32.const 0)))
+    (local.set $one (f64.load offset=1769752 (i32.const 0)))
+    (local.set $invpio2 (f64.load offset=1769776 (i32.const 0)))
+    (local.set $pio2_1 (f64.load offset=1769784 (i32.const 0)))
+    (local.set $pio2_1t (f64.load offset=1769792 (i32.const 0)))
+    (local.set $pio2_2 (f64.load offset=1769800 (i32.const 0)))
+    (local.set $pio2_2t (f64.load offset=1769808 (i32.const 0)))
+    (local.set $pio2_3 (f64.load offset=1769816 (i32.const 0)))
+    (local.set $pio2_3t (f64.load offset=1769824 (i32.const 0)))
+    (local.set $S1 (f64.load offset=1769832 (i32.const 0)))
+    (local.set $S2 (f64.load offset=1769840 (i32.const 0)))
+    (local.set $S3 (f64.load offset=1769848 (i32.const 0)))
+    (local.set $S4 (f64.load offset=1769856 (i32.const 0)))
+    (local.set $S5 (f64.load offset=1769864 (i32.const 0)))
+    (local.set $S6 (f64.load offset=1769872 (i32.const 0)))
+    (local.set $C1 (f64.load offset=1769880 (i32.const 0)))
+    (local.set $C2 (f64.load offset=1769888 (i32.const 0)))
+    (local.set $C3 (f64.load offset=1769896 (i32.const 0)))
+    (local.set $C4 (f64.load offset=1769904 (i32.const 0)))
+    (local.set $C5 (f64.load offset=1769912 (i32.const 0)))
+    (local.set $C6 (f64.load offset=1769920 (i32.const 0)))
+    (local.set $qx (f64.load offset=1769928 (i32.const 0)))
     (block $done
       (loop $sample
         (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
         (local.set $o (i32.shl (local.get $i) (i32.const 3)))
-        (local.set $a (f64.mul (f64.const 6.283185307179586) (f64.load (i32.add (local.get $src) (local.get $o)))))
+        (local.set $a (f64.mul (local.get $twoPi) (f64.load (i32.add (local.get $src) (local.get $o)))))
         (local.set $hx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $a)) (i64.const 32))))
         (local.set $ix (i32.and (local.get $hx) (i32.const 0x7fffffff)))
         (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $ix) (i32.const 0x413921fb)))
@@ -774,34 +859,34 @@
                     ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
                     (if (i32.gt_s (local.get $hx) (i32.const 0))
                       (then
-                        (local.set $z (f64.sub (local.get $a) (f64.const 0x1.921fb54400000p+0)))
+                        (local.set $z (f64.sub (local.get $a) (local.get $pio2_1)))
                         (if (i32.ne (local.get $ix) (i32.const 0x3ff921fb))
                           (then
-                            (local.set $y0 (f64.sub (local.get $z) (f64.const 0x1.0b4611a626331p-34)))
-                            (local.set $y1 (f64.sub (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.0b4611a626331p-34))))
+                            (local.set $y0 (f64.sub (local.get $z) (local.get $pio2_1t)))
+                            (local.set $y1 (f64.sub (f64.sub (local.get $z) (local.get $y0)) (local.get $pio2_1t))))
                           (else
-                            (local.set $z (f64.sub (local.get $z) (f64.const 0x1.0b4611a600000p-34)))
-                            (local.set $y0 (f64.sub (local.get $z) (f64.const 0x1.3198a2e037073p-69)))
-                            (local.set $y1 (f64.sub (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.3198a2e037073p-69)))))
+                            (local.set $z (f64.sub (local.get $z) (local.get $pio2_2)))
+                            (local.set $y0 (f64.sub (local.get $z) (local.get $pio2_2t)))
+                            (local.set $y1 (f64.sub (f64.sub (local.get $z) (local.get $y0)) (local.get $pio2_2t)))))
                         (local.set $n (i32.const 1)))
                       (else
-                        (local.set $z (f64.add (local.get $a) (f64.const 0x1.921fb54400000p+0)))
+                        (local.set $z (f64.add (local.get $a) (local.get $pio2_1)))
                         (if (i32.ne (local.get $ix) (i32.const 0x3ff921fb))
                           (then
-                            (local.set $y0 (f64.add (local.get $z) (f64.const 0x1.0b4611a626331p-34)))
-                            (local.set $y1 (f64.add (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.0b4611a626331p-34))))
+                            (local.set $y0 (f64.add (local.get $z) (local.get $pio2_1t)))
+                            (local.set $y1 (f64.add (f64.sub (local.get $z) (local.get $y0)) (local.get $pio2_1t))))
                           (else
-                            (local.set $z (f64.add (local.get $z) (f64.const 0x1.0b4611a600000p-34)))
-                            (local.set $y0 (f64.add (local.get $z) (f64.const 0x1.3198a2e037073p-69)))
-                            (local.set $y1 (f64.add (f64.sub (local.get $z) (local.get $y0)) (f64.const 0x1.3198a2e037073p-69)))))
+                            (local.set $z (f64.add (local.get $z) (local.get $pio2_2)))
+                            (local.set $y0 (f64.add (local.get $z) (local.get $pio2_2t)))
+                            (local.set $y1 (f64.add (f64.sub (local.get $z) (local.get $y0)) (local.get $pio2_2t)))))
                         (local.set $n (i32.const -1)))))
                   (else
                     ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
                     (local.set $t (f64.abs (local.get $a)))
-                    (local.set $n (i32.trunc_f64_s (f64.add (f64.mul (local.get $t) (f64.const 0x1.45f306dc9c883p-1)) (f64.const 0.5))))
+                    (local.set $n (i32.trunc_f64_s (f64.add (f64.mul (local.get $t) (local.get $invpio2)) (local.get $half))))
                     (local.set $fn (f64.convert_i32_s (local.get $n)))
-                    (local.set $r (f64.sub (local.get $t) (f64.mul (local.get $fn) (f64.const 0x1.921fb54400000p+0))))
-                    (local.set $w (f64.mul (local.get $fn) (f64.const 0x1.0b4611a626331p-34)))
+                    (local.set $r (f64.sub (local.get $t) (f64.mul (local.get $fn) (local.get $pio2_1))))
+                    (local.set $w (f64.mul (local.get $fn) (local.get $pio2_1t)))
                     (local.set $y0 (f64.sub (local.get $r) (local.get $w)))
                     (if (i32.or (i32.ge_s (local.get $n) (i32.const 32))
                           (i32.eq (local.get $ix)
@@ -814,9 +899,9 @@
                           (then
                             ;; second piece of pi/2, good to 118 bits
                             (local.set $t (local.get $r))
-                            (local.set $w (f64.mul (local.get $fn) (f64.const 0x1.0b4611a600000p-34)))
+                            (local.set $w (f64.mul (local.get $fn) (local.get $pio2_2)))
                             (local.set $r (f64.sub (local.get $t) (local.get $w)))
-                            (local.set $w (f64.sub (f64.mul (local.get $fn) (f64.const 0x1.3198a2e037073p-69))
+                            (local.set $w (f64.sub (f64.mul (local.get $fn) (local.get $pio2_2t))
                               (f64.sub (f64.sub (local.get $t) (local.get $r)) (local.get $w))))
                             (local.set $y0 (f64.sub (local.get $r) (local.get $w)))
                             (local.set $e (i32.sub (local.get $j)
@@ -825,9 +910,9 @@
                               (then
                                 ;; third piece, good to 151 bits
                                 (local.set $t (local.get $r))
-                                (local.set $w (f64.mul (local.get $fn) (f64.const 0x1.3198a2e000000p-69)))
+                                (local.set $w (f64.mul (local.get $fn) (local.get $pio2_3)))
                                 (local.set $r (f64.sub (local.get $t) (local.get $w)))
-                                (local.set $w (f64.sub (f64.mul (local.get $fn) (f64.const 0x1.b839a252049c1p-104))
+                                (local.set $w (f64.sub (f64.mul (local.get $fn) (local.get $pio2_3t))
                                   (f64.sub (f64.sub (local.get $t) (local.get $r)) (local.get $w))))
                                 (local.set $y0 (f64.sub (local.get $r) (local.get $w)))))))))
                     (local.set $y1 (f64.sub (f64.sub (local.get $r) (local.get $y0)) (local.get $w)))
@@ -844,22 +929,22 @@
               (then
                 ;; cos(y0 + y1) = 1 - (z/2 - (z*r - y0*y1)), with 1 - qx split off above |y0| = 0.3
                 (if (i32.lt_u (local.get $e) (i32.const 0x3e400000))
-                  (then (local.set $s (f64.const 1)))
+                  (then (local.set $s (local.get $one)))
                   (else
-                    (local.set $q (f64.mul (local.get $z) (f64.add (f64.const 0x1.555555555554cp-5) (f64.mul (local.get $z)
-                      (f64.add (f64.const -0x1.6c16c16c15177p-10) (f64.mul (local.get $z) (f64.add (f64.const 0x1.a01a019cb1590p-16) (f64.mul (local.get $z)
-                      (f64.add (f64.const -0x1.27e4f809c52adp-22) (f64.mul (local.get $z) (f64.add (f64.const 0x1.1ee9ebdb4b1c4p-29)
-                      (f64.mul (local.get $z) (f64.const -0x1.8fae9be8838d4p-37)))))))))))))
+                    (local.set $q (f64.mul (local.get $z) (f64.add (local.get $C1) (f64.mul (local.get $z)
+                      (f64.add (local.get $C2) (f64.mul (local.get $z) (f64.add (local.get $C3) (f64.mul (local.get $z)
+                      (f64.add (local.get $C4) (f64.mul (local.get $z) (f64.add (local.get $C5)
+                      (f64.mul (local.get $z) (local.get $C6)))))))))))))
                     (if (i32.lt_u (local.get $e) (i32.const 0x3fd33333))
                       (then
-                        (local.set $s (f64.sub (f64.const 1) (f64.sub (f64.mul (f64.const 0.5) (local.get $z))
+                        (local.set $s (f64.sub (local.get $one) (f64.sub (f64.mul (local.get $half) (local.get $z))
                           (f64.sub (f64.mul (local.get $z) (local.get $q)) (f64.mul (local.get $y0) (local.get $y1)))))))
                       (else
-                        (local.set $v (select (f64.const 0.28125)
+                        (local.set $v (select (local.get $qx)
                           (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $e) (i32.const 0x00200000))) (i64.const 32)))
                           (i32.gt_u (local.get $e) (i32.const 0x3fe90000))))
-                        (local.set $s (f64.sub (f64.sub (f64.const 1) (local.get $v))
-                          (f64.sub (f64.sub (f64.mul (f64.const 0.5) (local.get $z)) (local.get $v))
+                        (local.set $s (f64.sub (f64.sub (local.get $one) (local.get $v))
+                          (f64.sub (f64.sub (f64.mul (local.get $half) (local.get $z)) (local.get $v))
                             (f64.sub (f64.mul (local.get $z) (local.get $q)) (f64.mul (local.get $y0) (local.get $y1)))))))))))
               (else
                 ;; sin(y0 + y1) = y0 + (S1*y0^3 + (y0^2*(r*y0^3 - y1/2) + y1)), without y1 when not reduced
@@ -867,15 +952,15 @@
                   (then (local.set $s (local.get $y0)))
                   (else
                     (local.set $v (f64.mul (local.get $z) (local.get $y0)))
-                    (local.set $q (f64.add (f64.const 0x1.111111110f8a6p-7) (f64.mul (local.get $z)
-                      (f64.add (f64.const -0x1.a01a019c161d5p-13) (f64.mul (local.get $z) (f64.add (f64.const 0x1.71de357b1fe7dp-19)
-                      (f64.mul (local.get $z) (f64.add (f64.const -0x1.ae5e68a2b9cebp-26) (f64.mul (local.get $z) (f64.const 0x1.5d93a5acfd57cp-33))))))))))
+                    (local.set $q (f64.add (local.get $S2) (f64.mul (local.get $z)
+                      (f64.add (local.get $S3) (f64.mul (local.get $z) (f64.add (local.get $S4)
+                      (f64.mul (local.get $z) (f64.add (local.get $S5) (f64.mul (local.get $z) (local.get $S6))))))))))
                     (local.set $s (if (result f64) (local.get $iy)
                       (then (f64.sub (local.get $y0) (f64.sub (f64.sub (f64.mul (local.get $z)
-                        (f64.sub (f64.mul (f64.const 0.5) (local.get $y1)) (f64.mul (local.get $v) (local.get $q))))
-                        (local.get $y1)) (f64.mul (local.get $v) (f64.const -0x1.5555555555549p-3)))))
+                        (f64.sub (f64.mul (local.get $half) (local.get $y1)) (f64.mul (local.get $v) (local.get $q))))
+                        (local.get $y1)) (f64.mul (local.get $v) (local.get $S1)))))
                       (else (f64.add (local.get $y0) (f64.mul (local.get $v)
-                        (f64.add (f64.const -0x1.5555555555549p-3) (f64.mul (local.get $z) (local.get $q))))))))))))
+                        (f64.add (local.get $S1) (f64.mul (local.get $z) (local.get $q))))))))))))
             (if (i32.and (local.get $n) (i32.const 2)) (then (local.set $s (f64.neg (local.get $s)))))))
         (f64.store (i32.add (local.get $dst) (local.get $o))
           (if (result f64) (local.get $affine)
@@ -891,6 +976,9 @@
   (func (export "phases") (param $count i32) (param $n0 i32) (param $phase f64) (param $constant i32) (param $constantStep f64)
     (param $centerHz f64) (param $sampleRateHz f64) (param $stepSample f64) (param $stepCycles f64) (result f64)
     (local $i i32) (local $o i32)
+    ;; the constants from the pool (a literal in the loop would be rebuilt in a register at every use)
+    (local $one f64)
+    (local.set $one (f64.load offset=1769752 (i32.const 0)))
     (block $done
       (loop $sample
         (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
@@ -904,9 +992,39 @@
           (if (result f64) (local.get $constant)
             (then (local.get $constantStep))
             (else (f64.div (f64.add (local.get $centerHz) (f64.load offset=720896 (local.get $o))) (local.get $sampleRateHz))))))
-        (if (i32.eqz (i32.and (f64.gt (local.get $phase) (f64.const 0)) (f64.lt (local.get $phase) (f64.const 1))))
+        (if (i32.eqz (i32.and (f64.gt (local.get $phase) (f64.const 0)) (f64.lt (local.get $phase) (local.get $one))))
           (then (local.set $phase (f64.sub (local.get $phase) (f64.floor (local.get $phase))))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample)))
     (local.get $phase))
+  ;; The f64 constants of the loops above, one a slot from 1769728 in the order of NAMES below: each loop reads them
+  ;; into locals before it starts. V8 compiles a literal f64.const inside a loop to a register load of
+  ;; its bits at each use (two or three instructions more); a local read from memory stays in a register
+  ;; or its spill slot, which the arithmetic takes as an operand. The sine's names are fdlibm's (FD93).
+  (data (i32.const 1769728) "\18\2d\44\54\fb\21\19\40") ;; twoPi = 6.283185307179586
+  (data (i32.const 1769736) "\00\00\00\00\00\00\e0\3f") ;; half = 0.5
+  (data (i32.const 1769744) "\00\00\00\00\00\00\e0\bf") ;; minusHalf = -0.5
+  (data (i32.const 1769752) "\00\00\00\00\00\00\f0\3f") ;; one = 1
+  (data (i32.const 1769760) "\00\00\00\00\00\00\f0\bf") ;; minusOne = -1
+  (data (i32.const 1769768) "\00\00\00\00\00\00\00\40") ;; two = 2
+  (data (i32.const 1769776) "\83\c8\c9\6d\30\5f\e4\3f") ;; invpio2 = 0x1.45f306dc9c883p-1
+  (data (i32.const 1769784) "\00\00\40\54\fb\21\f9\3f") ;; pio2_1 = 0x1.921fb54400000p+0
+  (data (i32.const 1769792) "\31\63\62\1a\61\b4\d0\3d") ;; pio2_1t = 0x1.0b4611a626331p-34
+  (data (i32.const 1769800) "\00\00\60\1a\61\b4\d0\3d") ;; pio2_2 = 0x1.0b4611a600000p-34
+  (data (i32.const 1769808) "\73\70\03\2e\8a\19\a3\3b") ;; pio2_2t = 0x1.3198a2e037073p-69
+  (data (i32.const 1769816) "\00\00\00\2e\8a\19\a3\3b") ;; pio2_3 = 0x1.3198a2e000000p-69
+  (data (i32.const 1769824) "\c1\49\20\25\9a\83\7b\39") ;; pio2_3t = 0x1.b839a252049c1p-104
+  (data (i32.const 1769832) "\49\55\55\55\55\55\c5\bf") ;; S1 = -0x1.5555555555549p-3
+  (data (i32.const 1769840) "\a6\f8\10\11\11\11\81\3f") ;; S2 = 0x1.111111110f8a6p-7
+  (data (i32.const 1769848) "\d5\61\c1\19\a0\01\2a\bf") ;; S3 = -0x1.a01a019c161d5p-13
+  (data (i32.const 1769856) "\7d\fe\b1\57\e3\1d\c7\3e") ;; S4 = 0x1.71de357b1fe7dp-19
+  (data (i32.const 1769864) "\eb\9c\2b\8a\e6\e5\5a\be") ;; S5 = -0x1.ae5e68a2b9cebp-26
+  (data (i32.const 1769872) "\7c\d5\cf\5a\3a\d9\e5\3d") ;; S6 = 0x1.5d93a5acfd57cp-33
+  (data (i32.const 1769880) "\4c\55\55\55\55\55\a5\3f") ;; C1 = 0x1.555555555554cp-5
+  (data (i32.const 1769888) "\77\51\c1\16\6c\c1\56\bf") ;; C2 = -0x1.6c16c16c15177p-10
+  (data (i32.const 1769896) "\90\15\cb\19\a0\01\fa\3e") ;; C3 = 0x1.a01a019cb1590p-16
+  (data (i32.const 1769904) "\ad\52\9c\80\4f\7e\92\be") ;; C4 = -0x1.27e4f809c52adp-22
+  (data (i32.const 1769912) "\c4\b1\b4\bd\9e\ee\21\3e") ;; C5 = 0x1.1ee9ebdb4b1c4p-29
+  (data (i32.const 1769920) "\d4\38\88\be\e9\fa\a8\bd") ;; C6 = -0x1.8fae9be8838d4p-37
+  (data (i32.const 1769928) "\00\00\00\00\00\00\d2\3f") ;; qx = 0.28125
 )
