@@ -93,14 +93,33 @@ export function linearLoop(sections: readonly Sos[], kd: number, koTRadPerUnit: 
 /**
  * out = x·y (n×n). Each element is summed in a local over l in increasing order, skipping x[i][l] = 0:
  * the same additions in the same order as accumulating into out row by row, without a store per term.
- * Two elements of a row are summed side by side: each sum is a chain of dependent additions, and two
- * independent chains keep the processor's adders busy where one waits on the last (each element still
- * gets its own terms in its own order, so the same doubles).
+ * Four elements of a row are summed side by side (then two, then one for the columns left): each sum
+ * is a chain of dependent additions, and independent chains keep the processor's adders busy where one
+ * waits on the last (each element still gets its own terms in its own order, so the same doubles). Four
+ * rather than two took the 7×7 products of the two-section demo loops from about 0.57 to 0.45 µs.
  */
 function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
   for (let i = 0; i < n; i++) {
     const row = i * n;
     let j = 0;
+    for (; j + 3 < n; j += 4) {
+      let acc0 = 0;
+      let acc1 = 0;
+      let acc2 = 0;
+      let acc3 = 0;
+      for (let l = 0, yl = j; l < n; l++, yl += n) {
+        const xil = x[row + l]!;
+        if (xil === 0) continue;
+        acc0 += xil * y[yl]!;
+        acc1 += xil * y[yl + 1]!;
+        acc2 += xil * y[yl + 2]!;
+        acc3 += xil * y[yl + 3]!;
+      }
+      out[row + j] = acc0;
+      out[row + j + 1] = acc1;
+      out[row + j + 2] = acc2;
+      out[row + j + 3] = acc3;
+    }
     for (; j + 1 < n; j += 2) {
       let acc0 = 0;
       let acc1 = 0;
