@@ -188,7 +188,7 @@ function bitTrueRunner(
   const state = wasm ? null : initialBitTrueState(plan);
   const scales = bitTrueScales(plan);
   const { toCycles, hiWeight, yScale, hzPerLsb, centerHz } = scales;
-  traced?.loadConvert(scales);
+  traced?.loadBitTrue(plan, scales, record !== null);
   const ncoHzOf = bitTrueNcoHzOf(plan);
   const [ncoPhase, y, ncoHz] = traced
     ? [traced.observations[1].ncoPhase, traced.observations[1].y, traced.observations[1].ncoHz]
@@ -196,14 +196,14 @@ function bitTrueRunner(
   return {
     chunk(input, n0, count) {
       if (traced) {
-        // Quantiser, kernel and the conversion below in the module, into the block the accumulator core reads.
+        // Quantiser, kernel and conversion in one pass of the module, into the block the accumulator core reads.
         const { loop } = traced;
-        const slice = record ? sliceRecord(record, n0, n0 + count) : null;
-        traced.quantize(plan, count);
-        if (slice) slice.inputCode.set(loop.input.subarray(0, count));
-        loop.runInPlace(count);
-        if (slice) copyChunk(loop.out, slice, count);
-        traced.convert(count);
+        traced.bitTrueChunk(count);
+        if (record) {
+          const slice = sliceRecord(record, n0, n0 + count);
+          slice.inputCode.set(loop.input.subarray(0, count));
+          copyChunk(loop.out, slice, count);
+        }
       } else if (wasm) {
         // Without a record the codes are quantised straight into the kernel's input area.
         const slice = record ? sliceRecord(record, n0, n0 + count) : null;

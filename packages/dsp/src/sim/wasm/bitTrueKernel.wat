@@ -19,7 +19,7 @@
 ;;   512    section state, 4 x i64 per section: x[n-1], x[n-2], y[n-1], y[n-2]
 ;;   1024   coefficient codes, 5 x i64 per section: b0 b1 b2 a1 a2
 ;;   2048   sine table, i32 x 2^P (P <= 16)
-;;   264192 input codes, i32 x 8192
+;;   264192 input codes, i32 x 8192 (a traced run writes them with its record)
 ;;   296960 outputs per sample, i32 x 8192 each: phase hi, phase lo, table address, NCO code,
 ;;          detector code, filter code; then the tuning increment as f64 x 8192 at 493568
 (module
@@ -28,11 +28,20 @@
   (import "math" "sin" (func $sin (param f64) (result f64)))
   (import "math" "cos" (func $cos (param f64) (result f64)))
   (memory (export "memory") 32)
-  (func (export "run") (param $count i32)
+  ;; `count` samples of the bit-true loop, from the state at 256. Their per-sample outputs go to the
+  ;; areas above with $record, their checksum always. With $traced (wasmTraced.ts) each sample's input code
+  ;; comes from the input chunk, and its doubles and the sine of its NCO phase go to the traced areas;
+  ;; the conversion and that sine overlap the kernel's feedback chain.
+  (func (export "run") (param $count i32) (param $traced i32) (param $record i32) (param $own i32)
     (local $i i32) (local $o i32) (local $j i32) (local $k i32) (local $q i32)
     (local $addr i32) (local $c i32) (local $h i32)
     (local $acc i64) (local $x i64) (local $t i64) (local $u i64) (local $v i64) (local $a i64) (local $y i64)
     (local $x1 i64) (local $y1 i64)
+    ;; with $traced: the quantiser's and the conversion's, the NCO phase in cycles and its sine (as in sine)
+    (local $qV f64) (local $qQ f64) (local $qR f64) (local $qScale f64) (local $qMode i32) (local $qMin f64) (local $qMax f64)
+    (local $hiWeight f64) (local $toCycles f64) (local $yScale f64) (local $centerHz f64) (local $hzPerLsb f64) (local $ncoPhase f64)
+    (local $fo i32) (local $ua f64) (local $us f64) (local $uhx i32) (local $uix i32) (local $un i32) (local $uj i32) (local $ue i32) (local $uiy i32)
+    (local $uy0 f64) (local $uy1 f64) (local $ut f64) (local $ufn f64) (local $ur f64) (local $uw f64) (local $uz f64) (local $uv f64) (local $uq f64)
     ;; constants
     (local $mode i32) (local $wrap i32) (local $macCheck i32) (local $sections i32) (local $square i32)
     (local $tableMask i32) (local $quarter i32) (local $halfTable i32) (local $fullScale i32)
@@ -42,6 +51,34 @@
     (local $detS i64) (local $detH i64) (local $detMode i32)
     (local $fcS i64) (local $fcH i64) (local $fcMode i32)
     (local $gS i64) (local $gH i64) (local $gMode i32) (local $gLeft i64)
+    ;; the constants from the pool (a literal in the loop would be rebuilt in a register at every use)
+    (local $twoPi f64) (local $half f64) (local $one f64) (local $two f64) (local $invpio2 f64) (local $pio2_1 f64) (local $pio2_1t f64) (local $pio2_2 f64)
+    (local $pio2_2t f64) (local $pio2_3 f64) (local $pio2_3t f64) (local $S1 f64) (local $S2 f64) (local $S3 f64) (local $S4 f64) (local $S5 f64)
+    (local $S6 f64) (local $C1 f64) (local $C2 f64) (local $C3 f64) (local $C4 f64) (local $C5 f64) (local $C6 f64) (local $qx f64)
+    (local.set $twoPi (f64.load offset=1769728 (i32.const 0)))
+    (local.set $half (f64.load offset=1769736 (i32.const 0)))
+    (local.set $one (f64.load offset=1769752 (i32.const 0)))
+    (local.set $two (f64.load offset=1769768 (i32.const 0)))
+    (local.set $invpio2 (f64.load offset=1769776 (i32.const 0)))
+    (local.set $pio2_1 (f64.load offset=1769784 (i32.const 0)))
+    (local.set $pio2_1t (f64.load offset=1769792 (i32.const 0)))
+    (local.set $pio2_2 (f64.load offset=1769800 (i32.const 0)))
+    (local.set $pio2_2t (f64.load offset=1769808 (i32.const 0)))
+    (local.set $pio2_3 (f64.load offset=1769816 (i32.const 0)))
+    (local.set $pio2_3t (f64.load offset=1769824 (i32.const 0)))
+    (local.set $S1 (f64.load offset=1769832 (i32.const 0)))
+    (local.set $S2 (f64.load offset=1769840 (i32.const 0)))
+    (local.set $S3 (f64.load offset=1769848 (i32.const 0)))
+    (local.set $S4 (f64.load offset=1769856 (i32.const 0)))
+    (local.set $S5 (f64.load offset=1769864 (i32.const 0)))
+    (local.set $S6 (f64.load offset=1769872 (i32.const 0)))
+    (local.set $C1 (f64.load offset=1769880 (i32.const 0)))
+    (local.set $C2 (f64.load offset=1769888 (i32.const 0)))
+    (local.set $C3 (f64.load offset=1769896 (i32.const 0)))
+    (local.set $C4 (f64.load offset=1769904 (i32.const 0)))
+    (local.set $C5 (f64.load offset=1769912 (i32.const 0)))
+    (local.set $C6 (f64.load offset=1769920 (i32.const 0)))
+    (local.set $qx (f64.load offset=1769928 (i32.const 0)))
     (local.set $mode (i32.wrap_i64 (i64.load offset=0 (i32.const 0))))
     (local.set $wrap (i32.wrap_i64 (i64.load offset=8 (i32.const 0))))
     (local.set $dMax (i64.load offset=16 (i32.const 0)))
@@ -96,10 +133,47 @@
     (local.set $gH (i64.load offset=232 (i32.const 0)))
     (local.set $acc (i64.load offset=256 (i32.const 0)))
     (local.set $h (i32.load offset=264 (i32.const 0)))
+    (if (local.get $traced)
+      (then
+        (local.set $hiWeight (f64.load offset=1442496 (i32.const 0)))
+        (local.set $toCycles (f64.load offset=1442504 (i32.const 0)))
+        (local.set $yScale (f64.load offset=1442512 (i32.const 0)))
+        (local.set $centerHz (f64.load offset=1442520 (i32.const 0)))
+        (local.set $hzPerLsb (f64.load offset=1442528 (i32.const 0)))
+        (local.set $qScale (f64.load offset=1442536 (i32.const 0)))
+        (local.set $qMin (f64.load offset=1442544 (i32.const 0)))
+        (local.set $qMax (f64.load offset=1442552 (i32.const 0)))
+        (local.set $qMode (i32.load offset=1442560 (i32.const 0)))))
     (block $done
       (loop $sample
         (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
         (local.set $o (i32.shl (local.get $i) (i32.const 2)))
+        (local.set $fo (i32.shl (local.get $i) (i32.const 3)))
+        ;; the input code: written by the caller, or in a traced run (wasmTraced.ts) its input sample's as
+        ;; bitTrueKernel.ts quantizeInput computes it: q = floor(x*2^(D-1)), one up above a half or on a tie the
+        ;; mode rounds up (nearest: v >= 0; half-even: q odd), saturated to [min, max] (an ADC clips)
+        (if (local.get $traced)
+          (then
+            (local.set $qV (f64.mul (f64.load offset=589824 (local.get $fo)) (local.get $qScale)))
+            (local.set $qQ (f64.floor (local.get $qV)))
+            ;; up by (double)(test), no branch: whether a sample rounds up is as random as the noise on it
+            ;; (q + 0 may turn -0 into +0, which converts to the same code)
+            (if (i32.eq (local.get $qMode) (i32.const 1))
+              (then
+                (local.set $qR (f64.sub (local.get $qV) (local.get $qQ)))
+                (local.set $qQ (f64.add (local.get $qQ) (f64.convert_i32_u
+                  (i32.or (f64.gt (local.get $qR) (local.get $half))
+                    (i32.and (f64.eq (local.get $qR) (local.get $half)) (f64.ge (local.get $qV) (f64.const 0))))))))
+              (else (if (local.get $qMode)
+                (then
+                  (local.set $qR (f64.sub (local.get $qV) (local.get $qQ)))
+                  (local.set $qQ (f64.add (local.get $qQ) (f64.convert_i32_u
+                    (i32.or (f64.gt (local.get $qR) (local.get $half))
+                      (i32.and (f64.eq (local.get $qR) (local.get $half))
+                        (f64.ne (f64.sub (local.get $qQ) (f64.mul (local.get $two) (f64.floor (f64.mul (local.get $qQ) (local.get $half))))) (f64.const 0)))))))))))
+            (local.set $qQ (select (local.get $qMax) (select (local.get $qMin) (local.get $qQ) (f64.lt (local.get $qQ) (local.get $qMin))) (f64.gt (local.get $qQ) (local.get $qMax))))
+            (local.set $x (i64.extend_i32_s (i32.trunc_sat_f64_s (local.get $qQ)))))
+          (else (local.set $x (i64.load32_s offset=264192 (local.get $o)))))
         ;; table address: top P bits of the phase plus a quarter turn (the table then gives cos)
         (local.set $addr (i32.and
           (i32.add (i32.wrap_i64 (i64.shr_u (local.get $acc) (local.get $addrShift))) (local.get $quarter))
@@ -109,7 +183,6 @@
                         (i32.lt_u (local.get $addr) (local.get $halfTable))))
           (else (i32.load offset=2048 (i32.shl (local.get $addr) (i32.const 2))))))
         ;; detector u = reduce_D(round_(B-1)(x*c))
-        (local.set $x (i64.load32_s offset=264192 (local.get $o)))
         (local.set $t (i64.mul (local.get $x) (i64.extend_i32_s (local.get $c))))
         (local.set $u (i64.shr_s
           (i64.add (i64.add (local.get $t) (local.get $detH))
@@ -167,12 +240,16 @@
             (local.set $q (i32.add (local.get $q) (i32.const 32)))
             (br $section)))
         ;; the record of this sample and its FNV-1a checksum (src/sim/checksum.ts)
-        (i32.store offset=296960 (local.get $o) (i32.wrap_i64 (i64.shr_u (local.get $acc) (i64.const 32))))
-        (i32.store offset=329728 (local.get $o) (i32.wrap_i64 (local.get $acc)))
-        (i32.store offset=362496 (local.get $o) (local.get $addr))
-        (i32.store offset=395264 (local.get $o) (local.get $c))
-        (i32.store offset=428032 (local.get $o) (i32.wrap_i64 (local.get $u)))
-        (i32.store offset=460800 (local.get $o) (i32.wrap_i64 (local.get $v)))
+        (if (local.get $record)
+          (then
+            (i32.store offset=296960 (local.get $o) (i32.wrap_i64 (i64.shr_u (local.get $acc) (i64.const 32))))
+            (i32.store offset=329728 (local.get $o) (i32.wrap_i64 (local.get $acc)))
+            (i32.store offset=362496 (local.get $o) (local.get $addr))
+            (i32.store offset=395264 (local.get $o) (local.get $c))
+            (i32.store offset=428032 (local.get $o) (i32.wrap_i64 (local.get $u)))
+            (i32.store offset=460800 (local.get $o) (i32.wrap_i64 (local.get $v)))
+
+            (if (local.get $traced) (then (i32.store offset=264192 (local.get $o) (i32.wrap_i64 (local.get $x)))))))
         (local.set $h (i32.mul (i32.xor (local.get $h) (i32.wrap_i64 (local.get $x))) (i32.const 16777619)))
         (local.set $h (i32.mul (i32.xor (local.get $h) (i32.wrap_i64 (i64.shr_u (local.get $acc) (i64.const 32)))) (i32.const 16777619)))
         (local.set $h (i32.mul (i32.xor (local.get $h) (i32.wrap_i64 (local.get $acc))) (i32.const 16777619)))
@@ -190,15 +267,152 @@
                 (then (i64.sub (i64.and (i64.shr_s (local.get $t) (local.get $gS)) (i64.const 1)) (i64.const 1)))
                 (else (i64.const 0))))))
           (local.get $gS)))
-        (f64.store offset=493568 (i32.shl (local.get $i) (i32.const 3)) (f64.convert_i64_s (local.get $t)))
+        (if (local.get $traced)
+          (then
+            ;; observation block 1 (wasmTraced.ts): NCO phase hi*2^(32-N) + lo*2^-N cycles before the phase
+            ;; advances, filter output y*2^-(D-1), NCO frequency M' + delta*fs/2^N (simulate.ts bitTrueRunner)
+            (local.set $ncoPhase (f64.add (f64.mul (f64.convert_i32_u (i32.wrap_i64 (i64.shr_u (local.get $acc) (i64.const 32)))) (local.get $hiWeight))
+              (f64.mul (f64.convert_i32_u (i32.wrap_i64 (local.get $acc))) (local.get $toCycles))))
+            (f64.store offset=1114112 (local.get $fo) (local.get $ncoPhase))
+            (f64.store offset=1179648 (local.get $fo) (f64.mul (f64.convert_i32_s (i32.wrap_i64 (local.get $v))) (local.get $yScale)))
+            (f64.store offset=1245184 (local.get $fo) (f64.add (local.get $centerHz) (f64.mul (f64.convert_i64_s (local.get $t)) (local.get $hzPerLsb)))))
+          (else (f64.store offset=493568 (local.get $fo) (f64.convert_i64_s (local.get $t)))))
         (local.set $acc (i64.and (i64.add (i64.add (local.get $acc) (local.get $m)) (local.get $t)) (local.get $phaseMask)))
+        (if (local.get $traced)
+          (then
+            ;; sin(2*pi*NCO phase) for the quadrature arm (the sine below, inline: its work fills the
+            ;; cycles the feedback chain above leaves idle)
+                (local.set $ua (f64.mul (local.get $twoPi) (local.get $ncoPhase)))
+            (local.set $uhx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ua)) (i64.const 32))))
+            (local.set $uix (i32.and (local.get $uhx) (i32.const 0x7fffffff)))
+            (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $uix) (i32.const 0x413921fb)))
+              (then (local.set $us (call $sin (local.get $ua))))
+              (else
+                ;; reduction: a = n*pi/2 + y0 + y1
+                (if (i32.le_u (local.get $uix) (i32.const 0x3fe921fb))
+                  (then
+                    (local.set $uy0 (local.get $ua))
+                    (local.set $uy1 (f64.const 0))
+                    (local.set $un (i32.const 0))
+                    (local.set $uiy (i32.const 0)))
+                  (else
+                    (local.set $uiy (i32.const 1))
+                    (if (i32.lt_u (local.get $uix) (i32.const 0x4002d97c))
+                      (then
+                        ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
+                        (if (i32.gt_s (local.get $uhx) (i32.const 0))
+                          (then
+                            (local.set $uz (f64.sub (local.get $ua) (local.get $pio2_1)))
+                            (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
+                              (then
+                                (local.set $uy0 (f64.sub (local.get $uz) (local.get $pio2_1t)))
+                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_1t))))
+                              (else
+                                (local.set $uz (f64.sub (local.get $uz) (local.get $pio2_2)))
+                                (local.set $uy0 (f64.sub (local.get $uz) (local.get $pio2_2t)))
+                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_2t)))))
+                            (local.set $un (i32.const 1)))
+                          (else
+                            (local.set $uz (f64.add (local.get $ua) (local.get $pio2_1)))
+                            (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
+                              (then
+                                (local.set $uy0 (f64.add (local.get $uz) (local.get $pio2_1t)))
+                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_1t))))
+                              (else
+                                (local.set $uz (f64.add (local.get $uz) (local.get $pio2_2)))
+                                (local.set $uy0 (f64.add (local.get $uz) (local.get $pio2_2t)))
+                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_2t)))))
+                            (local.set $un (i32.const -1)))))
+                      (else
+                        ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
+                        (local.set $ut (f64.abs (local.get $ua)))
+                        (local.set $un (i32.trunc_f64_s (f64.add (f64.mul (local.get $ut) (local.get $invpio2)) (local.get $half))))
+                        (local.set $ufn (f64.convert_i32_s (local.get $un)))
+                        (local.set $ur (f64.sub (local.get $ut) (f64.mul (local.get $ufn) (local.get $pio2_1))))
+                        (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_1t)))
+                        (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
+                        (if (i32.or (i32.ge_s (local.get $un) (i32.const 32))
+                              (i32.eq (local.get $uix)
+                                (i32.load offset=1769472 (i32.shl (select (i32.sub (local.get $un) (i32.const 1)) (i32.const 31) (i32.lt_s (local.get $un) (i32.const 32))) (i32.const 2)))))
+                          (then
+                            (local.set $uj (i32.shr_u (local.get $uix) (i32.const 20)))
+                            (local.set $ue (i32.sub (local.get $uj)
+                              (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 52))) (i32.const 0x7ff))))
+                            (if (i32.gt_s (local.get $ue) (i32.const 16))
+                              (then
+                                ;; second piece of pi/2, good to 118 bits
+                                (local.set $ut (local.get $ur))
+                                (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_2)))
+                                (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
+                                (local.set $uw (f64.sub (f64.mul (local.get $ufn) (local.get $pio2_2t))
+                                  (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
+                                (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
+                                (local.set $ue (i32.sub (local.get $uj)
+                                  (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 52))) (i32.const 0x7ff))))
+                                (if (i32.gt_s (local.get $ue) (i32.const 49))
+                                  (then
+                                    ;; third piece, good to 151 bits
+                                    (local.set $ut (local.get $ur))
+                                    (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_3)))
+                                    (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
+                                    (local.set $uw (f64.sub (f64.mul (local.get $ufn) (local.get $pio2_3t))
+                                      (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
+                                    (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))))))))
+                        (local.set $uy1 (f64.sub (f64.sub (local.get $ur) (local.get $uy0)) (local.get $uw)))
+                        (if (i32.lt_s (local.get $uhx) (i32.const 0))
+                          (then
+                            (local.set $uy0 (f64.neg (local.get $uy0)))
+                            (local.set $uy1 (f64.neg (local.get $uy1)))
+                            (local.set $un (i32.sub (i32.const 0) (local.get $un)))))))))
+                ;; kernels on [-pi/4, pi/4]: sin in quadrants 0 and 2, cos in 1 and 3, negated in 2 and 3
+                (local.set $ue (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 32))) (i32.const 0x7fffffff)))
+                (local.set $uz (f64.mul (local.get $uy0) (local.get $uy0)))
+                (if (i32.and (local.get $un) (i32.const 1))
+                  (then
+                    ;; cos(y0 + y1) = 1 - (z/2 - (z*r - y0*y1)), with 1 - qx split off above |y0| = 0.3
+                    (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
+                      (then (local.set $us (local.get $one)))
+                      (else
+                        (local.set $uq (f64.mul (local.get $uz) (f64.add (local.get $C1) (f64.mul (local.get $uz)
+                          (f64.add (local.get $C2) (f64.mul (local.get $uz) (f64.add (local.get $C3) (f64.mul (local.get $uz)
+                          (f64.add (local.get $C4) (f64.mul (local.get $uz) (f64.add (local.get $C5)
+                          (f64.mul (local.get $uz) (local.get $C6)))))))))))))
+                        (if (i32.lt_u (local.get $ue) (i32.const 0x3fd33333))
+                          (then
+                            (local.set $us (f64.sub (local.get $one) (f64.sub (f64.mul (local.get $half) (local.get $uz))
+                              (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))
+                          (else
+                            (local.set $uv (select (local.get $qx)
+                              (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $ue) (i32.const 0x00200000))) (i64.const 32)))
+                              (i32.gt_u (local.get $ue) (i32.const 0x3fe90000))))
+                            (local.set $us (f64.sub (f64.sub (local.get $one) (local.get $uv))
+                              (f64.sub (f64.sub (f64.mul (local.get $half) (local.get $uz)) (local.get $uv))
+                                (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))))))
+                  (else
+                    ;; sin(y0 + y1) = y0 + (S1*y0^3 + (y0^2*(r*y0^3 - y1/2) + y1)), without y1 when not reduced
+                    (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
+                      (then (local.set $us (local.get $uy0)))
+                      (else
+                        (local.set $uv (f64.mul (local.get $uz) (local.get $uy0)))
+                        (local.set $uq (f64.add (local.get $S2) (f64.mul (local.get $uz)
+                          (f64.add (local.get $S3) (f64.mul (local.get $uz) (f64.add (local.get $S4)
+                          (f64.mul (local.get $uz) (f64.add (local.get $S5) (f64.mul (local.get $uz) (local.get $S6))))))))))
+                        (local.set $us (if (result f64) (local.get $uiy)
+                          (then (f64.sub (local.get $uy0) (f64.sub (f64.sub (f64.mul (local.get $uz)
+                            (f64.sub (f64.mul (local.get $half) (local.get $uy1)) (f64.mul (local.get $uv) (local.get $uq))))
+                            (local.get $uy1)) (f64.mul (local.get $uv) (local.get $S1)))))
+                          (else (f64.add (local.get $uy0) (f64.mul (local.get $uv)
+                            (f64.add (local.get $S1) (f64.mul (local.get $uz) (local.get $uq))))))))))))
+                (if (i32.and (local.get $un) (i32.const 2)) (then (local.set $us (f64.neg (local.get $us)))))))
+
+            (f64.store offset=2031616 (local.get $fo) (local.get $us))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample)))
     (i64.store offset=256 (i32.const 0) (local.get $acc))
     (i32.store offset=264 (i32.const 0) (local.get $h)))
 
   ;; ---- The traced simulation (src/sim/wasm/wasmTraced.ts) ----
-  ;; The float loop, the conversion of the bit-true outputs to doubles, and the per-sample part of the
+  ;; The float loop, the bit-true loop's input codes and conversion to doubles (in run), and the per-sample part of the
   ;; trace and metric accumulator, each the same double operations in the same order as its
   ;; TypeScript twin (floatKernel.ts, simulate.ts, runAccumulator.ts), so every result is the same
   ;; double; test/sim/fastPaths.test.ts compares them bit for bit. Layout (bytes; TRACED in
@@ -209,7 +423,8 @@
   ;;           wrapped phase error (rad)
   ;;   1441792 accumulator state k at 1441792 + k*512: 20 f64 (runAccumulator.ts AccumulatorCore.state),
   ;;           then at +160 the boxcar's index, fill, length and address (i32 each); the bit-true
-  ;;           conversion constants at 1442496
+  ;;           conversion constants at 1442496 (5 f64), the quantiser's scale, min and max (f64) and
+  ;;           rounding mode (i32) at 1442536
   ;;   1442816 float loop: constants and phase, waveform (1 square) and section count (i32) at +40 and +44,
   ;;           section state (4 x f64) at +64, coefficients (5 x f64) at +320
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
@@ -220,31 +435,6 @@
   ;;   1769472 high words of n*pi/2 for the sine (below)
 ;;   1769728 the loops' f64 constants (the data segments at the end)
 
-  ;; The bit-true outputs of the last `run` as doubles in observation block 1 (simulate.ts bitTrueRunner):
-  ;; NCO phase hi*2^(32-N) + lo*2^-N cycles, filter output y*2^-(D-1), NCO frequency M' + delta*fs/2^N.
-  (func (export "convert") (param $count i32)
-    (local $i i32) (local $o i32) (local $o8 i32)
-    (local $hiWeight f64) (local $toCycles f64) (local $yScale f64) (local $centerHz f64) (local $hzPerLsb f64)
-    (local.set $hiWeight (f64.load offset=1442496 (i32.const 0)))
-    (local.set $toCycles (f64.load offset=1442504 (i32.const 0)))
-    (local.set $yScale (f64.load offset=1442512 (i32.const 0)))
-    (local.set $centerHz (f64.load offset=1442520 (i32.const 0)))
-    (local.set $hzPerLsb (f64.load offset=1442528 (i32.const 0)))
-    (block $done
-      (loop $sample
-        (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
-        (local.set $o (i32.shl (local.get $i) (i32.const 2)))
-        (local.set $o8 (i32.shl (local.get $i) (i32.const 3)))
-        (f64.store offset=1245184 (local.get $o8)
-          (f64.add (local.get $centerHz) (f64.mul (f64.load offset=493568 (local.get $o8)) (local.get $hzPerLsb))))
-        (f64.store offset=1114112 (local.get $o8)
-          (f64.add (f64.mul (f64.convert_i32_u (i32.load offset=296960 (local.get $o))) (local.get $hiWeight))
-                   (f64.mul (f64.convert_i32_u (i32.load offset=329728 (local.get $o))) (local.get $toCycles))))
-        (f64.store offset=1179648 (local.get $o8)
-          (f64.mul (f64.convert_i32_s (i32.load offset=460800 (local.get $o))) (local.get $yScale)))
-        (local.set $i (i32.add (local.get $i) (i32.const 1)))
-        (br $sample))))
-
   ;; Samples i0 .. i1-1 of the chunk starting at sample n0 through accumulator k (runAccumulator.ts
   ;; pushChunk): unwrapped error, ripple boxcar, lock indicator, the min and max of the current bucket
   ;; of the four traces, and (flags) the tail and demodulation sums. The segment lies in one trace bucket.
@@ -253,7 +443,7 @@
   ;; leaves the core idle, and the accumulator's independent work fills those cycles; with makeInput
   ;; it also makes the input sample, which both loops read. Its cosine and the
   ;; quadrature arm's sine share one reduction (the module's sine below; the imported Math.cos and
-  ;; Math.sin when $own is 0). The bit-true loop's quadrature sine comes precomputed (sine, from convert).
+  ;; Math.sin when $own is 0). The bit-true loop's quadrature sine comes precomputed (run).
   (func (export "accumulate") (param $k i32) (param $n0 i32) (param $i0 i32) (param $i1 i32) (param $tail i32) (param $demod i32) (param $withFloat i32) (param $own i32) (param $makeInput i32) (param $inputAmplitude f64)
     (local $st i32) (local $blk i32) (local $i i32) (local $o i32) (local $bp i32)
     (local $boxIndex i32) (local $boxFilled i32) (local $boxLength i32) (local $boxBase i32)
@@ -707,40 +897,6 @@
     (f64.store offset=120 (local.get $st) (local.get $lkHi))
     (i32.store offset=160 (local.get $st) (local.get $boxIndex))
     (i32.store offset=164 (local.get $st) (local.get $boxFilled)))
-
-  ;; Input codes of the first `count` input samples into the kernel's input area (bitTrueKernel.ts
-  ;; quantizeInput): q = floor(x*2^(D-1)), one up above a half or on a tie the mode rounds up (nearest:
-  ;; v >= 0; half-even: q odd), saturated to [min, max] (an ADC clips).
-  (func (export "quantize") (param $count i32) (param $scale f64) (param $mode i32) (param $min f64) (param $max f64)
-    (local $i i32) (local $v f64) (local $q f64) (local $r f64)
-    ;; the constants from the pool (a literal in the loop would be rebuilt in a register at every use)
-    (local $half f64) (local $two f64)
-    (local.set $half (f64.load offset=1769736 (i32.const 0)))
-    (local.set $two (f64.load offset=1769768 (i32.const 0)))
-    (block $done
-      (loop $sample
-        (br_if $done (i32.ge_u (local.get $i) (local.get $count)))
-        (local.set $v (f64.mul (f64.load offset=589824 (i32.shl (local.get $i) (i32.const 3))) (local.get $scale)))
-        (local.set $q (f64.floor (local.get $v)))
-        ;; up by (double)(test), no branch: whether a sample rounds up is as random as the noise on it
-        ;; (q + 0 may turn -0 into +0, which converts to the same code)
-        (if (i32.eq (local.get $mode) (i32.const 1))
-          (then
-            (local.set $r (f64.sub (local.get $v) (local.get $q)))
-            (local.set $q (f64.add (local.get $q) (f64.convert_i32_u
-              (i32.or (f64.gt (local.get $r) (local.get $half))
-                (i32.and (f64.eq (local.get $r) (local.get $half)) (f64.ge (local.get $v) (f64.const 0))))))))
-          (else (if (local.get $mode)
-            (then
-              (local.set $r (f64.sub (local.get $v) (local.get $q)))
-              (local.set $q (f64.add (local.get $q) (f64.convert_i32_u
-                (i32.or (f64.gt (local.get $r) (local.get $half))
-                  (i32.and (f64.eq (local.get $r) (local.get $half))
-                    (f64.ne (f64.sub (local.get $q) (f64.mul (local.get $two) (f64.floor (f64.mul (local.get $q) (local.get $half))))) (f64.const 0)))))))))))
-        (local.set $q (select (local.get $max) (select (local.get $min) (local.get $q) (f64.lt (local.get $q) (local.get $min))) (f64.gt (local.get $q) (local.get $max))))
-        (i32.store offset=264192 (i32.shl (local.get $i) (i32.const 2)) (i32.trunc_sat_f64_s (local.get $q)))
-        (local.set $i (i32.add (local.get $i) (i32.const 1)))
-        (br $sample))))
 
   ;; The lock test's bucket min and max (lockMetric.ts LockTracker.pushRange) of the f64 values at
   ;; byte offset $src, samples i0 .. i1-1, folded into the two doubles at $slot: compared in sample

@@ -52,10 +52,9 @@ interface WasmInstance {
 /** The module's functions: the bit-true kernel and the traced simulation's loops (wasmTraced.ts). */
 export interface WasmExports {
   readonly memory: { readonly buffer: ArrayBuffer };
-  readonly run: (count: number) => void;
-  readonly convert: (count: number) => void;
+  /** `count` samples; traced: input codes from the traced input chunk and outputs as doubles (wasmTraced.ts); record: per-sample outputs. */
+  readonly run: (count: number, traced: number, record: number, own: number) => void;
   readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
-  readonly quantize: (count: number, scale: number, mode: number, min: number, max: number) => void;
   readonly band: (src: number, i0: number, i1: number, slot: number) => void;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
   readonly phases: (count: number, n0: number, phase: number, constant: number, constantStep: number, centerHz: number, sampleRateHz: number, stepSample: number, stepCycles: number) => number;
@@ -106,7 +105,8 @@ export class WasmBitTrueLoop {
 
   constructor(instance: WasmInstance) {
     this.exports = instance.exports;
-    this.runChunk = instance.exports.run;
+    const run = instance.exports.run;
+    this.runChunk = (count) => run(count, 0, 1, 0);
     const buffer = instance.exports.memory.buffer;
     const i32 = (offset: number) => new Int32Array(buffer, offset, WASM_CHUNK_SAMPLES);
     this.input = i32(LAYOUT.input);

@@ -37,6 +37,8 @@ const TRACED = {
   /** A state's i32 after its 20 doubles: boxcar index, fill, length and address. */
   stateInts: 160,
   convert: 1442496,
+  /** The quantiser's scale, minimum and maximum (f64) and rounding mode (i32), after the conversion's constants. */
+  quantizer: 1442536,
   float: 1442816,
   /** The float loop's waveform (1 square) and section count, i32 each, after its constants and phase. */
   floatWaveform: 40,
@@ -123,6 +125,8 @@ export class WasmTraced {
   /** Set by loadFloat: the float loop's accumulate computes each input sample (the first to read it). */
   private floatMakesInput = false;
   private inputAmplitude = 0;
+  /** Whether the kernel writes its per-sample outputs and input codes (a run that keeps its record). */
+  private recording = false;
   /** inputSignal.ts's phase recurrence in the module. */
   private readonly recurrence: PhaseRecurrence;
 
@@ -179,20 +183,23 @@ export class WasmTraced {
     );
   }
 
-  loadConvert(scales: BitTrueScales): void {
+  /** The bit-true loop's conversion and quantiser constants (the kernel's own are WasmBitTrueLoop.load's); with `record`, the kernel writes the record. */
+  loadBitTrue(plan: BitTruePlan, scales: BitTrueScales, record: boolean): void {
     this.f64.set([scales.hiWeight, scales.toCycles, scales.yScale, scales.centerHz, scales.hzPerLsb], TRACED.convert / 8);
-  }
-
-  /** The first `count` input samples as the plan's input codes, into the kernel's input area (quantizeInput's codes). */
-  quantize(plan: BitTruePlan, count: number): void {
+    // quantizeInput's scale and saturation limits.
     const scale = 2 ** (plan.dataBits - 1);
-    this.loop.exports.quantize(count, scale, MODE[plan.rounding], -scale, scale - 1);
+    this.f64.set([scale, -scale, scale - 1], TRACED.quantizer / 8);
+    this.i32[(TRACED.quantizer + 24) / 4] = MODE[plan.rounding];
+    this.recording = record;
   }
 
-  /** The last kernel run's outputs as doubles, into observation block 1, and the sine of its NCO phase for the quadrature arm. */
-  convert(count: number): void {
-    this.loop.exports.convert(count);
-    this.loop.exports.sine(count, TRACED.block + TRACED.blockBytes, TRACED.bitTrueSine, 0, 1, 0, this.own, 0);
+  /**
+   * The chunk's first `count` input samples through the bit-true loop in one pass: input codes
+   * (quantizeInput's), the kernel, its outputs as doubles in observation block 1, and the sine of its
+   * NCO phase for the quadrature arm; with a record also the codes and outputs in the kernel's areas.
+   */
+  bitTrueChunk(count: number): void {
+    this.loop.exports.run(count, 1, this.recording ? 1 : 0, this.own);
   }
 
   /** Accumulator k's core (k = 0 float, 1 bit-true); the float core runs the float loop itself, a sample ahead of its accumulation. */
