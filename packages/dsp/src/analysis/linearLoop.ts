@@ -14,6 +14,7 @@
  * norms of the transfer from a point to a node (Ja70).
  */
 import type { Sos } from '../types/filter.ts';
+import { kernelFreeResponse } from './wasm/analysisKernel.ts';
 
 /** The linearised loop: x[n+1] = A·x[n] + B·e[n], out[n] = C·x[n] + D·e[n]. Matrices are row-major. */
 export interface LinearLoop {
@@ -265,7 +266,8 @@ export interface ImpulseNorms {
  * output seen (checked every 64 samples), accumulating L1 and L2 of each section output. Sample 0, where
  * the impulse enters, is linearStep itself; after it the response is the free evolution of the state,
  * run flat over typed arrays (O(K) per sample, no dense matrices): this loop is most of the cost of the
- * noise analysis.
+ * noise analysis, and runs in the analysis's WebAssembly module where it can (wasm/analysisKernel.ts,
+ * the same doubles).
  */
 export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
   const { sections, kd, koTRadPerUnit: koT, stateCount, inputCount, outputCount } = loop;
@@ -285,7 +287,7 @@ export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
     block[j] = block[j]! + h;
     l2[j] = l2[j]! + h * h;
   }
-  const run = runFreeResponse(coef, kd, koT, state, l1, l2, block, prevBlock);
+  const run = kernelFreeResponse(coef, kd, koT, state, l1, l2, block, prevBlock, MAX_IMPULSE_SAMPLES) ?? runFreeResponse(coef, kd, koT, state, l1, l2, block, prevBlock);
   const done = run > 0;
   const samples = Math.abs(run);
   if (!done) {
@@ -309,7 +311,7 @@ export function impulseNorms(loop: LinearLoop, input: number): ImpulseNorms {
  * the loop but the return: code after a hot loop runs in the loop's on-stack-replaced compile without
  * type feedback and left it by a deoptimisation.
  */
-function runFreeResponse(coef: Float64Array, kd: number, koT: number, x: Float64Array, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array): number {
+export function runFreeResponse(coef: Float64Array, kd: number, koT: number, x: Float64Array, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array): number {
   const k = l1.length;
   // Section states y[n−1], y[n−2]; detector states u[n−1], u[n−2]; NCO phase θ.
   const ys = x.slice(3);

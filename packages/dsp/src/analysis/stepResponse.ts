@@ -11,6 +11,7 @@ import type { AnalogTf, Sos } from '../types/filter.ts';
 import type { StepResponses } from '../types/analysis.ts';
 import { bilinearTf } from '../filters/bilinear.ts';
 import { runFilter } from './filterRun.ts';
+import { kernelDiscreteSteps } from './wasm/analysisKernel.ts';
 
 export const MAX_SAMPLES = 20_000;
 export const PLOT_POINTS = 400;
@@ -18,7 +19,7 @@ export const PLOT_POINTS = 400;
 export const DIVERGED_RAD = 1e6;
 
 /** The traces being kept (every stride-th sample: `kept` of them so far) and whether the loop diverged before their end. */
-interface Traces {
+export interface Traces {
   readonly timeS: number[];
   readonly phaseStepErrorRad: number[];
   readonly frequencyStepErrorRad: number[];
@@ -35,6 +36,41 @@ function doubles(length: number): number[] {
   return new Array<number>(length).fill(0.5);
 }
 
+/** The discrete loop's constants: its sections' coefficients (b0 b1 b2 a1 a2 each), K·T, T and 2π·T. */
+export interface StepLoop {
+  readonly coef: Float64Array;
+  readonly kt: number;
+  readonly t: number;
+  readonly twoPiT: number;
+}
+
+export function stepLoop(sections: readonly Sos[], kRadPerS: number, sampleRateHz: number): StepLoop {
+  const t = 1 / sampleRateHz;
+  const coef = new Float64Array(5 * sections.length);
+  for (let j = 0; j < sections.length; j++) {
+    const { b, a } = sections[j]!;
+    coef.set([b[0], b[1], b[2], a[1], a[2]], 5 * j);
+  }
+  return { coef, kt: kRadPerS / sampleRateHz, t, twoPiT: 2 * Math.PI * t };
+}
+
+/**
+ * The discrete steps in the analysis's WebAssembly module (wasm/analysisKernel.ts, the same doubles as
+ * runDiscreteSteps), copied into `out`; false when the module cannot run them.
+ */
+export function kernelSteps(loop: StepLoop, n: number, stride: number, out: Traces): boolean {
+  const run = kernelDiscreteSteps(loop.coef, loop.kt, loop.t, loop.twoPiT, n, stride, DIVERGED_RAD);
+  if (!run) return false;
+  for (let i = 0; i < run.kept; i++) {
+    out.timeS[i] = run.timeS[i]!;
+    out.phaseStepErrorRad[i] = run.phaseStepErrorRad[i]!;
+    out.frequencyStepErrorRad[i] = run.frequencyStepErrorRad[i]!;
+  }
+  out.kept = run.kept;
+  out.diverged = run.diverged;
+  return true;
+}
+
 /**
  * The discrete loop for a 1 rad phase step (DF2T sections), n samples, keeping every stride-th sample's
  * errors in `out` as it runs (no array of every sample, no second pass over one). The loop is linear and
@@ -43,16 +79,9 @@ function doubles(length: number): number[] {
  * array (this loop runs up to MAX_SAMPLES times per section). Nothing follows the loop but the return:
  * code after a hot loop runs in the loop's on-stack-replaced compile without type feedback.
  */
-function runDiscreteSteps(sections: readonly Sos[], kRadPerS: number, sampleRateHz: number, n: number, stride: number, out: Traces): void {
-  const kt = kRadPerS / sampleRateHz;
-  const t = 1 / sampleRateHz;
-  const twoPiT = 2 * Math.PI * t;
-  const k = sections.length;
-  const coef = new Float64Array(5 * k);
-  for (let j = 0; j < k; j++) {
-    const { b, a } = sections[j]!;
-    coef.set([b[0], b[1], b[2], a[1], a[2]], 5 * j);
-  }
+export function runDiscreteSteps(loop: StepLoop, n: number, stride: number, out: Traces): void {
+  const { coef, kt, t, twoPiT } = loop;
+  const k = coef.length / 5;
   const state = new Float64Array(2 * k);
   let thetaO = 0;
   let before = 0;
@@ -118,7 +147,10 @@ export function stepResponses(
   const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
   const room = Math.ceil(n / stride);
   const traces: Traces = { timeS: doubles(room), phaseStepErrorRad: doubles(room), frequencyStepErrorRad: doubles(room), kept: 0, diverged: false };
-  if (useDiscrete) runDiscreteSteps(sections, kRadPerS, sampleRateHz, n, stride, traces);
+  if (useDiscrete) {
+    const loop = stepLoop(sections, kRadPerS, sampleRateHz);
+    if (!kernelSteps(loop, n, stride, traces)) runDiscreteSteps(loop, n, stride, traces);
+  }
   else {
     const rateHz = MAX_SAMPLES / durationS;
     analogSteps(runFilter(bilinearTf(analogE, rateHz, null), n, () => 1, 1), rateHz, stride, traces);

@@ -11,6 +11,7 @@ import type { BitTruePlan } from '../../types/sim.ts';
 import { CHECKSUM_BASIS } from '../checksum.ts';
 import { MODE, type BitTrueChunkOut } from '../bitTrueKernel.ts';
 import { BIT_TRUE_KERNEL_WASM_BASE64 } from './kernelBytes.ts';
+import { compileModule, instantiate, type WasmInstance as WasmInstanceOf } from '../../wasm/compileModule.ts';
 
 /** Samples one call of the kernel takes at most (the input and output areas of its memory). */
 export const WASM_CHUNK_SAMPLES = 8192;
@@ -41,13 +42,7 @@ export interface WasmChunkOut extends BitTrueChunkOut {
   readonly delta: Float64Array;
 }
 
-/**
- * The part of the engine's WebAssembly API used here, typed locally: the package compiles under the
- * browser's and Node's type libraries alike, and an engine without WebAssembly simply has none.
- */
-interface WasmInstance {
-  readonly exports: WasmExports;
-}
+type WasmInstance = WasmInstanceOf<WasmExports>;
 
 /** The module's functions: the bit-true kernel and the traced simulation's loops (wasmTraced.ts). */
 export interface WasmExports {
@@ -63,26 +58,11 @@ export interface WasmExports {
 
 /** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */
 const IMPORTS = { math: { sin: Math.sin, cos: Math.cos } };
-interface WasmApi {
-  readonly Module: new (bytes: Uint8Array) => object;
-  readonly Instance: new (module: object, imports: object) => WasmInstance;
-}
-
-const wasmApi = (globalThis as unknown as { readonly WebAssembly?: WasmApi }).WebAssembly;
 let compiled: object | null | undefined;
 
+/** The compiled kernel; null where it cannot be compiled, and the TypeScript loop runs. */
 function kernelModule(): object | null {
-  if (compiled !== undefined) return compiled;
-  compiled = null;
-  if (!wasmApi) return compiled;
-  try {
-    const text = atob(BIT_TRUE_KERNEL_WASM_BASE64);
-    const bytes = new Uint8Array(text.length);
-    for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
-    compiled = new wasmApi.Module(bytes);
-  } catch {
-    // A Content Security Policy without 'wasm-unsafe-eval' refuses the compile: the TypeScript loop runs.
-  }
+  if (compiled === undefined) compiled = compileModule(BIT_TRUE_KERNEL_WASM_BASE64);
   return compiled;
 }
 
@@ -196,8 +176,8 @@ export function wasmBitTrueLoop(plan: BitTruePlan): WasmBitTrueLoop | null {
 /** An instance of the module with no plan loaded (a float-only traced run), or null without WebAssembly. */
 export function wasmInstanceLoop(): WasmBitTrueLoop | null {
   const module = kernelModule();
-  if (!module || !wasmApi) return null;
-  return spare.pop() ?? new WasmBitTrueLoop(new wasmApi.Instance(module, IMPORTS));
+  if (!module) return null;
+  return spare.pop() ?? new WasmBitTrueLoop(instantiate<WasmExports>(module, IMPORTS));
 }
 
 /** Hand a loop whose run is over (its outputs and checksum read) back for the next run. */

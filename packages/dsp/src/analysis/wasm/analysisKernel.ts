@@ -1,0 +1,89 @@
+/**
+ * The analysis's two long loops in WebAssembly (analysisKernel.wat): the free response of the linearised
+ * loop (linearLoop.ts, runFreeResponse) and the discrete step responses (stepResponse.ts,
+ * runDiscreteSteps), the same doubles as the TypeScript loops, which stay the reference and run wherever
+ * the module cannot (no WebAssembly, a Content Security Policy that forbids compiling it, more sections
+ * than its memory holds). A fresh engine runs a first analysis's TypeScript loops unoptimised for
+ * thousands of samples, a double boxed per operation; the module is compiled before its first sample.
+ */
+import { compileModule, instantiate } from '../../wasm/compileModule.ts';
+import { ANALYSIS_KERNEL_WASM_BASE64 } from './analysisKernelBytes.ts';
+
+/** Sections and kept step-response samples the module's memory holds (its layout comment). */
+export const KERNEL_MAX_SECTIONS = 16;
+export const KERNEL_MAX_KEPT = 1024;
+
+/** Double offsets of the module's memory (the byte offsets of its layout comment, over 8). */
+const AT = { coefficients: 0, states: 80, l1: 112, l2: 128, block: 144, prevBlock: 160, timeS: 256, phaseStep: 1280, frequencyStep: 2304 } as const;
+
+interface AnalysisKernelExports {
+  readonly memory: { readonly buffer: ArrayBuffer };
+  readonly freeResponse: (k: number, kd: number, koT: number, theta: number, u1: number, u2: number, maxSamples: number) => number;
+  readonly discreteSteps: (k: number, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number) => number;
+}
+
+/** The one instance (the loops keep nothing in it between calls), its memory as doubles; null without WebAssembly. */
+let kernel: { readonly exports: AnalysisKernelExports; readonly memory: Float64Array } | null | undefined;
+
+function analysisKernel() {
+  if (kernel === undefined) {
+    const module = compileModule(ANALYSIS_KERNEL_WASM_BASE64);
+    const exports = module ? instantiate<AnalysisKernelExports>(module, {}).exports : null;
+    kernel = exports ? { exports, memory: new Float64Array(exports.memory.buffer) } : null;
+  }
+  return kernel;
+}
+
+/**
+ * runFreeResponse (linearLoop.ts; the same arguments, coef holding k sections) in the module: the same
+ * return value and the same doubles left in l1, l2, block and prevBlock. Null when the module cannot run it.
+ */
+export function kernelFreeResponse(coef: Float64Array, kd: number, koT: number, x: Float64Array, l1: Float64Array, l2: Float64Array, block: Float64Array, prevBlock: Float64Array, maxSamples: number): number | null {
+  const k = l1.length;
+  const km = k > KERNEL_MAX_SECTIONS ? null : analysisKernel();
+  if (!km) return null;
+  const m = km.memory;
+  m.set(coef, AT.coefficients);
+  m.set(x.subarray(3, 3 + 2 * k), AT.states);
+  m.set(l1, AT.l1);
+  m.set(l2, AT.l2);
+  m.set(block, AT.block);
+  m.set(prevBlock, AT.prevBlock);
+  const run = km.exports.freeResponse(k, kd, koT, x[0]!, x[1]!, x[2]!, maxSamples);
+  l1.set(m.subarray(AT.l1, AT.l1 + k));
+  l2.set(m.subarray(AT.l2, AT.l2 + k));
+  block.set(m.subarray(AT.block, AT.block + k));
+  prevBlock.set(m.subarray(AT.prevBlock, AT.prevBlock + k));
+  return run;
+}
+
+/** The kept samples of a step-response run in the module (views of its memory, valid until its next call). */
+export interface KernelSteps {
+  readonly kept: number;
+  readonly diverged: boolean;
+  readonly timeS: Float64Array;
+  readonly phaseStepErrorRad: Float64Array;
+  readonly frequencyStepErrorRad: Float64Array;
+}
+
+/**
+ * runDiscreteSteps (stepResponse.ts) in the module, for coef of its sections (b0 b1 b2 a1 a2 each) and
+ * its constants: the samples it keeps, or null when the module cannot run it.
+ */
+export function kernelDiscreteSteps(coef: Float64Array, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number): KernelSteps | null {
+  const k = coef.length / 5;
+  const km = k > KERNEL_MAX_SECTIONS || Math.ceil(n / stride) > KERNEL_MAX_KEPT ? null : analysisKernel();
+  if (!km) return null;
+  const m = km.memory;
+  m.set(coef, AT.coefficients);
+  m.fill(0, AT.states, AT.states + 2 * k);
+  const r = km.exports.discreteSteps(k, kt, t, twoPiT, n, stride, divergedRad);
+  const kept = r < 0 ? -1 - r : r;
+  return {
+    kept,
+    diverged: r < 0,
+    timeS: m.subarray(AT.timeS, AT.timeS + kept),
+    phaseStepErrorRad: m.subarray(AT.phaseStep, AT.phaseStep + kept),
+    frequencyStepErrorRad: m.subarray(AT.frequencyStep, AT.frequencyStep + kept),
+  };
+}
