@@ -1,11 +1,12 @@
 import { defineStore } from 'pinia';
 import { ref, shallowRef } from 'vue';
 import type { LoopSpec, Scenario } from '@loopwright/dsp';
-import { jobWorker } from '../workers/dspClient.ts';
+import { simulationWorkers } from '../workers/dspClient.ts';
+import { simulateOn } from '../workers/splitSimulation.ts';
 import type { SimulationOutput } from '../workers/dspJobs.ts';
 import { useCancellableJob } from './cancellableJob.ts';
 
-/** One simulation at a time in the job worker, with progress and cancel. */
+/** One simulation at a time in the job workers (one loop in each where there are two), with progress and cancel. */
 export const useSimulationStore = defineStore('simulation', () => {
   const output = shallowRef<SimulationOutput | null>(null);
   const elapsedMs = ref<number | null>(null);
@@ -16,7 +17,7 @@ export const useSimulationStore = defineStore('simulation', () => {
     cancelled.value = false;
     await start(
       async (signal) => {
-        const done = await jobWorker().run('simulate', spec, scenario, {
+        const done = await simulateOn(simulationWorkers(), spec, scenario, {
           signal,
           onProgress: (fraction) => (progress.value = fraction),
         });

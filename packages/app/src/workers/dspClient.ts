@@ -116,6 +116,7 @@ const createWorker: WorkerFactory = () =>
 
 let analysisClient: DspClient | null = null;
 let jobClient: DspClient | null = null;
+let secondJobClient: DspClient | null = null;
 
 /** The worker for analysis on every keystroke (kept free of long simulations). */
 export function analysisWorker(): DspClient {
@@ -127,4 +128,14 @@ export function analysisWorker(): DspClient {
 export function jobWorker(): DspClient {
   jobClient ??= new DspClient(createWorker);
   return jobClient;
+}
+
+/**
+ * The job workers a simulation may use: a second one where the machine has a second core, so a
+ * 'both' run's two loops run side by side (splitSimulation.ts).
+ */
+export function simulationWorkers(): readonly [DspClient, DspClient?] {
+  if ((globalThis.navigator?.hardwareConcurrency ?? 1) < 2) return [jobWorker()];
+  secondJobClient ??= new DspClient(createWorker);
+  return [jobWorker(), secondJobClient];
 }

@@ -14,6 +14,7 @@ import {
   type AnalysisResult,
   type LoopSpec,
   type Scenario,
+  type SimOptions,
   type SimResult,
   type WordLengthResult,
 } from '@loopwright/dsp';
@@ -34,9 +35,16 @@ export interface SimulationOutput {
   readonly offsetHz: readonly [number, number][] | null;
 }
 
+/** One loop of a 'both' simulation, for a worker of its own (splitSimulation.ts). */
+export interface SimulationHalfInput {
+  readonly scenario: Scenario;
+  readonly mode: 'float' | 'bit-true';
+}
+
 interface Jobs {
   analyze: { input: null; output: DesignAnalysis };
   simulate: { input: Scenario; output: SimulationOutput };
+  simulateHalf: { input: SimulationHalfInput; output: SimulationOutput };
   wordLength: { input: WordLengthInput; output: WordLengthResult };
   acquire: { input: null; output: AcquisitionComparison };
 }
@@ -70,10 +78,11 @@ export function analyzeJob(spec: LoopSpec): DesignAnalysis {
 export const FULL_TRACE_LIMIT = 1 << 19;
 const OFFSET_POINTS = 2000;
 
-export async function simulateJob(spec: LoopSpec, scenario: Scenario, ctx: JobContext): Promise<SimulationOutput> {
+/** Both loops (default) or one: the two halves of a split run are the 'both' run (mergeSimResults). */
+export async function simulateJob(spec: LoopSpec, scenario: Scenario, ctx: JobContext, mode: SimOptions['mode'] = 'both'): Promise<SimulationOutput> {
   const samples = Math.ceil(scenario.durationS * spec.sampleRateHz);
   const fullTraces = samples <= FULL_TRACE_LIMIT;
-  const run = await simulatePlanAsync(planDesign(requireValidSpec(spec)), scenario, { signal: ctx.signal, onProgress: (f) => ctx.onProgress(f), fullTraces });
+  const run = await simulatePlanAsync(planDesign(requireValidSpec(spec)), scenario, { signal: ctx.signal, onProgress: (f) => ctx.onProgress(f), fullTraces, mode });
   const full = run.float?.full ?? run.bitTrue?.full;
   const offsetHz = full ? decimateMinMax(timeAxis(full.offsetHz.length, spec.sampleRateHz), full.offsetHz, OFFSET_POINTS) : null;
   return { result: withoutFullTraces(run), offsetHz };
@@ -122,9 +131,19 @@ export async function runDspJob(kind: DspJobKind, spec: LoopSpec, input: unknown
       return analyzeJob(spec);
     case 'simulate':
       return simulateJob(spec, input as Scenario, ctx);
+    case 'simulateHalf': {
+      const half = input as SimulationHalfInput;
+      return simulateJob(spec, half.scenario, ctx, half.mode);
+    }
     case 'wordLength':
       return wordLengthJob(spec, input as WordLengthInput, ctx);
     case 'acquire':
       return acquireJob(spec, ctx);
   }
 }
+
+/**
+ * Jobs whose output is made fresh for the page and nothing in the worker keeps: their typed arrays
+ * may move to the page instead of being copied (a plan's sine table is its own copy, sineTable.ts).
+ */
+export const MOVABLE_OUTPUT_JOBS: ReadonlySet<DspJobKind> = new Set<DspJobKind>(['simulate', 'simulateHalf']);
