@@ -205,10 +205,19 @@ function firstBucketSamples(boxcarLength: number): number {
 export interface LockKernel {
   /** An array of the kernel's memory for the corrected error (a chunk's worth). */
   readonly scratch: Float64Array;
-  /** The open bucket's min and max, then the tail sum: what band and sum fold into. */
+  /**
+   * The open bucket's min and max, the tail sum, the bucket's end, width and place in its level, and
+   * how many buckets the last `buckets` call closed: what `buckets` and `sum` read and advance.
+   */
   readonly slots: Float64Array;
-  /** Fold values[i0..i1) into slots[0] and slots[1] as pushRange's loop does; values lie in the kernel's memory. */
-  band(values: Float64Array, i0: number, i1: number): void;
+  /** The buckets the last `buckets` call closed: min, max and end of each in turn. */
+  readonly closed: Float64Array;
+  /**
+   * pushRange's loop and nextBucket over values[i0..count) of the chunk from sample n0 (values in the
+   * kernel's memory), perLevel buckets a level; returns where it stopped: count, or earlier when
+   * `closed` is full (then call again from there).
+   */
+  buckets(values: Float64Array, n0: number, i0: number, count: number, perLevel: number): number;
   /** Add values[i0..i1) to slots[2], in order. */
   sum(values: Float64Array, i0: number, i1: number): void;
 }
@@ -298,18 +307,26 @@ export class LockTracker {
 
   /** pushRange's bucket and tail loops through the kernel, on the corrected chunk d in its memory. */
   private kernelRange(kernel: LockKernel, n0: number, count: number, d: Float64Array): void {
-    const slots = kernel.slots;
-    let i = 0;
-    while (i < count) {
-      if (n0 + i >= this.bucketEnd) this.nextBucket();
-      const end = Math.min(count, this.bucketEnd - n0);
-      slots[0] = this.lo;
-      slots[1] = this.hi;
-      kernel.band(d, i, end);
-      this.lo = slots[0] as number;
-      this.hi = slots[1] as number;
-      i = end;
+    const { slots, closed } = kernel;
+    slots[0] = this.lo;
+    slots[1] = this.hi;
+    slots[3] = this.bucketEnd;
+    slots[4] = this.bucketWidth;
+    slots[5] = this.inLevel;
+    for (let i = 0; i < count; ) {
+      i = kernel.buckets(d, n0, i, count, LOCK_BUCKETS_PER_LEVEL);
+      const n = slots[6] as number;
+      for (let b = 0; b < 3 * n; b += 3) {
+        this.min.push(closed[b] as number);
+        this.max.push(closed[b + 1] as number);
+        this.ends.push(closed[b + 2] as number);
+      }
     }
+    this.lo = slots[0] as number;
+    this.hi = slots[1] as number;
+    this.bucketEnd = slots[3] as number;
+    this.bucketWidth = slots[4] as number;
+    this.inLevel = slots[5] as number;
     const from = Math.max(0, this.tailStart - n0);
     if (from < count) {
       slots[2] = this.tailSum;

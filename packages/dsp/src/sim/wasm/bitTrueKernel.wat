@@ -428,7 +428,9 @@
   ;;   1442816 float loop: constants and phase, waveform (1 square) and section count (i32) at +40 and +44,
   ;;           section state (4 x f64) at +64, coefficients (5 x f64) at +320
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
-  ;;   1769600 lock band k at 1769600 + k*32: the open bucket's min and max, the tail sum (f64 each)
+  ;;   1769600 lock band k at 1769600 + k*56: the open bucket's min and max, the tail sum, its end, width
+  ;;           and place in its level, and the buckets the last bands closed (f64 each)
+  ;;   559104  the buckets the last bands closed, min, max and end (f64 each), up to 1280
   ;;   1835008 lock scratch k at 1835008 + k*65536, f64 x 8192: the phase error less the expected one
   ;;   1966080 input noise, f64 x 8192 (zero without noise)
   ;;   2031616 sin(2*pi*NCO phase) of the bit-true loop, f64 x 8192 (its quadrature arm)
@@ -898,28 +900,70 @@
     (i32.store offset=160 (local.get $st) (local.get $boxIndex))
     (i32.store offset=164 (local.get $st) (local.get $boxFilled)))
 
-  ;; The lock test's bucket min and max (lockMetric.ts LockTracker.pushRange) of the f64 values at
-  ;; byte offset $src, samples i0 .. i1-1, folded into the two doubles at $slot: compared in sample
-  ;; order as pushRange does, and a NaN anywhere makes both NaN (the bucket stays out of band).
-  (func (export "band") (param $src i32) (param $i0 i32) (param $i1 i32) (param $slot i32)
-    (local $p i32) (local $end i32) (local $v f64) (local $lo f64) (local $hi f64) (local $nan i32)
+  ;; The lock test's buckets (lockMetric.ts LockTracker.pushRange and nextBucket) over the f64 values at
+  ;; byte offset $src, samples i0 .. count-1 of the chunk from sample n0, with the open bucket's min, max,
+  ;; end, width and place in its level as doubles at $slot (+0, +8, +24, +32, +40; the tail sum is +16):
+  ;; min and max compared in sample order as pushRange does, a NaN anywhere making both NaN (the bucket
+  ;; stays out of band); each bucket closed here goes to $out as min, max, end (f64 each), at most $maxOut
+  ;; of them, their count to $slot + 48. Returns the sample it stopped at: count, or before the bucket
+  ;; that found $out full.
+  (func (export "bands") (param $src i32) (param $n0 i32) (param $i0 i32) (param $count i32) (param $slot i32)
+    (param $out i32) (param $maxOut i32) (param $perLevel i32) (result i32)
+    (local $i i32) (local $p i32) (local $stop i32) (local $v f64) (local $lo f64) (local $hi f64) (local $nan i32)
+    (local $bucketEnd i32) (local $width i32) (local $inLevel i32) (local $closed i32)
     (local.set $lo (f64.load offset=0 (local.get $slot)))
     (local.set $hi (f64.load offset=8 (local.get $slot)))
-    (local.set $p (i32.add (local.get $src) (i32.shl (local.get $i0) (i32.const 3))))
-    (local.set $end (i32.add (local.get $src) (i32.shl (local.get $i1) (i32.const 3))))
+    (local.set $bucketEnd (i32.trunc_f64_s (f64.load offset=24 (local.get $slot))))
+    (local.set $width (i32.trunc_f64_s (f64.load offset=32 (local.get $slot))))
+    (local.set $inLevel (i32.trunc_f64_s (f64.load offset=40 (local.get $slot))))
+    (local.set $i (local.get $i0))
     (block $done
-      (loop $sample
-        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
-        (local.set $v (f64.load (local.get $p)))
-        (local.set $lo (select (local.get $v) (local.get $lo) (f64.lt (local.get $v) (local.get $lo))))
-        (local.set $hi (select (local.get $v) (local.get $hi) (f64.gt (local.get $v) (local.get $hi))))
-        (local.set $nan (i32.or (local.get $nan) (f64.ne (local.get $v) (local.get $v))))
-        (local.set $p (i32.add (local.get $p) (i32.const 8)))
-        (br $sample)))
-    (if (local.get $nan)
-      (then (local.set $lo (f64.const nan)) (local.set $hi (f64.const nan))))
+      (loop $bucket
+        (br_if $done (i32.ge_s (local.get $i) (local.get $count)))
+        (if (i32.ge_s (i32.add (local.get $n0) (local.get $i)) (local.get $bucketEnd))
+          (then
+            ;; nextBucket: close the open one (if it has begun), then open the next on the grid
+            (if (i32.gt_s (local.get $bucketEnd) (i32.const 0))
+              (then
+                (br_if $done (i32.ge_s (local.get $closed) (local.get $maxOut)))
+                (local.set $p (i32.add (local.get $out) (i32.mul (local.get $closed) (i32.const 24))))
+                (f64.store offset=0 (local.get $p) (local.get $lo))
+                (f64.store offset=8 (local.get $p) (local.get $hi))
+                (f64.store offset=16 (local.get $p) (f64.convert_i32_s (local.get $bucketEnd)))
+                (local.set $closed (i32.add (local.get $closed) (i32.const 1)))))
+            (if (i32.eq (local.get $inLevel) (local.get $perLevel))
+              (then
+                (local.set $inLevel (i32.const 0))
+                (local.set $width (i32.shl (local.get $width) (i32.const 1)))))
+            (local.set $inLevel (i32.add (local.get $inLevel) (i32.const 1)))
+            (local.set $bucketEnd (i32.add (local.get $bucketEnd) (local.get $width)))
+            (local.set $lo (f64.const inf))
+            (local.set $hi (f64.const -inf))))
+        ;; the samples of this bucket in the chunk
+        (local.set $stop (select (local.get $count) (i32.sub (local.get $bucketEnd) (local.get $n0))
+          (i32.lt_s (local.get $count) (i32.sub (local.get $bucketEnd) (local.get $n0)))))
+        (local.set $p (i32.add (local.get $src) (i32.shl (local.get $i) (i32.const 3))))
+        (local.set $nan (i32.const 0))
+        (block $filled
+          (loop $sample
+            (br_if $filled (i32.ge_s (local.get $i) (local.get $stop)))
+            (local.set $v (f64.load (local.get $p)))
+            (local.set $lo (select (local.get $v) (local.get $lo) (f64.lt (local.get $v) (local.get $lo))))
+            (local.set $hi (select (local.get $v) (local.get $hi) (f64.gt (local.get $v) (local.get $hi))))
+            (local.set $nan (i32.or (local.get $nan) (f64.ne (local.get $v) (local.get $v))))
+            (local.set $p (i32.add (local.get $p) (i32.const 8)))
+            (local.set $i (i32.add (local.get $i) (i32.const 1)))
+            (br $sample)))
+        (if (local.get $nan)
+          (then (local.set $lo (f64.const nan)) (local.set $hi (f64.const nan))))
+        (br $bucket)))
     (f64.store offset=0 (local.get $slot) (local.get $lo))
-    (f64.store offset=8 (local.get $slot) (local.get $hi)))
+    (f64.store offset=8 (local.get $slot) (local.get $hi))
+    (f64.store offset=24 (local.get $slot) (f64.convert_i32_s (local.get $bucketEnd)))
+    (f64.store offset=32 (local.get $slot) (f64.convert_i32_s (local.get $width)))
+    (f64.store offset=40 (local.get $slot) (f64.convert_i32_s (local.get $inLevel)))
+    (f64.store offset=48 (local.get $slot) (f64.convert_i32_s (local.get $closed)))
+    (local.get $i))
 
   ;; The running sum at $slot plus the f64 values at byte offset $src, samples i0 .. i1-1, in order
   ;; (the lock test's tail sum).

@@ -47,6 +47,10 @@ const TRACED = {
   floatCoefficients: 1443136,
   boxcars: 1507328,
   lockSlots: 1769600,
+  lockSlotBytes: 56,
+  /** The buckets the last bands call closed (3 f64 each) and how many it may close. */
+  lockClosed: 559104,
+  lockClosedMax: 1280,
   lockScratch: 1835008,
   noise: 1966080,
   bitTrueSine: 2031616,
@@ -211,14 +215,15 @@ export class WasmTraced {
     const blockAt = TRACED.block + k * TRACED.blockBytes;
     const boxAt = TRACED.boxcars + k * MAX_WASM_BOXCAR * 8;
     const f64 = this.f64;
-    const { accumulate, band, sum } = this.loop.exports;
+    const { accumulate, bands, sum } = this.loop.exports;
     const own = this.own;
     const traced = this;
-    const slotAt = TRACED.lockSlots + k * 32;
+    const slotAt = TRACED.lockSlots + k * TRACED.lockSlotBytes;
     const lock: LockKernel = {
       scratch: new Float64Array(buffer, TRACED.lockScratch + k * WASM_CHUNK_SAMPLES * 8, WASM_CHUNK_SAMPLES),
-      slots: new Float64Array(buffer, slotAt, 3),
-      band: (values, i0, i1) => band(values.byteOffset, i0, i1, slotAt),
+      slots: new Float64Array(buffer, slotAt, 7),
+      closed: new Float64Array(buffer, TRACED.lockClosed, 3 * TRACED.lockClosedMax),
+      buckets: (values, n0, i0, count, perLevel) => bands(values.byteOffset, n0, i0, count, slotAt, TRACED.lockClosed, TRACED.lockClosedMax, perLevel),
       sum: (values, i0, i1) => sum(values.byteOffset, i0, i1, slotAt + 16),
     };
     return {
