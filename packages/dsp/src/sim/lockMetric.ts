@@ -210,8 +210,10 @@ export interface LockKernel {
    * how many buckets the last `buckets` call closed: what `buckets` and `sum` read and advance.
    */
   readonly slots: Float64Array;
-  /** The buckets the last `buckets` call closed: min, max and end of each in turn. */
-  readonly closed: Float64Array;
+  /** The min, max and end of each bucket the last `buckets` call closed. */
+  readonly closedMin: Float64Array;
+  readonly closedMax: Float64Array;
+  readonly closedEnds: Float64Array;
   /**
    * pushRange's loop and nextBucket over values[i0..count) of the chunk from sample n0 (values in the
    * kernel's memory), perLevel buckets a level; returns where it stopped: count, or earlier when
@@ -223,10 +225,15 @@ export interface LockKernel {
 }
 
 export class LockTracker {
-  private readonly min: number[] = [];
-  private readonly max: number[] = [];
-  /** One past the last sample of each bucket. */
-  private readonly ends: number[] = [];
+  /**
+   * The closed buckets' min and max and one past the last sample of each, the first closedCount of
+   * each array (grown by doubling: a long run closes tens of thousands, which arrays of numbers would
+   * keep reallocating and the collector copying).
+   */
+  private min = new Float64Array(1024);
+  private max = new Float64Array(1024);
+  private ends = new Float64Array(1024);
+  private closedCount = 0;
   private bucketEnd = 0;
   private bucketWidth: number;
   private inLevel = LOCK_BUCKETS_PER_LEVEL;
@@ -259,13 +266,32 @@ export class LockTracker {
     this.latestEnter = Math.min(this.tailStart, s.total - s.model.minHoldS * s.sampleRateHz);
   }
 
+  /** Room for `more` closed buckets. */
+  private reserve(more: number): void {
+    const need = this.closedCount + more;
+    if (need <= this.min.length) return;
+    const size = Math.max(need, 2 * this.min.length);
+    const grown = (a: Float64Array) => {
+      const b = new Float64Array(size);
+      b.set(a.subarray(0, this.closedCount));
+      return b;
+    };
+    this.min = grown(this.min);
+    this.max = grown(this.max);
+    this.ends = grown(this.ends);
+  }
+
+  private close(lo: number, hi: number, end: number): void {
+    this.reserve(1);
+    const n = this.closedCount++;
+    this.min[n] = lo;
+    this.max[n] = hi;
+    this.ends[n] = end;
+  }
+
   /** Close the current bucket (if it holds samples) and open the next one on the grid. */
   private nextBucket(): void {
-    if (this.bucketEnd > 0) {
-      this.min.push(this.lo);
-      this.max.push(this.hi);
-      this.ends.push(this.bucketEnd);
-    }
+    if (this.bucketEnd > 0) this.close(this.lo, this.hi, this.bucketEnd);
     if (this.inLevel === LOCK_BUCKETS_PER_LEVEL) {
       this.inLevel = 0;
       this.bucketWidth *= 2;
@@ -307,7 +333,7 @@ export class LockTracker {
 
   /** pushRange's bucket and tail loops through the kernel, on the corrected chunk d in its memory. */
   private kernelRange(kernel: LockKernel, n0: number, count: number, d: Float64Array): void {
-    const { slots, closed } = kernel;
+    const { slots, closedMin, closedMax, closedEnds } = kernel;
     slots[0] = this.lo;
     slots[1] = this.hi;
     slots[3] = this.bucketEnd;
@@ -316,11 +342,11 @@ export class LockTracker {
     for (let i = 0; i < count; ) {
       i = kernel.buckets(d, n0, i, count, LOCK_BUCKETS_PER_LEVEL);
       const n = slots[6] as number;
-      for (let b = 0; b < 3 * n; b += 3) {
-        this.min.push(closed[b] as number);
-        this.max.push(closed[b + 1] as number);
-        this.ends.push(closed[b + 2] as number);
-      }
+      this.reserve(n);
+      this.min.set(closedMin.subarray(0, n), this.closedCount);
+      this.max.set(closedMax.subarray(0, n), this.closedCount);
+      this.ends.set(closedEnds.subarray(0, n), this.closedCount);
+      this.closedCount += n;
     }
     this.lo = slots[0] as number;
     this.hi = slots[1] as number;
@@ -377,17 +403,15 @@ export class LockTracker {
 
   finish(): LockFigures {
     if (this.bucketEnd > 0) {
-      this.min.push(this.lo);
-      this.max.push(this.hi);
-      this.ends.push(Math.min(this.bucketEnd, this.s.total));
+      this.close(this.lo, this.hi, Math.min(this.bucketEnd, this.s.total));
       this.bucketEnd = 0;
     }
     const final = this.tailSum / Math.max(1, this.tailCount);
     const tol = this.s.lockToleranceRad;
-    const { min, max, ends } = this;
-    let k = min.length;
+    const { min, max, ends, closedCount } = this;
+    let k = closedCount;
     while (k > 0 && (min[k - 1] as number) >= final - tol && (max[k - 1] as number) <= final + tol) k--;
-    if (k === min.length) return { lockTimeS: null, locked: false };
+    if (k === closedCount) return { lockTimeS: null, locked: false };
     const enterSample = k === 0 ? 0 : Math.max(0, (ends[k - 1] as number) - this.delaySamples);
     if (enterSample > this.latestEnter) return { lockTimeS: null, locked: false };
     return { lockTimeS: enterSample / this.s.sampleRateHz, locked: true };

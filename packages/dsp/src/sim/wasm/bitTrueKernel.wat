@@ -430,7 +430,7 @@
   ;;   1507328 the two ripple boxcars, f64 x up to 16384 each (their addresses in the state)
   ;;   1769600 lock band k at 1769600 + k*56: the open bucket's min and max, the tail sum, its end, width
   ;;           and place in its level, and the buckets the last bands closed (f64 each)
-  ;;   559104  the buckets the last bands closed, min, max and end (f64 each), up to 1280
+  ;;   559104  the buckets the last bands closed: min, max and end, f64 x 1280 each
   ;;   1835008 lock scratch k at 1835008 + k*65536, f64 x 8192: the phase error less the expected one
   ;;   1966080 input noise, f64 x 8192 (zero without noise)
   ;;   2031616 sin(2*pi*NCO phase) of the bit-true loop, f64 x 8192 (its quadrature arm)
@@ -904,8 +904,8 @@
   ;; byte offset $src, samples i0 .. count-1 of the chunk from sample n0, with the open bucket's min, max,
   ;; end, width and place in its level as doubles at $slot (+0, +8, +24, +32, +40; the tail sum is +16):
   ;; min and max compared in sample order as pushRange does, a NaN anywhere making both NaN (the bucket
-  ;; stays out of band); each bucket closed here goes to $out as min, max, end (f64 each), at most $maxOut
-  ;; of them, their count to $slot + 48. Returns the sample it stopped at: count, or before the bucket
+  ;; stays out of band); each bucket closed here goes to $out: its min, max and end (f64 each) in three
+  ;; columns of $maxOut, their count to $slot + 48. Returns the sample it stopped at: count, or before the bucket
   ;; that found $out full.
   (func (export "bands") (param $src i32) (param $n0 i32) (param $i0 i32) (param $count i32) (param $slot i32)
     (param $out i32) (param $maxOut i32) (param $perLevel i32) (result i32)
@@ -926,10 +926,12 @@
             (if (i32.gt_s (local.get $bucketEnd) (i32.const 0))
               (then
                 (br_if $done (i32.ge_s (local.get $closed) (local.get $maxOut)))
-                (local.set $p (i32.add (local.get $out) (i32.mul (local.get $closed) (i32.const 24))))
-                (f64.store offset=0 (local.get $p) (local.get $lo))
-                (f64.store offset=8 (local.get $p) (local.get $hi))
-                (f64.store offset=16 (local.get $p) (f64.convert_i32_s (local.get $bucketEnd)))
+                (local.set $p (i32.add (local.get $out) (i32.shl (local.get $closed) (i32.const 3))))
+                (f64.store (local.get $p) (local.get $lo))
+                (local.set $p (i32.add (local.get $p) (i32.shl (local.get $maxOut) (i32.const 3))))
+                (f64.store (local.get $p) (local.get $hi))
+                (local.set $p (i32.add (local.get $p) (i32.shl (local.get $maxOut) (i32.const 3))))
+                (f64.store (local.get $p) (f64.convert_i32_s (local.get $bucketEnd)))
                 (local.set $closed (i32.add (local.get $closed) (i32.const 1)))))
             (if (i32.eq (local.get $inLevel) (local.get $perLevel))
               (then

@@ -48,7 +48,7 @@ const TRACED = {
   boxcars: 1507328,
   lockSlots: 1769600,
   lockSlotBytes: 56,
-  /** The buckets the last bands call closed (3 f64 each) and how many it may close. */
+  /** The min, max and end (f64 columns of lockClosedMax each) of the buckets the last bands call closed. */
   lockClosed: 559104,
   lockClosedMax: 1280,
   lockScratch: 1835008,
@@ -222,7 +222,9 @@ export class WasmTraced {
     const lock: LockKernel = {
       scratch: new Float64Array(buffer, TRACED.lockScratch + k * WASM_CHUNK_SAMPLES * 8, WASM_CHUNK_SAMPLES),
       slots: new Float64Array(buffer, slotAt, 7),
-      closed: new Float64Array(buffer, TRACED.lockClosed, 3 * TRACED.lockClosedMax),
+      closedMin: new Float64Array(buffer, TRACED.lockClosed, TRACED.lockClosedMax),
+      closedMax: new Float64Array(buffer, TRACED.lockClosed + 8 * TRACED.lockClosedMax, TRACED.lockClosedMax),
+      closedEnds: new Float64Array(buffer, TRACED.lockClosed + 16 * TRACED.lockClosedMax, TRACED.lockClosedMax),
       buckets: (values, n0, i0, count, perLevel) => bands(values.byteOffset, n0, i0, count, slotAt, TRACED.lockClosed, TRACED.lockClosedMax, perLevel),
       sum: (values, i0, i1) => sum(values.byteOffset, i0, i1, slotAt + 16),
     };
