@@ -6,6 +6,7 @@
  * the real server (src/server.ts) as a child process on a free loopback port — as it runs in
  * production, and so the load generator does not share its event loop — and drives it with autocannon
  * in this process (during the concurrent simulations, with paced reads of its own: pacedReads).
+ * First, the traced simulation split over two compute threads against the C kernel (split-sim-bench.ts).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs/promises';
@@ -21,6 +22,7 @@ import { CSRF_HEADER, CSRF_HEADER_VALUE } from '@loopwright/contract';
 import { createDataSource, runMigrations } from '../src/data-source.ts';
 import { encodedJsonOf, encodedObject, encodeJson } from '../src/encodedJson.ts';
 import { DEMO_PASSWORD, seedDemo } from '../src/seed.ts';
+import { runSplitSimulationBench } from './split-sim-bench.ts';
 
 const ROOT = path.resolve(import.meta.dirname, '../../..');
 const API_DIR = path.resolve(import.meta.dirname, '..');
@@ -353,6 +355,8 @@ function stopServer(server: ChildProcess): Promise<void> {
 }
 
 export async function runApiBench(): Promise<object> {
+  // First, before this bench starts a database and servers of its own on the machine.
+  const tracedSplit = await runSplitSimulationBench();
   const dataDir = path.join(ROOT, '.data', 'bench-api');
   const db = await startMariaDb({ dataDir, fresh: true, database: 'loopwright_bench', user: 'loopwright', password: 'bench-only-password' });
   const port = await findFreePort();
@@ -492,6 +496,8 @@ export async function runApiBench(): Promise<object> {
           met: [balancedList, balancedDownload].every((m) => m.result.requests.average >= BALANCER_TARGET_REQ_PER_S && m.result.non2xx === 0 && m.result.errors === 0),
         },
       },
+      /** Issue 16: the traced 'both' simulation through the compute pool, split over two threads, against the C kernel. */
+      tracedSplit,
       computeThreads: config.compute.threads,
       loadAverage1mBefore: Math.round((loadAverage1m ?? 0) * 100) / 100,
       cores: os.availableParallelism(),
