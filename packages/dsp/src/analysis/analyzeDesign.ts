@@ -14,7 +14,7 @@ import { analogDcGain } from '../filters/sections.ts';
 import { type LoopGain, loopGain } from './loopGain.ts';
 import { analogLoopResponse, closedDbOfOpen, closedLoop, errorDbOfOpen } from './response.ts';
 import { logGrid } from './grid.ts';
-import { sampleResponse } from './bode.ts';
+import { samplePhase, sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
 import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
 import { analogClosedLoop } from './loopPolynomials.ts';
@@ -106,7 +106,7 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
 
   const analogFn = analogLoopResponse(design.analogSections, k);
   const analogGrid = logGrid(range.fMinHz, range.fMaxAnalogHz, points);
-  const analogOpen = sampleResponse(analogFn, analogGrid, loopType);
+  const analogOpen = samplePhase(analogFn, analogGrid, loopType);
   const analogMargins = loopMargins(analogFn, analogOpen);
   const analogPolys = analogClosedLoop(design.analog, k);
   const analogStable = routhHurwitzStable(analogPolys.h.den);

@@ -28,19 +28,37 @@ function relativeAngleOfPartsDeg(ar: number, ai: number, br: number, bi: number)
   return re === 0 && im === 0 ? 0 : Math.atan2(im, re) * DEG;
 }
 
-export interface SampledResponse extends BodeData {
+/** A response's complex samples and unwrapped phase on a grid: what the margin search reads. */
+export interface SampledPhase {
+  readonly freqHz: readonly number[];
+  /** Unwrapped phase in degrees. */
+  readonly phaseDeg: readonly number[];
   /** The complex samples: fn(freqHz[i]) = re[i] + j·im[i]. */
   readonly re: Float64Array;
   readonly im: Float64Array;
 }
 
+export interface SampledResponse extends BodeData, SampledPhase {}
+
 /** The sample at grid index i as a complex value. */
-export function sampleAt(s: SampledResponse, i: number): Complex {
+export function sampleAt(s: SampledPhase, i: number): Complex {
   return { re: s.re[i]!, im: s.im[i]! };
 }
 
 /** Sample a response on the grid: values, dB and unwrapped phase (anchored at −90°·loopType). */
 export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loopType: number): SampledResponse {
+  const s = samplePhase(fn, grid, loopType);
+  const { re, im } = s;
+  const magnitudeDb = new Array<number>(grid.length);
+  for (let i = 0; i < grid.length; i++) magnitudeDb[i] = partsToDb(re[i]!, im[i]!);
+  return { freqHz: grid, magnitudeDb, phaseDeg: s.phaseDeg, re, im };
+}
+
+/**
+ * sampleResponse without the dB values, for a response only searched for its margins (which read the
+ * magnitude's side of 0 dB from re² + im², margins.ts): 600 logarithms fewer.
+ */
+export function samplePhase(fn: GridResponseFn, grid: readonly number[], loopType: number): SampledPhase {
   const n = grid.length;
   const re = new Float64Array(n);
   const im = new Float64Array(n);
@@ -52,8 +70,6 @@ export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loop
       im[i] = v.im;
     }
   }
-  const magnitudeDb = new Array<number>(n);
-  for (let i = 0; i < n; i++) magnitudeDb[i] = partsToDb(re[i]!, im[i]!);
   const phaseDeg = new Array<number>(n);
   let phase = Math.atan2(im[0]!, re[0]!) * DEG;
   const anchor = -90 * loopType;
@@ -63,7 +79,7 @@ export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loop
     phase += relativeAngleOfPartsDeg(re[i]!, im[i]!, re[i - 1]!, im[i - 1]!);
     phaseDeg[i] = phase;
   }
-  return { freqHz: grid, magnitudeDb, phaseDeg, re, im };
+  return { freqHz: grid, phaseDeg, re, im };
 }
 
 /** Phase at f continued from a grid point (refHz, refValue, refPhaseDeg) close to f. */
