@@ -3,7 +3,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { expectDeepClose } from './close.ts';
 import { createTestOrg, csrf, signedInAgent, testConfig, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
-const testApp = useTestApp(testConfig({ LW_SIM_MAX_SAMPLES: '100000' }));
+// Two compute threads, so a 'both' run is split over them (services/compute.ts runSimulation) where the machine has two cores.
+const testApp = useTestApp(testConfig({ LW_SIM_MAX_SAMPLES: '100000', LW_SIM_THREADS: '2' }));
 let org: TestOrg;
 let reviewer: Agent;
 let designId: number;
@@ -31,6 +32,8 @@ describe('simulations in the worker pool', () => {
     expect(response.headers['content-type']).toBe('application/json; charset=utf-8');
     expect(Object.keys(response.body)).toEqual(['scenario', 'simulation', 'designId', 'revision']);
     expect(response.text).toBe(JSON.stringify(response.body));
+    // Split or not, the bytes of the sequential run.
+    expect(response.text).toContain(`"simulation":${JSON.stringify(simulate(mainsSyncSpec, scenario, { mode: 'both', buckets: 1000 }))},`);
   });
 
   it('simulates an unsaved spec from the body', async () => {
