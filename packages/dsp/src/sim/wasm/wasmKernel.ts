@@ -4,8 +4,9 @@
  * TypeScript loop and faster than bench/loop.c (bench/bench.ts measures all three). The TypeScript
  * loop stays the reference: test/sim/wasmKernel.test.ts proves the two bit-identical over seeded
  * random specs, and it runs wherever WebAssembly cannot be compiled (a page whose Content Security
- * Policy forbids it, an engine without it). The same module holds the traced simulation's quantiser,
- * float loop and accumulator core, run through wasmTraced.ts on an instance of this class.
+ * Policy forbids it, an engine without it or without its fixed-width SIMD, which the bucket min and
+ * max use). The same module holds the traced simulation's quantiser, float loop and accumulator core,
+ * run through wasmTraced.ts on an instance of this class.
  */
 import type { BitTruePlan } from '../../types/sim.ts';
 import { CHECKSUM_BASIS } from '../checksum.ts';
