@@ -56,8 +56,9 @@ function median(values: readonly number[]): number {
  * The clock stops when the frame that shows the new analysis has been painted: each animation frame
  * looks at the margins text; in the first frame where it changed, a task posted from that frame's
  * animation callback runs once the frame's style, layout and paint are done (tasks queued during a
- * frame run after it). Only then, off the clock, the Bode canvas is read back and compared with the
- * drawing before the edit: if it still holds the old drawing, the wait goes on frame by frame until
+ * frame run after it). Only then, off the clock, the Bode plot's canvases (its two layers: the axes
+ * beneath, drawn again only when they change, and the plot) are read back and compared with the
+ * drawing before the edit: if they still hold the old drawing, the wait goes on frame by frame until
  * it changes, so the figure never ends before the new plot is on screen. `twoFramesMs` is the former
  * end point (two more frames after the one where the text changed), kept for comparison with older runs.
  */
@@ -65,10 +66,10 @@ export function editAndWait(value: string): string {
   return `(async () => {
     const input = document.querySelector('input[data-test="filter-damping"]');
     const cell = document.querySelector('[data-test="row-phase-margin-discrete"]');
-    const canvas = document.querySelector('[data-test="bode-chart"] canvas');
-    const context = canvas.getContext('2d');
-    const drawing = () => new Uint32Array(context.getImageData(0, 0, canvas.width, canvas.height).data.buffer);
-    const sameDrawing = (a, b) => a.length === b.length && a.every((v, i) => v === b[i]);
+    const canvases = [...document.querySelectorAll('[data-test="bode-chart"] canvas')];
+    const drawing = () => canvases.map((canvas) => new Uint32Array(canvas.getContext('2d').getImageData(0, 0, canvas.width, canvas.height).data.buffer));
+    const sameLayer = (a, b) => a.length === b.length && a.every((v, i) => v === b[i]);
+    const sameDrawing = (a, b) => a.length === b.length && a.every((layer, k) => sameLayer(layer, b[k]));
     const before = cell.textContent;
     const drawnBefore = drawing();
     let twoFrames = null;

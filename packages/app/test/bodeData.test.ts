@@ -19,7 +19,7 @@ describe('Bode series data', () => {
   it('puts every trace of a real analysis on the plot, point for point', () => {
     const a = analyzeJob(mainsSyncSpec).analysis;
     const traces = bodeTraces(a);
-    const option = bodeOption(traces, bodeMarkers(a, mainsSyncSpec.sampleRateHz)) as { series: { id: string; data: Float64Array }[] };
+    const option = bodeOption(traces, bodeMarkers(a, mainsSyncSpec.sampleRateHz)).plot as { series: { id: string; data: Float64Array }[] };
     expect(option.series).toHaveLength(2 * traces.length);
     traces.forEach((t, i) => {
       expect(Array.from(option.series[2 * i]!.data)).toEqual(pairs(t.freqHz, t.magnitudeDb).flat());
@@ -34,7 +34,7 @@ describe('Bode series data', () => {
     const a = analyzeJob(mainsSyncSpec).analysis;
     const chart = init(null, null, { renderer: 'svg', ssr: true, width: 640, height: 440 });
     try {
-      chart.setOption(bodeOption(bodeTraces(a), bodeMarkers(a, mainsSyncSpec.sampleRateHz)));
+      chart.setOption(bodeOption(bodeTraces(a), bodeMarkers(a, mainsSyncSpec.sampleRateHz)).plot);
       // The model is not public API; the test reads what the series holds from it all the same.
       const model = (chart as unknown as { getModel(): { getSeriesByIndex(i: number): { getData(): { count(): number; get(dim: string, i: number): unknown } } } }).getModel();
       const drawn = model.getSeriesByIndex(0).getData();

@@ -61,8 +61,8 @@ describe('thinned Bode series', () => {
     const a = analyzeJob(mainsSyncSpec).analysis;
     const traces = bodeTraces(a);
     const markers = bodeMarkers(a, mainsSyncSpec.sampleRateHz);
-    const thin = bodeOption(traces, markers, { thin: true }) as { series: { data: Float64Array }[]; yAxis: { min: number }[] };
-    const full = bodeOption(traces, markers) as { series: { data: Float64Array }[] };
+    const thin = bodeOption(traces, markers, { thin: true }).plot as { series: { data: Float64Array }[]; yAxis: { min: number }[] };
+    const full = bodeOption(traces, markers).plot as { series: { data: Float64Array }[] };
     const finite = (v: readonly number[], floor = -Infinity) => v.filter((x) => Number.isFinite(x) && x > floor);
     const span = (v: number[]) => Math.max(...v) - Math.min(...v);
     const magSpan = span(traces.flatMap((t) => finite(t.magnitudeDb, thin.yAxis[0]!.min)));

@@ -78,7 +78,7 @@ describe('engineering format', () => {
     expect(trace.xAxis[2]!.axisLabel.formatter(0)).toBe('0 s');
     expect(trace.yAxis[2]!.axisLabel.formatter(80000)).toBe('80 kHz');
     expect(trace.yAxis[0]!.axisLabel.formatter(0.0015)).toBe('1.5 mrad');
-    const bode = bodeOption([], { crossoverHz: null, phaseMarginDeg: null, phaseCrossoverHz: null, gainMarginDb: null, nyquistHz: null }) as { xAxis: Axis[] };
+    const bode = bodeOption([], { crossoverHz: null, phaseMarginDeg: null, phaseCrossoverHz: null, gainMarginDb: null, nyquistHz: null }).frame({ shown: () => true, zoomPercent: [0, 100] }) as { xAxis: Axis[] };
     expect(bode.xAxis[1]!.axisLabel.formatter(80000)).toBe('80 kHz');
   });
 });

@@ -7,6 +7,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import { CHART_COLORS } from './echarts.ts';
 import { fmtHz } from '../lib/format.ts';
 import { keptIndices } from './thinLine.ts';
+import { flatExtent, type ChartView, type LayeredOption } from './layers.ts';
 
 export interface BodeTrace {
   readonly label: string;
@@ -153,16 +154,47 @@ export interface BodeOptionSettings {
   readonly thin?: boolean;
 }
 
-export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, settings: BodeOptionSettings = {}): EChartsCoreOption {
+/** The axis options that decide an axis's scale, the same in the plot and its frame (layers.ts). */
+function scaleAxes(magMin: number) {
+  return {
+    xAxis: [0, 1].map((gridIndex) => ({ type: 'log', gridIndex })),
+    yAxis: [
+      { type: 'value', gridIndex: 0, min: magMin },
+      { type: 'value', gridIndex: 1 },
+    ],
+  };
+}
+
+// Fixed margins, with room for the axis names and for the widest end label of a log axis (seven
+// characters, '100 kHz'): ECharts' default outer-bounds layout measures every axis label a second
+// time on each redraw only to shrink the grid until they fit, about a fifth of an in-place update
+// of this plot in Chromium's trace, and it made the plot's width change with the sample rate.
+const GRID = [
+  { left: GRID_LEFT_PX, right: GRID_RIGHT_PX, top: 28, height: '36%', outerBoundsMode: 'none' },
+  { left: GRID_LEFT_PX, right: GRID_RIGHT_PX, top: '58%', bottom: 36, outerBoundsMode: 'none' },
+];
+
+/** The plot's axes carry its scales and pointer labels; the frame draws everything else of them. */
+const HIDDEN_AXIS_PARTS = { axisLine: { show: false }, axisTick: { show: false }, axisLabel: { show: false }, splitLine: { show: false }, minorSplitLine: { show: false } };
+
+/**
+ * The Bode plot as two layers (layers.ts): the traces, marker lines, legend, tooltip and zoom in the
+ * plot; the axes' lines, ticks, labels, grid lines and names in the frame beneath it.
+ */
+export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, settings: BodeOptionSettings = {}): LayeredOption {
   const magMin = magnitudeAxisMin(traces);
   // The spans of what the axes show (the data's, at most the axes' own): the tolerances stay under them.
   const magTolerance = settings.thin ? THIN_FRACTION * finiteSpan(traces.map((t) => t.magnitudeDb), magMin) : 0;
   const phaseTolerance = settings.thin ? THIN_FRACTION * finiteSpan(traces.map((t) => t.phaseDeg)) : 0;
+  const extents: { name: string; grid: number; extent: ReturnType<typeof flatExtent> }[] = [];
   const series = traces.flatMap((t, index) => {
     const lineStyle = t.color ? { ...STYLE[t.style], color: t.color } : STYLE[t.style];
     // ECharts reads typed-array data only with its dimensions named (flatPairs: x, y per point).
     const common = { type: 'line', name: t.label, showSymbol: false, lineStyle, color: lineStyle.color, animation: false, dimensions: ['x', 'y'] };
     const first = index === 0;
+    const magnitude = settings.thin ? thinnedPairs(t.freqHz, t.magnitudeDb, magTolerance) : flatPairs(t.freqHz, t.magnitudeDb);
+    const phase = settings.thin ? thinnedPairs(t.freqHz, t.phaseDeg, phaseTolerance) : flatPairs(t.freqHz, t.phaseDeg);
+    extents.push({ name: t.label, grid: 0, extent: flatExtent(magnitude) }, { name: t.label, grid: 1, extent: flatExtent(phase) });
     return [
       {
         ...common,
@@ -170,7 +202,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
         id: `${t.label}/magnitude`,
         xAxisIndex: 0,
         yAxisIndex: 0,
-        data: settings.thin ? thinnedPairs(t.freqHz, t.magnitudeDb, magTolerance) : flatPairs(t.freqHz, t.magnitudeDb),
+        data: magnitude,
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'mag') } } : {}),
       },
       {
@@ -178,23 +210,14 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
         id: `${t.label}/phase`,
         xAxisIndex: 1,
         yAxisIndex: 1,
-        data: settings.thin ? thinnedPairs(t.freqHz, t.phaseDeg, phaseTolerance) : flatPairs(t.freqHz, t.phaseDeg),
+        data: phase,
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'phase') } } : {}),
       },
     ];
   });
-  const xAxis = (gridIndex: number, name: string) => ({
-    type: 'log',
-    gridIndex,
-    name,
-    nameLocation: 'middle',
-    nameGap: 22,
-    axisLabel: { formatter: (v: number) => fmtHz(v, 3), hideOverlap: true },
-    axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtHz(value, 4) } },
-    splitLine: { show: true, lineStyle: { color: CHART_COLORS.grid } },
-    minorSplitLine: { show: true, lineStyle: { color: '#f1eee7' } },
-  });
-  return {
+  const scales = scaleAxes(magMin);
+  const hzLabel = { formatter: (v: number) => fmtHz(v, 3), hideOverlap: true };
+  const plot = {
     // Never animated, not only under test (chartAnimation): the editor redraws this plot on every
     // keystroke, and a second of sliding axis labels and marker lines after each one would show the
     // new figures late and keep the main thread painting while the next edit is analysed.
@@ -202,20 +225,59 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
     legend: { top: 0, data: traces.map((t) => t.label) },
     tooltip: { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) },
     axisPointer: { link: [{ xAxisIndex: 'all' }] },
-    // Fixed margins, with room for the axis names and for the widest end label of a log axis (seven
-    // characters, '100 kHz'): ECharts' default outer-bounds layout measures every axis label a second
-    // time on each redraw only to shrink the grid until they fit, about a fifth of an in-place update
-    // of this plot in Chromium's trace, and it made the plot's width change with the sample rate.
-    grid: [
-      { left: GRID_LEFT_PX, right: GRID_RIGHT_PX, top: 28, height: '36%', outerBoundsMode: 'none' },
-      { left: GRID_LEFT_PX, right: GRID_RIGHT_PX, top: '58%', bottom: 36, outerBoundsMode: 'none' },
-    ],
-    xAxis: [xAxis(0, ''), xAxis(1, 'Frequency')],
-    yAxis: [
-      { type: 'value', gridIndex: 0, name: 'Magnitude (dB)', nameLocation: 'middle', nameGap: 40, min: magMin, axisLabel: { showMinLabel: false }, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
-      { type: 'value', gridIndex: 1, name: 'Phase (°)', nameLocation: 'middle', nameGap: 40, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
-    ],
+    grid: GRID,
+    xAxis: scales.xAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS, axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtHz(value, 4) } } })),
+    yAxis: scales.yAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS })),
     dataZoom: [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }],
     series,
   };
+  const frame = (view: ChartView): EChartsCoreOption => ({
+    animation: false,
+    grid: GRID,
+    xAxis: scales.xAxis.map((a, i) => ({
+      ...a,
+      name: i === 1 ? 'Frequency' : '',
+      nameLocation: 'middle',
+      nameGap: 22,
+      axisLabel: hzLabel,
+      splitLine: { show: true, lineStyle: { color: CHART_COLORS.grid } },
+      minorSplitLine: { show: true, lineStyle: { color: '#f1eee7' } },
+    })),
+    yAxis: scales.yAxis.map((a, i) => ({
+      ...a,
+      name: i === 0 ? 'Magnitude (dB)' : 'Phase (°)',
+      nameLocation: 'middle',
+      nameGap: 40,
+      ...(i === 0 ? { axisLabel: { showMinLabel: false } } : {}),
+      splitLine: { lineStyle: { color: CHART_COLORS.grid } },
+    })),
+    dataZoom: [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none', disabled: true, start: view.zoomPercent[0], end: view.zoomPercent[1] }],
+    series: [0, 1].map((grid) => ({
+      type: 'line',
+      xAxisIndex: grid,
+      yAxisIndex: grid,
+      silent: true,
+      showSymbol: false,
+      animation: false,
+      lineStyle: { opacity: 0 },
+      data: extentCorners(extents.filter((e) => e.grid === grid && view.shown(e.name)).map((e) => e.extent)),
+    })),
+  });
+  return { plot, frame };
+}
+
+/** Two points holding the smallest and the largest x and y of all the extents. */
+function extentCorners(extents: readonly ReturnType<typeof flatExtent>[]): [number, number][] {
+  let x0 = Infinity;
+  let x1 = -Infinity;
+  let y0 = Infinity;
+  let y1 = -Infinity;
+  for (const e of extents) {
+    if (!e) continue;
+    x0 = Math.min(x0, e.x[0]);
+    x1 = Math.max(x1, e.x[1]);
+    y0 = Math.min(y0, e.y[0]);
+    y1 = Math.max(y1, e.y[1]);
+  }
+  return x0 <= x1 ? [[x0, y0], [x1, y1]] : [];
 }
