@@ -6,6 +6,7 @@
  */
 import type { Complex } from '../filters/complex.ts';
 import { type GridResponseFn, type ResponseFn, partsToDb } from './response.ts';
+import { doubles } from './grid.ts';
 
 export interface BodeData {
   readonly freqHz: readonly number[];
@@ -34,8 +35,8 @@ export interface SampledPhase {
   /** Unwrapped phase in degrees. */
   readonly phaseDeg: readonly number[];
   /** The complex samples: fn(freqHz[i]) = re[i] + j·im[i]. */
-  readonly re: Float64Array;
-  readonly im: Float64Array;
+  readonly re: readonly number[];
+  readonly im: readonly number[];
 }
 
 export interface SampledResponse extends BodeData, SampledPhase {}
@@ -49,7 +50,7 @@ export function sampleAt(s: SampledPhase, i: number): Complex {
 export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loopType: number): SampledResponse {
   const s = samplePhase(fn, grid, loopType);
   const { re, im } = s;
-  const magnitudeDb = new Array<number>(grid.length);
+  const magnitudeDb = doubles(grid.length);
   for (let i = 0; i < grid.length; i++) magnitudeDb[i] = partsToDb(re[i]!, im[i]!);
   return { freqHz: grid, magnitudeDb, phaseDeg: s.phaseDeg, re, im };
 }
@@ -60,8 +61,8 @@ export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loop
  */
 export function samplePhase(fn: GridResponseFn, grid: readonly number[], loopType: number): SampledPhase {
   const n = grid.length;
-  const re = new Float64Array(n);
-  const im = new Float64Array(n);
+  const re = doubles(n);
+  const im = doubles(n);
   if (fn.fill) fn.fill(grid, re, im);
   else {
     for (let i = 0; i < n; i++) {
@@ -70,7 +71,7 @@ export function samplePhase(fn: GridResponseFn, grid: readonly number[], loopTyp
       im[i] = v.im;
     }
   }
-  const phaseDeg = new Array<number>(n);
+  const phaseDeg = doubles(n);
   let phase = Math.atan2(im[0]!, re[0]!) * DEG;
   const anchor = -90 * loopType;
   phase += 360 * Math.round((anchor - phase) / 360);

@@ -8,6 +8,7 @@ import type { AnalogTf, DigitalTf, Sos } from '../types/filter.ts';
 import { type Complex, cdiv, cexpj, cmul } from '../filters/complex.ts';
 import { polyvalAscending } from '../filters/polynomial.ts';
 import { unitCirclePoint } from '../filters/sections.ts';
+import { doubles } from './grid.ts';
 
 /** A digital filter in either representation. */
 export type DigitalFilter = DigitalTf | readonly Sos[];
@@ -20,7 +21,7 @@ export type ResponseFn = (freqHz: number) => Complex;
  * without an object per point (and, for sections, with the grid's cos/sin made once: unitCircleGrid).
  */
 export interface GridResponseFn extends ResponseFn {
-  readonly fill?: (grid: readonly number[], re: Float64Array, im: Float64Array) => void;
+  readonly fill?: (grid: readonly number[], re: number[], im: number[]) => void;
 }
 
 /** Two-slot scratch of a complex product (re, im), reused by every evaluation below (single-threaded, never re-entered). */
@@ -163,7 +164,7 @@ function finite(fn: ResponseFn, at?: (freqHz: number, i: number, out: { re: numb
   };
   if (!at) return safe;
   // fn(f) is at(f) on one scratch; the grid takes the same values and falls back to safe() where they are not finite.
-  const fill = (grid: readonly number[], re: Float64Array, im: Float64Array) => {
+  const fill = (grid: readonly number[], re: number[], im: number[]) => {
     prepare?.(grid);
     const v = GRID_VALUE;
     for (let i = 0; i < grid.length; i++) {
@@ -207,10 +208,10 @@ export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: numb
 /** cos ω, sin ω, cos 2ω, sin 2ω (ω = 2πf/fs) of every grid point, as unitCirclePoint gives them. */
 export interface UnitCircleGrid {
   readonly sampleRateHz: number;
-  readonly c1: Float64Array;
-  readonly s1: Float64Array;
-  readonly c2: Float64Array;
-  readonly s2: Float64Array;
+  readonly c1: readonly number[];
+  readonly s1: readonly number[];
+  readonly c2: readonly number[];
+  readonly s2: readonly number[];
 }
 
 /** The last grids' unit-circle points: the designed and the quantised loop share one grid, so the trig is done once. */
@@ -220,7 +221,7 @@ export function unitCircleGrid(grid: readonly number[], sampleRateHz: number): U
   const known = UNIT_CIRCLE.get(grid);
   if (known && known.sampleRateHz === sampleRateHz && known.c1.length === grid.length) return known;
   const n = grid.length;
-  const u = { sampleRateHz, c1: new Float64Array(n), s1: new Float64Array(n), c2: new Float64Array(n), s2: new Float64Array(n) };
+  const u = { sampleRateHz, c1: doubles(n), s1: doubles(n), c2: doubles(n), s2: doubles(n) };
   for (let i = 0; i < n; i++) {
     const p = unitCirclePoint((2 * Math.PI * grid[i]!) / sampleRateHz);
     u.c1[i] = p.c1;
@@ -320,8 +321,8 @@ export function partsToDb(re: number, im: number): number {
 
 /** Open-loop samples as two arrays: l_i = re[i] + j·im[i]. */
 export interface OpenSamples {
-  readonly re: Float64Array;
-  readonly im: Float64Array;
+  readonly re: readonly number[];
+  readonly im: readonly number[];
 }
 
 /**
@@ -331,7 +332,7 @@ export interface OpenSamples {
  */
 function quotientDbOfOpen(open: OpenSamples, numeratorIsOpen: boolean): number[] {
   const { re, im } = open;
-  const out = new Array<number>(re.length);
+  const out = doubles(re.length);
   for (let i = 0; i < re.length; i++) {
     const lr = re[i]!;
     const li = im[i]!;
