@@ -4,10 +4,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import { wasmInstanceLoop, releaseWasmBitTrueLoop, WASM_CHUNK_SAMPLES } from '../../src/sim/wasm/wasmKernel.ts';
-import { moduleSine } from '../../src/sim/wasm/wasmTraced.ts';
+import { moduleSine, moduleSinePairs } from '../../src/sim/wasm/wasmTraced.ts';
 import { mulberry32 } from '../../src/sim/prng.ts';
 
-/** How many of the phases p give a sin(2π·p) or cos(2π·p) other than Math.sin's or Math.cos's (compared as doubles, −0 apart from +0). */
+/**
+ * How many of the phases p give a sin(2π·p) or cos(2π·p) other than Math.sin's or Math.cos's (compared
+ * as doubles, −0 apart from +0), by the module's sine, its cosine or its two-lane sine (the phases in
+ * pairs as they come: neighbours in the smooth sequences, strangers in the random ones).
+ */
 function mismatches(phases: Float64Array): number {
   const loop = wasmInstanceLoop();
   if (!loop) throw new Error('WebAssembly is not available');
@@ -17,9 +21,10 @@ function mismatches(phases: Float64Array): number {
       const part = phases.subarray(k, k + WASM_CHUNK_SAMPLES);
       const sin = moduleSine(loop.exports, part);
       const cos = moduleSine(loop.exports, part, true);
+      const pairs = moduleSinePairs(loop.exports, part);
       for (let i = 0; i < part.length; i++) {
         const x = 2 * Math.PI * (part[i] as number);
-        if (!Object.is(sin[i], Math.sin(x)) || !Object.is(cos[i], Math.cos(x))) bad++;
+        if (!Object.is(sin[i], Math.sin(x)) || !Object.is(cos[i], Math.cos(x)) || !Object.is(pairs[i], Math.sin(x))) bad++;
       }
     }
   } finally {
@@ -47,6 +52,10 @@ describe('the module sine and cosine', () => {
     expect(mismatches(phases(100_000, 3, (u) => -u * 3))).toBe(0);
     expect(mismatches(phases(100_000, 4, (u) => (u - 0.5) * 2 ** 18))).toBe(0);
     expect(mismatches(phases(20_000, 5, (u) => (u - 0.5) * 2 ** 40))).toBe(0);
+  });
+
+  it('gives Math.sin two lanes at a time along a slowly turning phase, as an NCO gives it (pairs on both sides of every case boundary)', () => {
+    expect(mismatches(phases(200_000, 6, (u, i) => (i * 0.00731 + u * 1e-6) % 1))).toBe(0);
   });
 
   it('gives Math.sin for zeros, tiny, subnormal and non-finite phases', () => {

@@ -30,18 +30,17 @@
   (memory (export "memory") 32)
   ;; `count` samples of the bit-true loop, from the state at 256. Their per-sample outputs go to the
   ;; areas above with $record, their checksum always. With $traced (wasmTraced.ts) each sample's input code
-  ;; comes from the input chunk, and its doubles and the sine of its NCO phase go to the traced areas;
-  ;; the conversion and that sine overlap the kernel's feedback chain.
+  ;; comes from the input chunk, its doubles go to the traced areas (the conversion overlaps the kernel's
+  ;; feedback chain), and after the chunk the sine of its NCO phases (sinePairs, two a vector).
   (func (export "run") (param $count i32) (param $traced i32) (param $record i32) (param $own i32)
     (local $i i32) (local $o i32) (local $j i32) (local $k i32) (local $q i32)
     (local $addr i32) (local $c i32) (local $h i32)
     (local $acc i64) (local $x i64) (local $t i64) (local $u i64) (local $v i64) (local $a i64) (local $y i64)
     (local $x1 i64) (local $y1 i64)
-    ;; with $traced: the quantiser's and the conversion's, the NCO phase in cycles and its sine (as in sine)
+    ;; with $traced: the quantiser's and the conversion's, and the NCO phase in cycles
     (local $qV f64) (local $qQ f64) (local $qR f64) (local $qScale f64) (local $qMode i32) (local $qMin f64) (local $qMax f64)
     (local $hiWeight f64) (local $toCycles f64) (local $yScale f64) (local $centerHz f64) (local $hzPerLsb f64) (local $ncoPhase f64)
-    (local $fo i32) (local $ua f64) (local $us f64) (local $uhx i32) (local $uix i32) (local $un i32) (local $uj i32) (local $ue i32) (local $uiy i32)
-    (local $uy0 f64) (local $uy1 f64) (local $ut f64) (local $ufn f64) (local $ur f64) (local $uw f64) (local $uz f64) (local $uv f64) (local $uq f64)
+    (local $fo i32)
     ;; constants
     (local $mode i32) (local $wrap i32) (local $macCheck i32) (local $sections i32) (local $square i32)
     (local $tableMask i32) (local $quarter i32) (local $halfTable i32) (local $fullScale i32)
@@ -278,138 +277,12 @@
             (f64.store offset=1245184 (local.get $fo) (f64.add (local.get $centerHz) (f64.mul (f64.convert_i64_s (local.get $t)) (local.get $hzPerLsb)))))
           (else (f64.store offset=493568 (local.get $fo) (f64.convert_i64_s (local.get $t)))))
         (local.set $acc (i64.and (i64.add (i64.add (local.get $acc) (local.get $m)) (local.get $t)) (local.get $phaseMask)))
-        (if (local.get $traced)
-          (then
-            ;; sin(2*pi*NCO phase) for the quadrature arm (the sine below, inline: its work fills the
-            ;; cycles the feedback chain above leaves idle)
-                (local.set $ua (f64.mul (local.get $twoPi) (local.get $ncoPhase)))
-            (local.set $uhx (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $ua)) (i64.const 32))))
-            (local.set $uix (i32.and (local.get $uhx) (i32.const 0x7fffffff)))
-            (if (i32.or (i32.eqz (local.get $own)) (i32.gt_u (local.get $uix) (i32.const 0x413921fb)))
-              (then (local.set $us (call $sin (local.get $ua))))
-              (else
-                ;; reduction: a = n*pi/2 + y0 + y1
-                (if (i32.le_u (local.get $uix) (i32.const 0x3fe921fb))
-                  (then
-                    (local.set $uy0 (local.get $ua))
-                    (local.set $uy1 (f64.const 0))
-                    (local.set $un (i32.const 0))
-                    (local.set $uiy (i32.const 0)))
-                  (else
-                    (local.set $uiy (i32.const 1))
-                    (if (i32.lt_u (local.get $uix) (i32.const 0x4002d97c))
-                      (then
-                        ;; |a| < 3pi/4: n = +-1, pi/2 in 33 + 53 bits (33 + 33 + 53 next to pi/2 itself)
-                        (if (i32.gt_s (local.get $uhx) (i32.const 0))
-                          (then
-                            (local.set $uz (f64.sub (local.get $ua) (local.get $pio2_1)))
-                            (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
-                              (then
-                                (local.set $uy0 (f64.sub (local.get $uz) (local.get $pio2_1t)))
-                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_1t))))
-                              (else
-                                (local.set $uz (f64.sub (local.get $uz) (local.get $pio2_2)))
-                                (local.set $uy0 (f64.sub (local.get $uz) (local.get $pio2_2t)))
-                                (local.set $uy1 (f64.sub (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_2t)))))
-                            (local.set $un (i32.const 1)))
-                          (else
-                            (local.set $uz (f64.add (local.get $ua) (local.get $pio2_1)))
-                            (if (i32.ne (local.get $uix) (i32.const 0x3ff921fb))
-                              (then
-                                (local.set $uy0 (f64.add (local.get $uz) (local.get $pio2_1t)))
-                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_1t))))
-                              (else
-                                (local.set $uz (f64.add (local.get $uz) (local.get $pio2_2)))
-                                (local.set $uy0 (f64.add (local.get $uz) (local.get $pio2_2t)))
-                                (local.set $uy1 (f64.add (f64.sub (local.get $uz) (local.get $uy0)) (local.get $pio2_2t)))))
-                            (local.set $un (i32.const -1)))))
-                      (else
-                        ;; n = round(|a|*2/pi); r - w good to 85 bits unless the high word says it may cancel
-                        (local.set $ut (f64.abs (local.get $ua)))
-                        (local.set $un (i32.trunc_f64_s (f64.add (f64.mul (local.get $ut) (local.get $invpio2)) (local.get $half))))
-                        (local.set $ufn (f64.convert_i32_s (local.get $un)))
-                        (local.set $ur (f64.sub (local.get $ut) (f64.mul (local.get $ufn) (local.get $pio2_1))))
-                        (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_1t)))
-                        (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
-                        (if (i32.or (i32.ge_s (local.get $un) (i32.const 32))
-                              (i32.eq (local.get $uix)
-                                (i32.load offset=1769472 (i32.shl (select (i32.sub (local.get $un) (i32.const 1)) (i32.const 31) (i32.lt_s (local.get $un) (i32.const 32))) (i32.const 2)))))
-                          (then
-                            (local.set $uj (i32.shr_u (local.get $uix) (i32.const 20)))
-                            (local.set $ue (i32.sub (local.get $uj)
-                              (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 52))) (i32.const 0x7ff))))
-                            (if (i32.gt_s (local.get $ue) (i32.const 16))
-                              (then
-                                ;; second piece of pi/2, good to 118 bits
-                                (local.set $ut (local.get $ur))
-                                (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_2)))
-                                (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
-                                (local.set $uw (f64.sub (f64.mul (local.get $ufn) (local.get $pio2_2t))
-                                  (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
-                                (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))
-                                (local.set $ue (i32.sub (local.get $uj)
-                                  (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 52))) (i32.const 0x7ff))))
-                                (if (i32.gt_s (local.get $ue) (i32.const 49))
-                                  (then
-                                    ;; third piece, good to 151 bits
-                                    (local.set $ut (local.get $ur))
-                                    (local.set $uw (f64.mul (local.get $ufn) (local.get $pio2_3)))
-                                    (local.set $ur (f64.sub (local.get $ut) (local.get $uw)))
-                                    (local.set $uw (f64.sub (f64.mul (local.get $ufn) (local.get $pio2_3t))
-                                      (f64.sub (f64.sub (local.get $ut) (local.get $ur)) (local.get $uw))))
-                                    (local.set $uy0 (f64.sub (local.get $ur) (local.get $uw)))))))))
-                        (local.set $uy1 (f64.sub (f64.sub (local.get $ur) (local.get $uy0)) (local.get $uw)))
-                        (if (i32.lt_s (local.get $uhx) (i32.const 0))
-                          (then
-                            (local.set $uy0 (f64.neg (local.get $uy0)))
-                            (local.set $uy1 (f64.neg (local.get $uy1)))
-                            (local.set $un (i32.sub (i32.const 0) (local.get $un)))))))))
-                ;; kernels on [-pi/4, pi/4]: sin in quadrants 0 and 2, cos in 1 and 3, negated in 2 and 3
-                (local.set $ue (i32.and (i32.wrap_i64 (i64.shr_u (i64.reinterpret_f64 (local.get $uy0)) (i64.const 32))) (i32.const 0x7fffffff)))
-                (local.set $uz (f64.mul (local.get $uy0) (local.get $uy0)))
-                (if (i32.and (local.get $un) (i32.const 1))
-                  (then
-                    ;; cos(y0 + y1) = 1 - (z/2 - (z*r - y0*y1)), with 1 - qx split off above |y0| = 0.3
-                    (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
-                      (then (local.set $us (local.get $one)))
-                      (else
-                        (local.set $uq (f64.mul (local.get $uz) (f64.add (local.get $C1) (f64.mul (local.get $uz)
-                          (f64.add (local.get $C2) (f64.mul (local.get $uz) (f64.add (local.get $C3) (f64.mul (local.get $uz)
-                          (f64.add (local.get $C4) (f64.mul (local.get $uz) (f64.add (local.get $C5)
-                          (f64.mul (local.get $uz) (local.get $C6)))))))))))))
-                        (if (i32.lt_u (local.get $ue) (i32.const 0x3fd33333))
-                          (then
-                            (local.set $us (f64.sub (local.get $one) (f64.sub (f64.mul (local.get $half) (local.get $uz))
-                              (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))
-                          (else
-                            (local.set $uv (select (local.get $qx)
-                              (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $ue) (i32.const 0x00200000))) (i64.const 32)))
-                              (i32.gt_u (local.get $ue) (i32.const 0x3fe90000))))
-                            (local.set $us (f64.sub (f64.sub (local.get $one) (local.get $uv))
-                              (f64.sub (f64.sub (f64.mul (local.get $half) (local.get $uz)) (local.get $uv))
-                                (f64.sub (f64.mul (local.get $uz) (local.get $uq)) (f64.mul (local.get $uy0) (local.get $uy1)))))))))))
-                  (else
-                    ;; sin(y0 + y1) = y0 + (S1*y0^3 + (y0^2*(r*y0^3 - y1/2) + y1)), without y1 when not reduced
-                    (if (i32.lt_u (local.get $ue) (i32.const 0x3e400000))
-                      (then (local.set $us (local.get $uy0)))
-                      (else
-                        (local.set $uv (f64.mul (local.get $uz) (local.get $uy0)))
-                        (local.set $uq (f64.add (local.get $S2) (f64.mul (local.get $uz)
-                          (f64.add (local.get $S3) (f64.mul (local.get $uz) (f64.add (local.get $S4)
-                          (f64.mul (local.get $uz) (f64.add (local.get $S5) (f64.mul (local.get $uz) (local.get $S6))))))))))
-                        (local.set $us (if (result f64) (local.get $uiy)
-                          (then (f64.sub (local.get $uy0) (f64.sub (f64.sub (f64.mul (local.get $uz)
-                            (f64.sub (f64.mul (local.get $half) (local.get $uy1)) (f64.mul (local.get $uv) (local.get $uq))))
-                            (local.get $uy1)) (f64.mul (local.get $uv) (local.get $S1)))))
-                          (else (f64.add (local.get $uy0) (f64.mul (local.get $uv)
-                            (f64.add (local.get $S1) (f64.mul (local.get $uz) (local.get $uq))))))))))))
-                (if (i32.and (local.get $un) (i32.const 2)) (then (local.set $us (f64.neg (local.get $us)))))))
-
-            (f64.store offset=2031616 (local.get $fo) (local.get $us))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample)))
     (i64.store offset=256 (i32.const 0) (local.get $acc))
-    (i32.store offset=264 (i32.const 0) (local.get $h)))
+    (i32.store offset=264 (i32.const 0) (local.get $h))
+    ;; sin(2*pi*NCO phase) for the quadrature arm
+    (if (local.get $traced) (then (call $sinePairs (local.get $count) (i32.const 1114112) (i32.const 2031616) (local.get $own)))))
 
   ;; ---- The traced simulation (src/sim/wasm/wasmTraced.ts) ----
   ;; The float loop, the bit-true loop's input codes and conversion to doubles (in run), and the per-sample part of the
@@ -1009,7 +882,7 @@
   ;; without any). $own 0 calls the imported Math.sin for every sample. With $cosine, cos instead: its
   ;; quadrant is one on (cos(x) is fdlibm's kernel choice for sin with n + 1), for wasmTraced.ts's probes
   ;; of the float loop's cosine.
-  (func (export "sine") (param $count i32) (param $src i32) (param $dst i32) (param $affine i32) (param $amplitude f64) (param $add i32) (param $own i32) (param $cosine i32)
+  (func $sine (export "sine") (param $count i32) (param $src i32) (param $dst i32) (param $affine i32) (param $amplitude f64) (param $add i32) (param $own i32) (param $cosine i32)
     (local $i i32) (local $o i32) (local $a f64) (local $s f64)
     (local $hx i32) (local $ix i32) (local $n i32) (local $j i32) (local $e i32) (local $iy i32)
     (local $y0 f64) (local $y1 f64) (local $t f64) (local $fn f64) (local $r f64) (local $w f64) (local $z f64) (local $v f64) (local $q f64)
@@ -1173,6 +1046,151 @@
             (else (local.get $s))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample))))
+
+  ;; dst[i] = sin(2*pi*src[i]) for i < count, two samples a vector: the sine above lane by lane, the
+  ;; same double operations on each lane (f64x2 arithmetic is IEEE per lane), for a pair whose two
+  ;; arguments take the same path through it (the same reduction case and quadrant, neither argument
+  ;; tiny); any other pair, an odd last sample, and every sample when $own is 0, go through the sine above.
+  ;; Adjacent NCO phases differ by a small step, so nearly every pair qualifies.
+  (func $sinePairs (export "sinePairs") (param $count i32) (param $src i32) (param $dst i32) (param $own i32)
+    (local $i i32) (local $o i32) (local $case0 i32) (local $case1 i32) (local $n i32) (local $iy i32)
+    (local $hx i32) (local $ix0 i32) (local $ix1 i32) (local $e0 i32) (local $e1 i32) (local $bits v128)
+    (local $a v128) (local $t v128) (local $fn v128) (local $r v128) (local $w v128) (local $y0 v128) (local $y1 v128)
+    (local $z v128) (local $v v128) (local $q v128) (local $s v128)
+    (local $twoPi v128) (local $half v128) (local $one v128) (local $invpio2 v128) (local $pio2_1 v128) (local $pio2_1t v128)
+    (local $S1 v128) (local $S2 v128) (local $S3 v128) (local $S4 v128) (local $S5 v128) (local $S6 v128)
+    (local $C1 v128) (local $C2 v128) (local $C3 v128) (local $C4 v128) (local $C5 v128) (local $C6 v128) (local $qx f64)
+    (if (i32.eqz (local.get $own))
+      (then
+        (call $sine (local.get $count) (local.get $src) (local.get $dst) (i32.const 0) (f64.const 0) (i32.const 0) (i32.const 0) (i32.const 0))
+        (return)))
+    (local.set $twoPi (v128.load64_splat offset=1769728 (i32.const 0)))
+    (local.set $half (v128.load64_splat offset=1769736 (i32.const 0)))
+    (local.set $one (v128.load64_splat offset=1769752 (i32.const 0)))
+    (local.set $invpio2 (v128.load64_splat offset=1769776 (i32.const 0)))
+    (local.set $pio2_1 (v128.load64_splat offset=1769784 (i32.const 0)))
+    (local.set $pio2_1t (v128.load64_splat offset=1769792 (i32.const 0)))
+    (local.set $S1 (v128.load64_splat offset=1769832 (i32.const 0)))
+    (local.set $S2 (v128.load64_splat offset=1769840 (i32.const 0)))
+    (local.set $S3 (v128.load64_splat offset=1769848 (i32.const 0)))
+    (local.set $S4 (v128.load64_splat offset=1769856 (i32.const 0)))
+    (local.set $S5 (v128.load64_splat offset=1769864 (i32.const 0)))
+    (local.set $S6 (v128.load64_splat offset=1769872 (i32.const 0)))
+    (local.set $C1 (v128.load64_splat offset=1769880 (i32.const 0)))
+    (local.set $C2 (v128.load64_splat offset=1769888 (i32.const 0)))
+    (local.set $C3 (v128.load64_splat offset=1769896 (i32.const 0)))
+    (local.set $C4 (v128.load64_splat offset=1769904 (i32.const 0)))
+    (local.set $C5 (v128.load64_splat offset=1769912 (i32.const 0)))
+    (local.set $C6 (v128.load64_splat offset=1769920 (i32.const 0)))
+    (local.set $qx (f64.load offset=1769928 (i32.const 0)))
+    (block $done
+      (loop $pair
+        (br_if $done (i32.ge_u (i32.add (local.get $i) (i32.const 1)) (local.get $count)))
+        (local.set $o (i32.shl (local.get $i) (i32.const 3)))
+        (block $vector
+          (block $scalar
+            (local.set $a (f64x2.mul (local.get $twoPi) (v128.load (i32.add (local.get $src) (local.get $o)))))
+            ;; the reduction case of each lane: 1 |a| <= pi/4, 2 pi/4 < a < 3pi/4 (not next to pi/2), 3 the
+            ;; two-piece reduction of 3pi/4 <= a < 2^19*pi/2; 0 anything else (the scalar path)
+            (local.set $hx (i32.wrap_i64 (i64.shr_u (i64x2.extract_lane 0 (local.get $a)) (i64.const 32))))
+            (local.set $ix0 (i32.and (local.get $hx) (i32.const 0x7fffffff)))
+            (local.set $case0
+              (if (result i32) (i32.le_u (local.get $ix0) (i32.const 0x3fe921fb))
+                (then (i32.const 1))
+                (else (if (result i32) (i32.or (i32.le_s (local.get $hx) (i32.const 0)) (i32.gt_u (local.get $ix0) (i32.const 0x413921fb)))
+                  (then (i32.const 0))
+                  (else (if (result i32) (i32.lt_u (local.get $ix0) (i32.const 0x4002d97c))
+                    (then (select (i32.const 2) (i32.const 0) (i32.ne (local.get $ix0) (i32.const 0x3ff921fb))))
+                    (else (i32.const 3))))))))
+            (local.set $hx (i32.wrap_i64 (i64.shr_u (i64x2.extract_lane 1 (local.get $a)) (i64.const 32))))
+            (local.set $ix1 (i32.and (local.get $hx) (i32.const 0x7fffffff)))
+            (local.set $case1
+              (if (result i32) (i32.le_u (local.get $ix1) (i32.const 0x3fe921fb))
+                (then (i32.const 1))
+                (else (if (result i32) (i32.or (i32.le_s (local.get $hx) (i32.const 0)) (i32.gt_u (local.get $ix1) (i32.const 0x413921fb)))
+                  (then (i32.const 0))
+                  (else (if (result i32) (i32.lt_u (local.get $ix1) (i32.const 0x4002d97c))
+                    (then (select (i32.const 2) (i32.const 0) (i32.ne (local.get $ix1) (i32.const 0x3ff921fb))))
+                    (else (i32.const 3))))))))
+            (br_if $scalar (i32.or (i32.eqz (local.get $case0)) (i32.ne (local.get $case0) (local.get $case1))))
+            (if (i32.eq (local.get $case0) (i32.const 1))
+              (then
+                (local.set $y0 (local.get $a))
+                (local.set $y1 (v128.const i64x2 0 0))
+                (local.set $n (i32.const 0))
+                (local.set $iy (i32.const 0)))
+              (else
+                (local.set $iy (i32.const 1))
+                (if (i32.eq (local.get $case0) (i32.const 2))
+                  (then
+                    (local.set $z (f64x2.sub (local.get $a) (local.get $pio2_1)))
+                    (local.set $y0 (f64x2.sub (local.get $z) (local.get $pio2_1t)))
+                    (local.set $y1 (f64x2.sub (f64x2.sub (local.get $z) (local.get $y0)) (local.get $pio2_1t)))
+                    (local.set $n (i32.const 1)))
+                  (else
+                    (local.set $t (f64x2.abs (local.get $a)))
+                    ;; n = trunc(|a|*2/pi + 1/2) of each lane, as a double and (the same in both lanes) as an integer
+                    (local.set $fn (f64x2.trunc (f64x2.add (f64x2.mul (local.get $t) (local.get $invpio2)) (local.get $half))))
+                    (local.set $n (i32.trunc_f64_s (f64x2.extract_lane 0 (local.get $fn))))
+                    (br_if $scalar (i32.ne (local.get $n) (i32.trunc_f64_s (f64x2.extract_lane 1 (local.get $fn)))))
+                    ;; where the sine above takes a second piece of pi/2 (n >= 32 or the high word of n*pi/2)
+                    (br_if $scalar (i32.ge_s (local.get $n) (i32.const 32)))
+                    (br_if $scalar (i32.eq (local.get $ix0) (i32.load offset=1769472 (i32.shl (i32.sub (local.get $n) (i32.const 1)) (i32.const 2)))))
+                    (br_if $scalar (i32.eq (local.get $ix1) (i32.load offset=1769472 (i32.shl (i32.sub (local.get $n) (i32.const 1)) (i32.const 2)))))
+                    (local.set $r (f64x2.sub (local.get $t) (f64x2.mul (local.get $fn) (local.get $pio2_1))))
+                    (local.set $w (f64x2.mul (local.get $fn) (local.get $pio2_1t)))
+                    (local.set $y0 (f64x2.sub (local.get $r) (local.get $w)))
+                    (local.set $y1 (f64x2.sub (f64x2.sub (local.get $r) (local.get $y0)) (local.get $w)))))))
+            ;; kernels on [-pi/4, pi/4]; a tiny y0 in either lane takes the scalar path
+            (local.set $e0 (i32.and (i32.wrap_i64 (i64.shr_u (i64x2.extract_lane 0 (local.get $y0)) (i64.const 32))) (i32.const 0x7fffffff)))
+            (local.set $e1 (i32.and (i32.wrap_i64 (i64.shr_u (i64x2.extract_lane 1 (local.get $y0)) (i64.const 32))) (i32.const 0x7fffffff)))
+            (br_if $scalar (i32.or (i32.lt_u (local.get $e0) (i32.const 0x3e400000)) (i32.lt_u (local.get $e1) (i32.const 0x3e400000))))
+            (local.set $z (f64x2.mul (local.get $y0) (local.get $y0)))
+            (if (i32.and (local.get $n) (i32.const 1))
+              (then
+                (local.set $q (f64x2.mul (local.get $z) (f64x2.add (local.get $C1) (f64x2.mul (local.get $z)
+                  (f64x2.add (local.get $C2) (f64x2.mul (local.get $z) (f64x2.add (local.get $C3) (f64x2.mul (local.get $z)
+                  (f64x2.add (local.get $C4) (f64x2.mul (local.get $z) (f64x2.add (local.get $C5)
+                  (f64x2.mul (local.get $z) (local.get $C6)))))))))))))
+                (if (i32.and (i32.lt_u (local.get $e0) (i32.const 0x3fd33333)) (i32.lt_u (local.get $e1) (i32.const 0x3fd33333)))
+                  (then
+                    (local.set $s (f64x2.sub (local.get $one) (f64x2.sub (f64x2.mul (local.get $half) (local.get $z))
+                      (f64x2.sub (f64x2.mul (local.get $z) (local.get $q)) (f64x2.mul (local.get $y0) (local.get $y1)))))))
+                  (else
+                    (br_if $scalar (i32.or (i32.lt_u (local.get $e0) (i32.const 0x3fd33333)) (i32.lt_u (local.get $e1) (i32.const 0x3fd33333))))
+                    (local.set $v (f64x2.replace_lane 1
+                      (f64x2.splat (select (local.get $qx)
+                        (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $e0) (i32.const 0x00200000))) (i64.const 32)))
+                        (i32.gt_u (local.get $e0) (i32.const 0x3fe90000))))
+                      (select (local.get $qx)
+                        (f64.reinterpret_i64 (i64.shl (i64.extend_i32_u (i32.sub (local.get $e1) (i32.const 0x00200000))) (i64.const 32)))
+                        (i32.gt_u (local.get $e1) (i32.const 0x3fe90000)))))
+                    (local.set $s (f64x2.sub (f64x2.sub (local.get $one) (local.get $v))
+                      (f64x2.sub (f64x2.sub (f64x2.mul (local.get $half) (local.get $z)) (local.get $v))
+                        (f64x2.sub (f64x2.mul (local.get $z) (local.get $q)) (f64x2.mul (local.get $y0) (local.get $y1)))))))))
+              (else
+                (local.set $v (f64x2.mul (local.get $z) (local.get $y0)))
+                (local.set $q (f64x2.add (local.get $S2) (f64x2.mul (local.get $z)
+                  (f64x2.add (local.get $S3) (f64x2.mul (local.get $z) (f64x2.add (local.get $S4)
+                  (f64x2.mul (local.get $z) (f64x2.add (local.get $S5) (f64x2.mul (local.get $z) (local.get $S6))))))))))
+                (local.set $s (if (result v128) (local.get $iy)
+                  (then (f64x2.sub (local.get $y0) (f64x2.sub (f64x2.sub (f64x2.mul (local.get $z)
+                    (f64x2.sub (f64x2.mul (local.get $half) (local.get $y1)) (f64x2.mul (local.get $v) (local.get $q))))
+                    (local.get $y1)) (f64x2.mul (local.get $v) (local.get $S1)))))
+                  (else (f64x2.add (local.get $y0) (f64x2.mul (local.get $v)
+                    (f64x2.add (local.get $S1) (f64x2.mul (local.get $z) (local.get $q))))))))))
+            (if (i32.and (local.get $n) (i32.const 2)) (then (local.set $s (f64x2.neg (local.get $s)))))
+            (v128.store (i32.add (local.get $dst) (local.get $o)) (local.get $s))
+            (br $vector))
+          (call $sine (i32.const 2) (i32.add (local.get $src) (local.get $o)) (i32.add (local.get $dst) (local.get $o))
+            (i32.const 0) (f64.const 0) (i32.const 0) (i32.const 1) (i32.const 0)))
+        (local.set $i (i32.add (local.get $i) (i32.const 2)))
+        (br $pair)))
+    (if (i32.lt_u (local.get $i) (local.get $count))
+      (then
+        (local.set $o (i32.shl (local.get $i) (i32.const 3)))
+        (call $sine (i32.const 1) (i32.add (local.get $src) (local.get $o)) (i32.add (local.get $dst) (local.get $o))
+          (i32.const 0) (f64.const 0) (i32.const 0) (i32.const 1) (i32.const 0)))))
 
   ;; The input phases of samples n0 .. n0+count-1 into the input chunk (inputSignal.ts advancePhases),
   ;; from $phase, reading the offsets already there: the phase step at sample $stepSample, then each

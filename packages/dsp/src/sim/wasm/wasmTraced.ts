@@ -82,6 +82,14 @@ export function moduleSine(exports: WasmExports, phases: ArrayLike<number>, cosi
   return f64.slice(TRACED.bitTrueSine / 8, TRACED.bitTrueSine / 8 + phases.length);
 }
 
+/** sin(2π·p) of each p (at most WASM_CHUNK_SAMPLES) by the module's two-lane sine (sinePairs), as a traced run computes its quadrature arm. */
+export function moduleSinePairs(exports: WasmExports, phases: ArrayLike<number>): Float64Array {
+  const f64 = new Float64Array(exports.memory.buffer);
+  f64.set(phases, TRACED.noise / 8);
+  exports.sinePairs(phases.length, TRACED.noise, TRACED.bitTrueSine, 1);
+  return f64.slice(TRACED.bitTrueSine / 8, TRACED.bitTrueSine / 8 + phases.length);
+}
+
 /** Whether the module's sine and cosine give the engine's Math.sin and Math.cos on every probe (checked once per engine). */
 function checkOwnSine(exports: WasmExports): boolean {
   if (ownSine === undefined) {
