@@ -68,19 +68,18 @@ export function loopMargins(fn: ResponseFn, s: SampledPhase): LoopMargins {
  * from 1 the logarithm is far larger than its error). So the crossings are found without a logarithm
  * per grid point. A NaN square reads as below, as toDb's floor does.
  */
-function levelSign(s: SampledPhase, i: number): number {
-  const re = s.re[i]!;
-  const im = s.im[i]!;
-  const p = re * re + im * im;
+function levelSign(re: readonly number[], im: readonly number[], i: number): number {
+  const p = re[i]! * re[i]! + im[i]! * im[i]!;
   return p > 1 ? 1 : p === 1 ? 0 : -1;
 }
 
 function gainCrossings(fn: ResponseFn, s: SampledPhase): { f: number; pm: number }[] {
   const out: { f: number; pm: number }[] = [];
-  const n = s.re.length;
-  for (let i = 0; i + 1 < n; i++) {
-    const a = levelSign(s, i);
-    const b = levelSign(s, i + 1);
+  const { re, im } = s;
+  let b = levelSign(re, im, 0);
+  for (let i = 0; i + 1 < re.length; i++) {
+    const a = b;
+    b = levelSign(re, im, i + 1);
     const crosses = (a > 0 && b <= 0) || (a < 0 && b >= 0) || (i === 0 && a === 0);
     if (!crosses) continue;
     const x = brentRoot((lx) => toDb(fn(Math.exp(lx))), Math.log(s.freqHz[i]!), Math.log(s.freqHz[i + 1]!), 1e-13);
