@@ -155,16 +155,32 @@ export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
  * grid frequency) the value is taken a relative 1e-9 beside it, where it is huge but finite and its
  * phase is meaningful.
  */
-function finite(fn: ResponseFn, at?: (freqHz: number, i: number, out: { re: number; im: number }) => void, prepare?: (grid: readonly number[]) => void): GridResponseFn {
-  const safe = (f: number): Complex => {
+function finite(fn: ResponseFn, at?: GridPointFn, prepare?: (grid: readonly number[]) => void): GridResponseFn {
+  const safe = finiteValue(fn);
+  if (!at) return safe;
+  return Object.assign(safe, { fill: gridFill(safe, at, prepare) });
+}
+
+/** A response's value at one grid point i of frequency freqHz, written into out. */
+type GridPointFn = (freqHz: number, i: number, out: { re: number; im: number }) => void;
+
+// The closures below are made by functions that return them, not bound to names: where the code runs
+// under tsx (the server, the bench), which keeps names, each named closure has its name defined when it
+// is made (Object.defineProperty, about 0.4 µs), and every response made them afresh.
+
+/** fn(f), or its value a relative 1e-9 below f where that is not finite (see finite). */
+function finiteValue(fn: ResponseFn): ResponseFn {
+  return (f: number): Complex => {
     const h = fn(f);
     if (Number.isFinite(h.re) && Number.isFinite(h.im)) return h;
     const g = fn(f * (1 - 1e-9));
     return Number.isFinite(g.re) && Number.isFinite(g.im) ? g : { re: 1e300, im: 0 };
   };
-  if (!at) return safe;
-  // fn(f) is at(f) on one scratch; the grid takes the same values and falls back to safe() where they are not finite.
-  const fill = (grid: readonly number[], re: number[], im: number[]) => {
+}
+
+/** fn(f) is at(f) on one scratch; the grid takes the same values and falls back to safe() where they are not finite. */
+function gridFill(safe: ResponseFn, at: GridPointFn, prepare?: (grid: readonly number[]) => void): NonNullable<GridResponseFn['fill']> {
+  return (grid: readonly number[], re: number[], im: number[]) => {
     prepare?.(grid);
     const v = GRID_VALUE;
     for (let i = 0; i < grid.length; i++) {
@@ -179,7 +195,6 @@ function finite(fn: ResponseFn, at?: (freqHz: number, i: number, out: { re: numb
       }
     }
   };
-  return Object.assign(safe, { fill });
 }
 
 /** Scratch of one grid value in finite's fill (single-threaded, never re-entered). */
@@ -187,9 +202,17 @@ const GRID_VALUE = { re: 0, im: 0 };
 
 /** Analog open loop K·F(jω)/(jω) with K = Kd·Ko. */
 export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): GridResponseFn {
-  const coefficients = analogCoefficients(sections);
-  // cscale(F, K/ω), then divided by j: the operations of cscale on the product, in its order.
-  const at = (f: number, _i: number, out: { re: number; im: number }) => {
+  const at = analogLoopAt(analogCoefficients(sections), kRadPerS);
+  return finite((f) => {
+    const out = { re: 0, im: 0 };
+    at(f, -1, out);
+    return out;
+  }, at);
+}
+
+/** K·F(jω)/(jω) at f: cscale(F, K/ω), then divided by j (the operations of cscale on the product, in its order). */
+function analogLoopAt(coefficients: AnalogCoefficients, kRadPerS: number): GridPointFn {
+  return (f: number, _i: number, out: { re: number; im: number }) => {
     const w = 2 * Math.PI * f;
     analogProductAt(coefficients, w, PAIR);
     const scale = kRadPerS / w;
@@ -198,11 +221,6 @@ export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: numb
     out.re = si;
     out.im = -sr;
   };
-  return finite((f) => {
-    const out = { re: 0, im: 0 };
-    at(f, -1, out);
-    return out;
-  }, at);
 }
 
 /** cos ω, sin ω, cos 2ω, sin 2ω (ω = 2πf/fs) of every grid point, as unitCirclePoint gives them. */
@@ -266,10 +284,6 @@ export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sa
   }
   const coef = sectionCoefficients(filter);
   let points: UnitCircleGrid | null = null;
-  const at = (_f: number, i: number, out: { re: number; im: number }) => {
-    const u = points!;
-    discreteSectionsAt(coef, kt, u.c1[i]!, u.s1[i]!, u.c2[i]!, u.s2[i]!, out);
-  };
   return finite(
     (f) => {
       const out = { re: 0, im: 0 };
@@ -277,7 +291,10 @@ export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sa
       discreteSectionsAt(coef, kt, p.c1, p.s1, p.c2, p.s2, out);
       return out;
     },
-    at,
+    (_f, i, out) => {
+      const u = points!;
+      discreteSectionsAt(coef, kt, u.c1[i]!, u.s1[i]!, u.c2[i]!, u.s2[i]!, out);
+    },
     (grid) => {
       points = unitCircleGrid(grid, sampleRateHz);
     },

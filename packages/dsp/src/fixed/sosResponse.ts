@@ -63,6 +63,8 @@ function magnitudeSquaredAt(coef: Float64Array, grid: CircleGrid, k: number): nu
 }
 
 const decibels = (mag2: number) => 10 * Math.log10(mag2);
+/** 10·log10 of a square is finite exactly when the square is positive and finite. */
+const finite = (mag2: number) => mag2 > 0 && mag2 < Infinity;
 
 /**
  * Relative margin by which a squared magnitude (or a ratio of two) must clear a bound to be decided
@@ -95,8 +97,6 @@ export function maxResponseDeviationDb(
   const testCoef = flatCoefficients(test);
   if (scratch.length < 2 * points) scratch = new Float64Array(2 * points);
   const ref = scratch;
-  // 10·log10 of a square is finite exactly when the square is positive and finite.
-  const finite = (mag2: number) => mag2 > 0 && mag2 < Infinity;
   let refMax = 0;
   for (let k = 0; k < points; k++) {
     const r = magnitudeSquaredAt(refCoef, grid, k);
@@ -110,11 +110,6 @@ export function maxResponseDeviationDb(
   const floor = 10 ** (floorDb / 10);
   // A floor too near under- or overflow to compare squares with: every point takes its logarithm.
   const floorUsable = floor > 1e-290 && floor < 1e290;
-  const inBand = (r: number) => {
-    if (floorUsable && r > floor * (1 + MARGIN)) return true;
-    if (floorUsable && r < floor * (1 - MARGIN)) return false;
-    return !(decibels(r) < floorDb);
-  };
   const ratio = scratch; // ratio[points + k]: the larger of test/ref and ref/test in the band, −1 elsewhere
   let ratioMax = 0;
   let anyFinite = false;
@@ -122,7 +117,9 @@ export function maxResponseDeviationDb(
   for (let k = 0; k < points; k++) {
     const r = ref[k]!;
     ratio[points + k] = -1;
-    if (!finite(r) || !inBand(r)) continue;
+    if (!finite(r)) continue;
+    const inBand = floorUsable && r > floor * (1 + MARGIN) ? true : floorUsable && r < floor * (1 - MARGIN) ? false : !(decibels(r) < floorDb);
+    if (!inBand) continue;
     const t = magnitudeSquaredAt(testCoef, grid, k);
     if (t === 0) continue; // −∞ dB: the test cascade has a zero here
     if (!(t < Infinity)) {
