@@ -178,6 +178,31 @@ const GRID = [
 const HIDDEN_AXIS_PARTS = { axisLine: { show: false }, axisTick: { show: false }, axisLabel: { show: false }, splitLine: { show: false }, minorSplitLine: { show: false } };
 
 /**
+ * The plot's parts that do not change from one update to the next are the same objects each time
+ * (constants, or the last value built for the same input): LwChart's mergeSeries hands ECharts only
+ * the series and the parts that are new objects, and ECharts merges nothing else into its model.
+ */
+const PLOT_TOOLTIP = { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) };
+const PLOT_AXIS_POINTER = { link: [{ xAxisIndex: 'all' }] };
+const PLOT_X_AXES = scaleAxes(0).xAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS, axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtHz(value, 4) } } }));
+const PLOT_ZOOM = [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }];
+
+interface Reused<T> {
+  key?: string;
+  value?: T;
+}
+const lastLegend: Reused<object> = {};
+const lastPlotYAxes: Reused<object[]> = {};
+
+function reused<T>(slot: Reused<T>, key: string, build: () => T): T {
+  if (slot.key !== key || slot.value === undefined) {
+    slot.key = key;
+    slot.value = build();
+  }
+  return slot.value;
+}
+
+/**
  * The Bode plot as two layers (layers.ts): the traces, marker lines, legend, tooltip and zoom in the
  * plot; the axes' lines, ticks, labels, grid lines and names in the frame beneath it.
  */
@@ -217,18 +242,19 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
   });
   const scales = scaleAxes(magMin);
   const hzLabel = { formatter: (v: number) => fmtHz(v, 3), hideOverlap: true };
+  const labels = traces.map((t) => t.label);
   const plot = {
     // Never animated, not only under test (chartAnimation): the editor redraws this plot on every
     // keystroke, and a second of sliding axis labels and marker lines after each one would show the
     // new figures late and keep the main thread painting while the next edit is analysed.
     animation: false,
-    legend: { top: 0, data: traces.map((t) => t.label) },
-    tooltip: { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) },
-    axisPointer: { link: [{ xAxisIndex: 'all' }] },
+    legend: reused(lastLegend, JSON.stringify(labels), () => ({ top: 0, data: labels })),
+    tooltip: PLOT_TOOLTIP,
+    axisPointer: PLOT_AXIS_POINTER,
     grid: GRID,
-    xAxis: scales.xAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS, axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtHz(value, 4) } } })),
-    yAxis: scales.yAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS })),
-    dataZoom: [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }],
+    xAxis: PLOT_X_AXES,
+    yAxis: reused(lastPlotYAxes, String(magMin), () => scales.yAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS }))),
+    dataZoom: PLOT_ZOOM,
     series,
   };
   const frame = (view: ChartView): EChartsCoreOption => ({
