@@ -282,7 +282,7 @@
     (i64.store offset=256 (i32.const 0) (local.get $acc))
     (i32.store offset=264 (i32.const 0) (local.get $h))
     ;; sin(2*pi*NCO phase) for the quadrature arm
-    (if (local.get $traced) (then (call $sinePairs (local.get $count) (i32.const 1114112) (i32.const 2031616) (local.get $own)))))
+    (if (local.get $traced) (then (call $sinePairs (local.get $count) (i32.const 1114112) (i32.const 2031616) (i32.const 0) (f64.const 0) (i32.const 0) (local.get $own)))))
 
   ;; ---- The traced simulation (src/sim/wasm/wasmTraced.ts) ----
   ;; The float loop, the bit-true loop's input codes and conversion to doubles (in run), and the per-sample part of the
@@ -1047,12 +1047,13 @@
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $sample))))
 
-  ;; dst[i] = sin(2*pi*src[i]) for i < count, two samples a vector: the sine above lane by lane, the
+  ;; dst[i] = sin(2*pi*src[i]) for i < count (with $affine amplitude*that + add[i], as sine), two samples
+  ;; a vector: the sine above lane by lane, the
   ;; same double operations on each lane (f64x2 arithmetic is IEEE per lane), for a pair whose two
   ;; arguments take the same path through it (the same reduction case and quadrant, neither argument
   ;; tiny); any other pair, an odd last sample, and every sample when $own is 0, go through the sine above.
   ;; Adjacent NCO phases differ by a small step, so nearly every pair qualifies.
-  (func $sinePairs (export "sinePairs") (param $count i32) (param $src i32) (param $dst i32) (param $own i32)
+  (func $sinePairs (export "sinePairs") (param $count i32) (param $src i32) (param $dst i32) (param $affine i32) (param $amplitude f64) (param $add i32) (param $own i32)
     (local $i i32) (local $o i32) (local $case0 i32) (local $case1 i32) (local $n i32) (local $iy i32)
     (local $hx i32) (local $ix0 i32) (local $ix1 i32) (local $e0 i32) (local $e1 i32) (local $bits v128)
     (local $a v128) (local $t v128) (local $fn v128) (local $r v128) (local $w v128) (local $y0 v128) (local $y1 v128)
@@ -1062,7 +1063,7 @@
     (local $C1 v128) (local $C2 v128) (local $C3 v128) (local $C4 v128) (local $C5 v128) (local $C6 v128) (local $qx f64)
     (if (i32.eqz (local.get $own))
       (then
-        (call $sine (local.get $count) (local.get $src) (local.get $dst) (i32.const 0) (f64.const 0) (i32.const 0) (i32.const 0) (i32.const 0))
+        (call $sine (local.get $count) (local.get $src) (local.get $dst) (local.get $affine) (local.get $amplitude) (local.get $add) (i32.const 0) (i32.const 0))
         (return)))
     (local.set $twoPi (v128.load64_splat offset=1769728 (i32.const 0)))
     (local.set $half (v128.load64_splat offset=1769736 (i32.const 0)))
@@ -1180,17 +1181,20 @@
                   (else (f64x2.add (local.get $y0) (f64x2.mul (local.get $v)
                     (f64x2.add (local.get $S1) (f64x2.mul (local.get $z) (local.get $q))))))))))
             (if (i32.and (local.get $n) (i32.const 2)) (then (local.set $s (f64x2.neg (local.get $s)))))
+            (if (local.get $affine)
+              (then (local.set $s (f64x2.add (f64x2.mul (f64x2.splat (local.get $amplitude)) (local.get $s))
+                (v128.load (i32.add (local.get $add) (local.get $o)))))))
             (v128.store (i32.add (local.get $dst) (local.get $o)) (local.get $s))
             (br $vector))
           (call $sine (i32.const 2) (i32.add (local.get $src) (local.get $o)) (i32.add (local.get $dst) (local.get $o))
-            (i32.const 0) (f64.const 0) (i32.const 0) (i32.const 1) (i32.const 0)))
+            (local.get $affine) (local.get $amplitude) (i32.add (local.get $add) (local.get $o)) (i32.const 1) (i32.const 0)))
         (local.set $i (i32.add (local.get $i) (i32.const 2)))
         (br $pair)))
     (if (i32.lt_u (local.get $i) (local.get $count))
       (then
         (local.set $o (i32.shl (local.get $i) (i32.const 3)))
         (call $sine (i32.const 1) (i32.add (local.get $src) (local.get $o)) (i32.add (local.get $dst) (local.get $o))
-          (i32.const 0) (f64.const 0) (i32.const 0) (i32.const 1) (i32.const 0)))))
+          (local.get $affine) (local.get $amplitude) (i32.add (local.get $add) (local.get $o)) (i32.const 1) (i32.const 0)))))
 
   ;; The input phases of samples n0 .. n0+count-1 into the input chunk (inputSignal.ts advancePhases),
   ;; from $phase, reading the offsets already there: the phase step at sample $stepSample, then each

@@ -55,7 +55,7 @@ export interface WasmExports {
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
   readonly phases: (count: number, n0: number, phase: number, constant: number, constantStep: number, centerHz: number, sampleRateHz: number, stepSample: number, stepCycles: number) => number;
   readonly sine: (count: number, src: number, dst: number, affine: number, amplitude: number, add: number, own: number, cosine: number) => void;
-  readonly sinePairs: (count: number, src: number, dst: number, own: number) => void;
+  readonly sinePairs: (count: number, src: number, dst: number, affine: number, amplitude: number, add: number, own: number) => void;
 }
 
 /** What the module imports: the engine's own sine and cosine, so the traced loops compute the doubles the TypeScript ones do. */

@@ -86,7 +86,7 @@ export function moduleSine(exports: WasmExports, phases: ArrayLike<number>, cosi
 export function moduleSinePairs(exports: WasmExports, phases: ArrayLike<number>): Float64Array {
   const f64 = new Float64Array(exports.memory.buffer);
   f64.set(phases, TRACED.noise / 8);
-  exports.sinePairs(phases.length, TRACED.noise, TRACED.bitTrueSine, 1);
+  exports.sinePairs(phases.length, TRACED.noise, TRACED.bitTrueSine, 0, 1, 0, 1);
   return f64.slice(TRACED.bitTrueSine / 8, TRACED.bitTrueSine / 8 + phases.length);
 }
 
@@ -172,7 +172,7 @@ export class WasmTraced {
     }
     // With the float loop its accumulate makes x, sample by sample, in the time its feedback chain leaves idle.
     this.inputAmplitude = amplitude;
-    if (!this.floatMakesInput) this.loop.exports.sine(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own, 0);
+    if (!this.floatMakesInput) this.loop.exports.sinePairs(count, TRACED.inputPhase, TRACED.inputX, 1, amplitude, TRACED.noise, this.own);
   }
 
   /** Load the float loop's constants and start it from phase 0 and zero section states. */
