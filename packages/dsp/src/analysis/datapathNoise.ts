@@ -163,10 +163,14 @@ export function datapathNoise(p: DatapathNoiseInput): { readonly noise: Datapath
   const safeDetectorPeak = Math.min(1, ...scaling.map((s) => limit / s.l1Gain));
   const detectorReferredRms = Math.sqrt(outputNoiseVariance / gains[0]![0]!);
   const phaseJitterRad = Math.sqrt(phaseNoiseVarianceRad2);
-  const notes = [
-    ...scaling.filter((s) => s.mayOverflow).map((s) => `section ${s.section + 1} can reach ${s.peakUnits.toPrecision(3)} units from the detector (L1 gain ${s.l1Gain.toPrecision(3)}) against a word limit of ${s.limitUnits.toPrecision(3)}: shift its input right by ${s.shiftBits} bit${s.shiftBits === 1 ? '' : 's'} (and its output back) or lower the filter's gain`),
-    ...(impulse.extrapolated ? [`the impulse response was run for ${impulse.samples} samples and its tail extrapolated (one dominant mode)`] : []),
-  ];
+  // Pushed, not spread from arrays made for them: an empty literal and an array of text are arrays of two
+  // kinds, and spreading one where the other had been took this function's optimised code out again and
+  // again in a long-running process analysing several designs (a recompile each time).
+  const notes: string[] = [];
+  for (const s of scaling) {
+    if (s.mayOverflow) notes.push(`section ${s.section + 1} can reach ${s.peakUnits.toPrecision(3)} units from the detector (L1 gain ${s.l1Gain.toPrecision(3)}) against a word limit of ${s.limitUnits.toPrecision(3)}: shift its input right by ${s.shiftBits} bit${s.shiftBits === 1 ? '' : 's'} (and its output back) or lower the filter's gain`);
+  }
+  if (impulse.extrapolated) notes.push(`the impulse response was run for ${impulse.samples} samples and its tail extrapolated (one dominant mode)`);
   return {
     note: null,
     noise: {
