@@ -23,6 +23,14 @@ export const ANALYZE_TARGET_MS = 0.5;
 const FIRST_CALL_TARGET_MS = 5;
 const SCIPY_RATIO_TARGET = 1;
 const BATCH = 10;
+/**
+ * Rounds over every example before any call is timed. Without them the CPU medians read calls 301-600
+ * of each example while the engine's background threads were still compiling (0.13-0.40 ms a call on
+ * those threads, per-thread CPU; functions run once an analysis tier up late, and sooner or later when
+ * another example changes what their inline caches have seen). After 1,000 rounds (4,000 calls, about
+ * 3 s) those threads take 0-0.07 ms a call and cpuMedianMs comes to threadCpuMedianMs.
+ */
+const STEADY_ROUNDS = 1000;
 /** Fresh processes per example for the first-call figures (their median is reported). */
 const FIRST_CALL_PROCESSES = 5;
 
@@ -39,10 +47,8 @@ export interface AnalysisBenchFigure {
   readonly cpuMedianMs: number;
   /**
    * The same batches in the CPU time of the calling thread alone (Linux: /proc/thread-self/schedstat;
-   * null elsewhere): cpuMedianMs also counts the engine's background threads, and in these calls those
-   * are still compiling (TurboFan tiers functions called once an analysis up only after some hundreds
-   * of calls, and recompiles after deoptimisations when the examples alternate): 0.1-0.4 ms a call for
-   * calls 301-600, even after 2,000 calls of warm-up. What a caller waits for is the thread's own time.
+   * null elsewhere): cpuMedianMs also counts the engine's background threads (compiles, parallel GC);
+   * after STEADY_ROUNDS the two are close, and a gap says the engine had not settled.
    */
   readonly threadCpuMedianMs: number | null;
   readonly p95Ms: number;
@@ -138,6 +144,7 @@ function scipyFigures(runs: number): { figures: (ScipyFigure | null)[]; version:
 export function runAnalysisBench(runs = 300, warmup = 100): { scipyVersion: string | null; scipyError: string | null; examples: AnalysisBenchFigure[] } {
   const first = firstCallsMs();
   const scipy = scipyFigures(200);
+  for (let r = 0; r < STEADY_ROUNDS; r++) for (const e of exampleSpecs) analyzeDesign(e.spec);
   const examples = exampleSpecs.map((e, index) => {
     const times: number[] = [];
     for (let i = 0; i < runs; i++) {
