@@ -274,6 +274,16 @@ function closedLoopMagnitudesAt(loop: LinearLoop, c1: number, s1: number, out: F
   for (let j = 0; j < k; j++) out[j] = Math.sqrt(partR[j]! ** 2 + partI[j]! ** 2) / qq;
 }
 
+/**
+ * |T_j| at ln f = lf (closedLoopMagnitudes into the scratch mags, partR, partI). A function of its own
+ * rather than a closure per section: under tsx, which keeps names, each named closure costs an
+ * Object.defineProperty when made.
+ */
+function sectionMagnitude(loop: LinearLoop, fs: number, lf: number, j: number, mags: Float64Array, partR: Float64Array, partI: Float64Array): number {
+  closedLoopMagnitudes(loop, fs, Math.exp(lf), mags, partR, partI);
+  return mags[j]!;
+}
+
 /** max over frequency of each |T_k|: the largest on the grid, refined by golden-section search in log f between its neighbours (a peak that is one-sided within them is found at its side). */
 function peakResponses(loop: LinearLoop, fs: number, freqHz: readonly number[]): number[] {
   const k = loop.sections.length;
@@ -298,20 +308,16 @@ function peakResponses(loop: LinearLoop, fs: number, freqHz: readonly number[]):
     const i = at[j]!;
     let lo = Math.log(freqHz[Math.max(0, i - stride)]!);
     let hi = Math.log(freqHz[Math.min(last, i + stride)]!);
-    const mag = (lf: number) => {
-      closedLoopMagnitudes(loop, fs, Math.exp(lf), mags, partR, partI);
-      return mags[j]!;
-    };
     const g = (Math.sqrt(5) - 1) / 2;
     let x1 = hi - g * (hi - lo);
     let x2 = lo + g * (hi - lo);
-    let f1 = mag(x1);
-    let f2 = mag(x2);
+    let f1 = sectionMagnitude(loop, fs, x1, j, mags, partR, partI);
+    let f2 = sectionMagnitude(loop, fs, x2, j, mags, partR, partI);
     for (let it = 0; it < 30; it++) {
       if (f1 > f2) {
-        hi = x2; x2 = x1; f2 = f1; x1 = hi - g * (hi - lo); f1 = mag(x1);
+        hi = x2; x2 = x1; f2 = f1; x1 = hi - g * (hi - lo); f1 = sectionMagnitude(loop, fs, x1, j, mags, partR, partI);
       } else {
-        lo = x1; x1 = x2; f1 = f2; x2 = lo + g * (hi - lo); f2 = mag(x2);
+        lo = x1; x1 = x2; f1 = f2; x2 = lo + g * (hi - lo); f2 = sectionMagnitude(loop, fs, x2, j, mags, partR, partI);
       }
     }
     return Math.max(value, f1, f2);

@@ -147,13 +147,19 @@ function quadratic(p: Float64Array | null, c: Float64Array, n: number): number |
  */
 export function discreteEnergy(a: Float64Array, b: Float64Array, c: Float64Array, n: number): number | null {
   const t = new Float64Array(n * n);
-  const map: SymmetricMap = (p, out) => {
-    congruence(a, p, n, t, out);
-    for (let i = 0; i < n * n; i++) out[i] = p[i]! - out[i]!;
-  };
   const rhs = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) rhs[i * n + j] = b[i]! * b[j]!;
-  return quadratic(solveSymmetric(map, rhs, n), c, n);
+  // The map passed as it is made (here and below): under tsx, which keeps names, a closure bound to a
+  // name has that name defined when it is made (Object.defineProperty, about 0.4 µs a call).
+  const p = solveSymmetric(
+    (x, out) => {
+      congruence(a, x, n, t, out);
+      for (let i = 0; i < n * n; i++) out[i] = x[i]! - out[i]!;
+    },
+    rhs,
+    n,
+  );
+  return quadratic(p, c, n);
 }
 
 /**
@@ -181,17 +187,21 @@ export function continuousEnergy(num: readonly number[], den: readonly number[])
     const power = num.length - 1 - j;
     cNum[power] = num[j]! / (lead * w0 ** (n - power));
   }
-  const map: SymmetricMap = (p, out) => {
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        let acc = 0;
-        for (let k = 0; k < n; k++) acc += a[i * n + k]! * p[k * n + j]! + p[i * n + k]! * a[j * n + k]!;
-        out[i * n + j] = acc;
-      }
-    }
-  };
   const rhs = new Float64Array(n * n);
   rhs[n * n - 1] = -1; // −b·bᵀ with b = e_n
-  const energy = quadratic(solveSymmetric(map, rhs, n), cNum, n);
+  const p = solveSymmetric(
+    (x, out) => {
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) {
+          let acc = 0;
+          for (let k = 0; k < n; k++) acc += a[i * n + k]! * x[k * n + j]! + x[i * n + k]! * a[j * n + k]!;
+          out[i * n + j] = acc;
+        }
+      }
+    },
+    rhs,
+    n,
+  );
+  const energy = quadratic(p, cNum, n);
   return energy === null ? null : w0 * energy;
 }
