@@ -78,10 +78,14 @@ export function analyzeJob(spec: LoopSpec): DesignAnalysis {
 export const FULL_TRACE_LIMIT = 1 << 19;
 const OFFSET_POINTS = 2000;
 
-/** Both loops (default) or one: the two halves of a split run are the 'both' run (mergeSimResults). */
+/**
+ * Both loops (default) or one: the two halves of a split run are the 'both' run (mergeSimResults).
+ * The offset trace is the input's, which the float half draws for the pair (splitSimulation.ts), so a
+ * bit-true half keeps no per-sample traces: they would be written per sample only to be dropped.
+ */
 export async function simulateJob(spec: LoopSpec, scenario: Scenario, ctx: JobContext, mode: SimOptions['mode'] = 'both'): Promise<SimulationOutput> {
   const samples = Math.ceil(scenario.durationS * spec.sampleRateHz);
-  const fullTraces = samples <= FULL_TRACE_LIMIT;
+  const fullTraces = mode !== 'bit-true' && samples <= FULL_TRACE_LIMIT;
   const run = await simulatePlanAsync(planDesign(requireValidSpec(spec)), scenario, { signal: ctx.signal, onProgress: (f) => ctx.onProgress(f), fullTraces, mode });
   const full = run.float?.full ?? run.bitTrue?.full;
   const offsetHz = full ? decimateMinMax(timeAxis(full.offsetHz.length, spec.sampleRateHz), full.offsetHz, OFFSET_POINTS) : null;
