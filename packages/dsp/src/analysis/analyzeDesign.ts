@@ -16,7 +16,7 @@ import { analogLoopResponse, closedDbOfOpen, closedLoop, errorDbOfOpen } from '.
 import { logGrid } from './grid.ts';
 import { samplePhase, sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
-import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
+import { type ClosedLoopFigures, closedLoopFiguresOfOpen } from './closedLoopFigures.ts';
 import { analogClosedLoop } from './loopPolynomials.ts';
 import { routhHurwitzStable } from './stability.ts';
 import { type NoiseBandwidth, loopNoiseBandwidth } from './noiseBandwidth.ts';
@@ -110,7 +110,7 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
   const analogMargins = loopMargins(analogFn, analogOpen);
   const analogPolys = analogClosedLoop(design.analog, k);
   const analogStable = routhHurwitzStable(analogPolys.h.den);
-  const analogClosed = closedLoopFigures(closedLoop(analogFn), analogGrid, closedDbOfOpen(analogOpen), analogStable);
+  const analogClosed = closedLoopFiguresOfOpen(closedLoop(analogFn), analogGrid, analogOpen, analogStable);
 
   const discrete = discreteLoopMargins(spec, design.sections, { fMinHz: range.fMinHz, points });
   const plotGrid = discrete.open.freqHz;

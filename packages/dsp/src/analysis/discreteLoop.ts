@@ -10,7 +10,7 @@ import { type DigitalFilter, closedDbOfOpen, closedLoop, discreteLoopResponse, i
 import { logGrid } from './grid.ts';
 import { type SampledResponse, sampleResponse } from './bode.ts';
 import { type LoopMargins, loopMargins } from './margins.ts';
-import { type ClosedLoopFigures, closedLoopFigures } from './closedLoopFigures.ts';
+import { type ClosedLoopFigures, closedLoopFigures, closedLoopFiguresOfOpen } from './closedLoopFigures.ts';
 import { discreteLoopStable, schurCohnStable } from './stability.ts';
 import { discreteClosedLoop } from './loopPolynomials.ts';
 
@@ -21,6 +21,8 @@ export interface DiscreteLoopOptions {
   readonly points?: number;
   /** Also compute closed-loop bandwidth and peaking (default true). */
   readonly closedLoop?: boolean;
+  /** Also return the closed loop's dB values on the grid, closedDb (default true; the figures need them not). */
+  readonly closedDb?: boolean;
   /** The grid logGrid(fMin, fs/2, points) gives, when the caller has it already (the same numbers). */
   readonly grid?: readonly number[];
 }
@@ -30,7 +32,7 @@ export interface DiscreteLoopAnalysis {
   /** All closed-loop poles strictly inside the unit circle (section-wise test, stability.ts). */
   readonly stable: boolean;
   readonly closedLoop: ClosedLoopFigures | null;
-  /** |H| = |L/(1 + L)| in dB on the grid (what closedLoop was found from); null without closedLoop. */
+  /** |H| = |L/(1 + L)| in dB on the grid (what closedLoop was found from); null without closedLoop or closedDb. */
   readonly closedDb: readonly number[] | null;
   /** Open-loop samples on the grid (frequency, dB, unwrapped phase). */
   readonly open: SampledResponse;
@@ -82,8 +84,9 @@ export function discreteLoopMargins(spec: LoopSpec, filter: DigitalFilter, optio
   const margins = loopMargins(fn, open);
   // Sections (or a b/a of order ≤ 2) get the section-wise test; a high-order b/a only the b/a test.
   const stable = isSections(filter) ? discreteLoopStable(filter, k, fs) : transferFunctionStable(filter, k, fs);
-  const closedDb = options.closedLoop === false ? null : closedDbOfOpen(open);
-  const cl = closedDb === null ? null : closedLoopFigures(closedLoop(fn), grid, closedDb, stable);
+  const withClosed = options.closedLoop !== false;
+  const closedDb = withClosed && options.closedDb !== false ? closedDbOfOpen(open) : null;
+  const cl = !withClosed ? null : closedDb ? closedLoopFigures(closedLoop(fn), grid, closedDb, stable) : closedLoopFiguresOfOpen(closedLoop(fn), grid, open, stable);
   return { margins, stable, closedLoop: cl, closedDb, open, loopType, response: fn };
 }
 

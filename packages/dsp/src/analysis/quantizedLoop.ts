@@ -39,7 +39,7 @@ export function quantizedLoop(spec: LoopSpec, quantization: QuantizationOutcome,
     return { summary, open: null };
   }
   const sections = filter.sections.map((s) => s.quantized);
-  const loop = discreteLoopMargins(spec, sections, { fMinHz: grid.fMinHz, points: grid.points, grid: grid.freqHz });
+  const loop = discreteLoopMargins(spec, sections, { fMinHz: grid.fMinHz, points: grid.points, grid: grid.freqHz, closedDb: false });
   const datapath = datapathFigures(spec, filter.format.fractionBits);
   const stable = loop.stable && filter.stable;
   const noise = !control

@@ -325,12 +325,22 @@ export function toDb(h: Complex): number {
   return partsToDb(h.re, h.im);
 }
 
+/** Whether toDb takes a square p = re² + im² as 10·log10(p) (false for NaN, and near under- or overflow). */
+export function squareInRange(p: number): boolean {
+  return p > 1e-290 && p < 1e290;
+}
+
+/** toDb of a value whose square p = re² + im² is in range (squareInRange). */
+export function squareToDb(p: number): number {
+  return Math.min(Math.max(10 * Math.log10(p), DB_FLOOR), DB_CEILING);
+}
+
 /** toDb of re + j·im given as two numbers (no object in the loops below). */
 export function partsToDb(re: number, im: number): number {
   // 10·log10(re² + im²) where the square neither overflows nor underflows: Math.hypot was a seventh of
   // analyzeDesign's time. Elsewhere (|h| beyond about 1e±150, clamped anyway) the magnitude itself.
   const p = re * re + im * im;
-  if (p > 1e-290 && p < 1e290) return Math.min(Math.max(10 * Math.log10(p), DB_FLOOR), DB_CEILING);
+  if (squareInRange(p)) return squareToDb(p);
   const m = Math.hypot(re, im);
   if (!(m > 0)) return DB_FLOOR; // zero, or NaN from 0/0
   return Math.min(Math.max(20 * Math.log10(m), DB_FLOOR), DB_CEILING);
@@ -351,14 +361,37 @@ function quotientDbOfOpen(open: OpenSamples, numeratorIsOpen: boolean): number[]
   const { re, im } = open;
   const out = doubles(re.length);
   for (let i = 0; i < re.length; i++) {
-    const lr = re[i]!;
-    const li = im[i]!;
-    const nr = numeratorIsOpen ? lr : 1;
-    const ni = numeratorIsOpen ? li : 0;
-    const br = 1 + lr;
-    const bi = li;
-    const d = br * br + bi * bi;
-    out[i] = partsToDb((nr * br + ni * bi) / d, (ni * br - nr * bi) / d);
+    quotientOfOpen(re[i]!, im[i]!, numeratorIsOpen);
+    out[i] = partsToDb(PAIR[0]!, PAIR[1]!);
+  }
+  return out;
+}
+
+/** PAIR ← N/(1 + l) for l = lr + j·li, N = l or 1, as cdiv computes it. */
+function quotientOfOpen(lr: number, li: number, numeratorIsOpen: boolean): void {
+  const nr = numeratorIsOpen ? lr : 1;
+  const ni = numeratorIsOpen ? li : 0;
+  const br = 1 + lr;
+  const bi = li;
+  const d = br * br + bi * bi;
+  PAIR[0] = (nr * br + ni * bi) / d;
+  PAIR[1] = (ni * br - nr * bi) / d;
+}
+
+/**
+ * The squares re² + im² of closedFromOpen(l) for every open-loop sample, the ones toDb takes the
+ * logarithm of (closedDbOfOpen's values are squareToDb of them); null when one is out of range
+ * (squareInRange), where toDb works from the magnitude instead. For closed-loop figures read off
+ * the squares without a logarithm per point (closedLoopFigures.ts).
+ */
+export function closedSquaresOfOpen(open: OpenSamples): number[] | null {
+  const { re, im } = open;
+  const out = doubles(re.length);
+  for (let i = 0; i < re.length; i++) {
+    quotientOfOpen(re[i]!, im[i]!, true);
+    const p = PAIR[0]! * PAIR[0]! + PAIR[1]! * PAIR[1]!;
+    if (!squareInRange(p)) return null;
+    out[i] = p;
   }
   return out;
 }
