@@ -291,7 +291,7 @@ export async function runDspBench(): Promise<Record<string, unknown>> {
       target: TRACED_RATIO_TARGET,
       met: tracedRatio >= TRACED_RATIO_TARGET,
     },
-    analyzeDesign: runAnalysisBench(),
+    analyzeDesign: await runAnalysisBench(),
     wordLengthSearch: runWordLengthBench(),
     goldenVectors: goldenVectorFigures(),
     goldenRecord: recordFigures(),

@@ -1,0 +1,98 @@
+/**
+ * Specs a worker analyses as it starts, off the user's path, and then forgets: the first analysis of
+ * a user's spec would otherwise pay the engine's first compile of every function the analysis runs.
+ * They are not the demo examples (examples.ts), so a demo's first call is measured as any user
+ * spec's would be, and between them they take the branches a spec can select: every filter kind,
+ * both ways of giving a second-order filter, ripple filters of order 1–4 and none, prewarping on and
+ * off, both NCO waveforms, every rounding and overflow mode, fixed and automatic fraction bits, a
+ * quantisation that fails, and specs the analysis warns about. Plain data: any host runs its own
+ * analysis job over them and discards the results.
+ */
+import type { LoopSpecInput } from './schema.ts';
+
+const fixedPoint = {
+  coefficientBits: 20,
+  coefficientFractionBits: 'auto',
+  dataBits: 14,
+  accumulatorBits: 36,
+  rounding: 'half-even',
+  overflow: 'wrap',
+} as const;
+
+export const warmupSpecs: readonly LoopSpecInput[] = [
+  {
+    // PI from its time constants, square NCO, ripple filter of order 1, prewarped.
+    specVersion: 1,
+    name: 'warmup_pi_tau',
+    clockHz: 48e6,
+    sampleRateHz: 48e3,
+    centerHz: 2e3,
+    input: { amplitude: 0.7 },
+    detector: { kind: 'multiplier' },
+    nco: { accumulatorBits: 28, phaseBits: 9, amplitudeBits: 12, gainHzPerUnit: 150, waveform: 'square' },
+    filter: { kind: 'pi', tau1S: 0.05, tau2S: 0.004 },
+    rippleFilter: { order: 1, cutoffHz: 1500 },
+    discretization: { method: 'bilinear', prewarpHz: 400 },
+    fixedPoint: { ...fixedPoint, coefficientFractionBits: 18, rounding: 'truncate' },
+  },
+  {
+    // Lag-lead from its targets, ripple filter of order 3, a clock the loop rate does not divide.
+    specVersion: 1,
+    name: 'warmup_laglead_targets',
+    clockHz: 25e6,
+    sampleRateHz: 300e3,
+    centerHz: 12e3,
+    input: { amplitude: 0.9 },
+    detector: { kind: 'multiplier' },
+    nco: { accumulatorBits: 24, phaseBits: 8, amplitudeBits: 6, gainHzPerUnit: 900, waveform: 'sine' },
+    filter: { kind: 'lag-lead', naturalHz: 150, damping: 0.9 },
+    rippleFilter: { order: 3, cutoffHz: 4e3 },
+    discretization: { method: 'bilinear', prewarpHz: null },
+    fixedPoint,
+  },
+  {
+    // Butterworth of order 3 and a ripple filter of order 4, saturating, rounding to nearest.
+    specVersion: 1,
+    name: 'warmup_butterworth_3',
+    clockHz: 200e6,
+    sampleRateHz: 20e6,
+    centerHz: 3.2e6,
+    input: { amplitude: 0.4 },
+    detector: { kind: 'multiplier' },
+    nco: { accumulatorBits: 40, phaseBits: 14, amplitudeBits: 18, gainHzPerUnit: 300e3, waveform: 'sine' },
+    filter: { kind: 'butterworth', order: 3, cutoffHz: 120e3 },
+    rippleFilter: { order: 4, cutoffHz: 1.5e6 },
+    discretization: { method: 'bilinear', prewarpHz: 120e3 },
+    fixedPoint: { ...fixedPoint, accumulatorBits: 44, rounding: 'nearest', overflow: 'saturate' },
+  },
+  {
+    // Single-pole with an accumulator narrower than the full product, and no ripple filter.
+    specVersion: 1,
+    name: 'warmup_single_pole',
+    clockHz: 10e6,
+    sampleRateHz: 100e3,
+    centerHz: 7e3,
+    input: { amplitude: 1 },
+    detector: { kind: 'multiplier' },
+    nco: { accumulatorBits: 32, phaseBits: 11, amplitudeBits: 16, gainHzPerUnit: 400, waveform: 'sine' },
+    filter: { kind: 'single-pole', cutoffHz: 250 },
+    rippleFilter: null,
+    discretization: { method: 'bilinear', prewarpHz: null },
+    fixedPoint: { ...fixedPoint, coefficientBits: 16, accumulatorBits: 24 },
+  },
+  {
+    // A PI filter whose gain b0 (about 20) a 3-bit coefficient word cannot hold: quantisation fails.
+    specVersion: 1,
+    name: 'warmup_narrow_words',
+    clockHz: 1e6,
+    sampleRateHz: 1e6,
+    centerHz: 90e3,
+    input: { amplitude: 0.6 },
+    detector: { kind: 'multiplier' },
+    nco: { accumulatorBits: 20, phaseBits: 6, amplitudeBits: 10, gainHzPerUnit: 5e3, waveform: 'sine' },
+    filter: { kind: 'pi', tau1S: 2e-4, tau2S: 4e-3 },
+    rippleFilter: { order: 2, cutoffHz: 60e3 },
+    discretization: { method: 'bilinear', prewarpHz: null },
+    fixedPoint: { ...fixedPoint, coefficientBits: 3, dataBits: 8, accumulatorBits: 20 },
+  },
+];
