@@ -45,6 +45,12 @@ const envSchema = z.object({
    * the demo seeding waited past LW_COMPUTE_TIMEOUT_S on a machine busy with other work.
    */
   LW_COMPUTE_NICE: int(0, 19).default(10),
+  /**
+   * Start every compute thread with the process and keep it (services/compute.ts ComputePool `warm`):
+   * each analyses the warm-up specs as it starts, so a user's first analysis meets compiled code.
+   * Default on, except under NODE_ENV=test, where a pool starts its threads on first use.
+   */
+  LW_COMPUTE_WARM: flag.optional(),
   /** Largest simulation one request may ask for: durationS × sampleRateHz loop samples. */
   LW_SIM_MAX_SAMPLES: int(1_000, 50_000_000).default(5_000_000),
   /** bcrypt cost factor: log2 of the rounds, so each step doubles the time per hash. */
@@ -99,6 +105,8 @@ export interface Config {
     readonly timeoutS: number;
     readonly maxQueue: number;
     readonly niceIncrement: number;
+    /** Threads start with the process, warm up, and stay (LW_COMPUTE_WARM). */
+    readonly warm: boolean;
     readonly maxSimulationSamples: number;
   };
   readonly bcryptRounds: number;
@@ -176,6 +184,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
       timeoutS: env.LW_COMPUTE_TIMEOUT_S,
       maxQueue: env.LW_COMPUTE_MAX_QUEUE,
       niceIncrement: env.LW_COMPUTE_NICE,
+      warm: env.LW_COMPUTE_WARM ?? env.NODE_ENV !== 'test',
       maxSimulationSamples: env.LW_SIM_MAX_SAMPLES,
     },
     bcryptRounds: env.LW_BCRYPT_ROUNDS,

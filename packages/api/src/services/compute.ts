@@ -21,11 +21,20 @@ export interface ComputePoolOptions {
    * own). Default 0.
    */
   readonly niceIncrement?: number;
+  /**
+   * Start every thread with the pool and keep it: each runs the start-up warm-up (workers/compute.ts
+   * warmUpComputeThread) before it takes a task, so the first analysis of a user's spec meets
+   * compiled code instead of paying the thread's start and the engine's first compiles. A task sent
+   * meanwhile waits for the warm-up and is answered as on a cold thread. Default false: threads start
+   * on first use and idle ones exit.
+   */
+  readonly warm?: boolean;
 }
 
 /**
  * A Piscina pool of worker threads for analyses and simulations. Threads start on first use and
- * idle ones exit, so tests and short runs pay nothing until they compute.
+ * idle ones exit, so tests and short runs pay nothing until they compute; a `warm` pool (the
+ * server's) starts them all at once, warms them up, and keeps them.
  */
 export class ComputePool {
   private readonly pool: Piscina<ComputeTask, ComputeOutcome>;
@@ -37,8 +46,9 @@ export class ComputePool {
     this.maxThreads = Math.max(1, Math.min(options.threads, availableParallelism()));
     this.pool = new Piscina({
       filename: WORKER_URL,
-      minThreads: 0,
+      minThreads: options.warm ? this.maxThreads : 0,
       maxThreads: this.maxThreads,
+      workerData: { warmUp: options.warm === true },
       idleTimeout: 30_000,
       maxQueue: options.maxQueue,
       niceIncrement: options.niceIncrement ?? 0,

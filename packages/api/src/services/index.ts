@@ -29,7 +29,7 @@ export function createServices(dataSource: DataSource, config: Config): Services
   const users = new UserService(dataSource, audit, sessions, config.bcryptRounds);
   const projects = new ProjectService(dataSource, audit);
   const designs = new DesignService(dataSource, projects, audit);
-  const compute = new ComputePool({ threads: config.compute.threads, timeoutMs: config.compute.timeoutS * 1000, maxQueue: config.compute.maxQueue, niceIncrement: config.compute.niceIncrement });
+  const compute = new ComputePool({ threads: config.compute.threads, timeoutMs: config.compute.timeoutS * 1000, maxQueue: config.compute.maxQueue, niceIncrement: config.compute.niceIncrement, warm: config.compute.warm });
   const analysis = new AnalysisService(compute, designs, config.compute.maxSimulationSamples);
   const handoff = createReleaseServices(dataSource, { audit, designs, compute, files: new FileStore(config.fileStoreDir) });
   return { dataSource, audit, sessions, users, projects, designs, compute, analysis, handoff };

@@ -16,6 +16,7 @@ import {
   type SimOptions,
   type SimResult,
   type SpecIssue,
+  warmupSpecs,
 } from '@loopwright/dsp';
 import { encodeJson } from '../encodedJson.ts';
 import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
@@ -171,6 +172,15 @@ function acquisitionOf(plan: Parameters<typeof simulatePlan>[0], port: MessagePo
 
 function fieldFailure(err: FieldError): ComputeFailure & { readonly threadId: number } {
   return { threadId, ok: false, issues: [{ field: err.field, message: err.message }], prefix: isScenarioField(err.field) ? 'scenario' : 'spec' };
+}
+
+/**
+ * Analyses each warm-up spec (dsp warmupSpecs: every filter kind and the other branches a spec can
+ * take) as a task would and drops the answers, so this thread's first real analysis runs compiled
+ * code (the dsp bench's started-thread first call). No demo spec is among them.
+ */
+export function warmUpComputeThread(): void {
+  for (const spec of warmupSpecs) runComputeTask({ kind: 'analysis', spec });
 }
 
 export default runComputeTask;
