@@ -158,9 +158,8 @@ export class RunAccumulator {
    */
   private coreChunk(core: AccumulatorCore, n0: number, count: number): void {
     const st = core.state;
-    const { phase, filter, freq, lock } = this;
     // In the order of their min and max in the core's state, slots 8 + 2k and 9 + 2k.
-    const traces = [phase, filter, freq, lock];
+    const { phase, filter, freq, lock } = this;
     let i = 0;
     while (i < count) {
       const n = n0 + i;
@@ -173,15 +172,24 @@ export class RunAccumulator {
       if (!tail) end = Math.min(end, this.tailStart - n0);
       const demod = n >= this.demodStart;
       if (!demod) end = Math.min(end, this.demodStart - n0);
-      traces.forEach((t, k) => {
-        st[8 + 2 * k] = t.min[b] as number;
-        st[9 + 2 * k] = t.max[b] as number;
-      });
+      // Written out rather than a loop over the four with a closure: two closures per bucket were most of a run's garbage.
+      st[8] = phase.min[b] as number;
+      st[9] = phase.max[b] as number;
+      st[10] = filter.min[b] as number;
+      st[11] = filter.max[b] as number;
+      st[12] = freq.min[b] as number;
+      st[13] = freq.max[b] as number;
+      st[14] = lock.min[b] as number;
+      st[15] = lock.max[b] as number;
       core.run(n0, i, end, tail, demod);
-      traces.forEach((t, k) => {
-        t.min[b] = st[8 + 2 * k] as number;
-        t.max[b] = st[9 + 2 * k] as number;
-      });
+      phase.min[b] = st[8] as number;
+      phase.max[b] = st[9] as number;
+      filter.min[b] = st[10] as number;
+      filter.max[b] = st[11] as number;
+      freq.min[b] = st[12] as number;
+      freq.max[b] = st[13] as number;
+      lock.min[b] = st[14] as number;
+      lock.max[b] = st[15] as number;
       i = end;
     }
     this.tailCount += Math.max(0, count - Math.max(0, this.tailStart - n0));
