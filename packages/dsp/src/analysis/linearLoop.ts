@@ -14,7 +14,7 @@
  * norms of the transfer from a point to a node (Ja70).
  */
 import type { Sos } from '../types/filter.ts';
-import { kernelFreeResponse } from './wasm/analysisKernel.ts';
+import { kernelFreeResponse, kernelMatrices } from './wasm/analysisKernel.ts';
 
 /** The linearised loop: x[n+1] = A·x[n] + B·e[n], out[n] = C·x[n] + D·e[n]. Matrices are row-major. */
 export interface LinearLoop {
@@ -99,7 +99,7 @@ export function linearLoop(sections: readonly Sos[], kd: number, koTRadPerUnit: 
  * waits on the last (each element still gets its own terms in its own order, so the same doubles). Four
  * rather than two took the 7×7 products of the two-section demo loops from about 0.57 to 0.45 µs.
  */
-function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
+export function multiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
   for (let i = 0; i < n; i++) {
     const row = i * n;
     let j = 0;
@@ -148,14 +148,17 @@ function transpose(x: Float64Array, n: number, out: Float64Array): void {
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[j * n + i] = x[i * n + j]!;
 }
 
+/** out = x·y (n×n): multiply, or the analysis module's, which leaves the same doubles. */
+type Multiply = (x: Float64Array, y: Float64Array, n: number, out: Float64Array) => void;
+
 /**
- * q ← Q + Mᵀ·Q·M, both products by multiply (t and u are scratch, matT is Mᵀ). The zero terms multiply
+ * q ← Q + Mᵀ·Q·M, both products by mul (t and u are scratch, matT is Mᵀ). The zero terms multiply
  * skips would add ±0 to a sum that starts at +0 and so is never -0: for a finite Q the doubles are those of
  * summing every term, in the same order.
  */
-function addCongruence(q: Float64Array, mat: Float64Array, matT: Float64Array, n: number, t: Float64Array, u: Float64Array): void {
-  multiply(q, mat, n, t);
-  multiply(matT, t, n, u);
+function addCongruence(mul: Multiply, q: Float64Array, mat: Float64Array, matT: Float64Array, n: number, t: Float64Array, u: Float64Array): void {
+  mul(q, mat, n, t);
+  mul(matT, t, n, u);
   for (let k = 0; k < n * n; k++) q[k] = q[k]! + u[k]!;
 }
 
@@ -164,24 +167,34 @@ function addCongruence(q: Float64Array, mat: Float64Array, matT: Float64Array, n
  * from each input to each of those outputs. The observability Gramian Q = Σ (Aᵀ)ⁿ·C_oᵀ·C_o·Aⁿ is summed
  * by doubling (Q ← Q + (A^(2^j))ᵀ·Q·A^(2^j), A ← A²), so a loop whose impulse response lasts 2^20
  * samples costs 20 small matrix products. Null when the loop does not decay (unstable or on the circle).
+ * The products run in the analysis's WebAssembly module where it can (wasm/analysisKernel.ts, the same
+ * doubles): they are most of this step, and there they go without a bounds check per element.
  */
 export function noiseGains(loop: LinearLoop, outputs: readonly number[]): number[][] | null {
+  return gramianNoiseGains(loop, outputs, kernelMatrices(loop.stateCount, 5 + outputs.length));
+}
+
+/** noiseGains with the products of `kernel` on its matrices, or multiply on new ones when null. */
+export function gramianNoiseGains(loop: LinearLoop, outputs: readonly number[], kernel: { readonly matrices: Float64Array[]; readonly multiply: Multiply } | null): number[][] | null {
   const { stateCount: n, inputCount: m, a, b, c, d } = loop;
-  const grams = outputs.map((o) => {
-    const q = new Float64Array(n * n);
+  const mats = kernel?.matrices ?? Array.from({ length: 5 + outputs.length }, () => new Float64Array(n * n));
+  const mul = kernel?.multiply ?? multiply;
+  const grams = outputs.map((o, g) => {
+    const q = mats[5 + g]!;
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) q[i * n + j] = c[o * n + i]! * c[o * n + j]!;
     return q;
   });
-  let power = Float64Array.from(a);
-  let square = new Float64Array(n * n);
-  const t = new Float64Array(n * n);
-  const u = new Float64Array(n * n);
-  const powerT = new Float64Array(n * n);
+  let power = mats[0]!;
+  power.set(a);
+  let square = mats[1]!;
+  const t = mats[2]!;
+  const u = mats[3]!;
+  const powerT = mats[4]!;
   let converged = false;
   for (let iter = 0; iter < 64; iter++) {
     transpose(power, n, powerT);
-    for (let g = 0; g < grams.length; g++) addCongruence(grams[g]!, power, powerT, n, t, u);
-    multiply(power, power, n, square);
+    for (let g = 0; g < grams.length; g++) addCongruence(mul, grams[g]!, power, powerT, n, t, u);
+    mul(power, power, n, square);
     const previous = power;
     power = square;
     square = previous;

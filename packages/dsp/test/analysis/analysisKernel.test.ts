@@ -2,17 +2,18 @@
 /**
  * The analysis's WebAssembly loops (src/analysis/wasm/analysisKernel.ts) give the doubles of the
  * TypeScript loops they stand in for, bit for bit (Object.is on every value, so a −0 or a NaN counts):
- * the linearised loop's free response behind impulseNorms (linearLoop.ts) and the discrete step
- * responses (stepResponse.ts), over the quantised sections of seeded random specs and of the demo specs,
- * with random states, decaying, cut at the sample limit and diverging. The TypeScript loops themselves
+ * the linearised loop's free response behind impulseNorms (linearLoop.ts), the discrete step
+ * responses (stepResponse.ts) and the noise Gramian's matrix products (linearLoop.ts, multiply), over the
+ * quantised sections of seeded random specs and of the demo specs, with random states, decaying, cut at
+ * the sample limit and diverging, and over random matrices holding zeros, −0 and non-finite values. The TypeScript loops themselves
  * are checked against outside references in test/audit (datapathNoise, steps).
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { assembleKernel, kernelBytesModule, kernelBytesPath } from '../../scripts/assembleKernel.ts';
 import { ANALYSIS_KERNEL_WASM_BASE64 } from '../../src/analysis/wasm/analysisKernelBytes.ts';
-import { KERNEL_MAX_KEPT, KERNEL_MAX_SECTIONS, kernelFreeResponse } from '../../src/analysis/wasm/analysisKernel.ts';
-import { linearLoop, MAX_IMPULSE_SAMPLES, runFreeResponse } from '../../src/analysis/linearLoop.ts';
+import { KERNEL_MAX_KEPT, KERNEL_MAX_SECTIONS, kernelFreeResponse, kernelMatrices } from '../../src/analysis/wasm/analysisKernel.ts';
+import { gramianNoiseGains, linearLoop, MAX_IMPULSE_SAMPLES, multiply, runFreeResponse } from '../../src/analysis/linearLoop.ts';
 import { kernelSteps, PLOT_POINTS, runDiscreteSteps, stepLoop, type Traces } from '../../src/analysis/stepResponse.ts';
 import { planDesign } from '../../src/planDesign.ts';
 import { parseLoopSpec } from '../../src/spec/schema.ts';
@@ -125,11 +126,55 @@ describe('the analysis WebAssembly module', () => {
     expect(diverged).toBeGreaterThan(0);
   });
 
+  it('multiplies matrices as the TypeScript multiply does, zeros skipped, every size of row', () => {
+    const rnd = mulberry32(7);
+    const entry = () => {
+      const r = rnd();
+      if (r < 0.25) return 0;
+      if (r < 0.3) return -0;
+      if (r < 0.31) return [Infinity, -Infinity, Number.NaN][Math.floor(rnd() * 3)]!;
+      return uniform(rnd, -1, 1) * logUniform(rnd, 1e-12, 1e12);
+    };
+    for (let n = 1; n <= 20; n++) {
+      for (let trial = 0; trial < 5; trial++) {
+        const km = kernelMatrices(n, 3)!;
+        const [x, y, out] = km.matrices as [Float64Array, Float64Array, Float64Array];
+        for (let i = 0; i < n * n; i++) {
+          x[i] = entry();
+          y[i] = entry();
+        }
+        const expected = new Float64Array(n * n);
+        multiply(Float64Array.from(x), Float64Array.from(y), n, expected);
+        km.multiply(x, y, n, out);
+        // Lanes whose sums meet a NaN may carry another NaN's bits; Object.is counts every NaN alike.
+        expectSameDoubles(out, expected);
+      }
+    }
+  });
+
+  it('gives the noise gains of the TypeScript products', () => {
+    let compared = 0;
+    for (const c of CASES) {
+      const k = c.sections.length;
+      const loop = linearLoop(c.sections, c.kd, c.koT);
+      const outputs = [k - 1, k];
+      const ts = gramianNoiseGains(loop, outputs, null);
+      const wasm = gramianNoiseGains(loop, outputs, kernelMatrices(loop.stateCount, 5 + outputs.length));
+      expect(wasm === null).toBe(ts === null);
+      if (!ts || !wasm) continue;
+      for (let o = 0; o < outputs.length; o++) expectSameDoubles(wasm[o]!, ts[o]!);
+      compared++;
+    }
+    expect(compared).toBeGreaterThan(20);
+  });
+
   it('declines what its memory cannot hold, so the TypeScript loop runs', () => {
     const sections: Sos[] = Array.from({ length: KERNEL_MAX_SECTIONS + 1 }, () => ({ b: [1, 0, 0], a: [1, -0.5, 0] }));
     const k = sections.length;
     expect(kernelFreeResponse(coefficients(sections), 0.1, 0.1, new Float64Array(3 + 2 * k), new Float64Array(k), new Float64Array(k), new Float64Array(k), new Float64Array(k), 64)).toBeNull();
     expect(kernelSteps(stepLoop(sections, 1, 1e3), 100, 1, traces(100))).toBe(false);
     expect(kernelSteps(stepLoop(sections.slice(0, 1), 1, 1e3), KERNEL_MAX_KEPT + 1, 1, traces(KERNEL_MAX_KEPT + 1))).toBe(false);
+    expect(kernelMatrices(25, 7)).toBeNull();
+    expect(kernelMatrices(25, 6)).not.toBeNull();
   });
 });

@@ -1,9 +1,10 @@
 /**
- * The analysis's two long loops in WebAssembly (analysisKernel.wat): the free response of the linearised
- * loop (linearLoop.ts, runFreeResponse) and the discrete step responses (stepResponse.ts,
- * runDiscreteSteps), the same doubles as the TypeScript loops, which stay the reference and run wherever
- * the module cannot (no WebAssembly, a Content Security Policy that forbids compiling it, more sections
- * than its memory holds). A fresh engine runs a first analysis's TypeScript loops unoptimised for
+ * The analysis's long loops in WebAssembly (analysisKernel.wat): the free response of the linearised
+ * loop (linearLoop.ts, runFreeResponse), the discrete step responses (stepResponse.ts,
+ * runDiscreteSteps) and the noise Gramian's matrix products (linearLoop.ts, multiply), the same doubles
+ * as the TypeScript loops, which stay the reference and run wherever the module cannot (no WebAssembly
+ * or no 128-bit SIMD in it, a Content Security Policy that forbids compiling it, more sections than its
+ * memory holds). A fresh engine runs a first analysis's TypeScript loops unoptimised for
  * thousands of samples, a double boxed per operation; the module is compiled before its first sample.
  */
 import { compileModule, instantiate } from '../../wasm/compileModule.ts';
@@ -14,12 +15,15 @@ export const KERNEL_MAX_SECTIONS = 16;
 export const KERNEL_MAX_KEPT = 1024;
 
 /** Double offsets of the module's memory (the byte offsets of its layout comment, over 8). */
-const AT = { coefficients: 0, states: 80, l1: 112, l2: 128, block: 144, prevBlock: 160, timeS: 256, phaseStep: 1280, frequencyStep: 2304 } as const;
+const AT = { coefficients: 0, states: 80, l1: 112, l2: 128, block: 144, prevBlock: 160, timeS: 256, phaseStep: 1280, frequencyStep: 2304, matrices: 4096 } as const;
+/** Doubles of the matrix area (from AT.matrices to the end of the module's one page). */
+const MATRIX_DOUBLES = 4096;
 
 interface AnalysisKernelExports {
   readonly memory: { readonly buffer: ArrayBuffer };
   readonly freeResponse: (k: number, kd: number, koT: number, theta: number, u1: number, u2: number, maxSamples: number) => number;
   readonly discreteSteps: (k: number, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number) => number;
+  readonly multiply: (x: number, y: number, n: number, out: number) => void;
 }
 
 /** The one instance (the loops keep nothing in it between calls), its memory as doubles; null without WebAssembly. */
@@ -86,4 +90,28 @@ export function kernelDiscreteSteps(coef: Float64Array, kt: number, t: number, t
     phaseStepErrorRad: m.subarray(AT.phaseStep, AT.phaseStep + kept),
     frequencyStepErrorRad: m.subarray(AT.frequencyStep, AT.frequencyStep + kept),
   };
+}
+
+/** n×n matrices in the module's memory and the product of two of them into a third (linearLoop.ts, multiply). */
+export interface KernelMatrices {
+  readonly matrices: Float64Array[];
+  readonly multiply: (x: Float64Array, y: Float64Array, n: number, out: Float64Array) => void;
+}
+
+/**
+ * `count` zeroed n×n matrices in the module's memory (views, valid until the module's next use for
+ * matrices) and its multiply on them, which leaves the doubles of linearLoop.ts's multiply; null when
+ * the module cannot run or they do not fit.
+ */
+export function kernelMatrices(n: number, count: number): KernelMatrices | null {
+  const km = count * n * n > MATRIX_DOUBLES ? null : analysisKernel();
+  if (!km) return null;
+  const size = n * n;
+  const matrices: Float64Array[] = [];
+  for (let i = 0; i < count; i++) matrices.push(km.memory.subarray(AT.matrices + i * size, AT.matrices + (i + 1) * size).fill(0));
+  return { matrices, multiply: kernelMultiply };
+}
+
+function kernelMultiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {
+  kernel!.exports.multiply(x.byteOffset, y.byteOffset, n, out.byteOffset);
 }

@@ -1,8 +1,10 @@
-;; The two long loops of the analysis as WebAssembly (analysisKernel.ts loads it): the free response of
-;; the linearised loop behind impulseNorms (linearLoop.ts, runFreeResponse) and the closed-loop step
-;; responses (stepResponse.ts, runDiscreteSteps). Each is the TypeScript loop's arithmetic, operation for
-;; operation in the same order, on doubles (IEEE binary64 in both), so the same doubles; the TypeScript
-;; loops stay the reference (test/analysis/analysisKernel.test.ts compares the two bit for bit).
+;; The long loops of the analysis as WebAssembly (analysisKernel.ts loads it): the free response of
+;; the linearised loop behind impulseNorms (linearLoop.ts, runFreeResponse), the closed-loop step
+;; responses (stepResponse.ts, runDiscreteSteps) and the matrix products of the noise Gramian
+;; (linearLoop.ts, multiply). Each is the TypeScript loop's arithmetic, operation for operation in the
+;; same order, on doubles (IEEE binary64 in both; the f64x2 lanes are two such doubles side by side), so
+;; the same doubles; the TypeScript loops stay the reference (test/analysis/analysisKernel.test.ts
+;; compares the two bit for bit).
 ;; Why: a first analysis in a fresh engine runs these loops before they are optimised, boxing every double,
 ;; while this code is compiled before its first sample.
 ;;
@@ -11,6 +13,7 @@
 ;;   640  section states: two per section
 ;;   896  l1, 1024 l2, 1152 block, 1280 prevBlock: one per section (freeResponse)
 ;;  2048  kept times, 10240 kept phase-step errors, 18432 kept frequency-step errors (discreteSteps)
+;; 32768  matrices of the noise Gramian (multiply): 4096 doubles, as many n×n matrices as fit
 (module
   (memory (export "memory") 1)
 
@@ -149,4 +152,77 @@
         (local.set $untilKept (i32.sub (local.get $untilKept) (i32.const 1)))
         (br $sample)))
     (local.get $kept))
+
+  ;; multiply: out = x·y for row-major n×n matrices at byte offsets x, y, out (linearLoop.ts, multiply):
+  ;; each element summed from +0 over l in increasing order, skipping x[i][l] = 0, four columns of a row
+  ;; side by side (two in each of two f64x2 sums), then two, then one.
+  (func (export "multiply") (param $x i32) (param $y i32) (param $n i32) (param $out i32)
+    (local $rowBytes i32) (local $i i32) (local $j i32) (local $l i32) (local $xr i32) (local $or i32) (local $yl i32)
+    (local $xil f64) (local $s v128) (local $acc0 v128) (local $acc1 v128) (local $acc f64)
+    (local.set $rowBytes (i32.shl (local.get $n) (i32.const 3)))
+    (block $rowsDone
+      (loop $rows
+        (br_if $rowsDone (i32.ge_s (local.get $i) (local.get $n)))
+        (local.set $xr (i32.add (local.get $x) (i32.mul (local.get $i) (local.get $rowBytes))))
+        (local.set $or (i32.add (local.get $out) (i32.mul (local.get $i) (local.get $rowBytes))))
+        (local.set $j (i32.const 0))
+        (block $quadsDone
+          (loop $quads
+            (br_if $quadsDone (i32.ge_s (i32.add (local.get $j) (i32.const 3)) (local.get $n)))
+            (local.set $acc0 (v128.const f64x2 0 0))
+            (local.set $acc1 (v128.const f64x2 0 0))
+            (local.set $yl (i32.add (local.get $y) (i32.shl (local.get $j) (i32.const 3))))
+            (local.set $l (i32.const 0))
+            (block $termsDone
+              (loop $terms
+                (br_if $termsDone (i32.ge_s (local.get $l) (local.get $n)))
+                (local.set $xil (f64.load (i32.add (local.get $xr) (i32.shl (local.get $l) (i32.const 3)))))
+                (if (f64.ne (local.get $xil) (f64.const 0))
+                  (then
+                    (local.set $s (f64x2.splat (local.get $xil)))
+                    (local.set $acc0 (f64x2.add (local.get $acc0) (f64x2.mul (local.get $s) (v128.load (local.get $yl)))))
+                    (local.set $acc1 (f64x2.add (local.get $acc1) (f64x2.mul (local.get $s) (v128.load offset=16 (local.get $yl)))))))
+                (local.set $yl (i32.add (local.get $yl) (local.get $rowBytes)))
+                (local.set $l (i32.add (local.get $l) (i32.const 1)))
+                (br $terms)))
+            (v128.store (i32.add (local.get $or) (i32.shl (local.get $j) (i32.const 3))) (local.get $acc0))
+            (v128.store offset=16 (i32.add (local.get $or) (i32.shl (local.get $j) (i32.const 3))) (local.get $acc1))
+            (local.set $j (i32.add (local.get $j) (i32.const 4)))
+            (br $quads)))
+        (block $pairsDone
+          (loop $pairs
+            (br_if $pairsDone (i32.ge_s (i32.add (local.get $j) (i32.const 1)) (local.get $n)))
+            (local.set $acc0 (v128.const f64x2 0 0))
+            (local.set $yl (i32.add (local.get $y) (i32.shl (local.get $j) (i32.const 3))))
+            (local.set $l (i32.const 0))
+            (block $pairTermsDone
+              (loop $pairTerms
+                (br_if $pairTermsDone (i32.ge_s (local.get $l) (local.get $n)))
+                (local.set $xil (f64.load (i32.add (local.get $xr) (i32.shl (local.get $l) (i32.const 3)))))
+                (if (f64.ne (local.get $xil) (f64.const 0))
+                  (then
+                    (local.set $acc0 (f64x2.add (local.get $acc0) (f64x2.mul (f64x2.splat (local.get $xil)) (v128.load (local.get $yl)))))))
+                (local.set $yl (i32.add (local.get $yl) (local.get $rowBytes)))
+                (local.set $l (i32.add (local.get $l) (i32.const 1)))
+                (br $pairTerms)))
+            (v128.store (i32.add (local.get $or) (i32.shl (local.get $j) (i32.const 3))) (local.get $acc0))
+            (local.set $j (i32.add (local.get $j) (i32.const 2)))
+            (br $pairs)))
+        (if (i32.lt_s (local.get $j) (local.get $n))
+          (then
+            (local.set $acc (f64.const 0))
+            (local.set $yl (i32.add (local.get $y) (i32.shl (local.get $j) (i32.const 3))))
+            (local.set $l (i32.const 0))
+            (block $lastDone
+              (loop $last
+                (br_if $lastDone (i32.ge_s (local.get $l) (local.get $n)))
+                (local.set $xil (f64.load (i32.add (local.get $xr) (i32.shl (local.get $l) (i32.const 3)))))
+                (if (f64.ne (local.get $xil) (f64.const 0))
+                  (then (local.set $acc (f64.add (local.get $acc) (f64.mul (local.get $xil) (f64.load (local.get $yl)))))))
+                (local.set $yl (i32.add (local.get $yl) (local.get $rowBytes)))
+                (local.set $l (i32.add (local.get $l) (i32.const 1)))
+                (br $last)))
+            (f64.store (i32.add (local.get $or) (i32.shl (local.get $j) (i32.const 3))) (local.get $acc))))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $rows))))
 )
