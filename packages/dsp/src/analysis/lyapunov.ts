@@ -18,20 +18,30 @@ function symmetricIndex(i: number, j: number, n: number): number {
 type SymmetricMap = (p: Float64Array, out: Float64Array) => void;
 
 /**
- * The symmetric P with map(P) = rhs: the system's columns are the map of each unit symmetric matrix
- * (so it cannot disagree with the map), solved, then refined once with rhs − map(P). Null when singular.
+ * The image of the unit symmetric matrix E_kl (1 at (k, l) and (l, k)) under a map, written into `image`
+ * at every i ≤ j (the entries the system reads), equal there to map(E_kl, image)'s doubles.
  */
-function solveSymmetric(map: SymmetricMap, rhs: Float64Array, n: number): Float64Array | null {
+type UnitImage = (k: number, l: number, image: Float64Array) => void;
+
+/**
+ * The symmetric P with map(P) = rhs: the system's columns are the map of each unit symmetric matrix
+ * (so it cannot disagree with the map; unitImage, when given, computes those same doubles directly),
+ * solved, then refined once with rhs − map(P). Null when singular.
+ */
+function solveSymmetric(map: SymmetricMap, rhs: Float64Array, n: number, unitImage: UnitImage | null): Float64Array | null {
   const m = (n * (n + 1)) / 2;
   const system = new Float64Array(m * m);
   const unit = new Float64Array(n * n);
   const image = new Float64Array(n * n);
   for (let k = 0; k < n; k++) {
     for (let l = k; l < n; l++) {
-      unit.fill(0);
-      unit[k * n + l] = 1;
-      unit[l * n + k] = 1;
-      map(unit, image);
+      if (unitImage) unitImage(k, l, image);
+      else {
+        unit.fill(0);
+        unit[k * n + l] = 1;
+        unit[l * n + k] = 1;
+        map(unit, image);
+      }
       const col = symmetricIndex(k, l, n);
       for (let i = 0; i < n; i++) for (let j = i; j < n; j++) system[symmetricIndex(i, j, n) * m + col] = image[i * n + j]!;
     }
@@ -152,14 +162,43 @@ export function discreteEnergy(a: Float64Array, b: Float64Array, c: Float64Array
   // The map passed as it is made (here and below): under tsx, which keeps names, a closure bound to a
   // name has that name defined when it is made (Object.defineProperty, about 0.4 µs a call).
   const p = solveSymmetric(
-    (x, out) => {
-      congruence(a, x, n, t, out);
-      for (let i = 0; i < n * n; i++) out[i] = x[i]! - out[i]!;
-    },
+    (x, out) => discreteMap(a, n, x, out, t),
     rhs,
     n,
+    a.every(Number.isFinite) ? (k, l, image) => discreteUnitImage(a, n, k, l, image) : null,
   );
   return quadratic(p, c, n);
+}
+
+/** out = x − A·x·Aᵀ, discreteEnergy's map (t is n×n scratch). */
+export function discreteMap(a: Float64Array, n: number, x: Float64Array, out: Float64Array, t: Float64Array): void {
+  congruence(a, x, n, t, out);
+  for (let i = 0; i < n * n; i++) out[i] = x[i]! - out[i]!;
+}
+
+/** 1 at (k, l) and (l, k) of E_kl, else 0. */
+function unitEntry(k: number, l: number, i: number, j: number): number {
+  return (i === k && j === l) || (i === l && j === k) ? 1 : 0;
+}
+
+/**
+ * E_kl − A·E_kl·Aᵀ at i ≤ j, as discreteEnergy's map computes it, for a finite A. In congruence's first
+ * product T = A·E_kl only the terms A_ik·1 (column l) and A_il·1 (column k) are not ±0, so T_il = 0 + A_ik,
+ * T_ik = 0 + A_il and every other T is +0; its second, (T·Aᵀ)_ij, adds T_ik·A_jk and then T_il·A_jl (k < l)
+ * to +0. Every term left out is a finite number times +0 or 0, a ±0, and a sum that starts at +0 is never
+ * −0 (x + (−x) rounds to +0), so adding ±0 leaves it as it is: the same doubles as the full products,
+ * from about a tenth of their operations.
+ */
+export function discreteUnitImage(a: Float64Array, n: number, k: number, l: number, image: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    const tk = 0 + a[i * n + (k === l ? k : l)]!;
+    const tl = 0 + a[i * n + k]!;
+    for (let j = i; j < n; j++) {
+      const first = 0 + tk * a[j * n + k]!;
+      const out = k === l ? first : first + tl * a[j * n + l]!;
+      image[i * n + j] = unitEntry(k, l, i, j) - out;
+    }
+  }
 }
 
 /**
@@ -190,18 +229,38 @@ export function continuousEnergy(num: readonly number[], den: readonly number[])
   const rhs = new Float64Array(n * n);
   rhs[n * n - 1] = -1; // −b·bᵀ with b = e_n
   const p = solveSymmetric(
-    (x, out) => {
-      for (let i = 0; i < n; i++) {
-        for (let j = 0; j < n; j++) {
-          let acc = 0;
-          for (let k = 0; k < n; k++) acc += a[i * n + k]! * x[k * n + j]! + x[i * n + k]! * a[j * n + k]!;
-          out[i * n + j] = acc;
-        }
-      }
-    },
+    (x, out) => continuousMap(a, n, x, out),
     rhs,
     n,
+    a.every(Number.isFinite) ? (k, l, image) => continuousUnitImage(a, n, k, l, image) : null,
   );
   const energy = quadratic(p, cNum, n);
   return energy === null ? null : w0 * energy;
+}
+
+/** out = A·x + x·Aᵀ, continuousEnergy's map, each element one sum over k of A_ik·x_kj + x_ik·A_jk. */
+export function continuousMap(a: Float64Array, n: number, x: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      let acc = 0;
+      for (let k = 0; k < n; k++) acc += a[i * n + k]! * x[k * n + j]! + x[i * n + k]! * a[j * n + k]!;
+      out[i * n + j] = acc;
+    }
+  }
+}
+
+/**
+ * A·E_kl + E_kl·Aᵀ at i ≤ j, as continuousMap computes it, for a finite A: of its sum over m only the
+ * terms at m = k and m = l hold an entry of E_kl that is not 0; every other term is a finite number
+ * times 0 twice, a ±0, which leaves a sum that starts at +0 as it is (see discreteUnitImage). The same
+ * doubles from the two terms that matter, taken in the sum's order.
+ */
+export function continuousUnitImage(a: Float64Array, n: number, k: number, l: number, image: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    for (let j = i; j < n; j++) {
+      let acc = 0 + (a[i * n + k]! * unitEntry(k, l, k, j) + unitEntry(k, l, i, k) * a[j * n + k]!);
+      if (l !== k) acc = acc + (a[i * n + l]! * unitEntry(k, l, l, j) + unitEntry(k, l, i, l) * a[j * n + l]!);
+      image[i * n + j] = acc;
+    }
+  }
 }
