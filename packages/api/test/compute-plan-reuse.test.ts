@@ -5,6 +5,7 @@
  * after a good one still fails naming its field (the plan is a pure function of the spec; no outside source).
  */
 import { mainsSyncSpec, parseScenario, planDesign, requireValidSpec, simulatePlan, type LoopSpec } from '@loopwright/dsp';
+import { valueSymbol } from 'piscina';
 import { describe, expect, it } from 'vitest';
 import { runComputeTask } from '../src/workers/compute.ts';
 
@@ -33,6 +34,22 @@ describe('the plan a compute thread keeps', () => {
     expect(fresh(retuned)).not.toBe(fresh(mainsSyncSpec));
     for (const spec of [mainsSyncSpec, mainsSyncSpec, retuned, mainsSyncSpec, reordered, retuned, structuredClone(mainsSyncSpec)]) {
       expect(answered(spec)).toBe(fresh(spec));
+    }
+  });
+
+  it("gives a half run's plan member the text of a fresh plan's, after the same spec and after another", () => {
+    // The bit-true half's plan JSON is kept with the plan (workers/compute.ts encodedMember).
+    const planText = (spec: unknown): string => {
+      const moving = runComputeTask({ kind: 'simulation', spec, scenario, options: { ...options, mode: 'bit-true' }, half: true });
+      // A half's answer comes wrapped for Piscina to move its bytes (movedBytes.ts).
+      const outcome = ((moving as unknown as Record<symbol, unknown>)[valueSymbol] ?? moving) as typeof moving;
+      if (!outcome.ok || outcome.kind !== 'simulationHalf' || !outcome.half.plan) throw new Error(`no half: ${JSON.stringify(outcome)}`);
+      return new TextDecoder().decode(outcome.half.plan);
+    };
+    const freshPlan = (spec: LoopSpec): string => JSON.stringify(planDesign(requireValidSpec(spec)).bitTrue);
+    expect(freshPlan(retuned)).not.toBe(freshPlan(mainsSyncSpec));
+    for (const spec of [mainsSyncSpec, mainsSyncSpec, retuned, retuned, mainsSyncSpec, structuredClone(mainsSyncSpec)]) {
+      expect(planText(spec)).toBe(freshPlan(spec));
     }
   });
 
