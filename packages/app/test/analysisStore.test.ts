@@ -48,7 +48,8 @@ describe('analysis store', () => {
     slow.resolve({ output: 'old', elapsedMs: 1 });
     await first;
     expect(store.result).toBe('new');
-    expect(store.running).toBe(false);
+    // The first result's warm-up (its passes fail here: the mock has no more answers) ends the run.
+    await vi.waitFor(() => expect(store.running).toBe(false));
     expect(store.generation).toBe(1);
   });
 
@@ -59,11 +60,23 @@ describe('analysis store', () => {
     expect(store.error).toBe('loop filter cannot be designed');
   });
 
-  it('analyses and draws the first result three more times when idle, with no status change and no new generation', async () => {
-    run.mockResolvedValueOnce({ output: 'first', elapsedMs: 1 }).mockResolvedValue({ output: 'warm', elapsedMs: 1 });
+  it('analyses and draws the first result three more times, one after another, reading "running" until then, with no new generation', async () => {
+    const third = deferred<unknown>();
+    run
+      .mockResolvedValueOnce({ output: 'first', elapsedMs: 1 })
+      .mockResolvedValueOnce({ output: 'warm', elapsedMs: 1 })
+      .mockReturnValueOnce(third.promise)
+      .mockResolvedValue({ output: 'warm', elapsedMs: 1 });
     const store = useAnalysisStore();
     await store.runNow(mainsSyncSpec);
     expect(store.result).toBe('first');
+    expect(store.running).toBe(true);
+    await vi.waitFor(() => expect(run).toHaveBeenCalledTimes(3));
+    // One pass at a time: the next waits for this one's answer.
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    expect(run).toHaveBeenCalledTimes(3);
+    expect(store.running).toBe(true);
+    third.resolve({ output: 'warm', elapsedMs: 1 });
     await vi.waitFor(() => expect(run).toHaveBeenCalledTimes(4));
     await new Promise((resolve) => setTimeout(resolve, 20));
     expect(run).toHaveBeenCalledTimes(4);
@@ -73,23 +86,29 @@ describe('analysis store', () => {
     expect(store.generation).toBe(1);
   });
 
-  it('lets an edit made during the warm-up run next, and drops the warm-up answer', async () => {
+  it('sends an edit made during the warm-up to the worker at once, ends the warm-up and drops its answer', async () => {
     const warm = deferred<unknown>();
-    run.mockResolvedValueOnce({ output: 'first', elapsedMs: 1 }).mockReturnValueOnce(warm.promise).mockResolvedValueOnce({ output: 'edited', elapsedMs: 1 });
+    const edited = deferred<unknown>();
+    run.mockResolvedValueOnce({ output: 'first', elapsedMs: 1 }).mockReturnValueOnce(warm.promise).mockReturnValueOnce(edited.promise);
     const store = useAnalysisStore();
-    await store.runNow(mainsSyncSpec);
+    store.request(mainsSyncSpec);
     await vi.waitFor(() => expect(run).toHaveBeenCalledTimes(2));
     store.request(ultrasonicSinglePoleSpec);
-    expect(run).toHaveBeenCalledTimes(2);
-    expect(store.running).toBe(true);
-    warm.resolve({ output: 'warm', elapsedMs: 1 });
-    await vi.waitFor(() => expect(store.running).toBe(false));
+    expect(run).toHaveBeenCalledTimes(3);
     expect(run.mock.calls[2]![1]).toBe(ultrasonicSinglePoleSpec);
+    warm.resolve({ output: 'warm', elapsedMs: 1 });
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    expect(store.result).toBe('first');
+    expect(store.running).toBe(true);
+    edited.resolve({ output: 'edited', elapsedMs: 1 });
+    await vi.waitFor(() => expect(store.running).toBe(false));
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    expect(run).toHaveBeenCalledTimes(3);
     expect(store.result).toBe('edited');
     expect(store.generation).toBe(2);
   });
 
-  it('skips the warm-up when an edit comes before the browser is idle', async () => {
+  it('skips the warm-up when an edit comes before its first pass', async () => {
     run.mockResolvedValue({ output: 'answer', elapsedMs: 1 });
     const store = useAnalysisStore();
     await store.runNow(mainsSyncSpec);
