@@ -29,13 +29,50 @@ export type KernelName = keyof typeof KERNELS;
 export async function assembleKernel(name: KernelName = 'bitTrue'): Promise<Uint8Array> {
   const wat = KERNELS[name].wat;
   const tools = await wabt();
-  const module = tools.parseWat(path.basename(wat), readFileSync(path.join(HERE, wat), 'utf8'));
+  const text = readFileSync(path.join(HERE, wat), 'utf8');
+  const module = tools.parseWat(path.basename(wat), name === 'bitTrue' ? withBitTrueAccumulate(text) : text);
   try {
     module.validate();
     return module.toBinary({ canonicalize_lebs: true }).buffer;
   } finally {
     module.destroy();
   }
+}
+
+/**
+ * The kernel's text with a second export of its accumulate function, accumulateBitTrue: the same
+ * text with k = 1 and withFloat and makeInput 0 written in as constants, the way the bit-true
+ * accumulator always calls it. The engine's compiler then drops the float loop's block from that copy,
+ * whose values otherwise held registers the accumulator's own loop spilled for. Made here, not
+ * written twice in the .wat, so the two can never differ but in those constants.
+ */
+export function withBitTrueAccumulate(text: string): string {
+  const head = '(func (export "accumulate")';
+  const start = text.indexOf(head);
+  if (start < 0 || text.indexOf(head, start + 1) >= 0) throw new Error(`bitTrueKernel.wat must hold exactly one ${head}`);
+  const end = closingParenthesis(text, start);
+  const fn = text.slice(start, end + 1);
+  if (/local\.(set|tee) \$(k|withFloat|makeInput)\b/.test(fn)) throw new Error('accumulate must not assign k, withFloat or makeInput');
+  const copy = fn
+    .replace(head, '(func (export "accumulateBitTrue")')
+    .replaceAll('(local.get $k)', '(i32.const 1)')
+    .replaceAll('(local.get $withFloat)', '(i32.const 0)')
+    .replaceAll('(local.get $makeInput)', '(i32.const 0)');
+  return `${text.slice(0, end + 1)}\n\n  ${copy}${text.slice(end + 1)}`;
+}
+
+/** Where the parenthesis opened at `start` closes, past line comments (;; to the end of the line). */
+function closingParenthesis(text: string, start: number): number {
+  let depth = 0;
+  for (let i = start; i < text.length; i++) {
+    const c = text[i];
+    if (c === ';' && text[i + 1] === ';') {
+      const eol = text.indexOf('\n', i);
+      i = eol < 0 ? text.length : eol;
+    } else if (c === '(') depth++;
+    else if (c === ')' && --depth === 0) return i;
+  }
+  throw new Error('unbalanced parentheses in the kernel text');
 }
 
 /** The TypeScript module holding a kernel's bytes as base64 (wrapped at 100 characters). */

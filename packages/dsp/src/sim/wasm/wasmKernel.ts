@@ -51,6 +51,8 @@ export interface WasmExports {
   /** `count` samples; traced: input codes from the traced input chunk and outputs as doubles (wasmTraced.ts); record: per-sample outputs. */
   readonly run: (count: number, traced: number, record: number, own: number) => void;
   readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
+  /** accumulate with k = 1, withFloat and makeInput 0 as constants (scripts/assembleKernel.ts makes it from accumulate's text); the same arguments. */
+  readonly accumulateBitTrue: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
   readonly bands: (src: number, n0: number, i0: number, count: number, slot: number, out: number, maxOut: number, perLevel: number) => number;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;
   readonly phases: (count: number, n0: number, phase: number, constant: number, constantStep: number, centerHz: number, sampleRateHz: number, stepSample: number, stepCycles: number) => number;

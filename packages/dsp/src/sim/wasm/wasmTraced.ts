@@ -223,7 +223,9 @@ export class WasmTraced {
     const blockAt = TRACED.block + k * TRACED.blockBytes;
     const boxAt = TRACED.boxcars + k * MAX_WASM_BOXCAR * 8;
     const f64 = this.f64;
-    const { accumulate, bands, sum } = this.loop.exports;
+    const { bands, sum } = this.loop.exports;
+    // The bit-true accumulator's own copy, without the float loop's block (wasmKernel.ts accumulateBitTrue).
+    const accumulate = k === 0 ? this.loop.exports.accumulate : this.loop.exports.accumulateBitTrue;
     const own = this.own;
     const traced = this;
     const slotAt = TRACED.lockSlots + k * TRACED.lockSlotBytes;
