@@ -6,7 +6,8 @@
  */
 import type { Complex } from '../filters/complex.ts';
 import { type GridResponseFn, type ResponseFn, partsToDb } from './response.ts';
-import { doubles } from './grid.ts';
+import { anchoredPhaseDeg, DEG, doubles } from './grid.ts';
+import { kernelSamplePhase } from './wasm/gridKernel.ts';
 
 export interface BodeData {
   readonly freqHz: readonly number[];
@@ -14,8 +15,6 @@ export interface BodeData {
   /** Unwrapped phase in degrees. */
   readonly phaseDeg: readonly number[];
 }
-
-const DEG = 180 / Math.PI;
 
 /** Angle of a/b in degrees, principal value; 0 when either is zero. */
 export function relativeAngleDeg(a: Complex, b: Complex): number {
@@ -60,6 +59,8 @@ export function sampleResponse(fn: GridResponseFn, grid: readonly number[], loop
  * magnitude's side of 0 dB from re² + im², margins.ts): 600 logarithms fewer.
  */
 export function samplePhase(fn: GridResponseFn, grid: readonly number[], loopType: number): SampledPhase {
+  const onKernel = fn.kernel ? kernelSamplePhase(fn.kernel, grid, loopType) : null;
+  if (onKernel) return { freqHz: grid, phaseDeg: onKernel.phaseDeg, re: onKernel.re, im: onKernel.im };
   const n = grid.length;
   const re = doubles(n);
   const im = doubles(n);
@@ -72,9 +73,7 @@ export function samplePhase(fn: GridResponseFn, grid: readonly number[], loopTyp
     }
   }
   const phaseDeg = doubles(n);
-  let phase = Math.atan2(im[0]!, re[0]!) * DEG;
-  const anchor = -90 * loopType;
-  phase += 360 * Math.round((anchor - phase) / 360);
+  let phase = anchoredPhaseDeg(re[0]!, im[0]!, loopType);
   phaseDeg[0] = phase;
   for (let i = 1; i < n; i++) {
     phase += relativeAngleOfPartsDeg(re[i]!, im[i]!, re[i - 1]!, im[i - 1]!);

@@ -24,3 +24,15 @@ export function logGrid(fMinHz: number, fMaxHz: number, points: number): number[
   out[points - 1] = fMaxHz;
   return out;
 }
+
+/** Degrees per radian. */
+export const DEG = 180 / Math.PI;
+
+/**
+ * The phase in degrees of a response's first grid point re + j·im, put on the branch nearest
+ * −90°·loopType (an integrator per type, common practice, no source; bode.ts unwraps from it).
+ */
+export function anchoredPhaseDeg(re: number, im: number, loopType: number): number {
+  const phase = Math.atan2(im, re) * DEG;
+  return phase + 360 * Math.round((-90 * loopType - phase) / 360);
+}

@@ -9,6 +9,7 @@ import { type Complex, cdiv, cexpj, cmul } from '../filters/complex.ts';
 import { polyvalAscending } from '../filters/polynomial.ts';
 import { unitCirclePoint } from '../filters/sections.ts';
 import { doubles } from './grid.ts';
+import type { GridKernelLoop } from './wasm/gridKernel.ts';
 
 /** A digital filter in either representation. */
 export type DigitalFilter = DigitalTf | readonly Sos[];
@@ -22,6 +23,8 @@ export type ResponseFn = (freqHz: number) => Complex;
  */
 export interface GridResponseFn extends ResponseFn {
   readonly fill?: (grid: readonly number[], re: number[], im: number[]) => void;
+  /** The same response for the grid module (wasm/gridKernel.ts), which fills a grid with the same doubles. */
+  readonly kernel?: GridKernelLoop;
 }
 
 /** Two-slot scratch of a complex product (re, im), reused by every evaluation below (single-threaded, never re-entered). */
@@ -155,10 +158,10 @@ export function isSections(filter: DigitalFilter): filter is readonly Sos[] {
  * grid frequency) the value is taken a relative 1e-9 beside it, where it is huge but finite and its
  * phase is meaningful.
  */
-function finite(fn: ResponseFn, at?: GridPointFn, prepare?: (grid: readonly number[]) => void): GridResponseFn {
+function finite(fn: ResponseFn, at?: GridPointFn, prepare?: (grid: readonly number[]) => void, kernel?: GridKernelLoop): GridResponseFn {
   const safe = finiteValue(fn);
   if (!at) return safe;
-  return Object.assign(safe, { fill: gridFill(safe, at, prepare) });
+  return Object.assign(safe, { fill: gridFill(safe, at, prepare), kernel });
 }
 
 /** A response's value at one grid point i of frequency freqHz, written into out. */
@@ -202,12 +205,18 @@ const GRID_VALUE = { re: 0, im: 0 };
 
 /** Analog open loop K·F(jω)/(jω) with K = Kd·Ko. */
 export function analogLoopResponse(sections: readonly AnalogTf[], kRadPerS: number): GridResponseFn {
-  const at = analogLoopAt(analogCoefficients(sections), kRadPerS);
-  return finite((f) => {
-    const out = { re: 0, im: 0 };
-    at(f, -1, out);
-    return out;
-  }, at);
+  const coefficients = analogCoefficients(sections);
+  const at = analogLoopAt(coefficients, kRadPerS);
+  return finite(
+    (f) => {
+      const out = { re: 0, im: 0 };
+      at(f, -1, out);
+      return out;
+    },
+    at,
+    undefined,
+    { kind: 'analog', values: coefficients.values, lengths: coefficients.lengths, kRadPerS },
+  );
 }
 
 /** K·F(jω)/(jω) at f: cscale(F, K/ω), then divided by j (the operations of cscale on the product, in its order). */
@@ -298,6 +307,7 @@ export function discreteLoopResponse(filter: DigitalFilter, kRadPerS: number, sa
     (grid) => {
       points = unitCircleGrid(grid, sampleRateHz);
     },
+    { kind: 'sections', coef, kt, sampleRateHz },
   );
 }
 
