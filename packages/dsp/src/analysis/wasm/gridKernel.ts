@@ -39,7 +39,7 @@ export const GRID_KERNEL_MAX_POINTS = 1024;
 
 /** Double offsets of the module's memory (the byte offsets of its layout comment, over 8). */
 const AT = { coefficients: 0, grid: 512, c1: 1536, s1: 2560, c2: 3584, s2: 4608, re: 5632, im: 6656, phase: 7680 } as const;
-/** Int32 offset of the polynomial lengths (byte 2048, over 4). */
+/** Offset of the polynomial lengths in 32-bit integers (byte 2048, over 4). */
 const LENGTHS_AT = 512;
 
 interface GridKernelExports {
