@@ -48,11 +48,12 @@ export async function assembleKernel(name: KernelName = 'bitTrue'): Promise<Uint
 }
 
 /**
- * The kernel's text with a second export of its accumulate function, accumulateBitTrue: the same
+ * The kernel's text with two more exports of its accumulate function: accumulateBitTrue, the same
  * text with k = 1 and withFloat and makeInput 0 written in as constants, the way the bit-true
- * accumulator always calls it. The engine's compiler then drops the float loop's block from that copy,
- * whose values otherwise held registers the accumulator's own loop spilled for. Made here, not
- * written twice in the .wat, so the two can never differ but in those constants.
+ * accumulator always calls it, and accumulateFloat with k = 0 and both flags 1, the float one's. The
+ * engine's compiler then drops the float loop's block from the bit-true copy, whose values otherwise
+ * held registers the accumulator's own loop spilled for, and the flags' tests from both. Made here, not
+ * written three times in the .wat, so the copies can never differ but in those constants.
  */
 export function withBitTrueAccumulate(text: string): string {
   const head = '(func (export "accumulate")';
@@ -61,12 +62,13 @@ export function withBitTrueAccumulate(text: string): string {
   const end = closingParenthesis(text, start);
   const fn = text.slice(start, end + 1);
   if (/local\.(set|tee) \$(k|withFloat|makeInput)\b/.test(fn)) throw new Error('accumulate must not assign k, withFloat or makeInput');
-  const copy = fn
-    .replace(head, '(func (export "accumulateBitTrue")')
-    .replaceAll('(local.get $k)', '(i32.const 1)')
-    .replaceAll('(local.get $withFloat)', '(i32.const 0)')
-    .replaceAll('(local.get $makeInput)', '(i32.const 0)');
-  return `${text.slice(0, end + 1)}\n\n  ${copy}${text.slice(end + 1)}`;
+  const copy = (name: string, k: number, withFloat: number, makeInput: number) =>
+    fn
+      .replace(head, `(func (export "${name}")`)
+      .replaceAll('(local.get $k)', `(i32.const ${k})`)
+      .replaceAll('(local.get $withFloat)', `(i32.const ${withFloat})`)
+      .replaceAll('(local.get $makeInput)', `(i32.const ${makeInput})`);
+  return `${text.slice(0, end + 1)}\n\n  ${copy('accumulateBitTrue', 1, 0, 0)}\n\n  ${copy('accumulateFloat', 0, 1, 1)}${text.slice(end + 1)}`;
 }
 
 /** Where the parenthesis opened at `start` closes, past line comments (;; to the end of the line). */

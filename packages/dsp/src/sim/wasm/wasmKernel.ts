@@ -52,6 +52,8 @@ export interface WasmExports {
   readonly run: (count: number, traced: number, record: number, own: number) => void;
   readonly accumulate: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
   /** accumulate with k = 1, withFloat and makeInput 0 as constants (scripts/assembleKernel.ts makes it from accumulate's text); the same arguments. */
+  /** accumulate with k = 0, withFloat and makeInput 1 as constants (as accumulateBitTrue); the same arguments. */
+  readonly accumulateFloat: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
   readonly accumulateBitTrue: (k: number, n0: number, i0: number, i1: number, tail: number, demod: number, withFloat: number, own: number, makeInput: number, inputAmplitude: number) => void;
   readonly bands: (src: number, n0: number, i0: number, count: number, slot: number, out: number, maxOut: number, perLevel: number) => number;
   readonly sum: (src: number, i0: number, i1: number, slot: number) => void;

@@ -225,7 +225,7 @@ export class WasmTraced {
     const f64 = this.f64;
     const { bands, sum } = this.loop.exports;
     // The bit-true accumulator's own copy, without the float loop's block (wasmKernel.ts accumulateBitTrue).
-    const accumulate = k === 0 ? this.loop.exports.accumulate : this.loop.exports.accumulateBitTrue;
+    const { accumulate, accumulateFloat, accumulateBitTrue } = this.loop.exports;
     const own = this.own;
     const traced = this;
     const slotAt = TRACED.lockSlots + k * TRACED.lockSlotBytes;
@@ -253,7 +253,8 @@ export class WasmTraced {
         f64.fill(0, boxAt / 8, boxAt / 8 + c.boxcarLength);
       },
       run(n0, i0, i1, tail, demod) {
-        accumulate(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0, own, k === 0 && traced.floatMakesInput ? 1 : 0, traced.inputAmplitude);
+        const makeInput = k === 0 && traced.floatMakesInput;
+        (k === 1 ? accumulateBitTrue : makeInput ? accumulateFloat : accumulate)(k, n0, i0, i1, tail ? 1 : 0, demod ? 1 : 0, k === 0 ? 1 : 0, own, makeInput ? 1 : 0, traced.inputAmplitude);
       },
     };
   }
