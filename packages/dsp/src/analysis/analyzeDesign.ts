@@ -23,7 +23,8 @@ import { type NoiseBandwidth, loopNoiseBandwidth } from './noiseBandwidth.ts';
 import { secondOrderParameters, phaseMarginFromDampingDeg } from './secondOrder.ts';
 import { acquisitionEstimates } from './estimates.ts';
 import { steadyStateErrors } from './steadyState.ts';
-import { stepResponses } from './stepResponse.ts';
+import { finishStepResponses, stepResponsesJob } from './stepResponse.ts';
+import { alongsideFreeResponse } from './wasm/analysisKernel.ts';
 import { analysisRange } from './frequencyRange.ts';
 import { DEFAULT_POINTS, discreteLoopMargins } from './discreteLoop.ts';
 import { type RippleFigures, rippleFigures } from './ripple.ts';
@@ -116,9 +117,14 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
   const plotGrid = discrete.open.freqHz;
   const analogOnPlot = sampleResponse(analogFn, plotGrid, loopType);
 
-  // The quantised loop on the same grid (the same fMin, points and fs/2), made once.
-  const quantization = quantizedLoop(spec, parts.quantization, parts.nco.control, { fMinHz: range.fMinHz, points, freqHz: plotGrid });
   const second = secondOrderParameters(spec, k, design.tau);
+  const crossoverHz = discrete.margins.crossoverHz ?? analogMargins.crossoverHz ?? k / (2 * Math.PI);
+  const dampingForSpan = Math.min(Math.max(second?.damping ?? 0.5, 0.1), 1);
+  const durationS = 3 / (crossoverHz * dampingForSpan);
+  const steps = stepResponsesJob(design.sections, analogPolys.e, k, fs, durationS);
+  // The quantised loop on the same grid (the same fMin, points and fs/2), made once; its noise analysis's
+  // free response runs with the step responses beside it (alongsideFreeResponse: two independent loops).
+  const quantization = alongsideFreeResponse(steps.kernel, () => quantizedLoop(spec, parts.quantization, parts.nco.control, { fMinHz: range.fMinHz, points, freqHz: plotGrid }));
   const dcGain = analogDcGain(design.analogSections);
   const bode: BodePlotData = {
     freqHz: plotGrid,
@@ -134,9 +140,6 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
     quantizedPhaseDeg: quantization.open?.phaseDeg ?? null,
   };
   const noiseBandwidth = loopNoiseBandwidth(spec, design, k, range, second, { analog: analogStable, discrete: discrete.stable });
-  const crossoverHz = discrete.margins.crossoverHz ?? analogMargins.crossoverHz ?? k / (2 * Math.PI);
-  const dampingForSpan = Math.min(Math.max(second?.damping ?? 0.5, 0.1), 1);
-  const durationS = 3 / (crossoverHz * dampingForSpan);
   const nco = parts.nco;
   const verdict = analysisVerdict(discrete, quantization.summary, nco, analogStable, minPm, minGm);
   const estimates = acquisitionEstimates(second, k, dcGain);
@@ -158,7 +161,7 @@ export function analyzeParts(spec: ValidSpec, specWarnings: readonly SpecWarning
     fixedPointReach: reach,
     ripple: rippleFigures(spec, design, gain),
     steadyState: steadyStateErrors(loopType, k, dcGain, spec.filter.kind === 'pi' ? (design.tau?.tau1S ?? null) : null),
-    stepResponses: stepResponses(design.sections, analogPolys.e, k, fs, durationS),
+    stepResponses: finishStepResponses(steps),
     quantization: quantization.summary,
     nco,
     verdict,

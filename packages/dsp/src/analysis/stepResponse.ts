@@ -11,7 +11,7 @@ import type { AnalogTf, Sos } from '../types/filter.ts';
 import type { StepResponses } from '../types/analysis.ts';
 import { bilinearTf } from '../filters/bilinear.ts';
 import { runFilter } from './filterRun.ts';
-import { kernelDiscreteSteps } from './wasm/analysisKernel.ts';
+import { type KernelStepJob, kernelDiscreteSteps } from './wasm/analysisKernel.ts';
 
 export const MAX_SAMPLES = 20_000;
 export const PLOT_POINTS = 400;
@@ -141,23 +141,46 @@ export function stepResponses(
   sampleRateHz: number,
   durationS: number,
 ): StepResponses {
+  return finishStepResponses(stepResponsesJob(sections, analogE, kRadPerS, sampleRateHz, durationS));
+}
+
+/** stepResponses in two parts: what to run (and, for the discrete loop, a run the analysis module may make beside another: kernel), then finishStepResponses. */
+export interface StepResponsesJob {
+  readonly source: 'discrete' | 'analog';
+  readonly n: number;
+  readonly stride: number;
+  readonly traces: Traces;
+  readonly analogE: AnalogTf;
+  readonly durationS: number;
+  readonly loop: StepLoop | null;
+  readonly kernel: KernelStepJob | null;
+}
+
+export function stepResponsesJob(sections: readonly Sos[], analogE: AnalogTf, kRadPerS: number, sampleRateHz: number, durationS: number): StepResponsesJob {
   const loopSamples = Math.ceil(durationS * sampleRateHz);
   const useDiscrete = loopSamples <= MAX_SAMPLES;
   const n = useDiscrete ? loopSamples : MAX_SAMPLES;
   const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
   const room = Math.ceil(n / stride);
   const traces: Traces = { timeS: doubles(room), phaseStepErrorRad: doubles(room), frequencyStepErrorRad: doubles(room), kept: 0, diverged: false };
-  if (useDiscrete) {
-    const loop = stepLoop(sections, kRadPerS, sampleRateHz);
-    if (!kernelSteps(loop, n, stride, traces)) runDiscreteSteps(loop, n, stride, traces);
+  const loop = useDiscrete ? stepLoop(sections, kRadPerS, sampleRateHz) : null;
+  const kernel: KernelStepJob | null = loop ? { coef: loop.coef, kt: loop.kt, t: loop.t, twoPiT: loop.twoPiT, n, stride, divergedRad: DIVERGED_RAD, out: traces, ran: false } : null;
+  return { source: useDiscrete ? 'discrete' : 'analog', n, stride, traces, analogE, durationS, loop, kernel };
+}
+
+/** The step responses of a job: its discrete run as the analysis module made it, or run now. */
+export function finishStepResponses(job: StepResponsesJob): StepResponses {
+  const { n, stride, traces, loop } = job;
+  if (loop) {
+    if (!job.kernel?.ran && !kernelSteps(loop, n, stride, traces)) runDiscreteSteps(loop, n, stride, traces);
   }
   else {
-    const rateHz = MAX_SAMPLES / durationS;
-    analogSteps(runFilter(bilinearTf(analogE, rateHz, null), n, () => 1, 1), rateHz, stride, traces);
+    const rateHz = MAX_SAMPLES / job.durationS;
+    analogSteps(runFilter(bilinearTf(job.analogE, rateHz, null), n, () => 1, 1), rateHz, stride, traces);
   }
   const { timeS, phaseStepErrorRad, frequencyStepErrorRad, kept, diverged } = traces;
   timeS.length = kept;
   phaseStepErrorRad.length = kept;
   frequencyStepErrorRad.length = kept;
-  return { source: useDiscrete ? 'discrete' : 'analog', timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
+  return { source: job.source, timeS, phaseStepErrorRad, frequencyStepErrorRad, diverged };
 }

@@ -12,9 +12,9 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { assembleKernel, kernelBytesModule, kernelBytesPath } from '../../scripts/assembleKernel.ts';
 import { ANALYSIS_KERNEL_WASM_BASE64 } from '../../src/analysis/wasm/analysisKernelBytes.ts';
-import { KERNEL_MAX_KEPT, KERNEL_MAX_SECTIONS, kernelFreeResponse, kernelMatrices } from '../../src/analysis/wasm/analysisKernel.ts';
+import { alongsideFreeResponse, KERNEL_MAX_KEPT, KERNEL_MAX_SECTIONS, kernelFreeResponse, kernelMatrices, type KernelStepJob } from '../../src/analysis/wasm/analysisKernel.ts';
 import { gramianNoiseGains, linearLoop, MAX_IMPULSE_SAMPLES, multiply, runFreeResponse } from '../../src/analysis/linearLoop.ts';
-import { kernelSteps, PLOT_POINTS, runDiscreteSteps, stepLoop, type Traces } from '../../src/analysis/stepResponse.ts';
+import { DIVERGED_RAD, kernelSteps, PLOT_POINTS, runDiscreteSteps, stepLoop, type Traces } from '../../src/analysis/stepResponse.ts';
 import { planDesign } from '../../src/planDesign.ts';
 import { parseLoopSpec } from '../../src/spec/schema.ts';
 import { exampleSpecs } from '../../src/spec/examples.ts';
@@ -124,6 +124,63 @@ describe('the analysis WebAssembly module', () => {
       }
     }
     expect(diverged).toBeGreaterThan(0);
+  });
+
+  it('runs a step response beside a free response (freeResponseWithSteps) as each runs alone', () => {
+    const rnd = mulberry32(11);
+    let fused = 0;
+    let diverged = 0;
+    for (const [index, c] of CASES.entries()) {
+      // The step run of another loop (as the analysis pairs the quantised loop's free response with the designed
+      // loop's steps), shorter or longer than the free response, at the loop's gain or one that can diverge.
+      const other = CASES[(index + 7) % CASES.length]!;
+      const k = c.sections.length;
+      for (const kRadPerS of [other.kRadPerS, other.kRadPerS * logUniform(rnd, 1e3, 1e5)]) {
+        const n = 1 + Math.floor(rnd() * 20_000);
+        const stride = Math.max(1, Math.floor(n / PLOT_POINTS));
+        const room = Math.ceil(n / stride);
+        const loop = stepLoop(other.sections, kRadPerS, other.sampleRateHz);
+        const x = Float64Array.from({ length: 3 + 2 * k }, () => uniform(rnd, -1, 1) * logUniform(rnd, 1e-6, 10));
+        const block0 = Float64Array.from({ length: k }, () => Math.abs(uniform(rnd, -1, 1)));
+        const job: KernelStepJob = { ...loop, n, stride, divergedRad: DIVERGED_RAD, out: traces(room), ran: false };
+        const together = alongsideFreeResponse(job, () => freeResponses(coefficients(c.sections), c.kd, c.koT, x, block0).wasm);
+        expect(job.ran).toBe(true);
+        const alone = freeResponses(coefficients(c.sections), c.kd, c.koT, x, block0).ts;
+        expect(together.samples).toBe(alone.samples);
+        for (const key of ['l1', 'l2', 'block', 'prevBlock'] as const) expectSameDoubles(together[key], alone[key]);
+        const ts = traces(room);
+        runDiscreteSteps(loop, n, stride, ts);
+        expect([job.out.kept, job.out.diverged]).toEqual([ts.kept, ts.diverged]);
+        for (const key of ['timeS', 'phaseStepErrorRad', 'frequencyStepErrorRad'] as const) expectSameDoubles(job.out[key].slice(0, ts.kept), ts[key].slice(0, ts.kept));
+        if (ts.diverged) diverged++;
+        if (n > Math.abs(alone.samples ?? 0)) fused++;
+      }
+    }
+    // Both orders of ending (the step run outlasting the free response and not), and diverging runs, were met.
+    expect(fused).toBeGreaterThan(5);
+    expect(fused).toBeLessThan(2 * CASES.length - 5);
+    expect(diverged).toBeGreaterThan(0);
+  });
+
+  it('takes a step run only within alongsideFreeResponse, once, and never one its memory cannot hold', () => {
+    const c = CASES[0]!;
+    const k = c.sections.length;
+    const loop = stepLoop(c.sections, c.kRadPerS, c.sampleRateHz);
+    const job = (n: number, stride: number): KernelStepJob => ({ ...loop, n, stride, divergedRad: DIVERGED_RAD, out: traces(Math.ceil(n / stride)), ran: false });
+    const free = () => freeResponses(coefficients(c.sections), c.kd, c.koT, new Float64Array(3 + 2 * k).fill(0.5), new Float64Array(k).fill(0.5));
+    const first = job(1000, 3);
+    const second = job(1000, 3);
+    alongsideFreeResponse(first, () => {
+      free();
+      alongsideFreeResponse(null, free);
+      return free();
+    });
+    expect(first.ran).toBe(true);
+    free();
+    expect(second.ran).toBe(false);
+    const tooMany = job(KERNEL_MAX_KEPT + 1, 1);
+    alongsideFreeResponse(tooMany, free);
+    expect(tooMany.ran).toBe(false);
   });
 
   it('multiplies matrices as the TypeScript multiply does, zeros skipped, every size of row', () => {

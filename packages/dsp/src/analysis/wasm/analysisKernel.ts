@@ -15,7 +15,9 @@ export const KERNEL_MAX_SECTIONS = 16;
 export const KERNEL_MAX_KEPT = 1024;
 
 /** Double offsets of the module's memory (the byte offsets of its layout comment, over 8). */
-const AT = { coefficients: 0, states: 80, l1: 112, l2: 128, block: 144, prevBlock: 160, timeS: 256, phaseStep: 1280, frequencyStep: 2304, matrices: 4096 } as const;
+const AT = { coefficients: 0, states: 80, l1: 112, l2: 128, block: 144, prevBlock: 160, timeS: 256, phaseStep: 1280, frequencyStep: 2304, stepCoefficients: 3328, stepStates: 3408, matrices: 4096 } as const;
+/** Byte offset of the step run's outcome that freeResponseWithSteps leaves (an i32). */
+const STEP_OUTCOME_BYTE = 27520;
 /** Doubles of the matrix area (from AT.matrices to the end of the module's one page). */
 const MATRIX_DOUBLES = 4096;
 
@@ -24,6 +26,10 @@ interface AnalysisKernelExports {
   readonly freeResponse: (k: number, kd: number, koT: number, theta: number, u1: number, u2: number, maxSamples: number) => number;
   readonly discreteSteps: (k: number, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number) => number;
   readonly multiply: (x: number, y: number, n: number, out: number) => void;
+  readonly freeResponseWithSteps: (
+    k: number, kd: number, koT: number, theta: number, u1: number, u2: number, maxSamples: number,
+    ks: number, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number,
+  ) => number;
 }
 
 /** The one instance (the loops keep nothing in it between calls), its memory as doubles; null without WebAssembly. */
@@ -53,12 +59,77 @@ export function kernelFreeResponse(coef: Float64Array, kd: number, koT: number, 
   m.set(l2, AT.l2);
   m.set(block, AT.block);
   m.set(prevBlock, AT.prevBlock);
-  const run = km.exports.freeResponse(k, kd, koT, x[0]!, x[1]!, x[2]!, maxSamples);
+  const job = companion;
+  companion = null;
+  let run: number;
+  if (job) {
+    const ks = job.coef.length / 5;
+    m.set(job.coef, AT.stepCoefficients);
+    m.fill(0, AT.stepStates, AT.stepStates + 2 * ks);
+    run = km.exports.freeResponseWithSteps(k, kd, koT, x[0]!, x[1]!, x[2]!, maxSamples, ks, job.kt, job.t, job.twoPiT, job.n, job.stride, job.divergedRad);
+    const r = new Int32Array(m.buffer, STEP_OUTCOME_BYTE, 1)[0]!;
+    keptSteps(m, r, job.out);
+    job.ran = true;
+  } else run = km.exports.freeResponse(k, kd, koT, x[0]!, x[1]!, x[2]!, maxSamples);
   l1.set(m.subarray(AT.l1, AT.l1 + k));
   l2.set(m.subarray(AT.l2, AT.l2 + k));
   block.set(m.subarray(AT.block, AT.block + k));
   prevBlock.set(m.subarray(AT.prevBlock, AT.prevBlock + k));
   return run;
+}
+
+/** Where a step-response run keeps its samples (stepResponse.ts, Traces). */
+export interface KernelStepTraces {
+  readonly timeS: number[];
+  readonly phaseStepErrorRad: number[];
+  readonly frequencyStepErrorRad: number[];
+  kept: number;
+  diverged: boolean;
+}
+
+/** A step-response run (runDiscreteSteps's loop and arguments) to be made beside the next free response; `ran` once it was. */
+export interface KernelStepJob {
+  readonly coef: Float64Array;
+  readonly kt: number;
+  readonly t: number;
+  readonly twoPiT: number;
+  readonly n: number;
+  readonly stride: number;
+  readonly divergedRad: number;
+  readonly out: KernelStepTraces;
+  ran: boolean;
+}
+
+/** The step run the next free response takes along (set only within alongsideFreeResponse). */
+let companion: KernelStepJob | null = null;
+
+/**
+ * body(), with `job` run beside the first free response (kernelFreeResponse) body makes, in one loop of
+ * the module (freeResponseWithSteps): the two recursions are independent, and each alone leaves the
+ * processor waiting on its chain of dependent additions. job.ran says whether it was (body may make no
+ * free response, or the module may not run); the caller then runs it alone. A job the module cannot hold
+ * (more sections or kept samples than its memory has room for) is never taken.
+ */
+export function alongsideFreeResponse<T>(job: KernelStepJob | null, body: () => T): T {
+  const fits = job !== null && job.coef.length / 5 <= KERNEL_MAX_SECTIONS && Math.ceil(job.n / job.stride) <= KERNEL_MAX_KEPT;
+  companion = fits ? job : null;
+  try {
+    return body();
+  } finally {
+    companion = null;
+  }
+}
+
+/** Copy a step run's kept samples (its outcome r: kept, or −1 − kept when it diverged) from the module into out. */
+function keptSteps(m: Float64Array, r: number, out: KernelStepTraces): void {
+  const kept = r < 0 ? -1 - r : r;
+  for (let i = 0; i < kept; i++) {
+    out.timeS[i] = m[AT.timeS + i]!;
+    out.phaseStepErrorRad[i] = m[AT.phaseStep + i]!;
+    out.frequencyStepErrorRad[i] = m[AT.frequencyStep + i]!;
+  }
+  out.kept = kept;
+  out.diverged = r < 0;
 }
 
 /** The kept samples of a step-response run in the module (views of its memory, valid until its next call). */
