@@ -14,7 +14,7 @@
  * norms of the transfer from a point to a node (Ja70).
  */
 import type { Sos } from '../types/filter.ts';
-import { kernelFreeResponse, kernelMatrices } from './wasm/analysisKernel.ts';
+import { type KernelMatrices, kernelFreeResponse, kernelMatrices } from './wasm/analysisKernel.ts';
 
 /** The linearised loop: x[n+1] = A·x[n] + B·e[n], out[n] = C·x[n] + D·e[n]. Matrices are row-major. */
 export interface LinearLoop {
@@ -148,17 +148,14 @@ function transpose(x: Float64Array, n: number, out: Float64Array): void {
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[j * n + i] = x[i * n + j]!;
 }
 
-/** out = x·y (n×n): multiply, or the analysis module's, which leaves the same doubles. */
-type Multiply = (x: Float64Array, y: Float64Array, n: number, out: Float64Array) => void;
-
 /**
- * q ← Q + Mᵀ·Q·M, both products by mul (t and u are scratch, matT is Mᵀ). The zero terms multiply
+ * q ← Q + Mᵀ·Q·M, both products by multiply (t and u are scratch, matT is Mᵀ). The zero terms multiply
  * skips would add ±0 to a sum that starts at +0 and so is never -0: for a finite Q the doubles are those of
  * summing every term, in the same order.
  */
-function addCongruence(mul: Multiply, q: Float64Array, mat: Float64Array, matT: Float64Array, n: number, t: Float64Array, u: Float64Array): void {
-  mul(q, mat, n, t);
-  mul(matT, t, n, u);
+function addCongruence(q: Float64Array, mat: Float64Array, matT: Float64Array, n: number, t: Float64Array, u: Float64Array): void {
+  multiply(q, mat, n, t);
+  multiply(matT, t, n, u);
   for (let k = 0; k < n * n; k++) q[k] = q[k]! + u[k]!;
 }
 
@@ -167,45 +164,24 @@ function addCongruence(mul: Multiply, q: Float64Array, mat: Float64Array, matT: 
  * from each input to each of those outputs. The observability Gramian Q = Σ (Aᵀ)ⁿ·C_oᵀ·C_o·Aⁿ is summed
  * by doubling (Q ← Q + (A^(2^j))ᵀ·Q·A^(2^j), A ← A²), so a loop whose impulse response lasts 2^20
  * samples costs 20 small matrix products. Null when the loop does not decay (unstable or on the circle).
- * The products run in the analysis's WebAssembly module where it can (wasm/analysisKernel.ts, the same
- * doubles): they are most of this step, and there they go without a bounds check per element.
+ * The doubling runs in the analysis's WebAssembly module where it can (wasm/analysisKernel.ts, gramian:
+ * the same doubles): its products are most of this step, and there they go without a bounds check per element.
  */
 export function noiseGains(loop: LinearLoop, outputs: readonly number[]): number[][] | null {
   return gramianNoiseGains(loop, outputs, kernelMatrices(loop.stateCount, 5 + outputs.length));
 }
 
 /** noiseGains with the products of `kernel` on its matrices, or multiply on new ones when null. */
-export function gramianNoiseGains(loop: LinearLoop, outputs: readonly number[], kernel: { readonly matrices: Float64Array[]; readonly multiply: Multiply } | null): number[][] | null {
+export function gramianNoiseGains(loop: LinearLoop, outputs: readonly number[], kernel: KernelMatrices | null): number[][] | null {
   const { stateCount: n, inputCount: m, a, b, c, d } = loop;
   const mats = kernel?.matrices ?? Array.from({ length: 5 + outputs.length }, () => new Float64Array(n * n));
-  const mul = kernel?.multiply ?? multiply;
   const grams = outputs.map((o, g) => {
     const q = mats[5 + g]!;
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) q[i * n + j] = c[o * n + i]! * c[o * n + j]!;
     return q;
   });
-  let power = mats[0]!;
-  power.set(a);
-  let square = mats[1]!;
-  const t = mats[2]!;
-  const u = mats[3]!;
-  const powerT = mats[4]!;
-  let converged = false;
-  for (let iter = 0; iter < 64; iter++) {
-    transpose(power, n, powerT);
-    for (let g = 0; g < grams.length; g++) addCongruence(mul, grams[g]!, power, powerT, n, t, u);
-    mul(power, power, n, square);
-    const previous = power;
-    power = square;
-    square = previous;
-    let big = 0;
-    for (let i = 0; i < n * n; i++) big = Math.max(big, Math.abs(power[i]!));
-    if (!Number.isFinite(big) || big > 1e150) return null;
-    if (big < 1e-6) {
-      converged = true;
-      break;
-    }
-  }
+  mats[0]!.set(a);
+  const converged = kernel ? kernel.gramian(n, grams.length) : doubleGramians(mats, grams, n);
   if (!converged) return null;
   return outputs.map((o, k) => {
     const q = grams[k]!;
@@ -221,6 +197,32 @@ export function gramianNoiseGains(loop: LinearLoop, outputs: readonly number[], 
     }
     return gains;
   });
+}
+
+/**
+ * The doubling of noiseGains in TypeScript (the analysis module's gramian does the same operations): Q ←
+ * Q + (A^(2^j))ᵀ·Q·A^(2^j) for each Gramian, A ← A², from mats[0] = A (mats 1-4 scratch), until every
+ * |A^(2^j)| entry is below 1e-6 (true) or one is not finite or above 1e150, or 64 rounds passed (false).
+ */
+function doubleGramians(mats: Float64Array[], grams: readonly Float64Array[], n: number): boolean {
+  let power = mats[0]!;
+  let square = mats[1]!;
+  const t = mats[2]!;
+  const u = mats[3]!;
+  const powerT = mats[4]!;
+  for (let iter = 0; iter < 64; iter++) {
+    transpose(power, n, powerT);
+    for (let g = 0; g < grams.length; g++) addCongruence(grams[g]!, power, powerT, n, t, u);
+    multiply(power, power, n, square);
+    const previous = power;
+    power = square;
+    square = previous;
+    let big = 0;
+    for (let i = 0; i < n * n; i++) big = Math.max(big, Math.abs(power[i]!));
+    if (!Number.isFinite(big) || big > 1e150) return false;
+    if (big < 1e-6) return true;
+  }
+  return false;
 }
 
 /**

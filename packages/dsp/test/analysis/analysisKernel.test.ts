@@ -209,7 +209,7 @@ describe('the analysis WebAssembly module', () => {
     }
   });
 
-  it('gives the noise gains of the TypeScript products', () => {
+  it('gives the noise gains of the TypeScript doubling (gramian), and declines a loop that grows alike', () => {
     let compared = 0;
     for (const c of CASES) {
       const k = c.sections.length;
@@ -223,6 +223,10 @@ describe('the analysis WebAssembly module', () => {
       compared++;
     }
     expect(compared).toBeGreaterThan(20);
+    // A loop whose section has a pole outside the unit circle: A^(2^j) grows past the bound in both.
+    const growing = linearLoop([{ b: [1, 0, 0], a: [1, -2.5, 1.2] }], 0.01, 0.01);
+    expect(gramianNoiseGains(growing, [0, 1], null)).toBeNull();
+    expect(gramianNoiseGains(growing, [0, 1], kernelMatrices(growing.stateCount, 7))).toBeNull();
   });
 
   it('declines what its memory cannot hold, so the TypeScript loop runs', () => {

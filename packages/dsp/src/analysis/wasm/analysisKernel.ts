@@ -26,6 +26,7 @@ interface AnalysisKernelExports {
   readonly freeResponse: (k: number, kd: number, koT: number, theta: number, u1: number, u2: number, maxSamples: number) => number;
   readonly discreteSteps: (k: number, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number) => number;
   readonly multiply: (x: number, y: number, n: number, out: number) => void;
+  readonly gramian: (n: number, count: number) => number;
   readonly freeResponseWithSteps: (
     k: number, kd: number, koT: number, theta: number, u1: number, u2: number, maxSamples: number,
     ks: number, kt: number, t: number, twoPiT: number, n: number, stride: number, divergedRad: number,
@@ -163,10 +164,15 @@ export function kernelDiscreteSteps(coef: Float64Array, kt: number, t: number, t
   };
 }
 
-/** n×n matrices in the module's memory and the product of two of them into a third (linearLoop.ts, multiply). */
+/**
+ * n×n matrices in the module's memory, the product of two of them into a third (linearLoop.ts, multiply)
+ * and noiseGains's doubling on them (gramian: matrices 0-4 its A^(2^j), square, scratch and transpose,
+ * from 5 on the Gramians; true when it converged, false when A^(2^j) blew up or 64 rounds passed).
+ */
 export interface KernelMatrices {
   readonly matrices: Float64Array[];
   readonly multiply: (x: Float64Array, y: Float64Array, n: number, out: Float64Array) => void;
+  readonly gramian: (n: number, count: number) => boolean;
 }
 
 /**
@@ -180,7 +186,11 @@ export function kernelMatrices(n: number, count: number): KernelMatrices | null 
   const size = n * n;
   const matrices: Float64Array[] = [];
   for (let i = 0; i < count; i++) matrices.push(km.memory.subarray(AT.matrices + i * size, AT.matrices + (i + 1) * size).fill(0));
-  return { matrices, multiply: kernelMultiply };
+  return { matrices, multiply: kernelMultiply, gramian: kernelGramian };
+}
+
+function kernelGramian(n: number, count: number): boolean {
+  return kernel!.exports.gramian(n, count) === 1;
 }
 
 function kernelMultiply(x: Float64Array, y: Float64Array, n: number, out: Float64Array): void {

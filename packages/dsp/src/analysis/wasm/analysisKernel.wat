@@ -16,7 +16,7 @@
 ;; 26624  step coefficients (5 per section), 27264 step states (2 per section), 27520 step outcome (i32),
 ;;        27528 the loop's six constants
 ;;        (freeResponseWithSteps)
-;; 32768  matrices of the noise Gramian (multiply): 4096 doubles, as many n×n matrices as fit
+;; 32768  matrices of the noise Gramian (multiply, gramian): 4096 doubles, as many n×n matrices as fit
 (module
   (memory (export "memory") 1)
 
@@ -357,10 +357,12 @@
 
   ;; multiply: out = x·y for row-major n×n matrices at byte offsets x, y, out (linearLoop.ts, multiply):
   ;; each element summed from +0 over l in increasing order, skipping x[i][l] = 0, four columns of a row
-  ;; side by side (two in each of two f64x2 sums), then two, then one.
-  (func (export "multiply") (param $x i32) (param $y i32) (param $n i32) (param $out i32)
+  ;; side by side (two in each of two f64x2 sums), then two, then one. A skipped term is a select of the
+  ;; sum as it was, not a branch: which entries are 0 changes from matrix to matrix, and a branch on it
+  ;; was mispredicted and kept the sums of different rows from running side by side.
+  (func $multiply (export "multiply") (param $x i32) (param $y i32) (param $n i32) (param $out i32)
     (local $rowBytes i32) (local $i i32) (local $j i32) (local $l i32) (local $xr i32) (local $or i32) (local $yl i32)
-    (local $xil f64) (local $s v128) (local $acc0 v128) (local $acc1 v128) (local $acc f64)
+    (local $xil f64) (local $s v128) (local $acc0 v128) (local $acc1 v128) (local $acc f64) (local $skip i32)
     (local.set $rowBytes (i32.shl (local.get $n) (i32.const 3)))
     (block $rowsDone
       (loop $rows
@@ -379,11 +381,10 @@
               (loop $terms
                 (br_if $termsDone (i32.ge_s (local.get $l) (local.get $n)))
                 (local.set $xil (f64.load (i32.add (local.get $xr) (i32.shl (local.get $l) (i32.const 3)))))
-                (if (f64.ne (local.get $xil) (f64.const 0))
-                  (then
-                    (local.set $s (f64x2.splat (local.get $xil)))
-                    (local.set $acc0 (f64x2.add (local.get $acc0) (f64x2.mul (local.get $s) (v128.load (local.get $yl)))))
-                    (local.set $acc1 (f64x2.add (local.get $acc1) (f64x2.mul (local.get $s) (v128.load offset=16 (local.get $yl)))))))
+                (local.set $skip (f64.eq (local.get $xil) (f64.const 0)))
+                (local.set $s (f64x2.splat (local.get $xil)))
+                (local.set $acc0 (select (local.get $acc0) (f64x2.add (local.get $acc0) (f64x2.mul (local.get $s) (v128.load (local.get $yl)))) (local.get $skip)))
+                (local.set $acc1 (select (local.get $acc1) (f64x2.add (local.get $acc1) (f64x2.mul (local.get $s) (v128.load offset=16 (local.get $yl)))) (local.get $skip)))
                 (local.set $yl (i32.add (local.get $yl) (local.get $rowBytes)))
                 (local.set $l (i32.add (local.get $l) (i32.const 1)))
                 (br $terms)))
@@ -401,9 +402,8 @@
               (loop $pairTerms
                 (br_if $pairTermsDone (i32.ge_s (local.get $l) (local.get $n)))
                 (local.set $xil (f64.load (i32.add (local.get $xr) (i32.shl (local.get $l) (i32.const 3)))))
-                (if (f64.ne (local.get $xil) (f64.const 0))
-                  (then
-                    (local.set $acc0 (f64x2.add (local.get $acc0) (f64x2.mul (f64x2.splat (local.get $xil)) (v128.load (local.get $yl)))))))
+                (local.set $acc0 (select (local.get $acc0) (f64x2.add (local.get $acc0) (f64x2.mul (f64x2.splat (local.get $xil)) (v128.load (local.get $yl))))
+                  (f64.eq (local.get $xil) (f64.const 0))))
                 (local.set $yl (i32.add (local.get $yl) (local.get $rowBytes)))
                 (local.set $l (i32.add (local.get $l) (i32.const 1)))
                 (br $pairTerms)))
@@ -419,12 +419,79 @@
               (loop $last
                 (br_if $lastDone (i32.ge_s (local.get $l) (local.get $n)))
                 (local.set $xil (f64.load (i32.add (local.get $xr) (i32.shl (local.get $l) (i32.const 3)))))
-                (if (f64.ne (local.get $xil) (f64.const 0))
-                  (then (local.set $acc (f64.add (local.get $acc) (f64.mul (local.get $xil) (f64.load (local.get $yl)))))))
+                (local.set $acc (select (local.get $acc) (f64.add (local.get $acc) (f64.mul (local.get $xil) (f64.load (local.get $yl))))
+                  (f64.eq (local.get $xil) (f64.const 0))))
                 (local.set $yl (i32.add (local.get $yl) (local.get $rowBytes)))
                 (local.set $l (i32.add (local.get $l) (i32.const 1)))
                 (br $last)))
             (f64.store (i32.add (local.get $or) (i32.shl (local.get $j) (i32.const 3))) (local.get $acc))))
         (local.set $i (i32.add (local.get $i) (i32.const 1)))
         (br $rows))))
+
+  ;; gramian: noiseGains's doubling (linearLoop.ts, gramianNoiseGains) on the n×n matrices from 32768: A^(2^j)
+  ;; (starting as A) and its square, two scratch, the transpose, then `count` Gramians Q (starting as
+  ;; C_oᵀ·C_o): each round Q ← Q + (A^(2^j))ᵀ·Q·A^(2^j) for every Q, then A ← A², until every |A| entry is
+  ;; below 1e-6 (returns 1) or one is not finite or above 1e150, or 64 rounds passed (returns 0).
+  (func (export "gramian") (param $n i32) (param $count i32) (result i32)
+    (local $size i32) (local $power i32) (local $square i32) (local $swap i32) (local $t i32) (local $u i32) (local $powerT i32)
+    (local $grams i32) (local $iter i32) (local $g i32) (local $q i32) (local $i i32) (local $j i32) (local $end i32) (local $big f64)
+    (local.set $size (i32.shl (i32.mul (local.get $n) (local.get $n)) (i32.const 3)))
+    (local.set $power (i32.const 32768))
+    (local.set $square (i32.add (i32.const 32768) (local.get $size)))
+    (local.set $t (i32.add (local.get $square) (local.get $size)))
+    (local.set $u (i32.add (local.get $t) (local.get $size)))
+    (local.set $powerT (i32.add (local.get $u) (local.get $size)))
+    (local.set $grams (i32.add (local.get $powerT) (local.get $size)))
+    (block $stopped
+      (loop $doubling
+        (br_if $stopped (i32.ge_s (local.get $iter) (i32.const 64)))
+        (local.set $i (i32.const 0))
+        (block $transposed
+          (loop $rows
+            (br_if $transposed (i32.ge_s (local.get $i) (local.get $n)))
+            (local.set $j (i32.const 0))
+            (block $rowDone
+              (loop $columns
+                (br_if $rowDone (i32.ge_s (local.get $j) (local.get $n)))
+                (f64.store (i32.add (local.get $powerT) (i32.shl (i32.add (i32.mul (local.get $j) (local.get $n)) (local.get $i)) (i32.const 3)))
+                  (f64.load (i32.add (local.get $power) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $j)) (i32.const 3)))))
+                (local.set $j (i32.add (local.get $j) (i32.const 1)))
+                (br $columns)))
+            (local.set $i (i32.add (local.get $i) (i32.const 1)))
+            (br $rows)))
+        (local.set $g (i32.const 0))
+        (block $congruent
+          (loop $each
+            (br_if $congruent (i32.ge_s (local.get $g) (local.get $count)))
+            (local.set $q (i32.add (local.get $grams) (i32.mul (local.get $g) (local.get $size))))
+            (call $multiply (local.get $q) (local.get $power) (local.get $n) (local.get $t))
+            (call $multiply (local.get $powerT) (local.get $t) (local.get $n) (local.get $u))
+            (local.set $i (i32.const 0))
+            (block $added
+              (loop $add
+                (br_if $added (i32.ge_s (local.get $i) (local.get $size)))
+                (f64.store (i32.add (local.get $q) (local.get $i))
+                  (f64.add (f64.load (i32.add (local.get $q) (local.get $i))) (f64.load (i32.add (local.get $u) (local.get $i)))))
+                (local.set $i (i32.add (local.get $i) (i32.const 8)))
+                (br $add)))
+            (local.set $g (i32.add (local.get $g) (i32.const 1)))
+            (br $each)))
+        (call $multiply (local.get $power) (local.get $power) (local.get $n) (local.get $square))
+        (local.set $swap (local.get $power))
+        (local.set $power (local.get $square))
+        (local.set $square (local.get $swap))
+        (local.set $big (f64.const 0))
+        (local.set $i (local.get $power))
+        (local.set $end (i32.add (local.get $power) (local.get $size)))
+        (block $scanned
+          (loop $scan
+            (br_if $scanned (i32.ge_u (local.get $i) (local.get $end)))
+            (local.set $big (f64.max (local.get $big) (f64.abs (f64.load (local.get $i)))))
+            (local.set $i (i32.add (local.get $i) (i32.const 8)))
+            (br $scan)))
+        (br_if $stopped (i32.or (f64.ne (local.get $big) (local.get $big)) (f64.gt (local.get $big) (f64.const 1e150))))
+        (if (f64.lt (local.get $big) (f64.const 1e-6)) (then (return (i32.const 1))))
+        (local.set $iter (i32.add (local.get $iter) (i32.const 1)))
+        (br $doubling)))
+    (i32.const 0))
 )
