@@ -182,7 +182,14 @@ const HIDDEN_AXIS_PARTS = { axisLine: { show: false }, axisTick: { show: false }
  * (constants, or the last value built for the same input): LwChart's mergeSeries hands ECharts only
  * the series and the parts that are new objects, and ECharts merges nothing else into its model.
  */
-const PLOT_TOOLTIP = { trigger: 'axis', axisPointer: { type: 'cross' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(2) : String(v)) };
+const PLOT_TOOLTIP = { trigger: 'axis', axisPointer: { type: 'cross' } };
+/**
+ * A trace's magnitude and phase share its name, and the axis tooltip lists both under one frequency:
+ * each value carries its unit (series-level formatters, which the axis tooltip reads per series).
+ */
+const withUnit = (unit: string) => ({ valueFormatter: (v: unknown) => (typeof v === 'number' ? `${v.toFixed(2)}${unit}` : String(v)) });
+const MAGNITUDE_TOOLTIP = withUnit(' dB');
+const PHASE_TOOLTIP = withUnit('°');
 const PLOT_AXIS_POINTER = { link: [{ xAxisIndex: 'all' }] };
 const PLOT_X_AXES = scaleAxes(0).xAxis.map((a) => ({ ...a, ...HIDDEN_AXIS_PARTS, axisPointer: { label: { formatter: ({ value }: { value: number }) => fmtHz(value, 4) } } }));
 const PLOT_ZOOM = [{ type: 'inside', xAxisIndex: [0, 1], filterMode: 'none' }];
@@ -227,6 +234,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
         id: `${t.label}/magnitude`,
         xAxisIndex: 0,
         yAxisIndex: 0,
+        tooltip: MAGNITUDE_TOOLTIP,
         data: magnitude,
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'mag') } } : {}),
       },
@@ -235,6 +243,7 @@ export function bodeOption(traces: readonly BodeTrace[], markers: BodeMarkers, s
         id: `${t.label}/phase`,
         xAxisIndex: 1,
         yAxisIndex: 1,
+        tooltip: PHASE_TOOLTIP,
         data: phase,
         ...(first ? { markLine: { symbol: 'none', silent: true, data: markerLines(markers, 'phase') } } : {}),
       },
