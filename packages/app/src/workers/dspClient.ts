@@ -33,6 +33,11 @@ interface Pending {
 
 export type WorkerFactory = () => Worker;
 
+export interface DspClientOptions {
+  /** Each worker this client starts warms up as it starts (jobServer.ts), off the first job's path. */
+  readonly warmUp?: boolean;
+}
+
 /** How long a cancelled job may take to stop before its worker is restarted. */
 const CANCEL_GRACE_MS = 400;
 
@@ -41,7 +46,15 @@ export class DspClient {
   private nextId = 1;
   private readonly pending = new Map<number, Pending>();
 
-  constructor(private readonly factory: WorkerFactory) {}
+  constructor(
+    private readonly factory: WorkerFactory,
+    private readonly options: DspClientOptions = {},
+  ) {}
+
+  /** Starts the worker now, before any job, so its start (and warm-up) is done when the first job comes. */
+  start(): void {
+    this.ensureWorker();
+  }
 
   run<K extends DspJobKind>(job: K, spec: LoopSpec, input: DspJobInput<K>, options: JobOptions = {}): Promise<JobResult<DspJobOutput<K>>> {
     const id = this.nextId++;
@@ -86,6 +99,7 @@ export class DspClient {
     worker.addEventListener('message', (event: MessageEvent<FromWorker>) => this.receive(event.data));
     worker.addEventListener('error', (event) => this.fail(event.message || 'The analysis worker stopped'));
     this.worker = worker;
+    if (this.options.warmUp) worker.postMessage({ type: 'warmUp' } satisfies ToWorker);
     return worker;
   }
 
@@ -118,9 +132,12 @@ let analysisClient: DspClient | null = null;
 let jobClient: DspClient | null = null;
 let secondJobClient: DspClient | null = null;
 
-/** The worker for analysis on every keystroke (kept free of long simulations). */
+/**
+ * The worker for analysis on every keystroke (kept free of long simulations). It warms up as it
+ * starts, and main.ts starts it with the page, so it is warm by the time a design has loaded.
+ */
 export function analysisWorker(): DspClient {
-  analysisClient ??= new DspClient(createWorker);
+  analysisClient ??= new DspClient(createWorker, { warmUp: true });
   return analysisClient;
 }
 

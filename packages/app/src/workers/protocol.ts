@@ -9,7 +9,9 @@ export type { DspJobKind, DspJobInput, DspJobOutput };
 
 export type ToWorker =
   | { readonly type: 'run'; readonly id: number; readonly job: DspJobKind; readonly spec: LoopSpec; readonly input: unknown }
-  | { readonly type: 'cancel'; readonly id: number };
+  | { readonly type: 'cancel'; readonly id: number }
+  /** Analyse dsp's warm-up specs in the background and answer nothing (jobServer.ts). */
+  | { readonly type: 'warmUp' };
 
 export type FromWorker =
   | { readonly type: 'progress'; readonly id: number; readonly fraction: number; readonly label?: string }
