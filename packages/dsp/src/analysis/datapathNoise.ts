@@ -126,30 +126,14 @@ export function datapathNoise(p: DatapathNoiseInput): { readonly noise: Datapath
   const dataLsb = 2 ** -(d - 1);
   const phaseLsb = (2 * Math.PI) / 2 ** spec.nco.accumulatorBits;
   const ncoMeanSquare = spec.nco.waveform === 'square' ? tablePeak ** 2 : tablePeak ** 2 / 2;
-  const mode = spec.fixedPoint.rounding;
-  const point = (kind: RoundoffPointKind, section: number | null, label: string, droppedBits: number | null, input: number, lsb: number, lsbUnit: 'units' | 'rad', scale = 1): RoundoffPoint => {
-    const st = roundoffStatistics(mode, droppedBits);
-    // The input's error reaches the detector multiplied by the NCO output: white, its mean square times the NCO's, zero mean.
-    const isInput = kind === 'input';
-    const variance = (isInput ? st.powerLsb2 : st.varianceLsb2) * lsb * lsb;
-    const mean = isInput ? 0 : st.meanLsb * lsb;
-    const og = gains[0]![input]! * scale;
-    const pg = gains[1]![input]! * scale;
-    return {
-      kind, section, label, droppedBits, lsb, lsbUnit,
-      meanLsb: st.meanLsb, varianceLsb2: st.varianceLsb2, powerLsb2: st.powerLsb2,
-      outputNoiseGain: og, phaseNoiseGain: pg,
-      outputVariance: variance * og, phaseVarianceRad2: variance * pg,
-      outputMean: mean * dc[yOut]![input]!, phaseMeanRad: mean * dc[thetaOut]![input]!,
-    };
-  };
+  const at: PointGains = { mode: spec.fixedPoint.rounding, gains, dc, yOut, thetaOut };
   const points: RoundoffPoint[] = [
-    point('input', null, `input quantised to ${d} bits (the converter's)`, null, 0, dataLsb, 'units', ncoMeanSquare),
-    point('detector', null, `detector product rounded to ${d} bits`, b - 1, 0, dataLsb, 'units'),
-    ...sections.map((_, j) => point('section', j, `section ${j + 1} output rounded to ${d} bits`, p.coefficientFractionBits, 1 + j, dataLsb, 'units')),
-    point('control', null, `tuning increment rounded to an accumulator LSB`, Math.max(0, control.gainShift), k + 1, phaseLsb, 'rad'),
+    roundoffPoint(at, 'input', null, `input quantised to ${d} bits (the converter's)`, null, 0, dataLsb, 'units', ncoMeanSquare),
+    roundoffPoint(at, 'detector', null, `detector product rounded to ${d} bits`, b - 1, 0, dataLsb, 'units', 1),
+    ...sections.map((_, j) => roundoffPoint(at, 'section', j, `section ${j + 1} output rounded to ${d} bits`, p.coefficientFractionBits, 1 + j, dataLsb, 'units', 1)),
+    roundoffPoint(at, 'control', null, `tuning increment rounded to an accumulator LSB`, Math.max(0, control.gainShift), k + 1, phaseLsb, 'rad', 1),
   ];
-  const sum = (f: (x: RoundoffPoint) => number) => points.reduce((acc, x) => acc + f(x), 0);
+  const sum = sumOver(points);
   const phaseNoiseVarianceRad2 = sum((x) => x.phaseVarianceRad2);
   const rippleMix = rippleMixVariance(loop, spec, kd, phaseNoiseVarianceRad2);
   const outputNoiseVariance = sum((x) => x.outputVariance) + rippleMix;
@@ -193,6 +177,42 @@ export function datapathNoise(p: DatapathNoiseInput): { readonly noise: Datapath
       notes,
     },
   };
+}
+
+/** What every rounding point's figures are read from: the rounding mode, the noise gains and DC gains, and the two outputs. */
+interface PointGains {
+  readonly mode: LoopSpec['fixedPoint']['rounding'];
+  readonly gains: readonly (readonly number[])[];
+  readonly dc: readonly (readonly number[])[];
+  readonly yOut: number;
+  readonly thetaOut: number;
+}
+
+/**
+ * One rounding point's figures from its error statistics and the gains from its input. A function of the
+ * module, not a closure bound to a name per call (so too sumOver's): under tsx, which keeps names, each
+ * such closure has its name defined when it is made (Object.defineProperty, about 0.4 µs).
+ */
+function roundoffPoint(at: PointGains, kind: RoundoffPointKind, section: number | null, label: string, droppedBits: number | null, input: number, lsb: number, lsbUnit: 'units' | 'rad', scale: number): RoundoffPoint {
+  const st = roundoffStatistics(at.mode, droppedBits);
+  // The input's error reaches the detector multiplied by the NCO output: white, its mean square times the NCO's, zero mean.
+  const isInput = kind === 'input';
+  const variance = (isInput ? st.powerLsb2 : st.varianceLsb2) * lsb * lsb;
+  const mean = isInput ? 0 : st.meanLsb * lsb;
+  const og = at.gains[0]![input]! * scale;
+  const pg = at.gains[1]![input]! * scale;
+  return {
+    kind, section, label, droppedBits, lsb, lsbUnit,
+    meanLsb: st.meanLsb, varianceLsb2: st.varianceLsb2, powerLsb2: st.powerLsb2,
+    outputNoiseGain: og, phaseNoiseGain: pg,
+    outputVariance: variance * og, phaseVarianceRad2: variance * pg,
+    outputMean: mean * at.dc[at.yOut]![input]!, phaseMeanRad: mean * at.dc[at.thetaOut]![input]!,
+  };
+}
+
+/** The sum of a figure over the points, in their order. */
+function sumOver(points: readonly RoundoffPoint[]): (f: (x: RoundoffPoint) => number) => number {
+  return (f) => points.reduce((acc, x) => acc + f(x), 0);
 }
 
 /**

@@ -13,13 +13,24 @@
  */
 import type { AcquisitionEstimates } from '../types/analysis.ts';
 
+/** rad/s to Hz (module functions rather than named closures per call: filters/loopFilter.ts, withRipple). */
+function hz(w: number): number {
+  return w / (2 * Math.PI);
+}
+
+/** w, or the hold-in range K·F(0) when w exceeds it (a note says so). */
+function capAtHoldIn(w: number, holdIn: number | null, what: string, formula: string, notes: string[]): number {
+  if (holdIn === null || w <= holdIn) return w;
+  notes.push(`${what}: ${formula} = ${hz(w).toPrecision(4)} Hz exceeds the hold-in range K·F(0) = ${hz(holdIn).toPrecision(4)} Hz (the formula is a high-gain result); capped at hold-in, which a type-1 loop cannot pass`);
+  return holdIn;
+}
+
 /** Textbook acquisition estimates from ωn, ζ (null when they do not apply), K and F(0) (null for PI). */
 export function acquisitionEstimates(
   second: { readonly wnRadPerS: number; readonly damping: number } | null,
   kRadPerS: number,
   dcGain: number | null,
 ): AcquisitionEstimates {
-  const hz = (w: number) => w / (2 * Math.PI);
   const notes: string[] = [];
   const holdIn = dcGain === null ? null : kRadPerS * dcGain;
   if (holdIn === null) {
@@ -44,13 +55,8 @@ export function acquisitionEstimates(
   const { wnRadPerS: wn, damping: z } = second;
   const lockInFormula = 2 * z * wn;
   const pullOutFormula = 1.8 * wn * (z + 1);
-  const cap = (w: number, what: string, formula: string) => {
-    if (holdIn === null || w <= holdIn) return w;
-    notes.push(`${what}: ${formula} = ${hz(w).toPrecision(4)} Hz exceeds the hold-in range K·F(0) = ${hz(holdIn).toPrecision(4)} Hz (the formula is a high-gain result); capped at hold-in, which a type-1 loop cannot pass`);
-    return holdIn;
-  };
-  const lockIn = cap(lockInFormula, 'lock-in', '2ζωn');
-  const pullOut = cap(pullOutFormula, 'pull-out', '1.8ωn(ζ+1)');
+  const lockIn = capAtHoldIn(lockInFormula, holdIn, 'lock-in', '2ζωn', notes);
+  const pullOut = capAtHoldIn(pullOutFormula, holdIn, 'pull-out', '1.8ωn(ζ+1)', notes);
   return {
     lockInHz: hz(lockIn),
     lockInRadPerS: lockIn,

@@ -108,17 +108,19 @@ export function fixedPointReach(r: ReachInputs): FixedPointReach | null {
 export function reachWarnings(reach: FixedPointReach | null, estimates: AcquisitionEstimates): SpecWarning[] {
   if (!reach) return [];
   const out: SpecWarning[] = [];
-  const beyond = (what: string, hz: number | null) => {
-    if (hz === null || hz <= reach.holdInHz * (1 + 1e-9)) return;
-    out.push({
-      field: reach.rangeField,
-      message: `the ${what} estimate ${fmtHz(hz)} is beyond the ±${fmtHz(reach.holdInHz)} the fixed-point loop can hold (${reach.limitedBy === 'control-range' ? 'its NCO control range' : 'K·F(0)'}); the bit-true loop cannot lock or stay locked that far out`,
-    });
-  };
-  if (reach.limitedBy === 'control-range' && estimates.holdInHz !== null) beyond('hold-in', estimates.holdInHz);
-  beyond('lock-in', estimates.lockInHz);
-  beyond('pull-out', estimates.pullOutHz);
+  if (reach.limitedBy === 'control-range' && estimates.holdInHz !== null) warnBeyond(reach, 'hold-in', estimates.holdInHz, out);
+  warnBeyond(reach, 'lock-in', estimates.lockInHz, out);
+  warnBeyond(reach, 'pull-out', estimates.pullOutHz, out);
   return out;
+}
+
+/** The warning for an estimate beyond the reach (pushed to out); a module function, not a named closure per call (filters/loopFilter.ts, withRipple). */
+function warnBeyond(reach: FixedPointReach, what: string, hz: number | null, out: SpecWarning[]): void {
+  if (hz === null || hz <= reach.holdInHz * (1 + 1e-9)) return;
+  out.push({
+    field: reach.rangeField,
+    message: `the ${what} estimate ${fmtHz(hz)} is beyond the ±${fmtHz(reach.holdInHz)} the fixed-point loop can hold (${reach.limitedBy === 'control-range' ? 'its NCO control range' : 'K·F(0)'}); the bit-true loop cannot lock or stay locked that far out`,
+  });
 }
 
 /** The largest offset a scenario asks the loop to follow, and the scenario field that sets it (null: none, a phase step). */

@@ -136,33 +136,38 @@ export function discreteNoiseBandwidthHz(sections: readonly Sos[], k: number, sa
  */
 function discreteLoopStateSpace(sections: readonly Sos[], kt: number): { a: Float64Array; b: Float64Array; c: Float64Array; n: number } {
   const n = 1 + 2 * sections.length;
-  const step = (x: Float64Array, thetaIn: number, next: Float64Array) => {
-    let v = thetaIn - x[0]!;
-    for (let j = 0; j < sections.length; j++) {
-      const { b, a } = sections[j]!;
-      const w1 = x[1 + 2 * j]!;
-      const w2 = x[2 + 2 * j]!;
-      next[1 + 2 * j] = v - a[1] * w1 - a[2] * w2;
-      next[2 + 2 * j] = w1;
-      v = b[0] * v + (b[1] - a[1] * b[0]) * w1 + (b[2] - a[2] * b[0]) * w2;
-    }
-    next[0] = x[0]! + kt * v;
-  };
   const a = new Float64Array(n * n);
   const x = new Float64Array(n);
   const next = new Float64Array(n);
   for (let j = 0; j < n; j++) {
     x.fill(0);
     x[j] = 1;
-    step(x, 0, next);
+    stateSpaceStep(sections, kt, x, 0, next);
     for (let i = 0; i < n; i++) a[i * n + j] = next[i]!;
   }
   x.fill(0);
   const b = new Float64Array(n);
-  step(x, 1, b);
+  stateSpaceStep(sections, kt, x, 1, b);
   const c = new Float64Array(n);
   c[0] = 1;
   return { a, b, c, n };
+}
+
+/**
+ * One step of discreteLoopStateSpace's model from state x and input θi into next (a function of the
+ * module, not a closure bound to a name per call: under tsx each such closure has its name defined when made).
+ */
+function stateSpaceStep(sections: readonly Sos[], kt: number, x: Float64Array, thetaIn: number, next: Float64Array): void {
+  let v = thetaIn - x[0]!;
+  for (let j = 0; j < sections.length; j++) {
+    const { b, a } = sections[j]!;
+    const w1 = x[1 + 2 * j]!;
+    const w2 = x[2 + 2 * j]!;
+    next[1 + 2 * j] = v - a[1] * w1 - a[2] * w2;
+    next[2 + 2 * j] = w1;
+    v = b[0] * v + (b[1] - a[1] * b[0]) * w1 + (b[2] - a[2] * b[0]) * w2;
+  }
+  next[0] = x[0]! + kt * v;
 }
 
 /** ∫₀^∞ |H(j2πf)|² df = ½·∫₀^∞ h(t)² dt of a strictly proper H = num/den (highest power first); null if the solve fails. */

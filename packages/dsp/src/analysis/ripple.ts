@@ -27,6 +27,11 @@ export interface RippleFigures {
 }
 
 /** The 2·centerHz ripple figures of a designed loop filter. */
+/** |c| (a module function rather than a named closure per call: loopFilter.ts, withRipple). */
+function mag(c: { re: number; im: number }): number {
+  return Math.hypot(c.re, c.im);
+}
+
 export function rippleFigures(spec: LoopSpec, design: LoopFilterDesign, gain: LoopGain): RippleFigures {
   const fs = spec.sampleRateHz;
   const rippleHz = 2 * spec.centerHz;
@@ -35,7 +40,6 @@ export function rippleFigures(spec: LoopSpec, design: LoopFilterDesign, gain: Lo
   const fd = digitalResponse(design.sections, rippleHz, fs);
   const ha = closedLoop(analogLoopResponse(design.analogSections, gain.kRadPerS))(rippleHz);
   const hd = closedLoop(discreteLoopResponse(design.sections, gain.kRadPerS, fs))(rippleHz);
-  const mag = (c: { re: number; im: number }) => Math.hypot(c.re, c.im);
   return {
     rippleHz,
     aliasedRippleHz,

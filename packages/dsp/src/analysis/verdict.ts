@@ -37,6 +37,18 @@ export function marginChecks(discrete: LoopMargins, quantized: LoopMargins | nul
   return { phaseMarginMet: loops.every((m) => phaseMarginMet(m, minPm)), gainMarginMet: loops.every((m) => gainMarginMet(m, minGm)) };
 }
 
+/** Why a loop's margins miss the verdict's (pushed to reasons); a module function, not a named closure per call (filters/loopFilter.ts, withRipple). */
+function checkMargins(label: string, m: LoopMargins, minPm: number, minGm: number, reasons: string[]): void {
+  if (m.phaseMarginDeg === null) {
+    // No gain crossover: there is no frequency at which a phase margin is defined (margins.ts says why).
+    const why = m.notes[0] ?? '|L| does not cross 0 dB';
+    reasons.push(`the ${label} loop has no phase margin: ${why}; at least ${minPm}° is required`);
+  } else if (!phaseMarginMet(m, minPm)) {
+    reasons.push(`${label} phase margin ${m.phaseMarginDeg.toFixed(1)}° is below ${minPm}°`);
+  }
+  if (!gainMarginMet(m, minGm)) reasons.push(`${label} gain margin ${m.gainMarginDb?.toFixed(1)} dB is below ${minGm} dB`);
+}
+
 /** Stable / margins met, with every failure in words; the quantised loop counts as much as the designed one. */
 export function analysisVerdict(
   discrete: DiscreteLoopAnalysis,
@@ -52,18 +64,8 @@ export function analysisVerdict(
   if (q.error) stabilityReasons.push(`quantisation failed: ${q.error.message}`);
   else if (q.loop && !q.loop.stable) stabilityReasons.push('the loop with quantised coefficients is unstable');
   const marginReasons: string[] = [];
-  const check = (label: string, m: LoopMargins) => {
-    if (m.phaseMarginDeg === null) {
-      // No gain crossover: there is no frequency at which a phase margin is defined (margins.ts says why).
-      const why = m.notes[0] ?? '|L| does not cross 0 dB';
-      marginReasons.push(`the ${label} loop has no phase margin: ${why}; at least ${minPm}° is required`);
-    } else if (!phaseMarginMet(m, minPm)) {
-      marginReasons.push(`${label} phase margin ${m.phaseMarginDeg.toFixed(1)}° is below ${minPm}°`);
-    }
-    if (!gainMarginMet(m, minGm)) marginReasons.push(`${label} gain margin ${m.gainMarginDb?.toFixed(1)} dB is below ${minGm} dB`);
-  };
-  check('discrete', discrete.margins);
-  if (q.loop) check('quantised', q.loop.margins);
+  checkMargins('discrete', discrete.margins, minPm, minGm, marginReasons);
+  if (q.loop) checkMargins('quantised', q.loop.margins, minPm, minGm, marginReasons);
   const ncoReasons = nco.controlError ? [`NCO control scaling failed: ${nco.controlError.message}`] : [];
   const datapathReasons = q.datapath?.notes ?? [];
   const stable = stabilityReasons.length === 0;

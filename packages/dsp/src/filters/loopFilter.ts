@@ -37,22 +37,27 @@ export function secondOrderTimeConstants(spec: LoopSpec): TimeConstants | null {
   return r.ok ? r.tau : null; // unreachable targets are rejected by the schema
 }
 
+/**
+ * The loop filter's sections followed by the ripple filter's. A function of the module, not a closure
+ * bound to a name per call: under tsx (the server, the bench), which keeps names, each such closure has
+ * its name defined when it is made (Object.defineProperty, about 0.4 µs); the same holds for the other
+ * helpers of the analysis made module functions beside this one.
+ */
+function withRipple(loop: AnalogTf[], ripple: readonly AnalogTf[], rest: Omit<AnalogLoopFilter, 'sections' | 'loopFilterSectionCount'>): AnalogLoopFilter {
+  return { sections: [...loop, ...ripple], loopFilterSectionCount: loop.length, ...rest };
+}
+
 /** Analog F(s) of the spec as sections. Expects a spec that passed parseLoopSpec. */
 export function analogLoopFilter(spec: LoopSpec): AnalogLoopFilter {
   const ripple = spec.rippleFilter ? analogButterworthSections(spec.rippleFilter.order, spec.rippleFilter.cutoffHz) : [];
-  const withRipple = (loop: AnalogTf[], rest: Omit<AnalogLoopFilter, 'sections' | 'loopFilterSectionCount'>): AnalogLoopFilter => ({
-    sections: [...loop, ...ripple],
-    loopFilterSectionCount: loop.length,
-    ...rest,
-  });
   const f = spec.filter;
   switch (f.kind) {
     case 'single-pole': {
       const tauS = 1 / (2 * Math.PI * f.cutoffHz);
-      return withRipple([{ num: [1], den: [tauS, 1] }], { tau: { tauS }, integrators: 0 });
+      return withRipple([{ num: [1], den: [tauS, 1] }], ripple, { tau: { tauS }, integrators: 0 });
     }
     case 'butterworth':
-      return withRipple(analogButterworthSections(f.order, f.cutoffHz), { integrators: 0 });
+      return withRipple(analogButterworthSections(f.order, f.cutoffHz), ripple, { integrators: 0 });
     case 'lag-lead':
     case 'pi': {
       const tc = secondOrderTimeConstants(spec);
@@ -60,7 +65,7 @@ export function analogLoopFilter(spec: LoopSpec): AnalogLoopFilter {
       const { tau1S, tau2S } = tc;
       const section: AnalogTf =
         f.kind === 'pi' ? { num: [tau2S, 1], den: [tau1S, 0] } : { num: [tau2S, 1], den: [tau1S + tau2S, 1] };
-      return withRipple([section], { tau: { tau1S, tau2S }, integrators: f.kind === 'pi' ? 1 : 0 });
+      return withRipple([section], ripple, { tau: { tau1S, tau2S }, integrators: f.kind === 'pi' ? 1 : 0 });
     }
   }
 }

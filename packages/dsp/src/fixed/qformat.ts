@@ -39,9 +39,14 @@ export function autoFractionBits(
   maxFractionBits = 62,
 ): number | null {
   const maxAbs = values.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
-  const fits = (f: number) => values.every((v) => !overflows(roundReal(v * 2 ** f, rounding), wordBits));
   // Start just above the estimate W − 1 − ceil(log2 max|c|) and walk down; rounding can push a code over.
   let f = maxAbs === 0 ? maxFractionBits : Math.min(maxFractionBits, wordBits - 1 - Math.floor(Math.log2(maxAbs)) + 1);
-  for (; f >= 0; f--) if (fits(f)) return f;
+  for (; f >= 0; f--) if (fitsWord(values, f, wordBits, rounding)) return f;
   return null;
+}
+
+/** Every value rounds to a code inside the word at f fraction bits (a module function, not a named closure per call). */
+function fitsWord(values: readonly number[], f: number, wordBits: number, rounding: RoundingMode): boolean {
+  for (const v of values) if (overflows(roundReal(v * 2 ** f, rounding), wordBits)) return false;
+  return true;
 }

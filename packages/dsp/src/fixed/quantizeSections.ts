@@ -141,10 +141,13 @@ function collectTraps(q: QuantizedSection, fx: CoefficientFormat, fractionBits: 
     });
   }
   // The radii are written out only for a trap (number formatting is slow, slowest on its first use).
-  const radius = () => `quantised pole radius ${q.poleRadius.toPrecision(10)} (unquantised ${q.referencePoleRadius.toPrecision(10)})`;
   if (q.stability === 'on-circle') {
-    traps.push({ kind: 'pole-on-circle', section: q.index, message: `${where}: quantisation puts a pole on the unit circle, ${radius()}; the section no longer decays` });
+    traps.push({ kind: 'pole-on-circle', section: q.index, message: `${where}: quantisation puts a pole on the unit circle, ${radiusText(q)}; the section no longer decays` });
   } else if (q.stability === 'outside') {
-    traps.push({ kind: 'pole-outside-circle', section: q.index, message: `${where}: quantisation pushes a pole outside the unit circle, ${radius()}; the section is unstable` });
+    traps.push({ kind: 'pole-outside-circle', section: q.index, message: `${where}: quantisation pushes a pole outside the unit circle, ${radiusText(q)}; the section is unstable` });
   }
+}
+
+function radiusText(q: QuantizedSection): string {
+  return `quantised pole radius ${q.poleRadius.toPrecision(10)} (unquantised ${q.referencePoleRadius.toPrecision(10)})`;
 }
