@@ -1,12 +1,12 @@
 /**
  * The analysis worker's warm-up (workers/jobServer.ts, dspClient.ts): the client asks every worker it
- * starts to warm up, before any job; the worker analyses each dsp warm-up spec in a task of its own and
+ * starts to warm up, before any job; the worker analyses each of dsp's warm-up analyses (warmupSequence) in a task of its own and
  * posts nothing for them; a job sent before, during or after the warm-up gets the answer a worker that
  * never warmed up gives. The analysis is a pure function of the spec (no outside source), so the
  * answers must be equal to the last bit.
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { exampleSpecs, warmupSpecs, type LoopSpec } from '@loopwright/dsp';
+import { exampleSpecs, warmupSequence, type LoopSpec } from '@loopwright/dsp';
 import { DspClient } from '../src/workers/dspClient.ts';
 import { dspJobServer } from '../src/workers/jobServer.ts';
 import type { FromWorker, ToWorker } from '../src/workers/protocol.ts';
@@ -42,7 +42,7 @@ describe('the analysis worker warm-up', () => {
       tasks++;
     }
     await settle();
-    expect(tasks).toBe(warmupSpecs.length);
+    expect(tasks).toBe(warmupSequence.length);
     expect(posted).toEqual([]);
   });
 

@@ -1,15 +1,15 @@
 /**
  * The body of one started thread (analysis.ts startedThreadFirstCalls): imports the module graph,
- * runs the start-up warm-up the API's compute threads and the editor's worker run (every warm-up
- * spec analysed once, results dropped), says it is ready, and on the parent's word makes the first
- * analyzeDesign call of one demo spec. Times are this thread's CPU (Linux /proc/thread-self/schedstat)
+ * runs the start-up warm-up the API's compute threads and the editor's worker run (warmupSequence:
+ * the warm-up specs WARMUP_PASSES times, results dropped), says it is ready, and on the parent's
+ * word makes the first analyzeDesign call of one demo spec. Times are this thread's CPU (Linux /proc/thread-self/schedstat)
  * and wall clock; each CPU reading follows a 1 ms wait so the scheduler has booked the thread's time.
  */
 import { readFileSync } from 'node:fs';
 import { parentPort, workerData } from 'node:worker_threads';
 import { analyzeDesign } from '../src/planDesign.ts';
 import { exampleSpecs } from '../src/spec/examples.ts';
-import { warmupSpecs } from '../src/spec/warmupSpecs.ts';
+import { warmupSequence } from '../src/spec/warmupSpecs.ts';
 
 const pause = new Int32Array(new SharedArrayBuffer(4));
 function threadCpuMs(): number {
@@ -19,7 +19,7 @@ function threadCpuMs(): number {
 
 const importedCpuMs = threadCpuMs();
 const w0 = performance.now();
-for (const spec of warmupSpecs) analyzeDesign(spec as Parameters<typeof analyzeDesign>[0]);
+for (const spec of warmupSequence) analyzeDesign(spec as Parameters<typeof analyzeDesign>[0]);
 const warmUpMs = performance.now() - w0;
 const warmUpCpuMs = threadCpuMs() - importedCpuMs;
 

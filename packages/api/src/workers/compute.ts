@@ -16,7 +16,7 @@ import {
   type SimOptions,
   type SimResult,
   type SpecIssue,
-  warmupSpecs,
+  warmupSequence,
 } from '@loopwright/dsp';
 import { encodeJson } from '../encodedJson.ts';
 import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
@@ -188,12 +188,12 @@ function fieldFailure(err: FieldError): ComputeFailure & { readonly threadId: nu
 }
 
 /**
- * Analyses each warm-up spec (dsp warmupSpecs: every filter kind and the other branches a spec can
- * take) as a task would and drops the answers, so this thread's first real analysis runs compiled
+ * Analyses the warm-up specs (dsp warmupSequence: every filter kind and the other branches a spec can
+ * take, WARMUP_PASSES times) as a task would and drops the answers, so this thread's first real analysis runs compiled
  * code (the dsp bench's started-thread first call). No demo spec is among them.
  */
 export function warmUpComputeThread(): void {
-  for (const spec of warmupSpecs) runComputeTask({ kind: 'analysis', spec });
+  for (const spec of warmupSequence) runComputeTask({ kind: 'analysis', spec });
 }
 
 export default runComputeTask;

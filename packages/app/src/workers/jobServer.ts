@@ -4,12 +4,13 @@
  * progress, and posts the output moving the buffers it may move (movableBuffers.ts).
  *
  * A warm-up message has the worker analyse dsp's warm-up specs (every filter kind and the other
- * branches a spec can take; no demo spec) and drop the results, so the first analysis of the user's
- * design meets compiled code instead of the engine's first compile of every step (dsp bench:
- * 34-40 ms for a first call in a fresh engine, under 5 ms after the warm-up). One spec per task: a
+ * branches a spec can take, WARMUP_PASSES times: warmupSequence; no demo spec) and drop the results,
+ * so the first analysis of the user's design meets compiled code instead of the engine's first
+ * compile and optimisation of every step (dsp bench:
+ * 34-40 ms for a first call in a fresh engine, 1.5-4 ms after the warm-up). One spec per task: a
  * job sent meanwhile waits for one warm-up analysis at most and is answered as it would be without.
  */
-import { warmupSpecs, type LoopSpec } from '@loopwright/dsp';
+import { warmupSequence, type LoopSpec } from '@loopwright/dsp';
 import type { FromWorker, ToWorker } from './protocol.ts';
 import { MOVABLE_OUTPUT_JOBS, analyzeJob, runDspJob } from './dspJobs.ts';
 import { movableBuffers } from './movableBuffers.ts';
@@ -51,7 +52,7 @@ export function dspJobServer(post: PostToPage): (message: ToWorker) => void {
     if (message.type === 'cancel') running.get(message.id)?.abort();
     else if (message.type === 'warmUp') {
       if (warmUps.length > 0) return;
-      warmUps = warmupSpecs.map((spec) => spec as LoopSpec);
+      warmUps = warmupSequence.map((spec) => spec as LoopSpec);
       setTimeout(warmUpNext, 0);
     } else void run(message);
   };

@@ -96,3 +96,17 @@ export const warmupSpecs: readonly LoopSpecInput[] = [
     fixedPoint: { ...fixedPoint, coefficientBits: 3, dataBits: 8, accumulatorBits: 20 },
   },
 ];
+
+/**
+ * How many times a worker analyses the warm-up specs. One pass compiles every step, but the engine
+ * optimises a function only once it has run a while, so after one pass the first real analysis
+ * still set off most of the optimising compiles: measured in started threads (dsp bench, 8 threads
+ * per case, quiet 2-core machine), a demo spec's first call took 2.4-5.2 ms of the thread's CPU and
+ * 2.2-12.7 ms wall clock, the gap being the engine's background compiles taking the other core and
+ * more; after 4 passes 1.7-2.8 ms CPU and 1.5-3.9 ms wall (warm-up 75-110 ms CPU instead of 35-50).
+ * More passes gained little (6: 1.6-2.5 ms; 12: 1.6-2.2 ms).
+ */
+export const WARMUP_PASSES = 4;
+
+/** The analyses of a worker's warm-up, in order: WARMUP_PASSES passes over warmupSpecs. */
+export const warmupSequence: readonly LoopSpecInput[] = Array.from({ length: WARMUP_PASSES }, () => warmupSpecs).flat();

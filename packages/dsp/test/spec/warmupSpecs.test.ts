@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { loopFilterSchema, loopSpecSchema, parseLoopSpec, type LoopSpec } from '../../src/spec/schema.ts';
 import { WIDTH_LIMITS } from '../../src/spec/limits.ts';
 import { exampleSpecs } from '../../src/spec/examples.ts';
-import { warmupSpecs } from '../../src/spec/warmupSpecs.ts';
+import { WARMUP_PASSES, warmupSequence, warmupSpecs } from '../../src/spec/warmupSpecs.ts';
 import { analyzeDesign } from '../../src/planDesign.ts';
 
 const parsed = warmupSpecs.map((s) => {
@@ -59,5 +59,11 @@ describe('warm-up specs', () => {
     const analyses = parsed.map((s) => analyzeDesign(s));
     expect(analyses.some((a) => a.quantization.error !== null)).toBe(true);
     expect(analyses.some((a) => a.warnings.length > 0)).toBe(true);
+  });
+
+  it('are analysed WARMUP_PASSES times over, each pass in the same order (warmupSequence)', () => {
+    expect(WARMUP_PASSES).toBeGreaterThan(1);
+    expect(warmupSequence).toHaveLength(WARMUP_PASSES * warmupSpecs.length);
+    warmupSequence.forEach((spec, i) => expect(spec).toBe(warmupSpecs[i % warmupSpecs.length]));
   });
 });
