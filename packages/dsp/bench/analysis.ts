@@ -25,6 +25,14 @@ const FIRST_CALL_TARGET_MS = 5;
 const SCIPY_RATIO_TARGET = 1;
 const BATCH = 10;
 /**
+ * Batches of BATCH calls per example behind the CPU medians, the examples taking turns. On this
+ * shared virtual machine the same calls now and then run 25-50 % slower for a fifth of a second or
+ * so, a collection or compile of ours or not (seen in 500-call windows of one process, quiet
+ * machine, no major collection among them); 100 turns spread the examples over about 1.5 s, so such
+ * a stretch takes a minority of every example's batches and the median passes over it.
+ */
+const CPU_BATCHES = 100;
+/**
  * Rounds over every example before any call is timed. Without them the CPU medians read calls 301-600
  * of each example while the engine's background threads were still compiling (0.13-0.40 ms a call on
  * those threads, per-thread CPU; functions run once an analysis tier up late, and sooner or later when
@@ -55,7 +63,7 @@ export interface AnalysisBenchFigure {
    */
   readonly startedThreadFirstCallCpuMs: number | null;
   readonly startedThreadFirstCallMs: number | null;
-  /** The start-up warm-up itself in the same threads (every warm-up spec once), thread CPU and wall clock, medians. */
+  /** The start-up warm-up itself in the same threads (warmupSequence: every warm-up spec WARMUP_PASSES times), thread CPU and wall clock, medians. */
   readonly startedThreadWarmUpCpuMs: number | null;
   readonly startedThreadWarmUpMs: number | null;
   /** The first call in a fresh Node process, wall clock; median of FIRST_CALL_PROCESSES processes. Not what `met` reads. */
@@ -208,23 +216,34 @@ export async function runAnalysisBench(runs = 300, warmup = 100): Promise<{ scip
   const started = await startedThreadFirstCalls();
   const scipy = scipyFigures(200);
   for (let r = 0; r < STEADY_ROUNDS; r++) for (const e of exampleSpecs) analyzeDesign(e.spec);
-  const examples = exampleSpecs.map((e, index) => {
-    const times: number[] = [];
-    for (let i = 0; i < runs; i++) {
+  // The examples take turns, a call (wall clock) or a batch (CPU) each: measured one after the
+  // other, a slow stretch of the machine (CPU_BATCHES) could fill one example's whole window and moved
+  // its median by up to 60 % from run to run (mains 0.38-0.63 ms CPU on a quiet machine); taking
+  // turns, it falls on all four alike and the medians pass over it.
+  const timesOf = exampleSpecs.map((): number[] => []);
+  for (let i = 0; i < runs; i++) {
+    exampleSpecs.forEach((e, k) => {
       const t0 = performance.now();
       analyzeDesign(e.spec);
-      times.push(performance.now() - t0);
-    }
-    const cpu: number[] = [];
-    const threadCpu: number[] = [];
-    for (let b = 0; b < runs / BATCH; b++) {
+      timesOf[k]!.push(performance.now() - t0);
+    });
+  }
+  const cpuOf = exampleSpecs.map((): number[] => []);
+  const threadCpuOf = exampleSpecs.map((): number[] => []);
+  for (let b = 0; b < CPU_BATCHES; b++) {
+    exampleSpecs.forEach((e, k) => {
       const m0 = threadCpuMs();
       const c0 = cpuMs();
       for (let i = 0; i < BATCH; i++) analyzeDesign(e.spec);
-      cpu.push((cpuMs() - c0) / BATCH);
+      cpuOf[k]!.push((cpuMs() - c0) / BATCH);
       const m1 = threadCpuMs();
-      if (m0 !== null && m1 !== null) threadCpu.push((m1 - m0) / BATCH);
-    }
+      if (m0 !== null && m1 !== null) threadCpuOf[k]!.push((m1 - m0) / BATCH);
+    });
+  }
+  const examples = exampleSpecs.map((e, index) => {
+    const times = timesOf[index]!;
+    const cpu = cpuOf[index]!;
+    const threadCpu = threadCpuOf[index]!;
     const steady = times.slice(warmup).sort((a, b) => a - b);
     const at = (q: number) => steady[Math.min(steady.length - 1, Math.floor(q * steady.length))]!;
     const cpuMedianMs = round3(median(cpu));
