@@ -1,10 +1,12 @@
 /**
  * A warm compute pool (services/compute.ts `warm`) starts its threads with the pool and has each
- * analyse the warm-up specs before its first task. The warm-up must not change any answer: the
- * analysis is a pure function of the spec (no outside source), so a warm thread's first answers,
+ * analyse the warm-up specs and run the warm-up simulations before its first task. The warm-up must
+ * not change any answer: the analysis and the simulation are pure functions of the spec and the
+ * scenario (no outside source; noise from the scenario's seed), so a warm thread's first answers,
  * sent while it is still starting and warming up, equal a cold thread's and this thread's own.
  */
 import { exampleSpecs, tryPlanDesign } from '@loopwright/dsp';
+import { isDeepStrictEqual } from 'node:util';
 import { describe, expect, it } from 'vitest';
 import { loadConfig } from '../src/config.ts';
 import { ComputePool } from '../src/services/compute.ts';
@@ -36,6 +38,31 @@ describe('a warm compute pool', () => {
       });
       expect(warmAnswers).toEqual(here);
       expect(warmAnswers.at(-1)).toMatchObject({ ok: false, issues: [{ field: 'filter.naturalHz' }] });
+    } finally {
+      await Promise.all([warm.close(), cold.close()]);
+    }
+  }, 120_000);
+});
+
+describe('a warm compute pool\'s simulations', () => {
+  it('answer every demo spec, whole and as split halves, sent mid-warm-up, with the bytes of a cold thread', async () => {
+    const tasks = exampleSpecs.flatMap((e) => {
+      const base = { kind: 'simulation', spec: e.spec, scenario: { kind: 'tone', offsetHz: 1, durationS: 4096 / e.spec.sampleRateHz, snrDb: 40, seed: 7 } } as const;
+      return [
+        { ...base, options: { mode: 'both' } },
+        { ...base, options: { mode: 'float' }, half: true },
+        { ...base, options: { mode: 'bit-true' }, half: true },
+      ] as const;
+    });
+    const simulate = async (pool: ComputePool) => (await Promise.all(tasks.map((task) => pool.run(task)))).map(({ threadId: _threadId, ...rest }: ComputeOutcome) => rest);
+    const warm = new ComputePool({ threads: 1, timeoutMs: 120_000, maxQueue: 32, warm: true });
+    const cold = new ComputePool({ threads: 1, timeoutMs: 120_000, maxQueue: 32 });
+    try {
+      const warmAnswers = await simulate(warm);
+      const coldAnswers = await simulate(cold);
+      expect(warmAnswers.every((a) => a.ok)).toBe(true);
+      // Node's deep equality compares the answers' byte arrays as bytes (vitest's walks them element by element, seconds for these).
+      warmAnswers.forEach((answer, i) => expect(isDeepStrictEqual(answer, coldAnswers[i]), `task ${i}`).toBe(true));
     } finally {
       await Promise.all([warm.close(), cold.close()]);
     }

@@ -17,6 +17,7 @@ import {
   type SimResult,
   type SpecIssue,
   warmupSequence,
+  warmupSimulations,
 } from '@loopwright/dsp';
 import { encodeJson } from '../encodedJson.ts';
 import { runHandoffTask, type HandoffOutcome, type HandoffTask } from './handoffTasks.ts';
@@ -189,11 +190,18 @@ function fieldFailure(err: FieldError): ComputeFailure & { readonly threadId: nu
 
 /**
  * Analyses the warm-up specs (dsp warmupSequence: every filter kind and the other branches a spec can
- * take, WARMUP_PASSES times) as a task would and drops the answers, so this thread's first real analysis runs compiled
- * code (the dsp bench's started-thread first call). No demo spec is among them.
+ * take, WARMUP_PASSES times), then runs dsp's warm-up simulations (every scenario kind, as one task
+ * and, the first, as the two halves of a split run), each as a task would, and drops the answers, so
+ * this thread's first real analysis or simulation runs compiled code (the dsp bench's started-thread
+ * first call). No demo spec is among them.
  */
 export function warmUpComputeThread(): void {
   for (const spec of warmupSequence) runComputeTask({ kind: 'analysis', spec });
+  warmupSimulations.forEach(({ spec, scenario }, i) => {
+    const task: SimulationTask = { kind: 'simulation', spec, scenario, options: { mode: 'both' } };
+    runComputeTask(task);
+    if (i === 0) for (const mode of ['float', 'bit-true'] as const) runComputeTask({ ...task, options: { mode }, half: true });
+  });
 }
 
 export default runComputeTask;

@@ -5,11 +5,12 @@
  * user's first analysis meets compiled code whichever it picks (common practice, no source).
  */
 import { describe, expect, it } from 'vitest';
-import { loopFilterSchema, loopSpecSchema, parseLoopSpec, type LoopSpec } from '../../src/spec/schema.ts';
+import { loopFilterSchema, loopSpecSchema, parseLoopSpec, requireValidSpec, type LoopSpec } from '../../src/spec/schema.ts';
 import { WIDTH_LIMITS } from '../../src/spec/limits.ts';
 import { exampleSpecs } from '../../src/spec/examples.ts';
-import { WARMUP_PASSES, warmupSequence, warmupSpecs } from '../../src/spec/warmupSpecs.ts';
-import { analyzeDesign } from '../../src/planDesign.ts';
+import { WARMUP_PASSES, warmupSequence, warmupSimulations, warmupSpecs } from '../../src/spec/warmupSpecs.ts';
+import { analyzeDesign, planDesign, simulatePlan } from '../../src/planDesign.ts';
+import { parseScenario, scenarioSchema } from '../../src/spec/scenario.ts';
 
 const parsed = warmupSpecs.map((s) => {
   const r = parseLoopSpec(s);
@@ -65,5 +66,19 @@ describe('warm-up specs', () => {
     expect(WARMUP_PASSES).toBeGreaterThan(1);
     expect(warmupSequence).toHaveLength(WARMUP_PASSES * warmupSpecs.length);
     warmupSequence.forEach((spec, i) => expect(spec).toBe(warmupSpecs[i % warmupSpecs.length]));
+  });
+
+  it('simulate every scenario kind, briefly, on warm-up specs only, without a warning', () => {
+    const kinds = scenarioSchema.options.map((o) => o.shape.kind.value);
+    expect(new Set(warmupSimulations.map((w) => w.scenario.kind))).toEqual(new Set(kinds));
+    for (const { spec, scenario } of warmupSimulations) {
+      expect(warmupSpecs).toContain(spec);
+      const parsed = parseScenario(scenario);
+      if (!parsed.ok) throw new Error(`${scenario.kind}: ${parsed.issues.map((i) => i.message).join('; ')}`);
+      const result = simulatePlan(planDesign(requireValidSpec(spec)), parsed.scenario, { mode: 'both' });
+      expect(result.bitTrue).not.toBeNull();
+      expect(result.warnings).toEqual([]);
+      expect(result.sampleCount).toBeLessThanOrEqual(5000);
+    }
   });
 });
