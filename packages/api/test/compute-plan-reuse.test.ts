@@ -8,6 +8,7 @@ import { mainsSyncSpec, parseScenario, planDesign, requireValidSpec, simulatePla
 import { valueSymbol } from 'piscina';
 import { describe, expect, it } from 'vitest';
 import { runComputeTask } from '../src/workers/compute.ts';
+import { typedArraysAsArrays } from './typedArraysAsArrays.ts';
 
 const scenario = { kind: 'tone', offsetHz: 1, durationS: 0.5 };
 const options = { buckets: 100 };
@@ -23,7 +24,7 @@ function answered(spec: unknown): string {
 function fresh(spec: LoopSpec): string {
   const parsed = parseScenario(scenario);
   if (!parsed.ok) throw new Error('bad scenario');
-  return JSON.stringify(simulatePlan(planDesign(requireValidSpec(spec)), parsed.scenario, options));
+  return typedArraysAsArrays(simulatePlan(planDesign(requireValidSpec(spec)), parsed.scenario, options));
 }
 
 describe('the plan a compute thread keeps', () => {
@@ -46,7 +47,7 @@ describe('the plan a compute thread keeps', () => {
       if (!outcome.ok || outcome.kind !== 'simulationHalf' || !outcome.half.plan) throw new Error(`no half: ${JSON.stringify(outcome)}`);
       return new TextDecoder().decode(outcome.half.plan);
     };
-    const freshPlan = (spec: LoopSpec): string => JSON.stringify(planDesign(requireValidSpec(spec)).bitTrue);
+    const freshPlan = (spec: LoopSpec): string => typedArraysAsArrays(planDesign(requireValidSpec(spec)).bitTrue);
     expect(freshPlan(retuned)).not.toBe(freshPlan(mainsSyncSpec));
     for (const spec of [mainsSyncSpec, mainsSyncSpec, retuned, retuned, mainsSyncSpec, structuredClone(mainsSyncSpec)]) {
       expect(planText(spec)).toBe(freshPlan(spec));

@@ -1,6 +1,7 @@
 import { mainsSyncSpec, simulate } from '@loopwright/dsp';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { expectDeepClose } from './close.ts';
+import { typedArraysAsArrays } from './typedArraysAsArrays.ts';
 import { createTestOrg, csrf, signedInAgent, testConfig, useTestApp, type Agent, type TestOrg } from './helpers.ts';
 
 // Two compute threads, so a 'both' run is split over them (services/compute.ts runSimulation) where the machine has two cores.
@@ -24,16 +25,17 @@ describe('simulations in the worker pool', () => {
   it('simulates a stored design and returns what packages/dsp simulate computes, float and bit-true', async () => {
     const response = await reviewer.post(`/api/designs/${designId}/simulations`).set(csrf).send({ scenario }).expect(200);
     expect(response.body).toMatchObject({ designId, revision: 1, scenario });
-    const expected = JSON.parse(JSON.stringify(simulate(mainsSyncSpec, scenario, { mode: 'both', buckets: 1000 })));
+    const expected = JSON.parse(typedArraysAsArrays(simulate(mainsSyncSpec, scenario, { mode: 'both', buckets: 1000 })));
     expectDeepClose(response.body.simulation, expected);
     expect(response.body.simulation.float).toBeDefined();
     expect(response.body.simulation.bitTrue).toBeDefined();
-    // Encoded by the compute thread (src/encodedJson.ts), sent as res.json sends: its header, and JSON.stringify's text of the members in this order.
+    // Encoded by the compute thread (src/encodedJson.ts), sent as res.json sends: its header, and JSON.stringify's text of the members in this order, traces as arrays.
     expect(response.headers['content-type']).toBe('application/json; charset=utf-8');
     expect(Object.keys(response.body)).toEqual(['scenario', 'simulation', 'designId', 'revision']);
     expect(response.text).toBe(JSON.stringify(response.body));
     // Split or not, the bytes of the sequential run.
-    expect(response.text).toContain(`"simulation":${JSON.stringify(simulate(mainsSyncSpec, scenario, { mode: 'both', buckets: 1000 }))},`);
+    expect(response.text).toContain(`"simulation":${typedArraysAsArrays(simulate(mainsSyncSpec, scenario, { mode: 'both', buckets: 1000 }))},`);
+    expect(response.body.simulation.float.traces.phaseErrorRad.min).toHaveLength(1000);
   });
 
   it('simulates an unsaved spec from the body', async () => {
@@ -60,7 +62,8 @@ describe('simulations in the worker pool', () => {
     // 3 Hz is far inside the PI loop's pull-out range (≈ 14 Hz measured): both loops hold (G3).
     expect(float.metrics.sweep).toMatchObject({ turnS: 1, heldThroughout: true, lockLostHz: null });
     expect(bitTrue.metrics.sweep.heldThroughout).toBe(true);
-    expect(Object.keys(float.traces.inputFrequencyHz.max)).toHaveLength(50);
+    expect(float.traces.inputFrequencyHz.max).toHaveLength(50);
+    expect(float.traces.inputFrequencyHz.max.every((x: unknown) => typeof x === 'number')).toBe(true);
   });
 
     it('runs the simulation in a worker thread', async () => {
