@@ -10,13 +10,15 @@ import { isDeepStrictEqual } from 'node:util';
 import { describe, expect, it } from 'vitest';
 import { loadConfig } from '../src/config.ts';
 import { ComputePool } from '../src/services/compute.ts';
-import type { ComputeOutcome } from '../src/workers/compute.ts';
+import type { ComputeOutcome, ComputeTask } from '../src/workers/compute.ts';
 
 const specs = [...exampleSpecs.map((e) => e.spec), { ...exampleSpecs[0]!.spec, filter: { kind: 'pi', naturalHz: -5, damping: 0.7 } }];
 
-/** Each spec's analysis answer, all sent at once, without the thread id. */
-async function answers(pool: ComputePool): Promise<unknown[]> {
-  const outcomes = await Promise.all(specs.map((spec) => pool.run({ kind: 'analysis', spec })));
+const analyses: readonly ComputeTask[] = specs.map((spec) => ({ kind: 'analysis', spec }));
+
+/** Each task's answer, all sent at once, without the thread id. */
+async function answers(pool: ComputePool, tasks: readonly ComputeTask[] = analyses) {
+  const outcomes = await Promise.all(tasks.map((task) => pool.run(task)));
   return outcomes.map(({ threadId: _threadId, ...rest }: ComputeOutcome) => rest);
 }
 
@@ -54,12 +56,11 @@ describe('a warm compute pool\'s simulations', () => {
         { ...base, options: { mode: 'bit-true' }, half: true },
       ] as const;
     });
-    const simulate = async (pool: ComputePool) => (await Promise.all(tasks.map((task) => pool.run(task)))).map(({ threadId: _threadId, ...rest }: ComputeOutcome) => rest);
     const warm = new ComputePool({ threads: 1, timeoutMs: 120_000, maxQueue: 32, warm: true });
     const cold = new ComputePool({ threads: 1, timeoutMs: 120_000, maxQueue: 32 });
     try {
-      const warmAnswers = await simulate(warm);
-      const coldAnswers = await simulate(cold);
+      const warmAnswers = await answers(warm, tasks);
+      const coldAnswers = await answers(cold, tasks);
       expect(warmAnswers.every((a) => a.ok)).toBe(true);
       // Node's deep equality compares the answers' byte arrays as bytes (vitest's walks them element by element, seconds for these).
       warmAnswers.forEach((answer, i) => expect(isDeepStrictEqual(answer, coldAnswers[i]), `task ${i}`).toBe(true));
