@@ -17,7 +17,7 @@ const utf8 = new TextEncoder();
 /**
  * JSON text of a value as JSON.stringify writes it, except that each typed array (a simulation's
  * traces, the bit-true plan's sine table) is written as a JSON array of its numbers. JSON.stringify
- * treats a typed array as an ordinary object and writes {"0":…,"1":…} (ECMA-262, JSON.stringify:
+ * treats a typed array as an ordinary object and writes {"0":…,"1":…} (ECMA262, JSON.stringify:
  * SerializeJSONObject over its own enumerable keys), which a client reads as a map, not a list.
  */
 export function jsonText(value: unknown): string {

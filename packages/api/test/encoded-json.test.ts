@@ -1,6 +1,6 @@
 /**
  * A simulation's answer is encoded in the compute thread and wrapped on the event loop
- * (src/encodedJson.ts); the bytes must be JSON.stringify's (ECMA-262, JSON.stringify: members in
+ * (src/encodedJson.ts); the bytes must be JSON.stringify's (ECMA262, JSON.stringify: members in
  * insertion order, undefined members left out), but with every typed array written as the JSON array
  * of its numbers, which JSON.stringify itself writes as an object of its indices. The reference here
  * is JSON.stringify with a replacer, a way of its own from the encoder's copy.

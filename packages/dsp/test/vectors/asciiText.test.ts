@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { asciiString, MAX_DECIMAL_BYTES, putDecimal, putHex, putInt32, putText } from '../../src/vectors/asciiText.ts';
 import { mulberry32 } from '../reference/random.ts';
 
-// The reference is the language's own number formatting (ECMA-262, Number::toString with radix 10
+// The reference is the language's own number formatting (ECMA262, Number::toString with radix 10
 // and 16): the golden-vector files must hold the bytes String(v) and v.toString(16) would write.
 function written<T>(values: readonly T[], bytesEach: number, put: (buf: Uint8Array, at: number, v: T) => number): string {
   // One spare byte past the bound of every value, so a writer that passes its bound shows up as a wrong text, not a silent overwrite.
