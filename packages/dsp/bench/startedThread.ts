@@ -2,8 +2,9 @@
  * The body of one started thread (analysis.ts startedThreadFirstCalls): imports the module graph,
  * runs the start-up warm-up the API's compute threads and the editor's worker run (warmupSequence:
  * the warm-up specs WARMUP_PASSES times, results dropped), says it is ready, and on the parent's
- * word makes the first analyzeDesign call of one demo spec. Times are this thread's CPU (Linux /proc/thread-self/schedstat)
- * and wall clock; each CPU reading follows a 1 ms wait so the scheduler has booked the thread's time.
+ * word makes the first analyzeDesign call of one demo spec. Times are this thread's CPU (Linux
+ * /proc/thread-self/schedstat) and wall clock; each CPU reading follows a 1 ms wait so the
+ * scheduler has booked the thread's time.
  */
 import { readFileSync } from 'node:fs';
 import { parentPort, workerData } from 'node:worker_threads';

@@ -3,7 +3,7 @@ export { loopSpecSchema, parseLoopSpec, requireValidSpec, LoopSpecError, specWar
 export { WIDTH_LIMITS, EXACT_INTEGER_BITS, MAX_PHASE_BITS } from './spec/limits.ts';
 export { planDesign, tryPlanDesign, simulatePlan, simulatePlanAsync, measurePlanAcquisition, analyzeDesign, tryAnalyzeDesign, simulate, simulateAsync, goldenVectors } from './planDesign.ts';
 export { exampleSpecs, mainsSyncSpec, ultrasonicSinglePoleSpec, ultrasonicLagLeadSpec, ifFmDemodSpec } from './spec/examples.ts';
-export { warmupSpecs, warmupSequence, warmupSimulations, WARMUP_PASSES } from './spec/warmupSpecs.ts';
+export { warmupSequence, warmupSimulations } from './spec/warmupSpecs.ts';
 export { loopGain, ncoFundamentalAmplitude } from './analysis/loopGain.ts';
 export { datapathFigures } from './analysis/datapath.ts';
 export { datapathNoise } from './analysis/datapathNoise.ts';

@@ -6,8 +6,8 @@
  * A warm-up message has the worker analyse dsp's warm-up specs (every filter kind and the other
  * branches a spec can take, WARMUP_PASSES times: warmupSequence; no demo spec) and drop the results,
  * so the first analysis of the user's design meets compiled code instead of the engine's first
- * compile and optimisation of every step (dsp bench:
- * 34-40 ms for a first call in a fresh engine, 1.5-4 ms after the warm-up). One spec per task: a
+ * compile and optimisation of every step (dsp bench: 34-40 ms for a first call in a fresh engine,
+ * 1.5-4 ms after the warm-up). One spec per task: a
  * job sent meanwhile waits for one warm-up analysis at most and is answered as it would be without.
  */
 import { warmupSequence, type LoopSpec } from '@loopwright/dsp';

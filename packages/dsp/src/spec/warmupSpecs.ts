@@ -104,7 +104,7 @@ export const warmupSpecs: readonly LoopSpecInput[] = [
  * still set off most of the optimising compiles: measured in started threads (dsp bench, 8 threads
  * per case, quiet 2-core machine), a demo spec's first call took 2.4-5.2 ms of the thread's CPU and
  * 2.2-12.7 ms wall clock, the gap being the engine's background compiles taking the other core and
- * more; after 4 passes 1.7-2.8 ms CPU and 1.5-3.9 ms wall (warm-up 75-110 ms CPU instead of 35-50).
+ * more; after 4 passes 1.7-2.8 ms CPU and 1.5-3.9 ms wall (warm-up 65-110 ms CPU instead of 35-50).
  * More passes gained little (6: 1.6-2.5 ms; 12: 1.6-2.2 ms).
  */
 export const WARMUP_PASSES = 4;
@@ -119,7 +119,7 @@ export const warmupSequence: readonly LoopSpecInput[] = Array.from({ length: WAR
  * with and without noise, each a few thousand samples at its spec's rate (warm-up specs only, so no
  * demo spec meets compiled code it did not compile itself). Measured in started compute threads
  * (mains demo, a 2 s tone, mode both, quiet machine): the first simulation 21-23 ms of the thread's
- * CPU without them, 10 ms with them, the third 7.5 ms either way.
+ * CPU without them, 6.7-8.5 ms with them.
  */
 export const warmupSimulations: readonly { readonly spec: LoopSpecInput; readonly scenario: Scenario }[] = [
   { spec: warmupSpecs[0]!, scenario: { kind: 'tone', offsetHz: 20, durationS: 0.05, snrDb: 30, seed: 1 } },
